@@ -1,0 +1,79 @@
+// The typed result of reading a `.weave` text: what the author wrote, before any network theory.
+// Shared by the browser (editor diagnostics), the server and the CLI.
+
+export type Severity = "error" | "warning";
+
+export interface Diagnostic {
+  severity: Severity;
+  /** 1-based line and column of the start of the offending text. */
+  line: number;
+  column: number;
+  message: string;
+  /** Character offsets into the source, for editor underlines. */
+  from: number;
+  to: number;
+}
+
+export interface Term {
+  coefficient: number;
+  species: string;
+}
+
+/** A rate coefficient as written: a literal number or a parameter name. */
+export type RateRef = { kind: "value"; value: number } | { kind: "parameter"; name: string };
+
+export interface Step {
+  label: string | null;
+  /** Terms as written, fixed species included; the network drops those. */
+  reactants: Term[];
+  products: Term[];
+  reversible: boolean;
+  /** null when the author gave no rate coefficient (a warning, not an error). */
+  forward: RateRef | null;
+  backward: RateRef | null;
+  /** A custom rate law in mathjs syntax (irreversible steps only); null for mass action. */
+  law: string | null;
+  line: number;
+  from: number;
+  to: number;
+}
+
+export interface Mechanism {
+  steps: Step[];
+  /** Non-fixed species, in order of first appearance. */
+  species: string[];
+  /** External species held constant, with their concentrations. */
+  fixed: Record<string, number>;
+  parameters: Record<string, number>;
+  /** Initial concentrations that were given; every other species starts at 0. */
+  initial: Record<string, number>;
+}
+
+export interface ParseResult {
+  mechanism: Mechanism;
+  diagnostics: Diagnostic[];
+}
+
+/** A complex as species indices with positive integer coefficients, sorted by species index. */
+export interface ComplexVector {
+  text: string;
+  terms: { species: number; coefficient: number }[];
+}
+
+/** A directed reaction between complexes (a reversible step gives two; duplicates merged). */
+export interface Reaction {
+  from: number;
+  to: number;
+  /** Effective mass-action coefficient with fixed species folded in; null if not given or custom. */
+  rate: number | null;
+  /** Custom rate law (mathjs syntax) or null for mass action. */
+  law: string | null;
+  /** Indices into Mechanism.steps this reaction came from. */
+  steps: number[];
+}
+
+export interface Network {
+  species: string[];
+  complexes: ComplexVector[];
+  reactions: Reaction[];
+}

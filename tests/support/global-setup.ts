@@ -1,0 +1,2 @@
+// Database-backed tests get their server from scripts/test.mjs; pure unit tests need nothing here.
+export default function setup() {}
