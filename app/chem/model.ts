@@ -77,3 +77,19 @@ export interface Network {
   complexes: ComplexVector[];
   reactions: Reaction[];
 }
+
+/** One term of a polynomial: coefficient times the product of variables to the given powers. */
+export interface Monomial {
+  coefficient: number;
+  /** One exponent per variable, in the order of PolynomialOde.variables. */
+  exponents: number[];
+}
+
+/** A polynomial ODE x' = P(x) with parameters already substituted (from a `.ode` file). */
+export interface PolynomialOde {
+  variables: string[];
+  /** rhs[i] is the right-hand side of variables[i]. */
+  rhs: Monomial[][];
+  /** Initial values, 0 where none was given. */
+  initial: number[];
+}

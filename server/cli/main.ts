@@ -1,10 +1,10 @@
 // `npm run -s mechweave -- COMMAND ...`: a thin dispatcher; each command lives in its own module
 // exporting `run(args): Promise<number>` (the exit code). Exit 2 means bad usage.
 const commands: Record<string, () => Promise<{ run(args: string[]): Promise<number> }>> = {
-  analyze: () => import("./analyze.ts"),
-  simulate: () => import("./simulate.ts"),
-  lyapunov: () => import("./lyapunov.ts"),
-  realize: () => import("./realize.ts"),
+  analyze: () => import("./analyze"),
+  simulate: () => import("./simulate"),
+  lyapunov: () => import("./lyapunov"),
+  realize: () => import("./realize"),
 };
 
 const usage = `usage: mechweave <command> FILE [options]
