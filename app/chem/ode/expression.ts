@@ -1,0 +1,103 @@
+// Turns one mathjs expression tree into an exact polynomial, or says why it is not one.
+import type { MathNode } from "mathjs";
+import * as P from "./polynomial";
+import type { Polynomial } from "./polynomial";
+import * as Q from "./rational";
+
+export interface Scope {
+  variables: ReadonlyMap<string, number>;
+  parameters: ReadonlyMap<string, Q.Rational>;
+  /** Names that have an initial value but no equation, for a more helpful message. */
+  withoutEquation: ReadonlySet<string>;
+}
+
+/** Why an expression is not a polynomial; `name` lets the caller point at the offending word. */
+export class NotPolynomial extends Error {
+  constructor(
+    message: string,
+    readonly word: string | null = null,
+    readonly call = false,
+  ) {
+    super(message);
+  }
+}
+
+export function toPolynomial(node: MathNode, scope: Scope): Polynomial {
+  const n = scope.variables.size;
+  const recurse = (child: MathNode) => toPolynomial(child, scope);
+  const constantOf = (p: Polynomial) => P.constantValue(p);
+
+  switch (node.type) {
+    case "ConstantNode": {
+      const value = (node as unknown as { value: unknown }).value;
+      if (typeof value !== "number") throw new NotPolynomial(`only numbers are allowed, not ${JSON.stringify(value)}`);
+      return P.constant(n, Q.fromNumber(value));
+    }
+    case "SymbolNode": {
+      const name = (node as unknown as { name: string }).name;
+      const index = scope.variables.get(name);
+      if (index !== undefined) return P.variable(n, index);
+      const value = scope.parameters.get(name);
+      if (value) return P.constant(n, value);
+      if (name === "t") throw new NotPolynomial("time t may not appear: the ODE must be autonomous", name);
+      if (scope.withoutEquation.has(name)) throw new NotPolynomial(`${name} has an initial value but no equation`, name);
+      throw new NotPolynomial(`unknown name ${name}: give it an equation ${name}' = … or a value ${name} = …`, name);
+    }
+    case "ParenthesisNode":
+      return recurse((node as unknown as { content: MathNode }).content);
+    case "OperatorNode": {
+      const { op, args } = node as unknown as { op: string; args: MathNode[] };
+      if (args.length === 1 && (op === "-" || op === "+")) {
+        const inner = recurse(args[0]);
+        return op === "-" ? P.scale(inner, Q.neg(Q.ONE)) : inner;
+      }
+      if (args.length !== 2) throw new NotPolynomial(`the operator ${op} is not allowed`);
+      const [left, right] = args.map(recurse);
+      switch (op) {
+        case "+":
+          return P.add(left, right);
+        case "-":
+          return P.sub(left, right);
+        case "*":
+          return P.mul(left, right);
+        case "/": {
+          const divisor = constantOf(right);
+          if (!divisor) throw new NotPolynomial(`division by an expression in the variables (${args[1].toString()}) is not polynomial`);
+          if (Q.isZero(divisor)) throw new NotPolynomial("division by zero");
+          return P.scale(left, Q.div(Q.ONE, divisor));
+        }
+        case "^":
+          return power(node, left, right, args, n);
+        default:
+          throw new NotPolynomial(`the operator ${op} is not allowed`);
+      }
+    }
+    case "FunctionNode": {
+      const { fn, args } = node as unknown as { fn: { name: string }; args: MathNode[] };
+      const values = args.map((arg) => constantOf(recurse(arg)));
+      if (values.some((v) => v === null)) {
+        throw new NotPolynomial(`${fn.name}(…) of a variable is not polynomial`, fn.name, true);
+      }
+      // A function of constants only (sqrt(2), exp(1)) is a number; it is taken as the decimal it prints as.
+      const value = node.evaluate(Object.fromEntries([...scope.parameters].map(([k, v]) => [k, Q.toNumber(v)])));
+      if (typeof value !== "number" || !Number.isFinite(value)) throw new NotPolynomial(`${node.toString()} is not a finite number`, fn.name, true);
+      return P.constant(n, Q.fromNumber(value));
+    }
+    default:
+      throw new NotPolynomial(`${node.toString()} is not allowed in a polynomial`);
+  }
+}
+
+function power(node: MathNode, base: Polynomial, exponent: Polynomial, args: MathNode[], n: number): Polynomial {
+  const e = P.constantValue(exponent);
+  if (!e) throw new NotPolynomial(`a power with a variable exponent (${args[1].toString()}) is not polynomial`);
+  const baseValue = P.constantValue(base);
+  if (e.den === 1n && e.num >= 0n) return P.power(base, Number(e.num), n);
+  if (baseValue && !Q.isZero(baseValue)) {
+    if (e.den === 1n) return P.constant(n, Q.pow(baseValue, Number(e.num)));
+    return P.constant(n, Q.fromNumber(Q.toNumber(baseValue) ** Q.toNumber(e)));
+  }
+  throw new NotPolynomial(
+    `${node.toString()}: a variable may only be raised to a non-negative integer power, not ${Q.toText(e)}`,
+  );
+}
