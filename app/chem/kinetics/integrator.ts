@@ -1,0 +1,152 @@
+// The adaptive driver around a one-step method: step-size control, landing exactly on requested
+// times, sampling through dense output, statistics, cancellation, and the automatic switch from
+// the explicit pair to the stiff method when the explicit pair's stiffness test fires.
+
+import { DormandPrince } from "./dormand-prince";
+import { IntegrationFailure, SimulationCancelled } from "./errors";
+import type { OdeSystem } from "./ode-system";
+import { Rodas4 } from "./rosenbrock";
+import { errorNorm, type Stepper, type Tolerances } from "./stepper";
+
+export type Method = "auto" | "stiff" | "explicit";
+
+export interface IntegratorOptions extends Tolerances {
+  method: Method;
+  /** Accepted plus rejected steps before giving up. */
+  maxSteps?: number;
+  signal?: AbortSignal;
+}
+
+export interface StepStatistics {
+  steps: number;
+  rejected: number;
+  jacobians: number;
+}
+
+const DEFAULT_MAX_STEPS = 2_000_000;
+
+export class Integrator {
+  t = 0;
+  readonly y: Float64Array;
+  steps = 0;
+  rejected = 0;
+  /** When the automatic choice switched to the stiff method, the time it did; null otherwise. */
+  switchedAt: number | null = null;
+  private stepper: Stepper;
+  private explicit: DormandPrince | null;
+  private jacobiansBeforeSwitch = 0;
+  private h = 0;
+  private readonly maxSteps: number;
+
+  constructor(
+    private readonly system: OdeSystem,
+    private readonly options: IntegratorOptions,
+    initial: Float64Array = system.initial,
+  ) {
+    this.y = Float64Array.from(initial);
+    this.maxSteps = options.maxSteps ?? DEFAULT_MAX_STEPS;
+    this.explicit = options.method === "stiff" ? null : new DormandPrince(system, options);
+    this.stepper = this.explicit ?? new Rodas4(system, options);
+  }
+
+  get method(): "stiff" | "explicit" {
+    return this.stepper instanceof Rodas4 ? "stiff" : "explicit";
+  }
+
+  get statistics(): StepStatistics {
+    return { steps: this.steps, rejected: this.rejected, jacobians: this.jacobiansBeforeSwitch + this.stepper.jacobians };
+  }
+
+  /** Replaces the state (renormalisation, a new start); the step size is kept. */
+  setState(y: ArrayLike<number>): void {
+    this.y.set(y);
+    this.stepper.invalidate();
+  }
+
+  /**
+   * Integrates to exactly `until`. `sample(time, state)` is called for each of `times` (ascending,
+   * in (t, until]) with the dense-output state; the buffer is reused between calls.
+   */
+  advance(until: number, times: readonly number[] = [], sample?: (time: number, state: Float64Array) => void): void {
+    const { system, options } = this;
+    const state = new Float64Array(this.y.length);
+    let next = 0;
+    if (this.h === 0) this.h = this.initialStep(until - this.t);
+    while (this.t < until) {
+      if (options.signal?.aborted) throw new SimulationCancelled();
+      if (this.steps + this.rejected >= this.maxSteps) {
+        throw new IntegrationFailure(`gave up after ${this.maxSteps} steps at t = ${this.t.toPrecision(6)}`);
+      }
+      const remaining = until - this.t;
+      const landing = this.h >= remaining;
+      const h = landing ? remaining : this.h;
+      const error = this.stepper.attempt(this.y, h);
+      const accepted = error <= 1;
+      const proposal = this.stepper.nextStep(h, error, accepted);
+      if (!accepted) {
+        this.rejected++;
+        this.h = proposal;
+        if (this.h <= 4 * Number.EPSILON * Math.max(Math.abs(this.t), 1)) {
+          throw new IntegrationFailure(`step size underflow at t = ${this.t.toPrecision(6)}`);
+        }
+        continue;
+      }
+      this.stepper.accept();
+      const end = landing ? until : this.t + h;
+      while (next < times.length && times[next] <= end) {
+        const time = times[next++];
+        if (time === end) state.set(this.stepper.yNew);
+        else this.stepper.interpolate((time - this.t) / h, state);
+        sample?.(time, state);
+      }
+      this.y.set(this.stepper.yNew);
+      this.t = end;
+      this.steps++;
+      // A step shortened to land on `until` says little about the step the problem allows.
+      this.h = landing ? Math.max(proposal, this.h) : proposal;
+      if (system.nonNegative && clipNegatives(this.y)) this.stepper.invalidate();
+      if (this.explicit?.stiff && options.method === "auto") this.switchToStiff();
+    }
+  }
+
+  private switchToStiff(): void {
+    this.jacobiansBeforeSwitch += this.stepper.jacobians;
+    this.stepper = new Rodas4(this.system, this.options);
+    this.explicit = null;
+    this.switchedAt = this.t;
+  }
+
+  /** Hairer & Wanner's starting step (Solving ODEs I, §II.4): from |y|, |f| and a trial Euler step. */
+  private initialStep(span: number): number {
+    const { system, y } = this;
+    const n = y.length;
+    const f0 = new Float64Array(n);
+    system.rhs(y, f0);
+    const zero = new Float64Array(n);
+    const sizeY = errorNorm(y, y, zero, this.options);
+    const sizeF = errorNorm(f0, y, zero, this.options);
+    let h = sizeY <= 1e-10 || sizeF <= 1e-10 ? 1e-6 : 0.01 * (sizeY / sizeF);
+    h = Math.min(h, span);
+    const y1 = new Float64Array(n);
+    for (let i = 0; i < n; i++) y1[i] = y[i] + h * f0[i];
+    const f1 = new Float64Array(n);
+    system.rhs(y1, f1);
+    for (let i = 0; i < n; i++) f1[i] -= f0[i];
+    const curvature = Math.max(errorNorm(f1, y, zero, this.options) / h, sizeF);
+    const h1 = curvature <= 1e-15 ? Math.max(1e-6, h * 1e-3) : Math.pow(0.01 / curvature, 1 / this.stepper.order);
+    const start = Math.min(100 * h, h1, span);
+    return Number.isFinite(start) && start > 0 ? start : Math.min(1e-6, span);
+  }
+}
+
+/** Sets negative entries to 0; true when any changed. */
+function clipNegatives(y: Float64Array): boolean {
+  let changed = false;
+  for (let i = 0; i < y.length; i++) {
+    if (y[i] < 0) {
+      y[i] = 0;
+      changed = true;
+    }
+  }
+  return changed;
+}

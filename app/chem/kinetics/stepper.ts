@@ -1,0 +1,38 @@
+// What the integration driver needs from a one-step method: try a step, accept it, interpolate
+// inside it, and propose the next step size from the error estimate (each published method comes
+// with its own controller).
+
+export interface Stepper {
+  /** Classical order of the propagated solution (for the initial step size guess). */
+  readonly order: number;
+  /** The candidate state after the last `attempt`. */
+  readonly yNew: Float64Array;
+  /** Tries a step of size h from y; returns the error estimate in the tolerance norm (≤ 1 passes). */
+  attempt(y: Float64Array, h: number): number;
+  /** Keeps the last attempt: dense output now covers it; y must then be advanced to `yNew`. */
+  accept(): void;
+  /** The state at fraction theta ∈ [0, 1] of the last accepted step. */
+  interpolate(theta: number, out: Float64Array): void;
+  /** The next step size after a step of size h with error `error`. */
+  nextStep(h: number, error: number, accepted: boolean): number;
+  /** The state was changed from outside (clipping, renormalisation): cached values are stale. */
+  invalidate(): void;
+  readonly jacobians: number;
+}
+
+export interface Tolerances {
+  rtol: number;
+  atol: number;
+}
+
+/** Root-mean-square of e/(atol + rtol·max(|y|, |ŷ|)): the norm of Hairer & Wanner's codes. */
+export function errorNorm(error: Float64Array, y: Float64Array, yNew: Float64Array, { rtol, atol }: Tolerances): number {
+  let sum = 0;
+  for (let i = 0; i < error.length; i++) {
+    const scale = atol + rtol * Math.max(Math.abs(y[i]), Math.abs(yNew[i]));
+    const ratio = error[i] / scale;
+    sum += ratio * ratio;
+  }
+  const norm = Math.sqrt(sum / Math.max(1, error.length));
+  return Number.isNaN(norm) ? Number.POSITIVE_INFINITY : norm;
+}
