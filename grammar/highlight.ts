@@ -14,5 +14,6 @@ export const mechanismHighlighting = styleTags({
   '":" ","': t.separator,
   '"[" "]" InitialClose': t.squareBracket,
   '"{" "}"': t.brace,
-  "Zero/Number Zero/∅": t.atom,
+  "Zero/Number": t.atom,
+  '"∅"': t.atom,
 });

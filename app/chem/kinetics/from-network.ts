@@ -1,7 +1,7 @@
 // A reaction network under its kinetics, as a kinetic system: mass-action rates k·∏x^α over the
 // reactant complex, custom laws evaluated with mathjs over species, parameters and fixed species.
 
-import { compile, parse } from "mathjs";
+import { readLaw } from "~/chem/law";
 import type { Mechanism, Network } from "~/chem/model";
 import { SimulationInputError } from "./errors";
 import { compileKineticSystem, type CustomRate, type KineticSpec, type KineticSystem, type MonomialRate } from "./kinetic-system";
@@ -53,17 +53,10 @@ export function networkSystem(mechanism: Mechanism, network: Network): KineticSy
 }
 
 function customRate(law: string, mechanism: Mechanism, index: Map<string, number>): CustomRate {
-  let expression: ReturnType<typeof compile>;
-  let symbols: string[];
-  try {
-    expression = compile(law);
-    symbols = parse(law)
-      .filter((node) => "isSymbolNode" in node && node.isSymbolNode === true)
-      .map((node) => (node as unknown as { name: string }).name);
-  } catch (error) {
-    throw new SimulationInputError(`rate law { ${law} }: ${(error as Error).message}`);
-  }
-  const dependsOn = [...new Set(symbols.filter((name) => index.has(name)).map((name) => index.get(name) as number))];
+  const reading = readLaw(law);
+  if (!reading.ok) throw new SimulationInputError(`rate law { ${law} }: ${reading.message}`);
+  const expression = reading.node.compile();
+  const dependsOn = [...new Set(reading.symbols.filter((name) => index.has(name)).map((name) => index.get(name) as number))];
   const scope = new Map<string, number>([...Object.entries(mechanism.parameters), ...Object.entries(mechanism.fixed)]);
   const names = [...index.keys()];
   const evaluate = (y: Float64Array) => {

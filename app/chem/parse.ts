@@ -1,0 +1,503 @@
+// Reads `.weave` text into a Mechanism with diagnostics a chemist can act on. The Lezer parser
+// gives the tree (and its error recovery keeps later lines readable); this module gives meaning.
+import type { SyntaxNode, Tree } from "@lezer/common";
+import { parser } from "../../grammar/parser";
+import { lawConstants, readLaw } from "./law";
+import type { Diagnostic, Mechanism, ParseResult, RateRef, Severity, Step, Term } from "./model";
+
+export { printMechanism } from "./print";
+export { checkSourceLimits } from "./limits";
+
+export function parseMechanism(source: string): ParseResult {
+  return new MechanismReader(source).read();
+}
+
+/** Characters that can begin some token of the language; anything else is an unknown character. */
+const tokenStart = /[A-Za-z0-9\s"#+@,=:[\]{}<\-→⇌⇄∅]/;
+
+const statementHint =
+  "write a step (X + Y -> 2Y @ k), a parameter (k = 1.0), an initial concentration ([X]0 = 1.5) or a fixed species (fixed [A] = 2.0)";
+
+interface Span {
+  from: number;
+  to: number;
+}
+
+interface NameUse extends Span {
+  name: string;
+}
+
+interface Declared extends Span {
+  value: number;
+}
+
+/** A syntax problem; on each line only the most telling one is reported, to avoid cascades. */
+interface SyntaxProblem extends Span {
+  rank: number;
+  message: string;
+}
+
+class MechanismReader {
+  private readonly lineStarts: number[] = [0];
+  private readonly diagnostics: Diagnostic[] = [];
+  private readonly brokenAt: number[] = [];
+  private readonly steps: Step[] = [];
+  private readonly labels = new Map<string, number>();
+  private readonly parameters = new Map<string, Declared>();
+  private readonly parameterUses: NameUse[] = [];
+  private readonly lawUses: { step: Step; symbols: string[]; span: Span }[] = [];
+  private readonly speciesSeen = new Map<string, Span>();
+  private readonly initial = new Map<string, Declared>();
+  private readonly fixed = new Map<string, Declared>();
+
+  constructor(private readonly source: string) {
+    for (let i = 0; i < source.length; i++) if (source.charCodeAt(i) === 10) this.lineStarts.push(i + 1);
+  }
+
+  read(): ParseResult {
+    const tree = parser.parse(this.source);
+    this.collectSyntaxProblems(tree);
+    for (let node = tree.topNode.firstChild; node; node = node.nextSibling) {
+      if (this.isBroken(node)) continue;
+      if (node.name === "Step") this.readStep(node);
+      else if (node.name === "Parameter") this.readParameter(node);
+      else if (node.name === "Initial") this.readDeclaration(node, this.initial, "an initial concentration");
+      else if (node.name === "Fixed") this.readDeclaration(node, this.fixed, "a fixed concentration");
+    }
+    const mechanism = this.mechanism();
+    this.checkNames(mechanism);
+    this.checkDuplicateSteps(mechanism);
+    this.diagnostics.sort((a, b) => a.from - b.from || a.to - b.to);
+    return { mechanism, diagnostics: this.diagnostics };
+  }
+
+  // ---- positions and reporting
+
+  private report(severity: Severity, span: Span, message: string): void {
+    const { line, column } = this.position(span.from);
+    this.diagnostics.push({ severity, line, column, message, from: span.from, to: Math.max(span.to, span.from) });
+  }
+
+  private lineOf(offset: number): number {
+    let low = 0;
+    let high = this.lineStarts.length - 1;
+    while (low < high) {
+      const middle = (low + high + 1) >> 1;
+      if (this.lineStarts[middle] <= offset) low = middle;
+      else high = middle - 1;
+    }
+    return low + 1;
+  }
+
+  private position(offset: number): { line: number; column: number } {
+    const line = this.lineOf(offset);
+    return { line, column: offset - this.lineStarts[line - 1] + 1 };
+  }
+
+  private text(node: Span): string {
+    return this.source.slice(node.from, node.to);
+  }
+
+  // ---- syntax
+
+  private collectSyntaxProblems(tree: Tree): void {
+    const problems: SyntaxProblem[] = [];
+    tree.iterate({
+      enter: (ref) => {
+        if (ref.type.isError) problems.push(this.describeError(ref.node));
+        else if (ref.name === "QuotedName") {
+          const problem = this.quotedNameProblem(ref.node);
+          if (problem) problems.push(problem);
+        }
+      },
+    });
+    const bestPerLine = new Map<number, SyntaxProblem>();
+    for (const problem of problems) {
+      this.brokenAt.push(problem.from);
+      const line = this.lineOf(problem.from);
+      const best = bestPerLine.get(line);
+      if (!best || problem.rank < best.rank || (problem.rank === best.rank && problem.from < best.from)) {
+        bestPerLine.set(line, problem);
+      }
+    }
+    for (const problem of bestPerLine.values()) this.report("error", problem, problem.message);
+    this.brokenAt.sort((a, b) => a - b);
+  }
+
+  private isBroken(statement: SyntaxNode): boolean {
+    let low = 0;
+    let high = this.brokenAt.length;
+    while (low < high) {
+      const middle = (low + high) >> 1;
+      if (this.brokenAt[middle] < statement.from) low = middle + 1;
+      else high = middle;
+    }
+    return low < this.brokenAt.length && this.brokenAt[low] <= statement.to;
+  }
+
+  private quotedNameProblem(node: SyntaxNode): SyntaxProblem | null {
+    const text = this.text(node);
+    if (text.length < 2 || !text.endsWith('"')) {
+      return { from: node.from, to: node.to, rank: 1, message: `The quoted name ${text} is not closed: add " before the end of the line.` };
+    }
+    if (text === '""') return { from: node.from, to: node.to, rank: 1, message: "A quoted species name cannot be empty." };
+    return null;
+  }
+
+  private describeError(node: SyntaxNode): SyntaxProblem {
+    const end = Math.max(node.to, node.from + 1);
+    for (let i = node.from; i < end && i < this.source.length; i++) {
+      const char = this.source[i];
+      if (char === '"') break;
+      if (!tokenStart.test(char)) {
+        return {
+          from: i,
+          to: i + 1,
+          rank: 0,
+          message: `Unknown character "${char}": species names use letters, digits and _, or double quotes ("Fe3+").`,
+        };
+      }
+    }
+    return { from: node.from, to: node.to, rank: 2, message: this.expectation(node) };
+  }
+
+  /** What the text should have held at an error, judged from the token just before it. */
+  private expectation(error: SyntaxNode): string {
+    const before = this.tokenBefore(error);
+    if (!before || this.lineOf(before.to) !== this.lineOf(error.from)) {
+      return `This line cannot be read: ${statementHint}.`;
+    }
+    const statement = this.statementOf(error);
+    switch (before.name) {
+      case "+":
+        return "Expected a species after +.";
+      case "ForwardArrow":
+      case "ReversibleArrow":
+        return "Expected a complex after the arrow: species such as 2X + Y, or 0 for nothing.";
+      case "@":
+        return "Expected a rate coefficient after @: a number (1.5e-3), a name (k1), name = number, or a rate law in { }.";
+      case ",":
+        return "Expected the backward rate coefficient after the comma.";
+      case "=":
+        return "Expected a number here, such as 1.5 or 2e-3.";
+      case "{":
+      case "LawText":
+        return "Expected a rate law closed by }, such as { Vmax*S/(Km + S) }.";
+      case "[":
+        return "Expected a species name inside [ ].";
+      case "fixed":
+        return "Write a fixed species as fixed [A] = 2.0.";
+      case ":":
+        return "Expected a reaction step after the label.";
+      case "]":
+      case "InitialClose":
+        return "Expected = and a concentration.";
+    }
+    if (statement?.name === "Initial") return "Write an initial concentration as [X]0 = 1.5.";
+    if (statement?.name === "Fixed") return "Write a fixed species as fixed [A] = 2.0.";
+    if (statement?.name === "Parameter") return "Expected the end of the line after the parameter's value.";
+    if (before.parent?.name === "Rate" || before.parent?.parent?.name === "Rate" || before.name === "}") {
+      return "Expected the end of the line after the rate (a reversible step takes two, separated by a comma).";
+    }
+    const arrowSeen = statement?.getChild("ForwardArrow") ?? statement?.getChild("ReversibleArrow");
+    if (arrowSeen && arrowSeen.from < error.from) return "Expected + or @ and a rate coefficient here.";
+    return "Expected + or an arrow (-> or <=>) here.";
+  }
+
+  private tokenBefore(node: SyntaxNode): SyntaxNode | null {
+    let at: SyntaxNode | null = node;
+    while (at && !at.prevSibling) at = at.parent;
+    let previous = at?.prevSibling ?? null;
+    while (previous && previous.type.isError) previous = previous.lastChild ?? previous.prevSibling;
+    while (previous?.lastChild) previous = previous.lastChild;
+    return previous;
+  }
+
+  private statementOf(node: SyntaxNode): SyntaxNode | null {
+    let at: SyntaxNode | null = node;
+    while (at && at.parent && at.parent.name !== "Mechanism") at = at.parent;
+    return at && at.name !== "Mechanism" ? at : null;
+  }
+
+  // ---- statements
+
+  private readStep(node: SyntaxNode): void {
+    const [left, right] = node.getChildren("Complex");
+    const reactants = this.readComplex(left);
+    const products = this.readComplex(right);
+    if (!reactants || !products) return;
+    const reversible = node.getChild("ReversibleArrow") !== null;
+    if (complexKey(reactants) === complexKey(products)) {
+      this.report("error", node, `The same complex ${complexKey(reactants)} is on both sides: this step changes nothing.`);
+      return;
+    }
+    const step: Step = {
+      label: this.readLabel(node.getChild("Label")),
+      reactants,
+      products,
+      reversible,
+      forward: null,
+      backward: null,
+      law: null,
+      line: this.lineOf(node.from),
+      from: node.from,
+      to: node.to,
+    };
+    const ratePart = node.getChild("RatePart");
+    if (!ratePart) {
+      this.report("warning", node, "No rate coefficient: the structure is analysed, but a simulation needs one (add @ k1 or @ 1.5).");
+    } else if (!this.readRatePart(ratePart, step)) {
+      return;
+    }
+    this.steps.push(step);
+  }
+
+  private readLabel(node: SyntaxNode | null): string | null {
+    if (!node) return null;
+    const label = this.text(node);
+    const earlier = this.labels.get(label);
+    if (earlier !== undefined) {
+      this.report("error", node, `The label ${label} is already used on line ${earlier}.`);
+    } else {
+      this.labels.set(label, this.lineOf(node.from));
+    }
+    return label;
+  }
+
+  private readComplex(node: SyntaxNode): Term[] | null {
+    const zero = node.getChild("Zero");
+    if (zero) {
+      const number = zero.getChild("Number");
+      if (number && Number(this.text(number)) !== 0) {
+        this.report("error", number, `A complex is 0 or species such as 2X + Y; ${this.text(number)} alone is not a complex.`);
+        return null;
+      }
+      return [];
+    }
+    const terms: Term[] = [];
+    for (const term of node.getChildren("Term")) {
+      const species = this.readSpecies(term.getChild("Species")!);
+      const number = term.getChild("Number");
+      const coefficient = number ? this.readCoefficient(number, species) : 1;
+      if (coefficient === null) return null;
+      terms.push({ coefficient, species });
+    }
+    return terms;
+  }
+
+  private readCoefficient(node: SyntaxNode, species: string): number | null {
+    const text = this.text(node);
+    const value = Number(text);
+    if (value === 0) {
+      this.report("error", node, `A coefficient of 0 removes ${species}; leave the term out instead.`);
+    } else if (!Number.isInteger(value) || value < 0) {
+      this.report("error", node, `A coefficient counts molecules, so it is a positive whole number; ${text} is not.`);
+    } else if (!Number.isSafeInteger(value)) {
+      this.report("error", node, `The coefficient ${text} is too large.`);
+    } else {
+      return value;
+    }
+    return null;
+  }
+
+  private readSpecies(node: SyntaxNode): string {
+    const text = this.text(node);
+    const name = text.startsWith('"') ? text.slice(1, text.endsWith('"') ? -1 : undefined) : text;
+    if (!this.speciesSeen.has(name)) this.speciesSeen.set(name, node);
+    return name;
+  }
+
+  /** Fills the step's rates or law; false when the step cannot be used at all. */
+  private readRatePart(node: SyntaxNode, step: Step): boolean {
+    const law = node.getChild("Law");
+    if (law) return this.readLaw(law, step);
+    const rates = node.getChildren("Rate").map((rate) => this.readRate(rate));
+    const wanted = step.reversible ? 2 : 1;
+    if (rates.length < wanted) {
+      this.report("error", node, "A reversible step needs two rate coefficients, forward and backward: @ kf, kb.");
+    } else if (rates.length > wanted) {
+      this.report(
+        "error",
+        node,
+        step.reversible
+          ? "A reversible step takes exactly two rate coefficients, forward and backward."
+          : "An irreversible step takes one rate coefficient; for two directions use <=> and give both.",
+      );
+    }
+    step.forward = rates[0] ?? null;
+    step.backward = step.reversible ? (rates[1] ?? null) : null;
+    return true;
+  }
+
+  private readLaw(node: SyntaxNode, step: Step): boolean {
+    if (step.reversible) {
+      this.report("error", node, "A custom rate law describes one direction: write the two directions as separate steps with ->.");
+      return true;
+    }
+    const body = node.getChild("LawText");
+    if (!body) {
+      this.report("error", node, "The rate law is empty: write an expression inside { }.");
+      return false;
+    }
+    const text = this.text(body).trim();
+    const reading = readLaw(text);
+    if (!reading.ok) {
+      const at = body.from + reading.offset;
+      this.report("error", { from: at, to: body.to }, reading.message);
+      return false;
+    }
+    step.law = text;
+    this.lawUses.push({ step, symbols: reading.symbols, span: body });
+    return true;
+  }
+
+  private readRate(node: SyntaxNode): RateRef | null {
+    const name = node.getChild("ParameterName");
+    const number = node.getChild("Number");
+    if (!name) return number ? this.readRateValue(number) : null;
+    const parameter = this.text(name);
+    this.parameterUses.push({ name: parameter, from: name.from, to: name.to });
+    if (number) this.declareParameter(parameter, name, number);
+    return { kind: "parameter", name: parameter };
+  }
+
+  private readRateValue(node: SyntaxNode): RateRef | null {
+    const value = this.readNonNegative(node, "A rate coefficient");
+    return value === null ? null : { kind: "value", value };
+  }
+
+  private readNonNegative(node: SyntaxNode, what: string): number | null {
+    const text = this.text(node);
+    const value = Number(text);
+    if (!Number.isFinite(value)) {
+      this.report("error", node, `${what} must be a finite number; ${text} is not.`);
+      return null;
+    }
+    if (value < 0) {
+      this.report("error", node, `${what} cannot be negative; ${text} is.`);
+      return null;
+    }
+    return value;
+  }
+
+  private readParameter(node: SyntaxNode): void {
+    this.declareParameter(this.text(node.getChild("ParameterName")!), node.getChild("ParameterName")!, node.getChild("Number")!);
+  }
+
+  private declareParameter(name: string, at: SyntaxNode, number: SyntaxNode): void {
+    const value = this.readNonNegative(number, `The value of ${name}`);
+    if (value === null) return;
+    const earlier = this.parameters.get(name);
+    if (earlier) {
+      this.report("error", at, `${name} is already given a value on line ${this.lineOf(earlier.from)}.`);
+      return;
+    }
+    this.parameters.set(name, { value, from: at.from, to: at.to });
+  }
+
+  private readDeclaration(node: SyntaxNode, into: Map<string, Declared>, what: string): void {
+    const speciesNode = node.getChild("Species")!;
+    const species = this.readSpecies(speciesNode);
+    const value = this.readNonNegative(node.getChild("Number")!, `A concentration`);
+    if (value === null) return;
+    const earlier = into.get(species);
+    if (earlier) {
+      this.report("error", speciesNode, `${species} already has ${what} on line ${this.lineOf(earlier.from)}.`);
+      return;
+    }
+    into.set(species, { value, from: speciesNode.from, to: speciesNode.to });
+  }
+
+  // ---- whole-text checks
+
+  private mechanism(): Mechanism {
+    const species: string[] = [];
+    const seen = new Set<string>();
+    for (const step of this.steps) {
+      for (const { species: name } of [...step.reactants, ...step.products]) {
+        if (!seen.has(name) && !this.fixed.has(name)) species.push(name);
+        seen.add(name);
+      }
+    }
+    return {
+      steps: this.steps,
+      species,
+      fixed: valuesOf(this.fixed),
+      parameters: valuesOf(this.parameters),
+      initial: valuesOf(this.initial),
+    };
+  }
+
+  private checkNames(mechanism: Mechanism): void {
+    const inSteps = new Set(mechanism.steps.flatMap((step) => [...step.reactants, ...step.products].map((term) => term.species)));
+    const clashes = new Set<string>();
+    const parameterSpans: NameUse[] = [
+      ...[...this.parameters].map(([name, span]) => ({ name, from: span.from, to: span.to })),
+      ...this.parameterUses,
+    ].sort((a, b) => a.from - b.from);
+    for (const use of parameterSpans) {
+      if (this.speciesSeen.has(use.name) && !clashes.has(use.name)) {
+        clashes.add(use.name);
+        const where = this.lineOf(this.speciesSeen.get(use.name)!.from);
+        this.report("error", use, `${use.name} is a species (line ${where}), so it cannot also be a parameter; rename one of them.`);
+      }
+    }
+    const reported = new Set<string>();
+    for (const use of this.parameterUses) {
+      if (this.parameters.has(use.name) || clashes.has(use.name) || reported.has(use.name)) continue;
+      reported.add(use.name);
+      this.report("error", use, `${use.name} is used but never given a value: add a line ${use.name} = …`);
+    }
+    for (const { symbols, span } of this.lawUses) {
+      for (const symbol of symbols) {
+        const known = inSteps.has(symbol) || this.fixed.has(symbol) || this.parameters.has(symbol) || (lawConstants.has(symbol) && !this.speciesSeen.has(symbol));
+        if (!known) {
+          this.report("error", span, `The rate law uses ${symbol}, which is neither a species in a step nor a parameter with a value: add a line ${symbol} = …`);
+        }
+      }
+    }
+    for (const [name, span] of this.initial) {
+      if (this.fixed.has(name)) this.report("warning", span, `${name} is fixed; its initial concentration is not used.`);
+      else if (!inSteps.has(name)) this.report("warning", span, `${name} takes part in no step; its initial concentration is not used.`);
+    }
+    for (const [name, span] of this.fixed) {
+      if (!inSteps.has(name)) this.report("warning", span, `${name} is fixed but takes part in no step.`);
+    }
+  }
+
+  private checkDuplicateSteps(mechanism: Mechanism): void {
+    const firstLine = new Map<string, number>();
+    for (const step of mechanism.steps) {
+      const reactants = complexKey(step.reactants);
+      const products = complexKey(step.products);
+      const directions = step.reversible ? [`${reactants} -> ${products}`, `${products} -> ${reactants}`] : [`${reactants} -> ${products}`];
+      for (const reaction of directions) {
+        const line = firstLine.get(reaction);
+        if (line === undefined) {
+          firstLine.set(reaction, step.line);
+        } else {
+          this.report("warning", step, `This step repeats the reaction ${reaction} of line ${line}; they are merged and their rate coefficients add.`);
+        }
+      }
+      const unchanged = (terms: Term[]) => terms.filter((term) => !(term.species in mechanism.fixed));
+      if (complexKey(unchanged(step.reactants)) === complexKey(unchanged(step.products))) {
+        this.report("warning", step, "With its fixed species held constant this step changes no concentration; the structure leaves it out.");
+      }
+    }
+  }
+}
+
+/** A complex's identity independent of term order and repetition, e.g. `2X + Y`. */
+function complexKey(terms: Term[]): string {
+  const totals = new Map<string, number>();
+  for (const { species, coefficient } of terms) totals.set(species, (totals.get(species) ?? 0) + coefficient);
+  const names = [...totals.keys()].sort();
+  if (names.length === 0) return "0";
+  return names.map((name) => (totals.get(name) === 1 ? name : `${totals.get(name)}${name}`)).join(" + ");
+}
+
+function valuesOf(declared: Map<string, Declared>): Record<string, number> {
+  const values: Record<string, number> = {};
+  for (const [name, { value }] of declared) values[name] = value;
+  return values;
+}

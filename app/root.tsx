@@ -1,0 +1,111 @@
+import {
+  Form,
+  isRouteErrorResponse,
+  Link,
+  Links,
+  Meta,
+  NavLink,
+  Outlet,
+  Scripts,
+  ScrollRestoration,
+  useRouteLoaderData,
+} from "react-router";
+import type { Route } from "./+types/root";
+import "./app.css";
+import { Logo } from "./components/logo";
+import { ThemeToggle } from "./components/theme-toggle";
+import { getUser } from "./utils/auth.server";
+import { themeFromCookie } from "./utils/theme";
+
+export const links: Route.LinksFunction = () => [
+  { rel: "icon", href: "data:image/svg+xml,%3Csvg xmlns='http://www.w3.org/2000/svg' viewBox='0 0 16 16'%3E%3Ccircle cx='4' cy='8' r='3' fill='%230f6c6e'/%3E%3Ccircle cx='12' cy='8' r='3' fill='%23b55a22'/%3E%3C/svg%3E" },
+];
+
+export async function loader(args: Route.LoaderArgs) {
+  const user = await getUser(args);
+  return { user, theme: themeFromCookie(args.request.headers.get("Cookie")) };
+}
+
+export function Layout({ children }: { children: React.ReactNode }) {
+  const data = useRouteLoaderData<typeof loader>("root");
+  return (
+    <html lang="en" data-theme={data?.theme ?? undefined}>
+      <head>
+        <meta charSet="utf-8" />
+        <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <Meta />
+        <Links />
+        {/* Follow the system theme until the user picks one (no flash: runs before paint). */}
+        <script
+          dangerouslySetInnerHTML={{
+            __html: `if(!document.documentElement.dataset.theme&&matchMedia('(prefers-color-scheme: dark)').matches)document.documentElement.dataset.theme='dark'`,
+          }}
+        />
+      </head>
+      <body className="min-h-screen">
+        <Header user={data?.user ?? null} />
+        {children}
+        <ScrollRestoration />
+        <Scripts />
+      </body>
+    </html>
+  );
+}
+
+function Header({ user }: { user: { name: string; email: string } | null }) {
+  return (
+    <header className="border-b border-line bg-surface/80 backdrop-blur">
+      <div className="mx-auto flex h-14 max-w-7xl items-center gap-6 px-6">
+        <Link to={user ? "/dashboard" : "/"} className="flex items-center gap-2 text-ink no-underline">
+          <Logo />
+          <span className="text-base font-semibold tracking-tight">Mechweave</span>
+        </Link>
+        {user && (
+          <nav className="flex gap-4 text-sm">
+            <NavLink to="/dashboard" className={({ isActive }) => (isActive ? "font-medium text-ink" : "text-muted hover:text-ink")}>
+              Mechanisms
+            </NavLink>
+          </nav>
+        )}
+        <div className="ml-auto flex items-center gap-3 text-sm">
+          <ThemeToggle />
+          {user ? (
+            <>
+              <span className="text-muted" title={user.email}>{user.name}</span>
+              <Form method="post" action="/sign-out">
+                <button className="btn" type="submit">Sign out</button>
+              </Form>
+            </>
+          ) : (
+            <>
+              <Link to="/sign-in" className="btn">Sign in</Link>
+              <Link to="/sign-up" className="btn btn-primary">Create account</Link>
+            </>
+          )}
+        </div>
+      </div>
+    </header>
+  );
+}
+
+export default function App() {
+  return <Outlet />;
+}
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  let title = "Something went wrong";
+  let detail = "The server could not finish this request. Your saved work is safe; try again.";
+  if (isRouteErrorResponse(error)) {
+    title = error.status === 404 ? "Not found" : error.status === 403 ? "Not allowed" : `Error ${error.status}`;
+    detail = typeof error.data === "object" && error.data?.error ? error.data.error : error.statusText || detail;
+  } else if (import.meta.env.DEV && error instanceof Error) {
+    detail = error.message;
+  }
+  return (
+    <main className="mx-auto max-w-xl px-6 py-20">
+      <h1>{title}</h1>
+      <p className="mt-3 text-muted">{detail}</p>
+      <Link to="/dashboard" className="btn mt-6">Back to your mechanisms</Link>
+    </main>
+  );
+}

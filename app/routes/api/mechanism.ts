@@ -1,0 +1,14 @@
+import { requireRole } from "~/utils/permissions.server";
+import type { Route } from "./+types/mechanism";
+
+export async function loader(args: Route.LoaderArgs) {
+  const { mechanism, role } = await requireRole(args, args.params.id, "viewer");
+  return Response.json({
+    id: mechanism.id,
+    title: mechanism.title,
+    summary: mechanism.summary,
+    source: mechanism.source,
+    role,
+    updatedAt: mechanism.updatedAt,
+  });
+}

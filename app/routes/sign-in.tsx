@@ -1,0 +1,62 @@
+import { Form, Link, redirect, useNavigation } from "react-router";
+import { AuthFailure, signInForm } from "../../server/auth/authenticator";
+import { clearFailedSignIns, recordFailedSignIn, signInBlocked } from "../../server/auth/sign-in-limits";
+import { AuthCard } from "~/components/auth-card";
+import { getUser, safeNext, startUserSession } from "~/utils/auth.server";
+import type { Route } from "./+types/sign-in";
+
+export const meta: Route.MetaFunction = () => [{ title: "Sign in · Mechweave" }];
+
+export async function loader(args: Route.LoaderArgs) {
+  const next = safeNext(new URL(args.request.url).searchParams.get("next"));
+  if (await getUser(args)) throw redirect(next);
+  return { next };
+}
+
+export async function action(args: Route.ActionArgs) {
+  const { request, context } = args;
+  const form = await request.clone().formData();
+  const email = String(form.get("email") ?? "").trim().toLowerCase();
+  const next = safeNext(new URL(request.url).searchParams.get("next") ?? String(form.get("next") ?? ""));
+  const parsed = signInForm.safeParse(Object.fromEntries(form));
+  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message, email }, { status: 400 });
+  if (await signInBlocked(context.db, context.clientAddress, email)) {
+    return Response.json({ error: "Too many failed sign-ins. Wait 15 minutes and try again.", email }, { status: 429 });
+  }
+  try {
+    const user = await context.authenticator.authenticate("password", request);
+    await clearFailedSignIns(context.db, email);
+    return await startUserSession(args, user, next);
+  } catch (error) {
+    if (error instanceof Response) throw error;
+    if (!(error instanceof AuthFailure)) throw error;
+    await recordFailedSignIn(context.db, context.clientAddress, email);
+    return Response.json({ error: error.message, email }, { status: 401 });
+  }
+}
+
+export default function SignIn({ loaderData, actionData }: Route.ComponentProps) {
+  const busy = useNavigation().state !== "idle";
+  const failed = actionData as { error?: string; email?: string } | undefined;
+  return (
+    <AuthCard
+      title="Sign in"
+      lead="Welcome back to your mechanisms."
+      footer={<>New here? <Link to="/sign-up">Create an account</Link>.</>}
+    >
+      <Form method="post" className="space-y-4">
+        <input type="hidden" name="next" value={loaderData.next} />
+        <div>
+          <label className="label" htmlFor="email">E-mail</label>
+          <input className="field" id="email" name="email" type="email" autoComplete="email" required defaultValue={failed?.email} />
+        </div>
+        <div>
+          <label className="label" htmlFor="password">Password</label>
+          <input className="field" id="password" name="password" type="password" autoComplete="current-password" required />
+        </div>
+        {failed?.error && <p className="notice-error" role="alert">{failed.error}</p>}
+        <button className="btn btn-primary w-full" type="submit" disabled={busy}>{busy ? "Signing in…" : "Sign in"}</button>
+      </Form>
+    </AuthCard>
+  );
+}

@@ -1,0 +1,57 @@
+import { Form, Link, redirect, useNavigation } from "react-router";
+import { AuthFailure } from "../../server/auth/authenticator";
+import { AuthCard } from "~/components/auth-card";
+import { getUser, safeNext, startUserSession } from "~/utils/auth.server";
+import type { Route } from "./+types/sign-up";
+
+export const meta: Route.MetaFunction = () => [{ title: "Create an account · Mechweave" }];
+
+export async function loader(args: Route.LoaderArgs) {
+  const next = safeNext(new URL(args.request.url).searchParams.get("next"));
+  if (await getUser(args)) throw redirect(next);
+  return { next };
+}
+
+export async function action(args: Route.ActionArgs) {
+  const form = await args.request.clone().formData();
+  const next = safeNext(String(form.get("next") ?? ""));
+  const echo = { name: String(form.get("name") ?? ""), email: String(form.get("email") ?? "") };
+  try {
+    const user = await args.context.authenticator.authenticate("sign-up", args.request);
+    return await startUserSession(args, user, next);
+  } catch (error) {
+    if (error instanceof AuthFailure) return Response.json({ error: error.message, ...echo }, { status: 400 });
+    throw error;
+  }
+}
+
+export default function SignUp({ loaderData, actionData }: Route.ComponentProps) {
+  const busy = useNavigation().state !== "idle";
+  const failed = actionData as { error?: string; name?: string; email?: string } | undefined;
+  return (
+    <AuthCard
+      title="Create your account"
+      lead="Free for your own mechanisms; invite co-authors when you are ready."
+      footer={<>Have an account? <Link to="/sign-in">Sign in</Link>.</>}
+    >
+      <Form method="post" className="space-y-4">
+        <input type="hidden" name="next" value={loaderData.next} />
+        <div>
+          <label className="label" htmlFor="name">Name</label>
+          <input className="field" id="name" name="name" autoComplete="name" required defaultValue={failed?.name} />
+        </div>
+        <div>
+          <label className="label" htmlFor="email">E-mail</label>
+          <input className="field" id="email" name="email" type="email" autoComplete="email" required defaultValue={failed?.email} />
+        </div>
+        <div>
+          <label className="label" htmlFor="password">Password</label>
+          <input className="field" id="password" name="password" type="password" autoComplete="new-password" minLength={10} required />
+          <p className="mt-1 text-xs text-muted">At least 10 characters.</p>
+        </div>
+        {failed?.error && <p className="notice-error" role="alert">{failed.error}</p>}
+        <button className="btn btn-primary w-full" type="submit" disabled={busy}>{busy ? "Creating…" : "Create account"}</button>
+      </Form>
+    </AuthCard>
+  );
+}

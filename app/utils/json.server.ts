@@ -1,0 +1,24 @@
+import type { z } from "zod";
+import { httpError } from "./permissions.server";
+
+const MAX_BODY_BYTES = 2 * 1024 * 1024;
+
+/** Parses and validates a JSON body, throwing the API's error shape (400, 413) on bad input. */
+export async function readJson<T>(request: Request, schema: z.ZodType<T>): Promise<T> {
+  const declared = Number(request.headers.get("Content-Length") ?? 0);
+  if (declared > MAX_BODY_BYTES) throw httpError(413, "The request body is over 2 MiB.");
+  const text = await request.text();
+  if (Buffer.byteLength(text) > MAX_BODY_BYTES) throw httpError(413, "The request body is over 2 MiB.");
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch {
+    throw httpError(400, "The request body is not valid JSON.");
+  }
+  const parsed = schema.safeParse(value);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw httpError(400, issue.path.length ? `${issue.path.join(".")}: ${issue.message}` : issue.message);
+  }
+  return parsed.data;
+}

@@ -1,0 +1,45 @@
+// Sessions live in PostgreSQL; the browser holds only a signed, httpOnly, SameSite=Lax id.
+import { randomBytes } from "node:crypto";
+import { eq } from "drizzle-orm";
+import { createCookie, createSessionStorage, type SessionStorage } from "react-router";
+import type { Db } from "../db/client";
+import { sessions } from "../db/schema";
+
+export interface SessionData {
+  userId: string;
+}
+
+export type SessionStore = SessionStorage<SessionData>;
+
+const MAX_AGE_SECONDS = 60 * 60 * 24 * 30;
+
+export function createSessionStore(db: Db, secret: string, secure: boolean): SessionStore {
+  const cookie = createCookie("mw_session", {
+    httpOnly: true,
+    sameSite: "lax",
+    path: "/",
+    secure,
+    secrets: [secret],
+    maxAge: MAX_AGE_SECONDS,
+  });
+  const expiry = (expires?: Date) => expires ?? new Date(Date.now() + MAX_AGE_SECONDS * 1000);
+  return createSessionStorage<SessionData>({
+    cookie,
+    async createData(data, expires) {
+      const id = randomBytes(24).toString("base64url");
+      await db.insert(sessions).values({ id, userId: data.userId ?? null, data, expiresAt: expiry(expires) });
+      return id;
+    },
+    async readData(id) {
+      const row = await db.query.sessions.findFirst({ where: eq(sessions.id, id) });
+      if (!row || row.expiresAt < new Date()) return null;
+      return row.data as Partial<SessionData>;
+    },
+    async updateData(id, data, expires) {
+      await db.update(sessions).set({ data, userId: data.userId ?? null, expiresAt: expiry(expires) }).where(eq(sessions.id, id));
+    },
+    async deleteData(id) {
+      await db.delete(sessions).where(eq(sessions.id, id));
+    },
+  });
+}

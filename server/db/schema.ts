@@ -1,0 +1,80 @@
+// Every table of Mechweave. drizzle-kit generates the SQL in drizzle/ from this file.
+import { sql } from "drizzle-orm";
+import { index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uuid } from "drizzle-orm/pg-core";
+
+export const roleEnum = pgEnum("member_role", ["editor", "viewer"]);
+
+export const users = pgTable("users", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  email: text("email").notNull().unique(),
+  name: text("name").notNull(),
+  passwordHash: text("password_hash").notNull(),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+export const sessions = pgTable(
+  "sessions",
+  {
+    id: text("id").primaryKey(),
+    userId: uuid("user_id").references(() => users.id, { onDelete: "cascade" }),
+    data: jsonb("data").notNull().default(sql`'{}'::jsonb`),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("sessions_user_idx").on(t.userId)],
+);
+
+export const mechanisms = pgTable(
+  "mechanisms",
+  {
+    id: text("id").primaryKey(),
+    title: text("title").notNull(),
+    summary: text("summary").notNull().default(""),
+    source: text("source").notNull().default(""),
+    ownerId: uuid("owner_id").notNull().references(() => users.id),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("mechanisms_owner_idx").on(t.ownerId)],
+);
+
+/** Editors and viewers; the owner is mechanisms.owner_id, so there is always exactly one. */
+export const memberships = pgTable(
+  "memberships",
+  {
+    mechanismId: text("mechanism_id").notNull().references(() => mechanisms.id, { onDelete: "cascade" }),
+    userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    role: roleEnum("role").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.mechanismId, t.userId] }), index("memberships_user_idx").on(t.userId)],
+);
+
+/** Audit trail of who gave or took which role; kept when a mechanism is deleted. */
+export const roleChanges = pgTable(
+  "role_changes",
+  {
+    id: integer("id").primaryKey().generatedAlwaysAsIdentity(),
+    mechanismId: text("mechanism_id").notNull(),
+    actorId: uuid("actor_id").references(() => users.id, { onDelete: "set null" }),
+    subjectId: uuid("subject_id").references(() => users.id, { onDelete: "set null" }),
+    subjectEmail: text("subject_email").notNull(),
+    action: text("action", { enum: ["grant", "change", "revoke", "transfer", "create", "delete"] }).notNull(),
+    fromRole: text("from_role"),
+    toRole: text("to_role"),
+    at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("role_changes_mechanism_idx").on(t.mechanismId)],
+);
+
+/** Failed sign-ins, counted per client address and per account to slow down guessing. */
+export const failedSignIns = pgTable(
+  "failed_sign_ins",
+  {
+    id: integer("id").primaryKey().generatedAlwaysAsIdentity(),
+    address: text("address").notNull(),
+    email: text("email").notNull(),
+    at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("failed_sign_ins_address_idx").on(t.address, t.at), index("failed_sign_ins_email_idx").on(t.email, t.at)],
+);

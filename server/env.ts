@@ -1,0 +1,26 @@
+// Environment, parsed once at boot. Nothing here reaches the browser.
+import { z } from "zod";
+
+const schema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("production"),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default("127.0.0.1"),
+  DATABASE_URL: z.string().url().optional(),
+  SMTP_URL: z.string().url().optional(),
+  /** Public base URL used in e-mails and view links. */
+  PUBLIC_URL: z.string().url().optional(),
+  SESSION_SECRET: z.string().min(16).optional(),
+  /** Seed the demo workspace even into an external database. */
+  SEED_DEMO: z.enum(["0", "1"]).optional(),
+});
+
+export type Env = z.infer<typeof schema>;
+
+export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const parsed = schema.safeParse(source);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ");
+    throw new Error(`bad environment: ${problems}`);
+  }
+  return parsed.data;
+}

@@ -1,0 +1,64 @@
+// Boots Mechweave: database (embedded PostgreSQL unless DATABASE_URL), migrations, demo seed,
+// services, and one http.Server for the app (and, later, the collaboration WebSocket).
+import http from "node:http";
+import path from "node:path";
+import { createAuthenticator } from "./auth/authenticator";
+import { createSessionStore } from "./auth/sessions";
+import { createApp } from "./app";
+import { applyMigrations, connect, ensureDatabase } from "./db/client";
+import { readEnv } from "./env";
+import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
+import { sessionSecret } from "./secret";
+import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
+
+const projectRoot = path.resolve(import.meta.dirname, "..");
+const env = readEnv();
+const dev = process.argv.includes("--dev");
+
+let embedded: EmbeddedPostgres | undefined;
+let databaseUrl = env.DATABASE_URL;
+if (!databaseUrl) {
+  embedded = await startEmbeddedPostgres(clusterDir(projectRoot, "postgres"));
+  databaseUrl = await ensureDatabase(embedded.adminUrl, "mechweave");
+}
+const database = connect(databaseUrl);
+await applyMigrations(database.db, projectRoot);
+if ((embedded || env.SEED_DEMO === "1") && (await seedDemoIfEmpty(database.db))) {
+  console.log("Seeded the demo workspace.");
+}
+
+const services = {
+  db: database.db,
+  sessions: createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), false),
+  authenticator: createAuthenticator(database.db),
+  development: dev || env.NODE_ENV !== "production" || !env.SMTP_URL,
+};
+
+const server = http.createServer();
+const vite = dev
+  ? await (await import("vite")).createServer({ root: projectRoot, server: { middlewareMode: true, hmr: { server } } })
+  : undefined;
+server.on("request", await createApp({ projectRoot, services, vite }));
+
+server.listen(env.PORT, env.HOST, () => {
+  const address = server.address();
+  const port = typeof address === "object" && address ? address.port : env.PORT;
+  console.log(`Mechweave listening on http://${env.HOST}:${port}`);
+  if (embedded) {
+    console.log(`Demo accounts (password ${DEMO_PASSWORD}): ${demoAccounts.map((a) => a.email).join(", ")}`);
+  }
+});
+
+let stopping = false;
+async function shutdown() {
+  if (stopping) return;
+  stopping = true;
+  server.closeAllConnections();
+  await new Promise((resolve) => server.close(resolve));
+  await vite?.close();
+  await database.close();
+  embedded?.stop();
+  process.exit(0);
+}
+process.on("SIGINT", shutdown);
+process.on("SIGTERM", shutdown);

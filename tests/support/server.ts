@@ -1,0 +1,73 @@
+// A real Mechweave server process on a free port, against its own database.
+import { spawn, type ChildProcess } from "node:child_process";
+import path from "node:path";
+import { createTestDatabase } from "./database";
+
+const projectRoot = path.resolve(import.meta.dirname, "../..");
+
+export interface TestServer {
+  url: string;
+  databaseUrl: string;
+  /** Ends the process the way an operator would (SIGTERM). */
+  stop(): Promise<void>;
+  /** kill -9: no clean shutdown at all. */
+  crash(): Promise<void>;
+  /** Starts a fresh process on the same database (after crash or stop). */
+  restart(): Promise<void>;
+  logs(): string;
+}
+
+function launch(databaseUrl: string, extraEnv: Record<string, string>, port = 0) {
+  const child = spawn(process.execPath, ["--import", "tsx", "server/main.ts"], {
+    cwd: projectRoot,
+    env: { ...process.env, NODE_ENV: "test", DATABASE_URL: databaseUrl, PORT: String(port), HOST: "127.0.0.1", SEED_DEMO: "0", ...extraEnv },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  let output = "";
+  const ready = new Promise<string>((resolve, reject) => {
+    const onData = (chunk: Buffer) => {
+      output += chunk.toString();
+      const match = output.match(/listening on (http:\/\/[\d.]+:\d+)/);
+      if (match) resolve(match[1]);
+    };
+    child.stdout!.on("data", onData);
+    child.stderr!.on("data", (chunk: Buffer) => (output += chunk.toString()));
+    child.on("exit", (code) => reject(new Error(`server exited (${code}) before listening:\n${output}`)));
+  });
+  return { child, ready, output: () => output };
+}
+
+function waitExit(child: ChildProcess) {
+  return new Promise<void>((resolve) => (child.exitCode !== null ? resolve() : child.once("exit", () => resolve())));
+}
+
+export async function startTestServer(extraEnv: Record<string, string> = {}): Promise<TestServer & { dispose(): Promise<void> }> {
+  const database = await createTestDatabase();
+  let current = launch(database.url, extraEnv);
+  const url = await current.ready;
+  const port = Number(new URL(url).port);
+  let logs = "";
+  const server = {
+    url,
+    databaseUrl: database.url,
+    async stop() {
+      current.child.kill("SIGTERM");
+      await waitExit(current.child);
+    },
+    async crash() {
+      current.child.kill("SIGKILL");
+      await waitExit(current.child);
+    },
+    async restart() {
+      logs += current.output();
+      current = launch(database.url, extraEnv, port);
+      await current.ready;
+    },
+    logs: () => logs + current.output(),
+    async dispose() {
+      await server.stop();
+      await database.drop();
+    },
+  };
+  return server;
+}
