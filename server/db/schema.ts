@@ -1,6 +1,12 @@
 // Every table of Mechweave. drizzle-kit generates the SQL in drizzle/ from this file.
 import { sql } from "drizzle-orm";
-import { index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uuid } from "drizzle-orm/pg-core";
+import { bigserial, bigint, customType, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uuid } from "drizzle-orm/pg-core";
+
+const bytea = customType<{ data: Uint8Array; driverData: Buffer }>({
+  dataType: () => "bytea",
+  toDriver: (value) => Buffer.from(value),
+  fromDriver: (value) => new Uint8Array(value),
+});
 
 export const roleEnum = pgEnum("member_role", ["editor", "viewer"]);
 
@@ -77,4 +83,42 @@ export const failedSignIns = pgTable(
     at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index("failed_sign_ins_address_idx").on(t.address, t.at), index("failed_sign_ins_email_idx").on(t.email, t.at)],
+);
+
+/** Every accepted Yjs update of a mechanism's shared document, appended as it arrives. */
+export const docUpdates = pgTable(
+  "doc_updates",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    mechanismId: text("mechanism_id").notNull().references(() => mechanisms.id, { onDelete: "cascade" }),
+    update: bytea("update").notNull(),
+    at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("doc_updates_mechanism_idx").on(t.mechanismId, t.id)],
+);
+
+/** The compacted document: all updates up to and including `throughUpdate` merged into one. */
+export const docStates = pgTable("doc_states", {
+  mechanismId: text("mechanism_id").primaryKey().references(() => mechanisms.id, { onDelete: "cascade" }),
+  state: bytea("state").notNull(),
+  throughUpdate: bigint("through_update", { mode: "number" }).notNull(),
+  at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Versions: automatic on structural change, named by editors, or made by a restore. */
+export const snapshots = pgTable(
+  "snapshots",
+  {
+    id: integer("id").primaryKey().generatedAlwaysAsIdentity(),
+    mechanismId: text("mechanism_id").notNull().references(() => mechanisms.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: ["auto", "named", "restore"] }).notNull(),
+    name: text("name"),
+    source: text("source").notNull(),
+    state: bytea("state").notNull(),
+    /** Invariants at this version (species, complexes, deficiency…), for diffs without re-parsing. */
+    summary: jsonb("summary").notNull(),
+    authorId: uuid("author_id").references(() => users.id, { onDelete: "set null" }),
+    at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("snapshots_mechanism_idx").on(t.mechanismId, t.at)],
 );
