@@ -39,10 +39,12 @@ export type SearchOutcome =
 
 /**
  * Rates are solved for after scaling each column so that max |M_j| = 1, where these bounds mean
- * "at most 10⁴ times the column's largest coefficient" and "a reaction counts from 10⁻⁶ of it".
+ * "at most 10⁴ times the column's largest coefficient" and "a reaction counts from 10⁻⁴ of it".
+ * The solver's feasibility tolerance must stay far below LOWER, or δ = 1 with a = 0 passes.
  */
 const UPPER = 1e4;
-const LOWER = 1e-6;
+const LOWER = 1e-4;
+const TOLERANCE = 1e-9;
 
 let solver: ReturnType<typeof highsLoader> | null = null;
 const loadSolver = () => (solver ??= highsLoader());
@@ -99,6 +101,8 @@ function solveColumn(
   const solution = highs.solve(columnModel(candidates, target.map((t) => Q.toNumber(t) / scale), objective), {
     time_limit: seconds,
     output_flag: false,
+    mip_feasibility_tolerance: TOLERANCE,
+    primal_feasibility_tolerance: TOLERANCE,
   });
   if (solution.Status === "Infeasible") return "infeasible";
   const values = candidates.map((_, k) => solution.Columns[`a${k}`]?.Primal);

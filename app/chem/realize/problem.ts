@@ -20,11 +20,15 @@ export interface RealizationProblem {
  */
 export function realizationProblem(ode: Pick<ExactOde, "variables" | "rhs">, extraComplexes: readonly number[][] = []): RealizationProblem {
   const canonical = canonicalRealization({ ...ode, initial: [] });
-  const seen = new Map<string, number[]>();
-  for (const complex of [...canonical.reactions.flatMap((r) => [r.reactant, r.product]), ...extraComplexes]) {
-    if (!seen.has(exponentKey(complex))) seen.set(exponentKey(complex), [...complex]);
-  }
-  const complexes = [...seen.values()];
+  return problemOnComplexes(ode, [...canonical.reactions.flatMap((r) => [r.reactant, r.product]), ...extraComplexes]);
+}
+
+/** The search restricted to the given complexes; each monomial of the ODE must be one of them. */
+export function problemOnComplexes(ode: Pick<ExactOde, "variables" | "rhs">, candidates: readonly number[][]): RealizationProblem {
+  const unique = new Map(candidates.map((c) => [exponentKey(c), [...c]]));
+  const missing = ode.rhs.flatMap((p) => [...p.keys()]).find((key) => !unique.has(key));
+  if (missing !== undefined) throw new RangeError(`the monomial with exponents (${missing}) is not among the candidate complexes`);
+  const complexes = [...unique.values()];
   const targets = complexes.map((complex) => ode.rhs.map((p) => p.get(exponentKey(complex))?.coefficient ?? Q.ZERO));
   return { species: [...ode.variables], complexes, targets };
 }
