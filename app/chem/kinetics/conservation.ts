@@ -30,7 +30,7 @@ export function conservationBasis(stoichiometry: number[][]): ConservationBasis 
   const n = stoichiometry.length;
   const m = n === 0 ? 0 : stoichiometry[0].length;
   const rows = Array.from({ length: m }, (_, r) => stoichiometry.map((row) => row[r]));
-  const scale = Math.max(1, ...rows.flat().map(Math.abs));
+  const scale = rows.reduce((largest, row) => row.reduce((a, x) => Math.max(a, Math.abs(x)), largest), 1);
   const pivotColumns: number[] = [];
   let rank = 0;
   for (let column = 0; column < n && rank < m; column++) {

@@ -1,0 +1,60 @@
+import { describe, expect, it } from "vitest";
+import { brusselator, lotkaVolterra, massAction } from "../../../tests/fixtures/dynamics/models";
+import { conservationBasis } from "./conservation";
+import { networkEquilibrium, polynomialEquilibrium } from "./equilibrium";
+
+describe("equilibria", () => {
+  it("A ⇌ B ⇌ C settles at the detailed-balance solution, stable within its class", () => {
+    // Deficiency zero and reversible: the unique positive equilibrium of the class satisfies
+    // detailed balance, B/A = k1/k-1 and C/B = k2/k-2 (Horn & Jackson 1972; Feinberg 1987).
+    const { mechanism, network } = massAction(
+      ["A", "B", "C"],
+      [
+        [{ A: 1 }, { B: 1 }, 2],
+        [{ B: 1 }, { A: 1 }, 1],
+        [{ B: 1 }, { C: 1 }, 3],
+        [{ C: 1 }, { B: 1 }, 0.5],
+      ],
+      { A: 1 },
+    );
+    const a = 1 / (1 + 2 + 12);
+    for (const start of [undefined, [0.5, 0.3, 0.2]]) {
+      const result = networkEquilibrium(mechanism, network, { start });
+      expect(result.converged).toBe(true);
+      expect(result.state.A).toBeCloseTo(a, 10);
+      expect(result.state.B).toBeCloseTo(2 * a, 10);
+      expect(result.state.C).toBeCloseTo(12 * a, 10);
+      expect(result.stability).toBe("stable");
+      expect(result.eigenvalues).toHaveLength(2);
+      expect(result.summary).toMatch(/positive equilibrium.*stable/);
+    }
+  });
+
+  it("the conservation basis of Michaelis–Menten holds E + C and S + C + P", () => {
+    // Columns: E + S → C, C → E + S, C → E + P over species E, S, C, P.
+    const { laws } = conservationBasis([
+      [-1, 1, 1],
+      [-1, 1, 0],
+      [1, -1, -1],
+      [0, 0, 1],
+    ]);
+    expect(laws).toHaveLength(2);
+    const stoichiometry = [[-1, -1, 1, 0], [1, 1, -1, 0], [1, 0, -1, 1]];
+    for (const law of laws) for (const column of stoichiometry) expect(law.reduce((s, w, i) => s + w * column[i], 0)).toBeCloseTo(0, 12);
+  });
+
+  it("the Brusselator's equilibrium (1, 3) is unstable: b = 3 > 1 + a² (Prigogine & Lefever 1968)", () => {
+    const result = polynomialEquilibrium(brusselator(), { start: [1.2, 2.5] });
+    expect(result.state.x).toBeCloseTo(1, 10);
+    expect(result.state.y).toBeCloseTo(3, 10);
+    expect(result.stability).toBe("unstable");
+    expect(result.summary).toMatch(/unstable.*oscillat/);
+  });
+
+  it("Lotka–Volterra's centre (1, 1) is left undecided by linearisation", () => {
+    const result = polynomialEquilibrium(lotkaVolterra(), { start: [0.9, 1.2] });
+    expect(result.state.x).toBeCloseTo(1, 10);
+    expect(result.stability).toBe("undecided");
+    expect(result.eigenvalues.map((e) => Math.abs(e.im))).toEqual([expect.closeTo(1, 8), expect.closeTo(1, 8)]);
+  });
+});
