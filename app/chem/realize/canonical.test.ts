@@ -12,7 +12,10 @@ import * as Q from "../ode/rational";
 import { multiplyByMonomial, productOfAllVariables, translate } from "../ode/transform";
 import { canonicalRealization } from "./canonical";
 import { inducedRhs, maxOrder } from "./mass-action";
-import { toWeaveText } from "./weave-text";
+import { buildNetwork } from "../network";
+import { parseMechanism } from "../parse";
+import { massActionOf } from "./from-network";
+import { mechanismText } from "./weave-text";
 
 const exactOf = (name: string) => parseOde(readFileSync(`tests/fixtures/ode/${name}`, "utf8")).exact!;
 const effects = (ode: ExactOde) => negativeCrossEffects(ode).map(({ equation, term }) => ({ equation, term }));
@@ -39,7 +42,7 @@ describe("canonical realization", () => {
   it("Lotka–Volterra gives one step per term: X → 2X, X + Y → Y, X + Y → X + 2Y, Y → 0", () => {
     // The textbook scheme X + Y → 2Y merges the two middle steps; that is a different (sparser)
     // realization, found by the sparse search in milp.test.ts, not the canonical one.
-    const text = toWeaveText(canonicalRealization(exactOf("lotka-volterra.ode")), "canonical");
+    const text = mechanismText(canonicalRealization(exactOf("lotka-volterra.ode")), "canonical");
     expect(text.split("\n").slice(1, -1)).toEqual(["x + y -> y @ 0.5", "x -> 2x @ 2", "x + y -> x + 2y @ 0.5", "y -> 0 @ 3"]);
   });
 
@@ -53,6 +56,13 @@ describe("canonical realization", () => {
     expect(maxOrder(mechanism)).toBe(5);
     expect(sameRhs(inducedRhs(mechanism), ode.rhs)).toBe(true);
     expect(mechanism.reactions.length).toBe([...ode.rhs].reduce((n, p) => n + p.size, 0));
+
+    // The mechanism text, read back by the language's own parser: its induced ODE has, term by
+    // term, the transformed ODE's coefficients as the doubles the text carries (8/3 has no decimal).
+    const read = parseMechanism(mechanismText(mechanism, "Lorenz, shifted and multiplied"));
+    expect(read.diagnostics).toEqual([]);
+    const asWritten = (p: P.Polynomial) => P.fromMonomials(P.toMonomials(p));
+    expect(sameRhs(inducedRhs(massActionOf(buildNetwork(read.mechanism))), ode.rhs.map(asWritten))).toBe(true);
   });
 
   it("translation keeps beta = 8/3 exact: z' gains the constant (-30)*(-40) + 8/3*10", () => {

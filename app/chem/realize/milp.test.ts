@@ -13,11 +13,12 @@ import { searchRealization } from "./milp";
 import { problemOnComplexes, realizationProblem } from "./problem";
 import { searchWeaklyReversible } from "./weakly-reversible";
 import { isWeaklyReversible } from "./strong-components";
-import { complexText } from "./weave-text";
+import { mechanismText } from "./weave-text";
 
 const deadline = () => Date.now() + 20_000;
+/** The steps without their rates, sorted: the graph of a realization. */
 const steps = (m: MassActionMechanism) =>
-  m.reactions.map((r) => `${complexText(r.reactant, m.species)} -> ${complexText(r.product, m.species)}`).sort();
+  mechanismText(m, "").split("\n").slice(1, -1).map((line) => line.replace(/ @ .*/, "")).sort();
 
 // Feinberg's network over A, B, C, D, E with invented rate coefficients.
 const v = (a: number, b: number, c: number, d: number, e: number) => [a, b, c, d, e];

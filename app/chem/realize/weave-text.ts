@@ -1,32 +1,38 @@
-// Writes a mass-action mechanism as `.weave` text. Rates are decimals (the language has no
-// fractions); where that decimal is not the exact rate, the exact fraction follows as a comment.
+// A mass-action mechanism as `.weave` text, through the language's one printer. The language has
+// decimal rates only, so each rate is its nearest double (8/3 → 2.6666666666666665).
+import type { Mechanism, Term } from "../model";
+import { printMechanism } from "../print";
 import * as Q from "../ode/rational";
+import type { Rational } from "../ode/rational";
 import type { MassActionMechanism } from "./mass-action";
 
-const PLAIN_NAME = /^[A-Za-z][A-Za-z0-9_]*$/;
+const terms = (exponents: readonly number[], species: readonly string[]): Term[] =>
+  exponents.flatMap((coefficient, i) => (coefficient === 0 ? [] : [{ coefficient, species: species[i] }]));
 
-function speciesText(name: string): string {
-  return PLAIN_NAME.test(name) ? name : `"${name}"`;
+/** Initial concentrations are kept where positive: a mechanism has no negative concentrations. */
+export function toMechanism(mechanism: MassActionMechanism, initial: readonly Rational[] = []): Mechanism {
+  return {
+    steps: mechanism.reactions.map((r) => ({
+      label: null,
+      reactants: terms(r.reactant, mechanism.species),
+      products: terms(r.product, mechanism.species),
+      reversible: false,
+      forward: { kind: "value", value: Q.toNumber(r.rate) },
+      backward: null,
+      law: null,
+      line: 0,
+      from: 0,
+      to: 0,
+    })),
+    species: [...mechanism.species],
+    fixed: {},
+    parameters: {},
+    initial: Object.fromEntries(
+      initial.flatMap((value, i) => (Q.sign(value) > 0 ? [[mechanism.species[i], Q.toNumber(value)]] : [])),
+    ),
+  };
 }
 
-export function complexText(exponents: readonly number[], species: readonly string[]): string {
-  const terms = exponents.flatMap((e, i) => {
-    if (e === 0) return [];
-    const name = speciesText(species[i]);
-    // `2e` would read as a number in exponent notation, so such names get a space.
-    return [e === 1 ? name : /^[eE]/.test(name) ? `${e} ${name}` : `${e}${name}`];
-  });
-  return terms.length ? terms.join(" + ") : "0";
-}
-
-export function rateText(rate: Q.Rational): string {
-  const decimal = String(Q.toNumber(rate));
-  return Q.equals(Q.fromNumber(Number(decimal)), rate) ? decimal : `${decimal}  # ${Q.toText(rate)}`;
-}
-
-export function toWeaveText(mechanism: MassActionMechanism, heading: string): string {
-  const lines = mechanism.reactions.map(
-    (r) => `${complexText(r.reactant, mechanism.species)} -> ${complexText(r.product, mechanism.species)} @ ${rateText(r.rate)}`,
-  );
-  return [`# ${heading}`, ...lines].join("\n") + "\n";
+export function mechanismText(mechanism: MassActionMechanism, heading: string, initial: readonly Rational[] = []): string {
+  return `${heading.replace(/^/gm, "# ")}\n${printMechanism(toMechanism(mechanism, initial))}`;
 }
