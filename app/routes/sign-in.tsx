@@ -1,5 +1,5 @@
 import { Form, Link, redirect, useNavigation } from "react-router";
-import { AuthFailure, signInForm } from "../../server/auth/authenticator";
+import { isAuthFailure, signInForm } from "../../server/auth/authenticator";
 import { clearFailedSignIns, recordFailedSignIn, signInBlocked } from "../../server/auth/sign-in-limits";
 import { AuthCard } from "~/components/auth-card";
 import { getUser, safeNext, startUserSession } from "~/utils/auth.server";
@@ -29,7 +29,7 @@ export async function action(args: Route.ActionArgs) {
     return await startUserSession(args, user, next);
   } catch (error) {
     if (error instanceof Response) throw error;
-    if (!(error instanceof AuthFailure)) throw error;
+    if (!isAuthFailure(error)) throw error;
     await recordFailedSignIn(context.db, context.clientAddress, email);
     return Response.json({ error: error.message, email }, { status: 401 });
   }

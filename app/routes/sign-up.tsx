@@ -1,5 +1,5 @@
 import { Form, Link, redirect, useNavigation } from "react-router";
-import { AuthFailure } from "../../server/auth/authenticator";
+import { isAuthFailure } from "../../server/auth/authenticator";
 import { AuthCard } from "~/components/auth-card";
 import { getUser, safeNext, startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/sign-up";
@@ -20,7 +20,7 @@ export async function action(args: Route.ActionArgs) {
     const user = await args.context.authenticator.authenticate("sign-up", args.request);
     return await startUserSession(args, user, next);
   } catch (error) {
-    if (error instanceof AuthFailure) return Response.json({ error: error.message, ...echo }, { status: 400 });
+    if (isAuthFailure(error)) return Response.json({ error: error.message, ...echo }, { status: 400 });
     throw error;
   }
 }

@@ -14,7 +14,17 @@ export interface AuthUser {
 }
 
 /** A failure the user should read (wrong password, address taken…), not a server fault. */
-export class AuthFailure extends Error {}
+export class AuthFailure extends Error {
+  override name = "AuthFailure";
+}
+
+/**
+ * Matched by name, not instanceof: route modules are bundled by Vite while the authenticator
+ * is loaded by the server, so each side has its own copy of the class.
+ */
+export function isAuthFailure(error: unknown): error is AuthFailure {
+  return error instanceof Error && error.name === "AuthFailure";
+}
 
 export const signInForm = z.object({
   email: z.string().trim().toLowerCase().email("Enter a valid e-mail address."),
