@@ -1,0 +1,44 @@
+import { describe, expect, it } from "vitest";
+import { massAction } from "../../../tests/fixtures/dynamics/models";
+import { oscillationPeriod } from "./oscillation";
+import { sweepNetwork, sweepValues } from "./sweep";
+
+describe("parameter sweeps", () => {
+  it("spaces values linearly or logarithmically", () => {
+    expect(sweepValues(1, 3, 3, "linear")).toEqual([1, 2, 3]);
+    expect(sweepValues(1, 100, 3, "log").map((v) => Math.round(v * 1e9) / 1e9)).toEqual([1, 10, 100]);
+    expect(() => sweepValues(0, 1, 3, "log")).toThrow(/positive/);
+  });
+
+  it("the final value of A ⇌ B follows the initial amount: B(∞) = k₁/(k₁ + k₋₁)·A₀", () => {
+    const { mechanism, network } = massAction(["A", "B"], [[{ A: 1 }, { B: 1 }, 2], [{ B: 1 }, { A: 1 }, 1]], { A: 1 });
+    const result = sweepNetwork(mechanism, network, {
+      target: { kind: "initial", species: "A" }, from: 1, to: 4, points: 4, scale: "linear",
+      species: "B", observable: "final", until: 20, samples: 2,
+    });
+    result.observed.forEach((b, i) => expect(b).toBeCloseTo((2 / 3) * result.values[i], 6));
+  });
+
+  it("the Brusselator oscillates once b passes the Hopf point b = 1 + a² (Prigogine & Lefever 1968)", () => {
+    // 0 → X (a = 1), 2X + Y → 3X, X → Y (b), X → 0.
+    const { mechanism, network } = massAction(
+      ["X", "Y"],
+      [[{}, { X: 1 }, 1], [{ X: 2, Y: 1 }, { X: 3 }, 1], [{ X: 1 }, { Y: 1 }, 3], [{ X: 1 }, {}, 1]],
+      { X: 1, Y: 1 },
+    );
+    const result = sweepNetwork(mechanism, network, {
+      target: { kind: "rate", reaction: 2 }, from: 1.2, to: 3, points: 4, scale: "linear",
+      species: "X", observable: "period", until: 120, samples: 3001,
+    });
+    expect(result.observed.slice(0, 2)).toEqual([null, null]);
+    // Near the Hopf point the period tends to 2π/√(a²) = 2π; it lengthens as b grows.
+    expect(result.observed[2]).toBeGreaterThan(6);
+    expect(result.observed[3] as number).toBeGreaterThan(result.observed[2] as number);
+  });
+
+  it("a sampled sine has its period; a decaying one has none", () => {
+    const t = Array.from({ length: 2001 }, (_, i) => i * 0.01);
+    expect(oscillationPeriod(t, t.map((x) => 2 + Math.sin(2 * Math.PI * x)))).toBeCloseTo(1, 3);
+    expect(oscillationPeriod(t, t.map((x) => 2 + Math.exp(-x) * Math.sin(2 * Math.PI * x)))).toBeNull();
+  });
+});
