@@ -1,0 +1,182 @@
+// The live room of one mechanism: a Y.Doc kept in step with the collaboration server over
+// y-websocket, this user's presence in it, and the server's latest analysis as React state.
+import { useEffect, useState } from "react";
+import { WebsocketProvider } from "y-websocket";
+import * as Y from "yjs";
+import type { Role } from "../../server/db/roles";
+
+export type RoomStatus = "connecting" | "online" | "offline";
+
+type Awareness = WebsocketProvider["awareness"];
+
+/** What every client publishes about itself in the room's awareness. */
+export interface PeerUser {
+  name: string;
+  colour: string;
+  role: Role;
+}
+
+export interface Peer extends PeerUser {
+  clientId: number;
+}
+
+/** The server-written `analysis` map; `report` is the full analysis JSON. */
+export interface RoomAnalysis {
+  deficiency?: number;
+  rank?: number;
+  linkageClasses?: number;
+  species?: number;
+  errors?: number;
+  revision?: number;
+  report?: unknown;
+}
+
+export interface Room {
+  /** Null until mounted in the browser (the room never exists during server rendering). */
+  doc: Y.Doc | null;
+  provider: WebsocketProvider | null;
+  awareness: Awareness | null;
+  status: RoomStatus;
+  /** True once the server's state of the document has arrived. */
+  synced: boolean;
+  analysis: RoomAnalysis;
+  /** Everyone else in the room, one entry per connected client. */
+  peers: Peer[];
+}
+
+export interface RoomOptions {
+  user: { name: string; colour?: string };
+  readOnly: boolean;
+  /** Shown to others; defaults to "viewer" when read-only, else "editor". */
+  role?: Role;
+}
+
+/**
+ * Peer colours: ten hues at one luminance (≈0.15), so each reads as a caret on the dark canvas
+ * and carries white name-label text at AA contrast on the light one.
+ */
+export const peerPalette = [
+  "#b94548",
+  "#a15a16",
+  "#826a00",
+  "#3a7a2c",
+  "#007a68",
+  "#007691",
+  "#236cc1",
+  "#715cc0",
+  "#9c4ea1",
+  "#b24576",
+] as const;
+
+/**
+ * A stable colour for a person: their name picks a starting hue, and colours already taken are
+ * skipped while any is free, so a room of a few people never shows two alike.
+ */
+export function pickColour(seed: string, taken: Iterable<string> = []): string {
+  const used = new Set(taken);
+  let hash = 0;
+  for (let i = 0; i < seed.length; i++) hash = (hash * 31 + seed.charCodeAt(i)) >>> 0;
+  const start = hash % peerPalette.length;
+  for (let step = 0; step < peerPalette.length; step++) {
+    const colour = peerPalette[(start + step) % peerPalette.length];
+    if (!used.has(colour)) return colour;
+  }
+  return peerPalette[start];
+}
+
+export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptions): Room {
+  const [connection, setConnection] = useState<{ doc: Y.Doc; provider: WebsocketProvider } | null>(null);
+  const [status, setStatus] = useState<RoomStatus>("connecting");
+  const [synced, setSynced] = useState(false);
+  const [analysis, setAnalysis] = useState<RoomAnalysis>({});
+  const [peers, setPeers] = useState<Peer[]>([]);
+
+  // Effects run only in the browser, which is what keeps the socket out of server rendering.
+  useEffect(() => {
+    const doc = new Y.Doc();
+    const scheme = location.protocol === "https:" ? "wss" : "ws";
+    const provider = new WebsocketProvider(`${scheme}://${location.host}/collab`, mechanismId, doc);
+    const analysisMap = doc.getMap("analysis");
+
+    const onStatus = ({ status: next }: { status: "connected" | "disconnected" | "connecting" }) =>
+      // A reconnect attempt after a drop is still "offline" to the reader, not a fresh start.
+      setStatus((current) => (next === "connected" ? "online" : next === "disconnected" || current === "offline" ? "offline" : "connecting"));
+    const onClosed = () => setStatus("offline");
+    const onSync = (state: boolean) => setSynced(state);
+    const onAnalysis = () => setAnalysis(readAnalysis(analysisMap));
+
+    provider.on("status", onStatus);
+    provider.on("closed", onClosed);
+    provider.on("sync", onSync);
+    analysisMap.observe(onAnalysis);
+    onAnalysis();
+    setConnection({ doc, provider });
+
+    return () => {
+      analysisMap.unobserve(onAnalysis);
+      provider.destroy();
+      doc.destroy();
+      setConnection(null);
+      setStatus("connecting");
+      setSynced(false);
+      setPeers([]);
+    };
+  }, [mechanismId]);
+
+  const awareness = connection?.provider.awareness ?? null;
+  const publishedRole: Role = role ?? (readOnly ? "viewer" : "editor");
+
+  useEffect(() => {
+    if (!awareness) return;
+    let colour = user.colour ?? pickColour(user.name);
+    const publish = () => awareness.setLocalStateField("user", awarenessUser({ name: user.name, colour, role: publishedRole }));
+
+    const onChange = () => {
+      const others = peersOf(awareness);
+      setPeers(others);
+      if (user.colour) return;
+      // Clients that joined earlier keep their colour; a newcomer with the same one moves on.
+      // The same person in a second tab is not a clash.
+      const earlier = others.filter((peer) => peer.clientId < awareness.clientID && peer.name !== user.name).map((peer) => peer.colour);
+      if (earlier.includes(colour)) {
+        colour = pickColour(user.name, earlier);
+        publish();
+      }
+    };
+
+    publish();
+    awareness.on("change", onChange);
+    onChange();
+    return () => awareness.off("change", onChange);
+  }, [awareness, user.name, user.colour, publishedRole]);
+
+  return { doc: connection?.doc ?? null, provider: connection?.provider ?? null, awareness, status, synced, analysis, peers };
+}
+
+/** y-codemirror.next draws remote carets from `color` and selections from `colorLight`. */
+function awarenessUser(user: PeerUser) {
+  return { ...user, color: user.colour, colorLight: `${user.colour}33` };
+}
+
+function peersOf(awareness: Awareness): Peer[] {
+  const peers: Peer[] = [];
+  awareness.getStates().forEach((state, clientId) => {
+    const user = state.user as Partial<PeerUser> | undefined;
+    if (clientId === awareness.clientID || !user?.name) return;
+    peers.push({ clientId, name: user.name, colour: user.colour ?? peerPalette[0], role: user.role ?? "viewer" });
+  });
+  return peers.sort((a, b) => a.clientId - b.clientId);
+}
+
+function readAnalysis(map: Y.Map<unknown>): RoomAnalysis {
+  const analysis = map.toJSON() as RoomAnalysis;
+  // The server may store the report as a JSON string rather than a nested value.
+  if (typeof analysis.report === "string") {
+    try {
+      analysis.report = JSON.parse(analysis.report);
+    } catch {
+      analysis.report = undefined;
+    }
+  }
+  return analysis;
+}
