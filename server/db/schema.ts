@@ -122,3 +122,56 @@ export const snapshots = pgTable(
   },
   (t) => [index("snapshots_mechanism_idx").on(t.mechanismId, t.at)],
 );
+
+/** E-mail invitations: single use, expiring; only a hash of the link's token is stored. */
+export const invitations = pgTable(
+  "invitations",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    mechanismId: text("mechanism_id").notNull().references(() => mechanisms.id, { onDelete: "cascade" }),
+    email: text("email").notNull(),
+    role: roleEnum("role").notNull(),
+    tokenHash: text("token_hash").notNull().unique(),
+    invitedBy: uuid("invited_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    acceptedAt: timestamp("accepted_at", { withTimezone: true }),
+    acceptedBy: uuid("accepted_by").references(() => users.id, { onDelete: "set null" }),
+    revokedAt: timestamp("revoked_at", { withTimezone: true }),
+  },
+  (t) => [index("invitations_mechanism_idx").on(t.mechanismId)],
+);
+
+/** Read-only links for a class or a reviewer; only a hash of the token is stored. */
+export const viewLinks = pgTable(
+  "view_links",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    mechanismId: text("mechanism_id").notNull().references(() => mechanisms.id, { onDelete: "cascade" }),
+    tokenHash: text("token_hash").notNull().unique(),
+    /** The token's last characters, so the owner can tell links apart. */
+    hint: text("hint").notNull(),
+    label: text("label").notNull().default(""),
+    createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }),
+    revokedAt: timestamp("revoked_at", { withTimezone: true }),
+  },
+  (t) => [index("view_links_mechanism_idx").on(t.mechanismId)],
+);
+
+/** Personal access tokens for the JSON API; shown once, stored hashed. */
+export const apiTokens = pgTable(
+  "api_tokens",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    tokenHash: text("token_hash").notNull().unique(),
+    hint: text("hint").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    lastUsedAt: timestamp("last_used_at", { withTimezone: true }),
+    revokedAt: timestamp("revoked_at", { withTimezone: true }),
+  },
+  (t) => [index("api_tokens_user_idx").on(t.userId)],
+);
