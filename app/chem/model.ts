@@ -68,8 +68,22 @@ export interface Reaction {
   rate: number | null;
   /** Custom rate law (mathjs syntax) or null for mass action. */
   law: string | null;
+  /**
+   * The mass-action rate coefficient as written, a sum (merged duplicates) of products of factors:
+   * [[k1, A^2]] for `@ k1` with fixed [A] consumed twice. Null exactly when `law` is set.
+   */
+  coefficient: RateFactor[][] | null;
   /** Indices into Mechanism.steps this reaction came from. */
   steps: number[];
+}
+
+/** One factor of a mass-action rate coefficient as the author wrote it. */
+export interface RateFactor {
+  /** "value": a literal number; "missing": a stand-in name for a coefficient not given yet. */
+  kind: "parameter" | "value" | "fixed" | "missing";
+  /** The parameter, fixed species or stand-in name, or the number's text. */
+  symbol: string;
+  power: number;
 }
 
 export interface Network {

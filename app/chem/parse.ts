@@ -452,7 +452,8 @@ class MechanismReader {
       for (const symbol of symbols) {
         const known = inSteps.has(symbol) || this.fixed.has(symbol) || this.parameters.has(symbol) || (lawConstants.has(symbol) && !this.speciesSeen.has(symbol));
         if (!known) {
-          this.report("error", span, `The rate law uses ${symbol}, which is neither a species in a step nor a parameter with a value: add a line ${symbol} = …`);
+          const at = this.text(span).search(new RegExp(`\\b${symbol}\\b`));
+          this.report("error", { from: span.from + Math.max(at, 0), to: span.from + Math.max(at, 0) + symbol.length }, `The rate law uses ${symbol}, which is neither a species in a step nor a parameter with a value: add a line ${symbol} = …`);
         }
       }
     }

@@ -1,0 +1,140 @@
+// The structure report of a mechanism: every invariant the product shows, in one JSON-ready object.
+// Its keys are the `analyze --json` contract of PRODUCT.md plus the extras the web UI needs.
+import { hasPositiveConservationLaw } from "./conservation";
+import { detailedBalance, type DetailedBalance } from "./detailed-balance";
+import { nullSpace, rank, type SparseVector } from "./exact";
+import { analyzeLinkage } from "./linkage";
+import type { Diagnostic, Network, ParseResult } from "./model";
+import { buildNetwork, reactionVector } from "./network";
+import { inducedOdes } from "./odes";
+import { checkSourceLimits, parseMechanism } from "./parse";
+import { deficiencyOneTheorem, deficiencyZeroTheorem, type TheoremVerdict } from "./theorems";
+
+export interface AnalysisReport {
+  diagnostics: Diagnostic[];
+  species: string[];
+  complexes: string[];
+  reactions: { from: number; to: number; rate: number | null }[];
+  linkageClasses: number[][];
+  strongLinkageClasses: number[][];
+  terminalStrongLinkageClasses: number[][];
+  rank: number;
+  deficiency: number;
+  linkageClassDeficiencies: number[];
+  reversible: boolean;
+  weaklyReversible: boolean;
+  conservationLaws: number[][];
+  massConserving: boolean;
+  theorems: { deficiencyZero: TheoremVerdict; deficiencyOne: TheoremVerdict };
+  odes: Record<string, string>;
+  // ---- extras for the web UI
+  odesLatex: Record<string, string>;
+  /** Rows species, columns reactions; empty when larger than `matrixEntryLimit` (see below). */
+  stoichiometricMatrix: number[][];
+  detailedBalance: DetailedBalance;
+  customLaws: { reaction: number; law: string; lines: number[] }[];
+  fixedSpecies: Record<string, number>;
+}
+
+/** A dense matrix beyond this many entries is useless on screen and heavy to send to every client. */
+export const matrixEntryLimit = 250_000;
+
+export async function analyzeSource(source: string): Promise<AnalysisReport> {
+  const refusal = checkSourceLimits(source);
+  if (refusal) {
+    const diagnostic: Diagnostic = { severity: "error", line: 1, column: 1, message: refusal, from: 0, to: 0 };
+    return analyzeMechanism({
+      mechanism: { steps: [], species: [], fixed: {}, parameters: {}, initial: {} },
+      diagnostics: [diagnostic],
+    });
+  }
+  return analyzeMechanism(parseMechanism(source));
+}
+
+export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult): Promise<AnalysisReport> {
+  const network = buildNetwork(mechanism);
+  const { species, complexes, reactions } = network;
+  const linkage = analyzeLinkage(complexes.length, reactions);
+
+  const forest = spanningForestVectors(network, linkage.linkageClassOf);
+  const conservationLaws = nullSpace(forest.map(({ vector }) => vector), species.length);
+  const stoichiometricRank = species.length - conservationLaws.length;
+  const vectorsByClass = linkage.linkageClasses.map((): SparseVector[] => []);
+  for (const { vector, linkageClass } of forest) vectorsByClass[linkageClass].push(vector);
+  const linkageClassDeficiencies = linkage.linkageClasses.map((members, index) => members.length - 1 - rank(vectorsByClass[index]));
+  const deficiency = complexes.length - linkage.linkageClasses.length - stoichiometricRank;
+
+  const reactionKeys = new Set(reactions.map(({ from, to }) => `${from}>${to}`));
+  const reversible = reactions.length > 0 && reactions.every(({ from, to }) => reactionKeys.has(`${to}>${from}`));
+  const weaklyReversible = reactions.length > 0 && linkage.strongLinkageClasses.length === linkage.linkageClasses.length;
+
+  const terminalClassesPerLinkageClass = linkage.linkageClasses.map(() => 0);
+  for (const members of linkage.terminalStrongLinkageClasses) terminalClassesPerLinkageClass[linkage.linkageClassOf[members[0]]]++;
+  const customLaws = reactions.flatMap((reaction, index) =>
+    reaction.law === null ? [] : [{ reaction: index, law: reaction.law, lines: reaction.steps.map((step) => mechanism.steps[step].line) }],
+  );
+  const facts = {
+    reactionCount: reactions.length,
+    deficiency,
+    linkageClassDeficiencies,
+    terminalClassesPerLinkageClass,
+    weaklyReversible,
+    customLawCount: customLaws.length,
+  };
+  const odes = inducedOdes(network);
+
+  return {
+    diagnostics,
+    species,
+    complexes: complexes.map((complex) => complex.text),
+    reactions: reactions.map(({ from, to, rate }) => ({ from, to, rate })),
+    linkageClasses: linkage.linkageClasses,
+    strongLinkageClasses: linkage.strongLinkageClasses,
+    terminalStrongLinkageClasses: linkage.terminalStrongLinkageClasses,
+    rank: stoichiometricRank,
+    deficiency,
+    linkageClassDeficiencies,
+    reversible,
+    weaklyReversible,
+    conservationLaws,
+    massConserving: await hasPositiveConservationLaw(conservationLaws, species.length),
+    theorems: { deficiencyZero: deficiencyZeroTheorem(facts), deficiencyOne: deficiencyOneTheorem(facts) },
+    odes: odes.text,
+    odesLatex: odes.latex,
+    stoichiometricMatrix: species.length * reactions.length <= matrixEntryLimit ? stoichiometricMatrix(network) : [],
+    detailedBalance: detailedBalance(network, reversible),
+    customLaws,
+    fixedSpecies: mechanism.fixed,
+  };
+}
+
+/**
+ * Reaction vectors of a spanning forest of the complex graph. Within a linkage class every
+ * reaction vector is a sum of tree vectors along a path, so these n − l vectors span the
+ * stoichiometric subspace and elimination never sees the (often many more) redundant reactions.
+ */
+function spanningForestVectors(network: Network, linkageClassOf: number[]): { vector: SparseVector; linkageClass: number }[] {
+  const parent = network.complexes.map((_, index) => index);
+  const find = (node: number): number => {
+    while (parent[node] !== node) node = parent[node] = parent[parent[node]];
+    return node;
+  };
+  const forest: { vector: SparseVector; linkageClass: number }[] = [];
+  for (const { from, to } of network.reactions) {
+    const a = find(from);
+    const b = find(to);
+    if (a === b) continue;
+    parent[a] = b;
+    forest.push({ vector: reactionVector(network, { from, to }), linkageClass: linkageClassOf[from] });
+  }
+  return forest;
+}
+
+function stoichiometricMatrix(network: Network): number[][] {
+  const matrix = network.species.map(() => new Array<number>(network.reactions.length).fill(0));
+  network.reactions.forEach((reaction, column) => {
+    const { indices, values } = reactionVector(network, reaction);
+    indices.forEach((species, k) => (matrix[species][column] = values[k]));
+  });
+  return matrix;
+}

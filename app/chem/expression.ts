@@ -1,0 +1,105 @@
+// How rate expressions are written out, as plain text and as LaTeX: one place, so that the ODEs,
+// the detailed-balance conditions and merged custom laws always agree on notation.
+import type { MathNode } from "mathjs";
+import { readLaw } from "./law";
+import type { ComplexVector, RateFactor } from "./model";
+import { speciesToken } from "./print";
+
+// ---- plain text (the `.weave` spelling of names, mathjs operators)
+
+export function factorText(factor: RateFactor): string {
+  const base = factor.kind === "fixed" ? speciesToken(factor.symbol) : factor.symbol;
+  return factor.power === 1 ? base : `${base}^${factor.power}`;
+}
+
+/** A coefficient as a sum of products, e.g. "k1*A^2" or "k1 + k2". */
+export function coefficientText(sum: RateFactor[][]): string {
+  return sum.map((product) => product.map(factorText).join("*")).join(" + ");
+}
+
+/** The mass-action monomial of a complex, e.g. "X*Y^2"; "" for the zero complex. */
+export function monomialText(complex: ComplexVector, species: string[]): string {
+  return complex.terms
+    .map(({ species: index, coefficient }) => speciesToken(species[index]) + (coefficient === 1 ? "" : `^${coefficient}`))
+    .join("*");
+}
+
+/** Coefficient times monomial, parenthesising a merged sum: "(k1 + k2)*X". */
+export function massActionText(sum: RateFactor[][], monomial: string): string {
+  const coefficient = sum.length > 1 ? `(${coefficientText(sum)})` : coefficientText(sum);
+  return monomial ? `${coefficient}*${monomial}` : coefficient;
+}
+
+/** Whether a law must be parenthesised when multiplied or negated. */
+export function lawNeedsParentheses(law: string): boolean {
+  const reading = readLaw(law);
+  if (!reading.ok) return true;
+  const node = reading.node as MathNode & { op?: string; args?: MathNode[] };
+  return node.type === "OperatorNode" && (node.op === "+" || node.op === "-");
+}
+
+// ---- LaTeX
+
+const greek = new Set([
+  "alpha", "beta", "gamma", "delta", "epsilon", "zeta", "eta", "theta", "kappa", "lambda", "mu", "nu",
+  "xi", "rho", "sigma", "tau", "phi", "chi", "psi", "omega", "Gamma", "Delta", "Theta", "Lambda", "Phi", "Omega",
+]);
+
+function escapeLatex(text: string): string {
+  return text.replace(/[\\{}$&#^_%~]/g, (char) => (char === "\\" ? "\\backslash " : `\\${char}`));
+}
+
+function latexBase(base: string): string {
+  if (greek.has(base)) return `\\${base}`;
+  return base.length === 1 ? base : `\\mathrm{${escapeLatex(base)}}`;
+}
+
+/** k1 → k_{1}, k_f → k_{f}, ATP → \mathrm{ATP}, alpha → \alpha; quoted names upright as written. */
+export function symbolLatex(name: string): string {
+  if (!/^[A-Za-z][A-Za-z0-9_]*$/.test(name)) return `\\mathrm{${escapeLatex(name)}}`;
+  const underscore = name.indexOf("_");
+  if (underscore > 0 && underscore < name.length - 1) {
+    return `${latexBase(name.slice(0, underscore))}_{${latexBase(name.slice(underscore + 1))}}`;
+  }
+  const digits = /^([A-Za-z]+)(\d+)$/.exec(name);
+  if (digits) return `${latexBase(digits[1])}_{${digits[2]}}`;
+  return latexBase(name);
+}
+
+export function numberLatex(text: string): string {
+  const match = /^(-?[\d.]+)[eE]([+-]?\d+)$/.exec(String(Number(text)));
+  if (!match) return String(Number(text));
+  const exponent = `10^{${Number(match[2])}}`;
+  return match[1] === "1" ? exponent : `${match[1]} \\times ${exponent}`;
+}
+
+function factorLatex(factor: RateFactor): string {
+  const base = factor.kind === "value" ? numberLatex(factor.symbol) : symbolLatex(factor.symbol);
+  return factor.power === 1 ? base : `${base}^{${factor.power}}`;
+}
+
+export function coefficientLatex(sum: RateFactor[][]): string {
+  return sum.map((product) => product.map(factorLatex).join(" ")).join(" + ");
+}
+
+export function monomialLatex(complex: ComplexVector, species: string[]): string {
+  return complex.terms
+    .map(({ species: index, coefficient }) => symbolLatex(species[index]) + (coefficient === 1 ? "" : `^{${coefficient}}`))
+    .join(" ");
+}
+
+export function massActionLatex(sum: RateFactor[][], monomial: string): string {
+  const coefficient = sum.length > 1 ? `\\left(${coefficientLatex(sum)}\\right)` : coefficientLatex(sum);
+  return monomial ? `${coefficient}\\, ${monomial}` : coefficient;
+}
+
+/** A custom law typeset by mathjs, with names in the same notation as everything else. */
+export function lawLatex(law: string): string {
+  const reading = readLaw(law);
+  if (!reading.ok) return `\\text{${escapeLatex(law)}}`;
+  return reading.node.toTex({
+    parenthesis: "auto",
+    implicit: "hide",
+    handler: (node: MathNode) => (node.type === "SymbolNode" ? symbolLatex((node as unknown as { name: string }).name) : undefined),
+  });
+}

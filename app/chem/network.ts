@@ -1,0 +1,134 @@
+// From steps as written to the reaction network of chemical reaction network theory: complexes
+// over the non-fixed species and directed reactions between them, duplicates merged.
+import type { SparseVector } from "./exact";
+import { massActionText, monomialText } from "./expression";
+import type { ComplexVector, Mechanism, Network, RateFactor, RateRef, Reaction, Step, Term } from "./model";
+import { speciesToken } from "./print";
+
+/** One step's contribution to a directed reaction, before duplicates are merged. */
+interface Contribution {
+  from: number;
+  to: number;
+  step: number;
+  /** Folded numeric coefficient; null when unknown or custom. */
+  rate: number | null;
+  /** The coefficient's factors, or null for a custom law. */
+  factors: RateFactor[] | null;
+  law: string | null;
+}
+
+export function buildNetwork(mechanism: Mechanism): Network {
+  const speciesIndex = new Map(mechanism.species.map((name, index) => [name, index]));
+  const complexes: ComplexVector[] = [];
+  const complexIndex = new Map<string, number>();
+  const complexOf = (terms: Term[]): number => {
+    const complex = toComplex(terms, speciesIndex, mechanism.species);
+    let index = complexIndex.get(complex.text);
+    if (index === undefined) {
+      index = complexes.push(complex) - 1;
+      complexIndex.set(complex.text, index);
+    }
+    return index;
+  };
+
+  const contributions: Contribution[] = [];
+  mechanism.steps.forEach((step, stepIndex) => {
+    const reactants = toComplex(step.reactants, speciesIndex, mechanism.species);
+    const products = toComplex(step.products, speciesIndex, mechanism.species);
+    if (reactants.text === products.text) return; // only fixed species change: no reaction at all
+    const from = complexOf(step.reactants);
+    const to = complexOf(step.products);
+    contributions.push(contribution(mechanism, step, stepIndex, from, to, "forward"));
+    if (step.reversible) contributions.push(contribution(mechanism, step, stepIndex, to, from, "backward"));
+  });
+
+  const monomials = complexes.map((complex) => monomialText(complex, mechanism.species));
+  return { species: mechanism.species, complexes, reactions: mergeDuplicates(contributions, monomials) };
+}
+
+/** The reaction vector y' − y over species indices (zero entries left out). */
+export function reactionVector(network: Network, reaction: { from: number; to: number }): SparseVector {
+  const change = new Map<number, number>();
+  for (const { species, coefficient } of network.complexes[reaction.to].terms) change.set(species, coefficient);
+  for (const { species, coefficient } of network.complexes[reaction.from].terms) {
+    change.set(species, (change.get(species) ?? 0) - coefficient);
+  }
+  const entries = [...change].filter(([, value]) => value !== 0).sort(([a], [b]) => a - b);
+  return { indices: entries.map(([index]) => index), values: entries.map(([, value]) => value) };
+}
+
+function toComplex(terms: Term[], speciesIndex: Map<string, number>, species: string[]): ComplexVector {
+  const totals = new Map<number, number>();
+  for (const { species: name, coefficient } of terms) {
+    const index = speciesIndex.get(name);
+    if (index !== undefined) totals.set(index, (totals.get(index) ?? 0) + coefficient);
+  }
+  const sorted = [...totals].sort(([a], [b]) => a - b).map(([index, coefficient]) => ({ species: index, coefficient }));
+  const text =
+    sorted.length === 0
+      ? "0"
+      : sorted.map(({ species: index, coefficient }) => `${coefficient === 1 ? "" : coefficient}${speciesToken(species[index])}`).join(" + ");
+  return { text, terms: sorted };
+}
+
+function contribution(
+  mechanism: Mechanism,
+  step: Step,
+  stepIndex: number,
+  from: number,
+  to: number,
+  direction: "forward" | "backward",
+): Contribution {
+  if (step.law !== null) return { from, to, step: stepIndex, rate: null, factors: null, law: step.law };
+  const ref = direction === "forward" ? step.forward : step.backward;
+  const consumed = direction === "forward" ? step.reactants : step.products;
+  const fixedTerms = consumed.filter((term) => term.species in mechanism.fixed);
+  let rate = ref ? rateValue(ref, mechanism) : null;
+  for (const { species, coefficient } of fixedTerms) {
+    if (rate !== null) rate *= mechanism.fixed[species] ** coefficient;
+  }
+  const factors: RateFactor[] = [
+    ref ? rateFactor(ref) : { kind: "missing", symbol: placeholder(step, direction), power: 1 },
+    ...fixedTerms.map(({ species, coefficient }): RateFactor => ({ kind: "fixed", symbol: species, power: coefficient })),
+  ];
+  return { from, to, step: stepIndex, rate, factors, law: null };
+}
+
+function rateValue(ref: RateRef, mechanism: Mechanism): number | null {
+  return ref.kind === "value" ? ref.value : (mechanism.parameters[ref.name] ?? null);
+}
+
+function rateFactor(ref: RateRef): RateFactor {
+  return ref.kind === "value"
+    ? { kind: "value", symbol: String(ref.value), power: 1 }
+    : { kind: "parameter", symbol: ref.name, power: 1 };
+}
+
+/** A readable stand-in name for a coefficient the author has not given yet. */
+function placeholder(step: Step, direction: "forward" | "backward"): string {
+  const name = step.label ?? `line${step.line}`;
+  if (!step.reversible) return `k_${name}`;
+  return `${direction === "forward" ? "kf" : "kb"}_${name}`;
+}
+
+function mergeDuplicates(contributions: Contribution[], monomials: string[]): Reaction[] {
+  const groups = new Map<string, Contribution[]>();
+  for (const part of contributions) {
+    const key = `${part.from}>${part.to}`;
+    const group = groups.get(key);
+    if (group) group.push(part);
+    else groups.set(key, [part]);
+  }
+  return [...groups.values()].map((parts) => {
+    const { from, to } = parts[0];
+    const steps = parts.map((part) => part.step);
+    if (parts.every((part) => part.factors !== null)) {
+      const rate = parts.every((part) => part.rate !== null) ? parts.reduce((sum, part) => sum + part.rate!, 0) : null;
+      return { from, to, rate, law: null, coefficient: parts.map((part) => part.factors!), steps };
+    }
+    if (parts.length === 1) return { from, to, rate: null, law: parts[0].law, coefficient: null, steps };
+    // A custom law merged with anything becomes one custom law: the sum of every part's rate.
+    const law = parts.map((part) => `(${part.law ?? massActionText([part.factors!], monomials[from])})`).join(" + ");
+    return { from, to, rate: null, law, coefficient: null, steps };
+  });
+}
