@@ -1,0 +1,44 @@
+import { CompletionContext } from "@codemirror/autocomplete";
+import { ensureSyntaxTree } from "@codemirror/language";
+import { EditorState } from "@codemirror/state";
+import { describe, expect, it } from "vitest";
+import { completeMechanismNames, mechanismNames } from "./complete";
+import { mechanism } from "./mechanism-language";
+
+/** Completion labels offered at the `|` in the text. */
+function labelsAt(marked: string): string[] {
+  const pos = marked.indexOf("|");
+  const state = EditorState.create({ doc: marked.replace("|", ""), extensions: [mechanism()] });
+  ensureSyntaxTree(state, state.doc.length);
+  const result = completeMechanismNames(new CompletionContext(state, pos, true));
+  return (result?.options ?? []).map((option) => option.label);
+}
+
+describe("mechanism names", () => {
+  it("lists species, fixed species and parameters declared or only used", () => {
+    const names = mechanismNames('X + "Fe3+" -> 2Y @ k1\nY -> 0 @ k2\nk1 = 1\nfixed [A] = 2\nA + X -> Y @ 3\n');
+    expect(names.species).toEqual(["X", "Fe3+", "Y"]);
+    expect(names.fixed).toEqual(["A"]);
+    expect(names.parameters.sort()).toEqual(["k1", "k2"]);
+  });
+});
+
+describe("name completion", () => {
+  const text = 'X + "Fe3+" -> 2Y @ k1\nk1 = 1\n';
+
+  it("offers species inside a complex, quoted as they must be written", () => {
+    expect(labelsAt(text + "Y -> |")).toEqual(["X", '"Fe3+"', "Y"]);
+  });
+
+  it("offers rate coefficient names after @", () => {
+    expect(labelsAt(text + "Y -> X @ |")).toEqual(["k1"]);
+  });
+
+  it("offers both inside a custom rate law", () => {
+    expect(labelsAt(text + "Y -> X @ { |}")).toEqual(["X", '"Fe3+"', "Y", "k1"]);
+  });
+
+  it("does not offer the half-typed word as a name of its own", () => {
+    expect(labelsAt(text + "Y -> Zq|")).not.toContain("Zq");
+  });
+});

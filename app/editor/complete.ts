@@ -1,0 +1,61 @@
+// Completion of the names a mechanism already uses: species where a complex or a declaration
+// expects one, rate coefficient names after `@`, both inside a custom rate law.
+import type { Completion, CompletionContext, CompletionResult } from "@codemirror/autocomplete";
+import { syntaxTree } from "@codemirror/language";
+import type { SyntaxNode } from "@lezer/common";
+import { parseMechanism } from "~/chem/parse";
+import { speciesToken } from "~/chem/print";
+
+export type NameKind = "species" | "parameter" | "both";
+
+export interface MechanismNames {
+  species: string[];
+  fixed: string[];
+  parameters: string[];
+}
+
+/** Species, fixed species and parameter names (declared or only used), each once, in text order. */
+export function mechanismNames(source: string): MechanismNames {
+  const { mechanism } = parseMechanism(source);
+  const parameters = new Set(Object.keys(mechanism.parameters));
+  for (const step of mechanism.steps) {
+    for (const rate of [step.forward, step.backward]) if (rate?.kind === "parameter") parameters.add(rate.name);
+  }
+  return { species: mechanism.species, fixed: Object.keys(mechanism.fixed), parameters: [...parameters] };
+}
+
+export function completionOptions(names: MechanismNames, kind: NameKind): Completion[] {
+  // Labels are written as the text would spell them, so typing an opening quote filters too.
+  const species = (name: string, detail: string): Completion => ({ label: speciesToken(name), type: "variable", detail });
+  const options: Completion[] = [];
+  if (kind !== "parameter") {
+    options.push(...names.species.map((name) => species(name, "species")), ...names.fixed.map((name) => species(name, "fixed species")));
+  }
+  if (kind !== "species") options.push(...names.parameters.map((name) => ({ label: name, type: "constant", detail: "rate coefficient" })));
+  return options;
+}
+
+/** Which names fit at a position, from the syntax node around it. */
+function kindAt(context: CompletionContext): NameKind {
+  for (let node: SyntaxNode | null = syntaxTree(context.state).resolveInner(context.pos, -1); node; node = node.parent) {
+    if (node.name === "Law") return "both";
+    if (node.name === "RatePart" || node.name === "Parameter") return "parameter";
+    // A step reached without passing its rate part: the cursor is on one of its two complexes.
+    if (node.name === "Complex" || node.name === "Step" || node.name === "Initial" || node.name === "Fixed") return "species";
+  }
+  return "both";
+}
+
+export function completeMechanismNames(context: CompletionContext): CompletionResult | null {
+  const word = context.matchBefore(/"[^"\n]*|[A-Za-z][A-Za-z0-9_]*/);
+  if (!word && !context.explicit) return null;
+  const from = word?.from ?? context.pos;
+  const to = word?.to ?? context.pos;
+  // Read the text without the word being typed, so a half-written name is not offered to itself.
+  const source = context.state.sliceDoc(0, from) + context.state.sliceDoc(to);
+  return {
+    from,
+    options: completionOptions(mechanismNames(source), kindAt(context)),
+    validFor: /^("[^"\n]*|[A-Za-z0-9_]*)$/,
+  };
+}
