@@ -1,0 +1,55 @@
+import { spawnSync } from "node:child_process";
+import { describe, expect, it } from "vitest";
+
+// The real command line, as `npx tsx server/cli/main.ts …` runs it (node with the tsx loader).
+function mechweave(...args: string[]) {
+  const run = spawnSync(process.execPath, ["--import", "tsx", "server/cli/main.ts", ...args], { encoding: "utf8", timeout: 60_000 });
+  return { code: run.status, stdout: run.stdout, stderr: run.stderr };
+}
+
+const fixtures = "tests/fixtures/dynamics";
+
+describe("mechweave simulate", () => {
+  it("prints the time course of a mechanism as JSON", () => {
+    const { code, stdout } = mechweave("simulate", `${fixtures}/robertson.weave`, "--until", "40", "--samples", "5", "--rtol", "1e-8", "--atol", "1e-14", "--json");
+    expect(code).toBe(0);
+    const result = JSON.parse(stdout);
+    expect(Object.keys(result)).toEqual(["t", "series", "stats"]);
+    expect(Object.keys(result.stats)).toEqual(["steps", "rejected", "jacobians", "ms"]);
+    expect(result.t).toEqual([0, 10, 20, 30, 40]);
+    expect(result.series.A[4]).toBeCloseTo(0.7158, 4);
+  });
+
+  it("simulates a polynomial ODE file", () => {
+    const { code, stdout } = mechweave("simulate", `${fixtures}/lorenz.ode`, "--until", "1", "--samples", "3", "--method", "explicit", "--json");
+    expect(code).toBe(0);
+    expect(Object.keys(JSON.parse(stdout).series)).toEqual(["x", "y", "z"]);
+  });
+
+  it("exits 1 for a file with errors or a missing rate coefficient, without a stack trace", () => {
+    const broken = mechweave("simulate", `${fixtures}/broken.weave`, "--until", "1");
+    expect(broken.code).toBe(1);
+    expect(broken.stderr).toMatch(/broken\.weave:1:10: error: .*negative/);
+    const missing = mechweave("simulate", `${fixtures}/missing-rate.weave`, "--until", "1", "--json");
+    expect(missing.code).toBe(1);
+    expect(JSON.parse(missing.stdout).error).toMatch(/no rate coefficient for C -> E \+ P \(line 2\)/);
+    expect(broken.stderr + missing.stderr).not.toMatch(/\n\s+at /);
+  });
+
+  it("exits 2 on bad usage", () => {
+    expect(mechweave("simulate", `${fixtures}/robertson.weave`, "--until", "soon").code).toBe(2);
+    expect(mechweave("simulate", `${fixtures}/robertson.weave`, "--samples", "3").code).toBe(2);
+    expect(mechweave("simulate", "missing.weave", "--until", "1").code).toBe(2);
+  });
+});
+
+describe("mechweave lyapunov", () => {
+  it("estimates the largest exponent of the Lorenz system", () => {
+    const { code, stdout } = mechweave("lyapunov", `${fixtures}/lorenz.ode`, "--until", "300", "--json");
+    expect(code).toBe(0);
+    const result = JSON.parse(stdout);
+    expect(result.largest).toBeGreaterThan(0.8);
+    expect(result.largest).toBeLessThan(1);
+    expect(Array.isArray(result.history)).toBe(true);
+  });
+});

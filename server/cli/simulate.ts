@@ -1,0 +1,142 @@
+// `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit] [--json]`
+// FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0 on success, 1 when the file has
+// errors or cannot be simulated, 2 on bad usage. The file loading and flag reading here are shared
+// with the `lyapunov` command.
+
+import { readFile } from "node:fs/promises";
+import { extname } from "node:path";
+import { IntegrationFailure, SimulationInputError } from "~/chem/kinetics/errors";
+import { METHODS, settingsProblem } from "~/chem/kinetics/settings";
+import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
+import type { Diagnostic, Mechanism, Network, PolynomialOde } from "~/chem/model";
+import { buildNetwork } from "~/chem/network";
+import { parseOde } from "~/chem/ode/parse";
+import { parseMechanism } from "~/chem/parse";
+
+export type LoadedModel = { kind: "mechanism"; mechanism: Mechanism; network: Network } | { kind: "ode"; ode: PolynomialOde };
+
+export class UsageError extends Error {}
+
+type FlagKind = "number" | "integer" | "method" | "switch";
+type FlagValue = number | string | boolean;
+
+/** Reads `FILE --name value … --switch`; every flag must be declared, every value well-formed. */
+export function readCommandLine(args: string[], declared: Record<string, FlagKind>): { file: string; flags: Record<string, FlagValue> } {
+  const flags: Record<string, FlagValue> = {};
+  const files: string[] = [];
+  for (let i = 0; i < args.length; i++) {
+    const arg = args[i];
+    if (!arg.startsWith("--")) {
+      files.push(arg);
+      continue;
+    }
+    const name = arg.slice(2);
+    const kind = declared[name];
+    if (!kind) throw new UsageError(`unknown option ${arg}`);
+    if (kind === "switch") {
+      flags[name] = true;
+      continue;
+    }
+    const text = args[++i];
+    if (text === undefined) throw new UsageError(`${arg} needs a value`);
+    if (kind === "method") {
+      if (!(METHODS as readonly string[]).includes(text)) throw new UsageError(`${arg} takes one of ${METHODS.join(", ")}`);
+      flags[name] = text;
+      continue;
+    }
+    const value = Number(text);
+    if (text.trim() === "" || !Number.isFinite(value) || (kind === "integer" && !Number.isInteger(value))) {
+      throw new UsageError(`${arg} takes ${kind === "integer" ? "a whole number" : "a number"}, not "${text}"`);
+    }
+    flags[name] = value;
+  }
+  if (files.length !== 1) throw new UsageError(files.length === 0 ? "no FILE given" : "give exactly one FILE");
+  return { file: files[0], flags };
+}
+
+/** Reads and parses a model file; diagnostics carry the file's errors (then `model` is null). */
+export async function loadModel(file: string): Promise<{ model: LoadedModel | null; diagnostics: Diagnostic[] }> {
+  const extension = extname(file);
+  if (extension !== ".weave" && extension !== ".ode") throw new UsageError(`FILE must be a .weave mechanism or a .ode system, not "${file}"`);
+  let text: string;
+  try {
+    text = await readFile(file, "utf8");
+  } catch (error) {
+    throw new UsageError(`cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
+  }
+  if (extension === ".ode") {
+    const { ode, diagnostics } = parseOde(text);
+    const failed = ode === null || diagnostics.some((d) => d.severity === "error");
+    return { model: failed ? null : { kind: "ode", ode }, diagnostics };
+  }
+  const { mechanism, diagnostics } = parseMechanism(text);
+  if (diagnostics.some((d) => d.severity === "error")) return { model: null, diagnostics };
+  return { model: { kind: "mechanism", mechanism, network: buildNetwork(mechanism) }, diagnostics };
+}
+
+/**
+ * The frame every dynamics command shares: usage errors exit 2, a file with errors or a model that
+ * cannot be integrated exits 1 — each with a one-line message, never a stack trace.
+ */
+export async function runModelCommand(
+  command: string,
+  args: string[],
+  declared: Record<string, FlagKind>,
+  body: (model: LoadedModel, flags: Record<string, FlagValue>) => unknown,
+  printText: (result: never) => string,
+): Promise<number> {
+  const fail = (message: string, code: number, json: boolean, diagnostics: Diagnostic[] = []) => {
+    process.stderr.write(`mechweave ${command}: ${message}\n`);
+    if (json) process.stdout.write(JSON.stringify({ error: message, diagnostics }) + "\n");
+    return code;
+  };
+  let parsed: ReturnType<typeof readCommandLine>;
+  let loaded: Awaited<ReturnType<typeof loadModel>>;
+  try {
+    parsed = readCommandLine(args, { ...declared, json: "switch" });
+    loaded = await loadModel(parsed.file);
+  } catch (error) {
+    if (error instanceof UsageError) return fail(error.message, 2, args.includes("--json"));
+    throw error;
+  }
+  const json = parsed.flags.json === true;
+  for (const d of loaded.diagnostics) process.stderr.write(`${parsed.file}:${d.line}:${d.column}: ${d.severity}: ${d.message}\n`);
+  if (!loaded.model) return fail(`${parsed.file} has errors`, 1, json, loaded.diagnostics);
+  try {
+    const result = body(loaded.model, parsed.flags);
+    process.stdout.write((json ? JSON.stringify(result) : printText(result as never)) + "\n");
+    return 0;
+  } catch (error) {
+    if (error instanceof UsageError) return fail(error.message, 2, json);
+    if (error instanceof SimulationInputError || error instanceof IntegrationFailure) return fail(error.message, 1, json, loaded.diagnostics);
+    throw error;
+  }
+}
+
+export function run(args: string[]): Promise<number> {
+  return runModelCommand(
+    "simulate",
+    args,
+    { until: "number", samples: "integer", rtol: "number", atol: "number", method: "method" },
+    (model, flags) => {
+      if (flags.until === undefined) throw new UsageError("--until T is required");
+      const settings = {
+        until: flags.until as number,
+        samples: (flags.samples as number | undefined) ?? 101,
+        rtol: flags.rtol as number | undefined,
+        atol: flags.atol as number | undefined,
+        method: flags.method as "auto" | "stiff" | "explicit" | undefined,
+      };
+      const problem = settingsProblem(settings);
+      if (problem) throw new UsageError(problem);
+      const result = model.kind === "ode" ? simulatePolynomialOde(model.ode, settings) : simulateNetwork(model.mechanism, model.network, settings);
+      return { t: result.t, series: result.series, stats: result.stats };
+    },
+    (result: Pick<SimulationResult, "t" | "series" | "stats">) => {
+      const names = Object.keys(result.series);
+      const rows = result.t.map((t, i) => [t, ...names.map((name) => result.series[name][i])].map((x) => x.toPrecision(6)).join("\t"));
+      const { steps, rejected, jacobians, ms } = result.stats;
+      return [["t", ...names].join("\t"), ...rows, `# ${steps} steps, ${rejected} rejected, ${jacobians} Jacobians, ${ms} ms`].join("\n");
+    },
+  );
+}
