@@ -1,6 +1,7 @@
 // A translation vector read off a simulated trajectory: move each variable so that its observed
 // minimum sits a margin above zero. This is evidence from one finite run, not a proof that the
 // trajectory stays in the shifted orthant.
+import { simulatePolynomialOde } from "../kinetics/simulate";
 import type { PolynomialOde } from "../model";
 import * as Q from "./rational";
 import type { Rational } from "./rational";
@@ -11,10 +12,6 @@ export interface ShiftSuggestion {
   /** The observed bounding box, per variable. */
   box: Record<string, { min: number; max: number }>;
   until: number;
-}
-
-export interface TrajectorySampler {
-  (ode: PolynomialOde, options: { until: number; samples: number }): Promise<{ series: Record<string, number[]> }>;
 }
 
 /** The margin is a tenth of the observed range (1 when the variable did not move). */
@@ -35,19 +32,27 @@ export function roundUpNicely(value: number): Rational {
   return step >= 0 ? Q.rational(units * 10n ** BigInt(step)) : Q.rational(units, 10n ** BigInt(-step));
 }
 
-export async function suggestShift(
-  ode: PolynomialOde,
-  sample: TrajectorySampler,
-  { until = 50, samples = 2000 }: { until?: number; samples?: number } = {},
-): Promise<ShiftSuggestion> {
-  const { series } = await sample(ode, { until, samples });
-  const box = Object.fromEntries(
+export interface Horizon {
+  until: number;
+  samples: number;
+}
+
+export const DEFAULT_HORIZON: Horizon = { until: 50, samples: 2000 };
+
+/** The observed bounding box of the trajectory from the ODE's initial values. */
+export function boundingBox(ode: PolynomialOde, { until, samples }: Horizon): Record<string, { min: number; max: number }> {
+  const { series } = simulatePolynomialOde(ode, { until, samples });
+  return Object.fromEntries(
     ode.variables.map((v) => {
-      const values = series[v].filter(Number.isFinite);
-      if (values.length < series[v].length) throw new Error(`the simulation of ${v} did not stay finite up to t = ${until}`);
+      const values = series[v];
+      if (!values.every(Number.isFinite)) throw new Error(`the simulation of ${v} did not stay finite up to t = ${until}`);
       return [v, { min: Math.min(...values), max: Math.max(...values) }];
     }),
   );
+}
+
+export function suggestShift(ode: PolynomialOde, horizon: Horizon = DEFAULT_HORIZON): ShiftSuggestion {
+  const box = boundingBox(ode, horizon);
   const exact = shiftFromBox(box, ode.variables);
-  return { shift: Object.fromEntries(ode.variables.map((v, i) => [v, Q.toNumber(exact[i])])), exact, box, until };
+  return { shift: Object.fromEntries(ode.variables.map((v, i) => [v, Q.toNumber(exact[i])])), exact, box, until: horizon.until };
 }

@@ -45,6 +45,13 @@ export type SearchOutcome =
 const UPPER = 1e4;
 const LOWER = 1e-4;
 const TOLERANCE = 1e-9;
+/**
+ * A dense realization's rates are far from unique and the MILP leaves them at its bounds (10⁴,
+ * 10⁻⁴). On the chosen reactions an LP then looks for the smallest total rate with every rate at
+ * least 1/100 of the column's largest coefficient, which reads better; if there is none, the MILP's
+ * rates stay.
+ */
+const TIDY_FLOOR = 1e-2;
 
 let solver: ReturnType<typeof highsLoader> | null = null;
 const loadSolver = () => (solver ??= highsLoader());
@@ -98,20 +105,27 @@ function solveColumn(
   if (objective === "sparse" && target.every(Q.isZero)) return { rates: new Map(), optimal: true };
   if (candidates.length === 0) return target.every(Q.isZero) ? { rates: new Map(), optimal: true } : "infeasible";
 
-  const solution = highs.solve(columnModel(candidates, target.map((t) => Q.toNumber(t) / scale), objective), {
+  const options = {
     time_limit: seconds,
     output_flag: false,
     mip_feasibility_tolerance: TOLERANCE,
     primal_feasibility_tolerance: TOLERANCE,
-  });
+  };
+  const scaled = target.map((t) => Q.toNumber(t) / scale);
+  const solution = highs.solve(columnModel(candidates, scaled, objective), options);
   if (solution.Status === "Infeasible") return "infeasible";
   const values = candidates.map((_, k) => solution.Columns[`a${k}`]?.Primal);
   if (values.some((v) => typeof v !== "number")) return solution.Status === "Time limit reached" ? "time-limit" : "infeasible";
   const chosen = candidates.filter((_, k) => values[k]! > LOWER / 2);
+  let approximate = chosen.map((c) => values[candidates.indexOf(c)]!);
+  if (objective === "dense" && chosen.length > 0) {
+    const tidy = highs.solve(columnModel(chosen, scaled, "tidy"), options);
+    if (tidy.Status === "Optimal") approximate = chosen.map((_, k) => tidy.Columns[`a${k}`].Primal);
+  }
   const rates = snapColumn(
     chosen.map((c) => c.vector),
     target,
-    chosen.map((c) => values[candidates.indexOf(c)]! * scale),
+    approximate.map((v) => v * scale),
   );
   if (!rates) throw new Error(`the solver's rates out of complex ${j} could not be made exact`);
   return { rates: new Map(chosen.flatMap((c, k) => (Q.sign(rates[k]) > 0 ? [[c.i, rates[k]]] : []))), optimal: solution.Status === "Optimal" };
@@ -128,17 +142,22 @@ function snapColumn(vectors: number[][], target: Rational[], approximate: number
   return keep.map((kept) => (kept ? second[next++] : Q.ZERO));
 }
 
-/** The column's MILP in CPLEX LP format. */
-function columnModel(candidates: { vector: number[] }[], target: number[], objective: Objective): string {
-  const lines = [objective === "sparse" ? "Minimize" : "Maximize", ` obj: ${candidates.map((_, k) => `d${k}`).join(" + ")}`, "Subject To"];
+/** The column's MILP (or, for "tidy", the LP over the chosen reactions) in CPLEX LP format. */
+function columnModel(candidates: { vector: number[] }[], target: number[], objective: Objective | "tidy"): string {
+  const all = (name: string) => candidates.map((_, k) => `${name}${k}`);
+  const lines = [objective === "dense" ? "Maximize" : "Minimize", ` obj: ${all(objective === "tidy" ? "a" : "d").join(" + ")}`, "Subject To"];
   target.forEach((t, s) => {
     const terms = candidates.flatMap((c, k) => (c.vector[s] === 0 ? [] : [`${c.vector[s] < 0 ? "-" : "+"} ${Math.abs(c.vector[s])} a${k}`]));
     if (terms.length > 0 || t !== 0) lines.push(` m${s}: ${terms.length ? terms.join(" ") : "0 a0"} = ${t}`);
   });
+  if (objective === "tidy") {
+    lines.push("Bounds", ...all("a").map((a) => ` ${TIDY_FLOOR} <= ${a} <= ${UPPER}`), "End");
+    return lines.join("\n");
+  }
   candidates.forEach((_, k) => {
     lines.push(` u${k}: a${k} - ${UPPER} d${k} <= 0`);
     if (objective === "dense") lines.push(` l${k}: a${k} - ${LOWER} d${k} >= 0`);
   });
-  lines.push("Bounds", ...candidates.map((_, k) => ` 0 <= a${k} <= ${UPPER}`), "Binary", ...candidates.map((_, k) => ` d${k}`), "End");
+  lines.push("Bounds", ...all("a").map((a) => ` 0 <= ${a} <= ${UPPER}`), "Binary", ...all("d").map((d) => ` ${d}`), "End");
   return lines.join("\n");
 }

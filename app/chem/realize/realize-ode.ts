@@ -1,0 +1,198 @@
+// From a polynomial ODE text to a mechanism: parse, check for negative cross effects, optionally
+// translate and multiply by the product of the variables, realize canonically, and (on request)
+// search for sparse, dense and weakly reversible equivalents. The CLI and the API return this object.
+import type { Diagnostic } from "../model";
+import type { NegativeCrossEffect } from "../ode/cross-effects";
+import { negativeCrossEffects } from "../ode/cross-effects";
+import type { ExactOde } from "../ode/exact";
+import { toPolynomialOde } from "../ode/exact";
+import { formatMonomial, formatOde } from "../ode/format";
+import { parseOde } from "../ode/parse";
+import * as P from "../ode/polynomial";
+import * as Q from "../ode/rational";
+import { boundingBox, DEFAULT_HORIZON, suggestShift } from "../ode/suggest-shift";
+import type { ShiftSuggestion } from "../ode/suggest-shift";
+import { multiplyByMonomial, productOfAllVariables, translate } from "../ode/transform";
+import { canonicalRealization } from "./canonical";
+import type { EquivalentOptions, EquivalentRealizations } from "./equivalents";
+import { equivalentRealizations } from "./equivalents";
+import { maxOrder } from "./mass-action";
+import { mechanismText } from "./weave-text";
+
+export interface RealizeOdeRequest {
+  ode: string;
+  /** A translation vector by variable (missing ones are 0), or "suggested" for one read off a simulation. */
+  shift?: Record<string, number> | "suggested";
+  /** Multiply every right-hand side by the product of all variables. */
+  multiply?: boolean;
+  /** Simulated interval behind a suggested or checked shift (default 0..50). */
+  until?: number;
+  /** Also search for sparse, dense and weakly reversible realizations. */
+  equivalents?: boolean | EquivalentOptions;
+}
+
+export interface CrossEffectReport {
+  equation: string;
+  term: string;
+  /** Where the term was written (the summands that produce it); empty after a transformation. */
+  spans: { from: number; to: number; line: number; column: number }[];
+}
+
+export interface RealizeOdeResult {
+  /** Of the ODE that is realized, i.e. after the transformations asked for. */
+  kinetic: boolean;
+  negativeCrossEffects: CrossEffectReport[];
+  /** `.weave` text of the canonical realization, or null when the ODE is not kinetic. */
+  mechanism: string | null;
+  /** Largest total degree of a reactant complex; null without a mechanism. */
+  maxOrder: number | null;
+  reactions: number | null;
+  diagnostics: Diagnostic[];
+  /** The ODE as given, when transformations were applied. */
+  original?: { kinetic: boolean; negativeCrossEffects: CrossEffectReport[]; degree: number };
+  /** Offered whenever the given ODE is not kinetic or a suggested shift was asked for. */
+  suggestedShift?: Record<string, number> | null;
+  boundingBox?: Record<string, { min: number; max: number }>;
+  transformations: ({ kind: "translation"; shift: Record<string, number> } | { kind: "multiplication"; monomial: string })[];
+  transformedOde?: string;
+  /** Plain statements of what the transformations do and do not establish. */
+  notes: string[];
+  equivalents?: EquivalentRealizations;
+}
+
+/** A request that cannot be carried out whatever the file says (bad shift, say). */
+export class RealizeRequestError extends Error {}
+
+export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOdeResult> {
+  const parsed = parseOde(request.ode);
+  const empty: RealizeOdeResult = {
+    kinetic: false,
+    negativeCrossEffects: [],
+    mechanism: null,
+    maxOrder: null,
+    reactions: null,
+    diagnostics: parsed.diagnostics,
+    transformations: [],
+    notes: [],
+  };
+  if (!parsed.exact) return empty;
+  const given = parsed.exact;
+  const locate = locator(request.ode);
+  const givenEffects = negativeCrossEffects(given, parsed.sources).map((e) => report(e, locate));
+  const horizon = { ...DEFAULT_HORIZON, until: request.until ?? DEFAULT_HORIZON.until };
+  const result: RealizeOdeResult = { ...empty, notes: [] };
+
+  let suggestion: ShiftSuggestion | null = null;
+  if (givenEffects.length > 0 || request.shift === "suggested") {
+    try {
+      suggestion = suggestShift(toPolynomialOde(given), horizon);
+      result.suggestedShift = suggestion.shift;
+      result.boundingBox = suggestion.box;
+    } catch (error) {
+      result.suggestedShift = null;
+      result.notes.push(`No shift could be suggested: ${(error as Error).message}.`);
+      if (request.shift === "suggested") throw new RealizeRequestError(`no suggested shift: ${(error as Error).message}`);
+    }
+  }
+
+  let ode = given;
+  if (request.shift !== undefined) {
+    const shift = request.shift === "suggested" ? suggestion!.exact : shiftVector(given, request.shift);
+    ode = translate(ode, shift);
+    result.transformations.push({ kind: "translation", shift: Object.fromEntries(given.variables.map((v, i) => [v, Q.toNumber(shift[i])])) });
+    result.notes.push(translationNote(given, shift, suggestion ?? { box: boundingBoxOrNull(given, horizon), until: horizon.until }));
+  }
+  if (request.multiply) {
+    const exponents = productOfAllVariables(ode);
+    ode = multiplyByMonomial(ode, exponents);
+    const monomial = formatMonomial(exponents, ode.variables);
+    result.transformations.push({ kind: "multiplication", monomial });
+    result.notes.push(
+      `Multiplying by ${monomial}, positive inside the positive orthant, changes only the time scale there: the orbits are the same, traversed at another speed. Outside the orthant the two systems differ.`,
+    );
+  }
+
+  const transformed = result.transformations.length > 0;
+  const effects = transformed ? negativeCrossEffects(ode).map((e) => report(e, locate)) : givenEffects;
+  result.kinetic = effects.length === 0;
+  result.negativeCrossEffects = effects;
+  if (transformed) {
+    result.original = { kinetic: givenEffects.length === 0, negativeCrossEffects: givenEffects, degree: degree(given) };
+    result.transformedOde = formatOde(ode);
+  }
+  if (!result.kinetic) {
+    result.notes.push(
+      "By the theorem of Hárs and Tóth (1979) an ODE with a negative cross effect is the mass-action ODE of no mechanism; a translation followed by multiplication by the product of the variables removes every such term.",
+    );
+    return result;
+  }
+
+  const mechanism = canonicalRealization(ode);
+  result.mechanism = mechanismText(mechanism, heading(result), ode.initial);
+  result.maxOrder = maxOrder(mechanism);
+  result.reactions = mechanism.reactions.length;
+  if (transformed) {
+    result.notes.push(
+      `Cost: ${mechanism.reactions.length} steps of order up to ${result.maxOrder}, for an ODE of degree ${degree(given)}.`,
+    );
+  }
+  if (request.equivalents) {
+    result.equivalents = await equivalentRealizations(ode, request.equivalents === true ? {} : request.equivalents);
+  }
+  return result;
+}
+
+function shiftVector(ode: ExactOde, shift: Record<string, number>) {
+  const unknown = Object.keys(shift).filter((name) => !ode.variables.includes(name));
+  if (unknown.length > 0) throw new RealizeRequestError(`the shift names ${unknown.join(", ")}, which the ODE does not have`);
+  return ode.variables.map((v) => {
+    const value = shift[v] ?? 0;
+    if (!Number.isFinite(value)) throw new RealizeRequestError(`the shift of ${v} is not a number`);
+    return Q.fromNumber(value);
+  });
+}
+
+function boundingBoxOrNull(ode: ExactOde, horizon: typeof DEFAULT_HORIZON) {
+  try {
+    return boundingBox(toPolynomialOde(ode), horizon);
+  } catch {
+    return null;
+  }
+}
+
+/** States what the simulation showed about the translated trajectory, and that it is no proof. */
+function translationNote(
+  ode: ExactOde,
+  shift: Q.Rational[],
+  evidence: { box: Record<string, { min: number; max: number }> | null; until: number },
+): string {
+  const limit = "That the trajectory stays bounded inside the shifted positive orthant is only supported numerically, not proved";
+  if (!evidence.box) return `${limit}; here not even that: the trajectory could not be simulated.`;
+  const leaving = ode.variables.filter((v, i) => evidence.box![v].min + Q.toNumber(shift[i]) <= 0);
+  return leaving.length === 0
+    ? `${limit}: the simulated trajectory from the initial values stays in it for 0 ≤ t ≤ ${evidence.until}.`
+    : `${limit}, and here the simulated trajectory leaves it (in ${leaving.join(", ")}) before t = ${evidence.until}: the mechanism does not reproduce it.`;
+}
+
+function heading(result: RealizeOdeResult): string {
+  const steps = result.transformations.map((t) =>
+    t.kind === "translation"
+      ? `translation by ${Object.entries(t.shift).map(([v, s]) => `${v} → ${v} + ${s}`).join(", ")}`
+      : `multiplication by ${t.monomial}`,
+  );
+  return `canonical realization: one step per term of the ODE${steps.length ? ` after ${steps.join(" and ")}` : ""}`;
+}
+
+const degree = (ode: ExactOde) => Math.max(0, ...ode.rhs.flatMap((p) => [...p.values()].map((t) => P.totalDegree(t.exponents))));
+
+function report(effect: NegativeCrossEffect, locate: (offset: number) => { line: number; column: number }): CrossEffectReport {
+  return { equation: effect.equation, term: effect.term, spans: effect.spans.map((s) => ({ ...s, ...locate(s.from) })) };
+}
+
+function locator(text: string) {
+  return (offset: number) => {
+    const before = text.slice(0, offset);
+    const line = before.split("\n").length;
+    return { line, column: offset - before.lastIndexOf("\n") };
+  };
+}

@@ -1,0 +1,124 @@
+// `mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply] [--until T] [--equivalents
+// [--time-limit S]] [--json]`: a thin shell around realizeOde. `--shift` without a value (or
+// followed by the file name) means "use the shift suggested from a simulated bounding box".
+// Exit 0 on success, 1 when the file has errors, 2 on bad usage.
+import { readFile } from "node:fs/promises";
+import type { RealizeOdeRequest, RealizeOdeResult } from "~/chem/realize/realize-ode";
+import { realizeOde, RealizeRequestError } from "~/chem/realize/realize-ode";
+
+const usage = "usage: mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply] [--until T] [--equivalents [--time-limit S]] [--json]";
+
+class UsageError extends Error {}
+
+interface Invocation {
+  file: string;
+  json: boolean;
+  request: Omit<RealizeOdeRequest, "ode">;
+}
+
+export function readArguments(args: string[]): Invocation {
+  let file: string | null = null;
+  let json = false;
+  let timeLimit: number | undefined;
+  const request: Invocation["request"] = {};
+  const positiveNumber = (flag: string, text: string | undefined) => {
+    const value = Number(text);
+    if (text === undefined || !(value > 0)) throw new UsageError(`${flag} needs a positive number`);
+    return value;
+  };
+  for (let k = 0; k < args.length; k++) {
+    const arg = args[k];
+    const [flag, inline] = arg.startsWith("--") && arg.includes("=") ? [arg.slice(0, arg.indexOf("=")), arg.slice(arg.indexOf("=") + 1)] : [arg, undefined];
+    switch (flag) {
+      case "--json":
+        json = true;
+        break;
+      case "--multiply":
+        request.multiply = true;
+        break;
+      case "--equivalents":
+        request.equivalents = true;
+        break;
+      case "--until":
+        request.until = positiveNumber("--until", inline ?? args[++k]);
+        break;
+      case "--time-limit":
+        timeLimit = positiveNumber("--time-limit", inline ?? args[++k]);
+        break;
+      case "--shift": {
+        const value = inline ?? (args[k + 1]?.includes("=") && !args[k + 1].startsWith("--") ? args[++k] : undefined);
+        request.shift = value === undefined ? "suggested" : readShift(value);
+        break;
+      }
+      default:
+        if (arg.startsWith("--")) throw new UsageError(`unknown option ${arg}`);
+        if (file !== null) throw new UsageError(`one ODE file only, not also ${arg}`);
+        file = arg;
+    }
+  }
+  if (file === null) throw new UsageError("no ODE file given");
+  if (timeLimit !== undefined) {
+    if (!request.equivalents) throw new UsageError("--time-limit goes with --equivalents");
+    request.equivalents = { timeLimitMs: timeLimit * 1000 };
+  }
+  return { file, json, request };
+}
+
+/** `x=20,y=30` → { x: 20, y: 30 }. */
+function readShift(text: string): Record<string, number> {
+  const shift: Record<string, number> = {};
+  for (const part of text.split(",")) {
+    const match = /^\s*([A-Za-z][A-Za-z0-9_]*)\s*=\s*(\S+)\s*$/.exec(part);
+    const value = Number(match?.[2]);
+    if (!match || !Number.isFinite(value)) throw new UsageError(`cannot read the shift "${part}": write --shift x=20,y=30`);
+    shift[match[1]] = value;
+  }
+  return shift;
+}
+
+export async function run(args: string[]): Promise<number> {
+  let invocation: Invocation;
+  let text: string;
+  try {
+    invocation = readArguments(args);
+    text = await readFile(invocation.file, "utf8").catch(() => {
+      throw new UsageError(`cannot read ${invocation.file}`);
+    });
+  } catch (error) {
+    process.stderr.write(`mechweave realize: ${(error as Error).message}\n${usage}\n`);
+    return 2;
+  }
+  let result: RealizeOdeResult;
+  try {
+    result = await realizeOde({ ...invocation.request, ode: text });
+  } catch (error) {
+    process.stderr.write(`mechweave realize: ${(error as Error).message}\n`);
+    return error instanceof RealizeRequestError ? 2 : 1;
+  }
+  process.stdout.write(invocation.json ? JSON.stringify(result, null, 2) + "\n" : readable(result, invocation.file));
+  return result.diagnostics.some((d) => d.severity === "error") ? 1 : 0;
+}
+
+function readable(result: RealizeOdeResult, file: string): string {
+  const lines = result.diagnostics.map((d) => `${file}:${d.line}:${d.column}: ${d.severity}: ${d.message}`);
+  if (lines.length > 0 && result.diagnostics.some((d) => d.severity === "error")) return lines.join("\n") + "\n";
+  if (result.original) {
+    lines.push(`given ODE: ${result.original.kinetic ? "kinetic" : "not kinetic"}`);
+    for (const e of result.original.negativeCrossEffects) lines.push(`  negative cross effect in ${e.equation}': ${e.term}`);
+  }
+  if (result.transformedOde) lines.push("transformed ODE:", ...result.transformedOde.trimEnd().split("\n").map((l) => `  ${l}`));
+  lines.push(result.kinetic ? "kinetic" : "not kinetic");
+  for (const e of result.negativeCrossEffects) lines.push(`  negative cross effect in ${e.equation}': ${e.term}`);
+  if (result.suggestedShift) {
+    lines.push(`suggested shift: --shift ${Object.entries(result.suggestedShift).map(([v, s]) => `${v}=${s}`).join(",")}`);
+  }
+  lines.push(...result.notes.map((n) => `note: ${n}`));
+  if (result.mechanism) lines.push(`mechanism (${result.reactions} steps, order ${result.maxOrder}):`, result.mechanism.trimEnd());
+  if (result.equivalents) {
+    for (const [name, found] of Object.entries({ sparse: result.equivalents.sparse, dense: result.equivalents.dense, "weakly reversible": result.equivalents.weaklyReversible })) {
+      lines.push(`${name}: ${found.status}${found.reactions !== undefined ? `, ${found.reactions} steps` : ""}`);
+      if (found.mechanism) lines.push(found.mechanism.trimEnd());
+    }
+  }
+  return lines.join("\n") + "\n";
+}
