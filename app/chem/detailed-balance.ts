@@ -63,7 +63,9 @@ export function detailedBalance(network: Network, reversible: boolean): Detailed
   const note =
     count === 0
       ? "Every choice of rate coefficients gives detailed balance: there are no cycles and no dependencies among the reaction vectors."
-      : `Detailed balance holds exactly when these ${count} condition${count === 1 ? "" : "s"} on the rate coefficients hold.`;
+      : count === 1
+        ? "Detailed balance holds exactly when this condition on the rate coefficients holds."
+        : `Detailed balance holds exactly when these ${count} conditions on the rate coefficients hold.`;
   return { applicable: true, note, circuitConditions, spanningForestConditions, satisfied };
 }
 
@@ -164,7 +166,8 @@ function forestDependencies(network: Network, tree: Pair[]): { left: Power[]; ri
 
 function condition(network: Network, left: Power[], right: Power[]): BalanceCondition {
   const side = (powers: Power[], notation: "text" | "latex") =>
-    powers
+    [...powers]
+      .sort((a, b) => a.reaction - b.reaction)
       .map(({ reaction, power }) => {
         const sum = network.reactions[reaction].coefficient!;
         const base = notation === "text" ? coefficientText(sum) : coefficientLatex(sum);

@@ -14,7 +14,17 @@ export function factorText(factor: RateFactor): string {
 
 /** A coefficient as a sum of products, e.g. "k1*A^2" or "k1 + k2". */
 export function coefficientText(sum: RateFactor[][]): string {
-  return sum.map((product) => product.map(factorText).join("*")).join(" + ");
+  return sum.map((product) => withoutUnitFactors(product).map(factorText).join("*")).join(" + ");
+}
+
+/** A literal 1 says nothing beside other factors (`@ 1` with fixed A reads "A", not "1*A"). */
+function withoutUnitFactors(product: RateFactor[]): RateFactor[] {
+  const kept = product.filter((factor) => !(factor.kind === "value" && Number(factor.symbol) === 1));
+  return kept.length > 0 ? kept : product.slice(0, 1);
+}
+
+function isUnit(sum: RateFactor[][]): boolean {
+  return sum.length === 1 && sum[0].every((factor) => factor.kind === "value" && Number(factor.symbol) === 1);
 }
 
 /** The mass-action monomial of a complex, e.g. "X*Y^2"; "" for the zero complex. */
@@ -26,6 +36,7 @@ export function monomialText(complex: ComplexVector, species: string[]): string 
 
 /** Coefficient times monomial, parenthesising a merged sum: "(k1 + k2)*X". */
 export function massActionText(sum: RateFactor[][], monomial: string): string {
+  if (monomial && isUnit(sum)) return monomial;
   const coefficient = sum.length > 1 ? `(${coefficientText(sum)})` : coefficientText(sum);
   return monomial ? `${coefficient}*${monomial}` : coefficient;
 }
@@ -79,7 +90,7 @@ function factorLatex(factor: RateFactor): string {
 }
 
 export function coefficientLatex(sum: RateFactor[][]): string {
-  return sum.map((product) => product.map(factorLatex).join(" ")).join(" + ");
+  return sum.map((product) => withoutUnitFactors(product).map(factorLatex).join(" ")).join(" + ");
 }
 
 export function monomialLatex(complex: ComplexVector, species: string[]): string {
@@ -89,6 +100,7 @@ export function monomialLatex(complex: ComplexVector, species: string[]): string
 }
 
 export function massActionLatex(sum: RateFactor[][], monomial: string): string {
+  if (monomial && isUnit(sum)) return monomial;
   const coefficient = sum.length > 1 ? `\\left(${coefficientLatex(sum)}\\right)` : coefficientLatex(sum);
   return monomial ? `${coefficient}\\, ${monomial}` : coefficient;
 }
@@ -102,4 +114,27 @@ export function lawLatex(law: string): string {
     implicit: "hide",
     handler: (node: MathNode) => (node.type === "SymbolNode" ? symbolLatex((node as unknown as { name: string }).name) : undefined),
   });
+}
+
+// ---- linear combinations of species (conservation laws)
+
+/** Weights over species as a sum, e.g. "E + C" or "2A - B"; "0" when every weight is zero. */
+export function combinationText(weights: number[], species: string[]): string {
+  return combination(weights, species.map(speciesToken), "");
+}
+
+export function combinationLatex(weights: number[], species: string[]): string {
+  return combination(weights, species.map(symbolLatex), "\\,");
+}
+
+function combination(weights: number[], names: string[], space: string): string {
+  const parts = weights.flatMap((weight, index) => (weight === 0 ? [] : [{ weight, name: names[index] }]));
+  if (parts.length === 0) return "0";
+  return parts
+    .map(({ weight, name }, position) => {
+      const sign = weight < 0 ? (position === 0 ? "-" : " - ") : position === 0 ? "" : " + ";
+      const magnitude = Math.abs(weight);
+      return `${sign}${magnitude === 1 ? "" : `${magnitude}${space}`}${name}`;
+    })
+    .join("");
 }
