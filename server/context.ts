@@ -2,15 +2,21 @@
 // Route modules import only types from server/; the instances come from here.
 import type { Authenticator } from "remix-auth";
 import type { AuthUser } from "./auth/authenticator";
+import type { RateLimiter } from "./auth/rate-limit";
 import type { SessionStore } from "./auth/sessions";
 import type { Db } from "./db/client";
+import type { MailCatcher } from "./mail/catcher";
+import type { Mailer } from "./mail/mailer";
 
 export interface AppServices {
   db: Db;
   sessions: SessionStore;
   authenticator: Authenticator<AuthUser>;
-  /** True when the local mail catcher and the demo helpers are available. */
-  development: boolean;
+  /** Per-token request budget for the JSON API. */
+  tokenLimiter: RateLimiter;
+  mailer: Mailer;
+  /** The local mail catcher, when SMTP_URL is not set. */
+  mailCatcher: MailCatcher | null;
 }
 
 export interface RequestContext extends AppServices {

@@ -3,10 +3,13 @@
 import http from "node:http";
 import path from "node:path";
 import { createAuthenticator } from "./auth/authenticator";
+import { RateLimiter } from "./auth/rate-limit";
 import { createSessionStore } from "./auth/sessions";
 import { createApp } from "./app";
 import { applyMigrations, connect, ensureDatabase } from "./db/client";
 import { readEnv } from "./env";
+import { startMailCatcher } from "./mail/catcher";
+import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
 import { sessionSecret } from "./secret";
 import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
@@ -27,11 +30,16 @@ if ((embedded || env.SEED_DEMO === "1") && (await seedDemoIfEmpty(database.db)))
   console.log("Seeded the demo workspace.");
 }
 
+const mailCatcher = env.SMTP_URL ? null : await startMailCatcher();
+const mailer = createMailer(env.SMTP_URL ?? mailCatcher!.url);
+
 const services = {
   db: database.db,
   sessions: createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), false),
   authenticator: createAuthenticator(database.db),
-  development: dev || env.NODE_ENV !== "production" || !env.SMTP_URL,
+  tokenLimiter: new RateLimiter(120, 60_000),
+  mailer,
+  mailCatcher,
 };
 
 const server = http.createServer();
@@ -57,6 +65,7 @@ async function shutdown() {
   await new Promise((resolve) => server.close(resolve));
   await vite?.close();
   await database.close();
+  await mailCatcher?.close();
   embedded?.stop();
   process.exit(0);
 }

@@ -1,33 +1,62 @@
-// Who is calling: the signed-in user behind the session cookie, if any.
-import { eq } from "drizzle-orm";
+// Who is calling: a signed-in user (session cookie or API token), a view-link visitor, or nobody.
 import { redirect, type AppLoadContext } from "react-router";
 import type { AuthUser } from "../../server/auth/authenticator";
-import { users } from "../../server/db/schema";
+import { identifyCaller, type Caller } from "../../server/auth/caller";
+import { httpError } from "./http";
 
 export interface RequestArgs {
   request: Request;
   context: AppLoadContext;
 }
 
-export async function getUser({ request, context }: RequestArgs): Promise<AuthUser | null> {
-  const session = await context.sessions.getSession(request.headers.get("Cookie"));
-  const userId = session.get("userId");
-  if (!userId) return null;
-  const user = await context.db.query.users.findFirst({ where: eq(users.id, userId) });
-  return user ? { id: user.id, email: user.email, name: user.name } : null;
+const callers = new WeakMap<Request, Promise<Caller>>();
+
+async function resolveCaller({ request, context }: RequestArgs): Promise<Caller> {
+  const caller = await identifyCaller(context.db, context.sessions, {
+    cookie: request.headers.get("Cookie"),
+    authorization: request.headers.get("Authorization"),
+  });
+  if (caller === "bad-token") throw httpError(401, "That access token is not valid: it was revoked or mistyped.");
+  if (caller.tokenId && !context.tokenLimiter.allow(caller.tokenId)) {
+    throw httpError(429, "Too many requests with this token. Wait a minute and try again.");
+  }
+  return caller;
+}
+
+/** Resolved once per request, however many helpers ask. */
+export function getCaller(args: RequestArgs): Promise<Caller> {
+  let caller = callers.get(args.request);
+  if (!caller) callers.set(args.request, (caller = resolveCaller(args)));
+  return caller;
+}
+
+export async function getUser(args: RequestArgs): Promise<AuthUser | null> {
+  return (await getCaller(args)).user;
 }
 
 export function isApiRequest(request: Request): boolean {
   return new URL(request.url).pathname.startsWith("/api/");
 }
 
-/** The signed-in user, or a redirect to the sign-in page (401 JSON for the API). */
+/** What a signed-out caller gets: a redirect to sign in, or 401 JSON from the API. */
+export function signInRequired(request: Request): Response {
+  if (isApiRequest(request)) return httpError(401, "Sign in first, or send Authorization: Bearer TOKEN.");
+  const url = new URL(request.url);
+  return redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+}
+
 export async function requireUser(args: RequestArgs): Promise<AuthUser> {
   const user = await getUser(args);
-  if (user) return user;
-  if (isApiRequest(args.request)) throw Response.json({ error: "Sign in first." }, { status: 401 });
-  const url = new URL(args.request.url);
-  throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+  if (!user) throw signInRequired(args.request);
+  return user;
+}
+
+/** A user signed in through the browser session; API tokens cannot mint tokens. */
+export async function requireSessionUser(args: RequestArgs): Promise<AuthUser> {
+  const caller = await getCaller(args);
+  if (!caller.user) throw signInRequired(args.request);
+  if (caller.via !== "session") throw httpError(403, "This needs a signed-in browser session, not an access token.");
+  return caller.user;
 }
 
 /** Only paths on this site may be followed after sign-in. */

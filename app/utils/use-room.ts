@@ -1,13 +1,12 @@
 // The live room of one mechanism: a Y.Doc kept in step with the collaboration server over
 // y-websocket, this user's presence in it, and the server's latest analysis as React state.
 import { useEffect, useState } from "react";
+import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
 import type { Role } from "../../server/db/roles";
 
 export type RoomStatus = "connecting" | "online" | "offline";
-
-type Awareness = WebsocketProvider["awareness"];
 
 /** What every client publishes about itself in the room's awareness. */
 export interface PeerUser {

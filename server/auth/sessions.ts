@@ -7,6 +7,8 @@ import { sessions } from "../db/schema";
 
 export interface SessionData {
   userId: string;
+  /** View-link tokens this browser has opened; they grant viewer access while live. */
+  viewTokens: string[];
 }
 
 export type SessionStore = SessionStorage<SessionData>;

@@ -65,7 +65,7 @@ export const roleChanges = pgTable(
     actorId: uuid("actor_id").references(() => users.id, { onDelete: "set null" }),
     subjectId: uuid("subject_id").references(() => users.id, { onDelete: "set null" }),
     subjectEmail: text("subject_email").notNull(),
-    action: text("action", { enum: ["grant", "change", "revoke", "transfer", "create", "delete"] }).notNull(),
+    action: text("action", { enum: ["grant", "change", "revoke", "transfer", "delete", "invite", "uninvite", "accept", "link", "unlink"] }).notNull(),
     fromRole: text("from_role"),
     toRole: text("to_role"),
     at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),

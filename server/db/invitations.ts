@@ -1,0 +1,104 @@
+// E-mail invitations: a single-use, expiring link that grants a role when accepted.
+import { and, desc, eq, isNull } from "drizzle-orm";
+import { hashSecret, newSecret } from "../auth/secrets";
+import type { Db } from "./client";
+import { MembershipError, roleOf, type MemberRole } from "./mechanisms";
+import { invitations, mechanisms, memberships, roleChanges, users } from "./schema";
+
+export const INVITATION_DAYS = 7;
+
+/** Creates an invitation (replacing a pending one to the same address) and returns its token. */
+export async function createInvitation(db: Db, actorId: string, mechanismId: string, email: string, role: MemberRole) {
+  const address = email.trim().toLowerCase();
+  const existing = await db.query.users.findFirst({ where: eq(users.email, address) });
+  if (existing && (await roleOf(db, mechanismId, existing.id))) {
+    throw new MembershipError(`${existing.name} is already a member. Change the role in the table instead.`);
+  }
+  const secret = newSecret("inv");
+  const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86400_000);
+  const invitation = await db.transaction(async (tx) => {
+    await tx
+      .update(invitations)
+      .set({ revokedAt: new Date() })
+      .where(and(eq(invitations.mechanismId, mechanismId), eq(invitations.email, address), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)));
+    const [row] = await tx.insert(invitations).values({ mechanismId, email: address, role, tokenHash: secret.hash, invitedBy: actorId, expiresAt }).returning();
+    await tx.insert(roleChanges).values({ mechanismId, actorId, subjectEmail: address, action: "invite", toRole: role });
+    return row;
+  });
+  return { invitation, token: secret.token };
+}
+
+export async function pendingInvitations(db: Db, mechanismId: string) {
+  const rows = await db
+    .select()
+    .from(invitations)
+    .where(and(eq(invitations.mechanismId, mechanismId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+    .orderBy(desc(invitations.createdAt));
+  return rows.map((r) => ({ id: r.id, email: r.email, role: r.role, createdAt: r.createdAt, expiresAt: r.expiresAt, expired: r.expiresAt < new Date() }));
+}
+
+export async function findPendingInvitation(db: Db, mechanismId: string, invitationId: string) {
+  const [row] = await db
+    .select()
+    .from(invitations)
+    .where(and(eq(invitations.id, invitationId), eq(invitations.mechanismId, mechanismId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)));
+  return row;
+}
+
+export async function revokeInvitation(db: Db, actorId: string, mechanismId: string, invitationId: string) {
+  const row = await findPendingInvitation(db, mechanismId, invitationId);
+  if (!row) throw new MembershipError("That invitation is no longer pending.");
+  await db.transaction(async (tx) => {
+    await tx.update(invitations).set({ revokedAt: new Date() }).where(eq(invitations.id, invitationId));
+    await tx.insert(roleChanges).values({ mechanismId, actorId, subjectEmail: row.email, action: "uninvite", fromRole: row.role });
+  });
+}
+
+export type InvitationLookup =
+  | { ok: true; invitation: typeof invitations.$inferSelect; title: string; inviter: string }
+  | { ok: false; reason: string };
+
+/** What a token opens, or why it opens nothing (used, revoked, expired, unknown). */
+export async function lookUpInvitation(db: Db, token: string): Promise<InvitationLookup> {
+  const [row] = await db
+    .select({ invitation: invitations, title: mechanisms.title, inviter: users.name })
+    .from(invitations)
+    .innerJoin(mechanisms, eq(mechanisms.id, invitations.mechanismId))
+    .leftJoin(users, eq(users.id, invitations.invitedBy))
+    .where(eq(invitations.tokenHash, hashSecret(token)));
+  if (!row) return { ok: false, reason: "This invitation link is not valid." };
+  if (row.invitation.acceptedAt) return { ok: false, reason: "This invitation was already used." };
+  if (row.invitation.revokedAt) return { ok: false, reason: "This invitation was withdrawn by the owner." };
+  if (row.invitation.expiresAt < new Date()) return { ok: false, reason: "This invitation has expired. Ask the owner for a new one." };
+  return { ok: true, invitation: row.invitation, title: row.title, inviter: row.inviter ?? "The owner" };
+}
+
+/** Grants the invited role to `user` (whose address must be the invited one), once. */
+export async function acceptInvitation(db: Db, token: string, user: { id: string; email: string }) {
+  const found = await lookUpInvitation(db, token);
+  if (!found.ok) throw new MembershipError(found.reason);
+  const { invitation } = found;
+  if (invitation.email !== user.email) {
+    throw new MembershipError(`This invitation is for ${invitation.email}; you are signed in as ${user.email}.`);
+  }
+  await db.transaction(async (tx) => {
+    // Single use even under a double click: only the first update finds the row still pending.
+    const claimed = await tx
+      .update(invitations)
+      .set({ acceptedAt: new Date(), acceptedBy: user.id })
+      .where(and(eq(invitations.id, invitation.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+      .returning({ id: invitations.id });
+    if (claimed.length === 0) throw new MembershipError("This invitation was already used.");
+    const current = await roleOf(tx as unknown as Db, invitation.mechanismId, user.id);
+    if (!current) await tx.insert(memberships).values({ mechanismId: invitation.mechanismId, userId: user.id, role: invitation.role });
+    await tx.insert(roleChanges).values({
+      mechanismId: invitation.mechanismId,
+      actorId: invitation.invitedBy,
+      subjectId: user.id,
+      subjectEmail: user.email,
+      action: "accept",
+      toRole: current ?? invitation.role,
+    });
+  });
+  return invitation.mechanismId;
+}
