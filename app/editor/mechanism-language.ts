@@ -4,6 +4,7 @@ import { foldService, LanguageSupport, LRLanguage } from "@codemirror/language";
 import type { EditorState } from "@codemirror/state";
 import { mechanismHighlighting } from "../../grammar/highlight";
 import { parser } from "../../grammar/parser";
+import { completeMechanismNames } from "./complete";
 import { quoteMatching } from "./quote-matching";
 
 export const mechanismLanguage = LRLanguage.define({
@@ -12,6 +13,7 @@ export const mechanismLanguage = LRLanguage.define({
   languageData: {
     commentTokens: { line: "#" },
     closeBrackets: { brackets: ["[", "{", '"'] },
+    autocomplete: completeMechanismNames,
   },
 });
 

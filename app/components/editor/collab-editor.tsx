@@ -1,0 +1,123 @@
+// The shared mechanism text: CodeMirror bound to the room's `source` Y.Text, with co-authors'
+// carets, the mechanism language, live diagnostics, completion and undo of one's own edits only.
+import { autocompletion, closeBrackets, closeBracketsKeymap, completionKeymap } from "@codemirror/autocomplete";
+import { defaultKeymap } from "@codemirror/commands";
+import { bracketMatching, foldGutter, foldKeymap } from "@codemirror/language";
+import { lintGutter, lintKeymap } from "@codemirror/lint";
+import { highlightSelectionMatches, searchKeymap } from "@codemirror/search";
+import { EditorState, type Extension } from "@codemirror/state";
+import {
+  drawSelection,
+  EditorView,
+  highlightActiveLine,
+  highlightActiveLineGutter,
+  highlightSpecialChars,
+  keymap,
+  lineNumbers,
+} from "@codemirror/view";
+import { type Ref, useEffect, useImperativeHandle, useRef } from "react";
+import { yCollab, yUndoManagerKeymap } from "y-codemirror.next";
+import type { Awareness } from "y-protocols/awareness";
+import * as Y from "yjs";
+import { mechanismLinter } from "~/editor/lint";
+import { mechanism } from "~/editor/mechanism-language";
+import { editorTheme } from "./editor-theme";
+import { linkedRanges, showLinkedRanges, type TextRange } from "./linked-ranges";
+
+export type { TextRange } from "./linked-ranges";
+
+export interface CollabEditorHandle {
+  /** Points out the given ranges of the text (e.g. the steps behind a graph node); [] clears. */
+  highlight(ranges: readonly TextRange[]): void;
+  focus(): void;
+}
+
+export interface CollabEditorProps {
+  /** The room's `source` text; null until the room exists in the browser. */
+  source: Y.Text | null;
+  awareness: Awareness | null;
+  /** Viewers follow the text live but cannot change it. */
+  readOnly: boolean;
+  ref?: Ref<CollabEditorHandle>;
+  className?: string;
+  label?: string;
+}
+
+export function CollabEditor({ source, awareness, readOnly, ref, className, label = "Mechanism text" }: CollabEditorProps) {
+  const host = useRef<HTMLDivElement>(null);
+  const view = useRef<EditorView | null>(null);
+
+  // Built in an effect, so the editor exists only in the browser; server rendering sends the host.
+  useEffect(() => {
+    if (!source || !host.current) return;
+    // Undo covers this client's own edits, never a co-author's, and a viewer has none.
+    const undoManager = readOnly ? false : new Y.UndoManager(source);
+    const editor = new EditorView({
+      parent: host.current,
+      state: EditorState.create({
+        doc: source.toString(),
+        extensions: editorExtensions({ source, awareness, undoManager, readOnly, label }),
+      }),
+    });
+    view.current = editor;
+    return () => {
+      editor.destroy();
+      if (undoManager) undoManager.destroy();
+      view.current = null;
+    };
+  }, [source, awareness, readOnly, label]);
+
+  useImperativeHandle(
+    ref,
+    () => ({
+      highlight: (ranges) => {
+        if (view.current) showLinkedRanges(view.current, ranges);
+      },
+      focus: () => view.current?.focus(),
+    }),
+    [],
+  );
+
+  return <div ref={host} className={className} data-testid="collab-editor" data-readonly={readOnly || undefined} />;
+}
+
+interface EditorSetup {
+  source: Y.Text;
+  awareness: Awareness | null;
+  undoManager: Y.UndoManager | false;
+  readOnly: boolean;
+  label: string;
+}
+
+function editorExtensions({ source, awareness, undoManager, readOnly, label }: EditorSetup): Extension[] {
+  return [
+    lineNumbers(),
+    foldGutter(),
+    lintGutter(),
+    highlightActiveLineGutter(),
+    highlightSpecialChars(),
+    drawSelection(),
+    highlightActiveLine(),
+    highlightSelectionMatches(),
+    bracketMatching(),
+    closeBrackets(),
+    autocompletion(),
+    mechanism(),
+    mechanismLinter,
+    linkedRanges,
+    editorTheme,
+    yCollab(source, awareness, { undoManager }),
+    keymap.of([
+      ...closeBracketsKeymap,
+      ...(undoManager ? yUndoManagerKeymap : []),
+      ...defaultKeymap,
+      ...searchKeymap,
+      ...foldKeymap,
+      ...completionKeymap,
+      ...lintKeymap,
+    ]),
+    EditorState.readOnly.of(readOnly),
+    EditorView.editable.of(!readOnly),
+    EditorView.contentAttributes.of({ "aria-label": label }),
+  ];
+}
