@@ -4,13 +4,13 @@ import { atLeast } from "../../server/db/roles";
 import { RolePill } from "~/components/role-pill";
 import { titleField } from "~/utils/fields";
 import { timeAgo } from "~/utils/format";
-import { httpError, requireRole } from "~/utils/permissions.server";
+import { httpError, requireRole, requireViewAccess } from "~/utils/permissions.server";
 import type { Route } from "./+types/mechanism";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.mechanism.title ?? "Mechanism"} · Mechweave` }];
 
 export async function loader(args: Route.LoaderArgs) {
-  const { mechanism, role } = await requireRole(args, args.params.id, "viewer");
+  const { mechanism, role } = await requireViewAccess(args, args.params.id);
   return {
     role,
     mechanism: { id: mechanism.id, title: mechanism.title, summary: mechanism.summary, source: mechanism.source, updatedAt: mechanism.updatedAt.toISOString() },
