@@ -1,0 +1,98 @@
+// Runs the real CLI as scripts do. Sources: Lorenz (1963) and Rössler (1976) for the systems,
+// Hárs and Tóth (1979) for the negative cross effect criterion and the canonical realization.
+import { execFile } from "node:child_process";
+import { promisify } from "node:util";
+import { describe, expect, it } from "vitest";
+import { buildNetwork } from "~/chem/network";
+import { parseOde } from "~/chem/ode/parse";
+import * as P from "~/chem/ode/polynomial";
+import { parseMechanism } from "~/chem/parse";
+import { massActionOf } from "~/chem/realize/from-network";
+import { inducedRhs } from "~/chem/realize/mass-action";
+import { readArguments } from "./realize";
+
+const exec = promisify(execFile);
+
+async function realize(...args: string[]) {
+  try {
+    const { stdout, stderr } = await exec("npx", ["tsx", "server/cli/main.ts", "realize", ...args]);
+    return { code: 0, stdout, stderr };
+  } catch (error) {
+    const { code, stdout, stderr } = error as { code: number; stdout: string; stderr: string };
+    return { code, stdout, stderr };
+  }
+}
+
+const fixture = (name: string) => `tests/fixtures/ode/${name}`;
+const pairs = (effects: { equation: string; term: string }[]) => effects.map(({ equation, term }) => ({ equation, term }));
+
+describe("mechweave realize", () => {
+  it("Lorenz: not kinetic because of -x*z in y', with a suggested shift", async () => {
+    const { code, stdout } = await realize(fixture("lorenz.ode"), "--json");
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    expect(out).toMatchObject({ kinetic: false, mechanism: null, maxOrder: null });
+    expect(pairs(out.negativeCrossEffects)).toEqual([{ equation: "y", term: "-x*z" }]);
+    expect(out.negativeCrossEffects[0].spans[0]).toMatchObject({ line: 7, column: 6 });
+    for (const v of ["x", "y", "z"]) expect(out.boundingBox[v].min + out.suggestedShift[v]).toBeGreaterThan(0);
+  });
+
+  it("Lorenz shifted and multiplied: order five, and the mechanism's ODE is the transformed ODE", async () => {
+    const { code, stdout } = await realize(fixture("lorenz.ode"), "--shift", "x=30,y=40,z=10", "--multiply", "--json");
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    expect(out).toMatchObject({ kinetic: true, maxOrder: 5, negativeCrossEffects: [], original: { kinetic: false } });
+    expect(out.notes.join(" ")).toContain("only supported numerically, not proved");
+    const transformed = parseOde(out.transformedOde).exact!;
+    const read = parseMechanism(out.mechanism);
+    expect(read.diagnostics).toEqual([]);
+    const induced = inducedRhs(massActionOf(buildNetwork(read.mechanism)));
+    // The text carries doubles; compare with the transformed ODE's coefficients as doubles, exactly.
+    transformed.rhs.forEach((p, i) => expect(P.equals(induced[i], P.fromMonomials(P.toMonomials(p)))).toBe(true));
+  });
+
+  it("--shift without a value uses the suggested shift", async () => {
+    const out = JSON.parse((await realize(fixture("rossler.ode"), "--shift", "--multiply", "--json")).stdout);
+    expect(out.transformations[0]).toEqual({ kind: "translation", shift: out.suggestedShift });
+    expect(out.kinetic).toBe(true);
+  });
+
+  it("Rössler: -y and -z in x'", async () => {
+    const out = JSON.parse((await realize(fixture("rossler.ode"), "--json")).stdout);
+    expect(pairs(out.negativeCrossEffects)).toEqual([
+      { equation: "x", term: "-y" },
+      { equation: "x", term: "-z" },
+    ]);
+  });
+
+  it("Lotka–Volterra is kinetic; its canonical realization has one step per term", async () => {
+    const out = JSON.parse((await realize(fixture("lotka-volterra.ode"), "--json")).stdout);
+    expect(out).toMatchObject({ kinetic: true, negativeCrossEffects: [], maxOrder: 2, reactions: 4 });
+    expect(out.mechanism).toContain("x -> 2x @ 2");
+    expect(out.mechanism).toContain("y -> 0 @ 3");
+  });
+
+  it("exits 1 with diagnostics for errors in the file", async () => {
+    const bad = await realize(fixture("not-polynomial.ode"), "--json");
+    expect(bad.code).toBe(1);
+    expect(JSON.parse(bad.stdout).diagnostics[0]).toMatchObject({ line: 2, message: expect.stringContaining("division") });
+  });
+
+  it.each([[["--json"]], [[fixture("lorenz.ode"), "--shift", "w=3"]], [[fixture("lorenz.ode"), "--frobnicate"]], [["missing.ode"]]])(
+    "exits 2 on bad usage %j, without a stack trace",
+    async (args) => {
+      const usage = await realize(...args);
+      expect(usage.code).toBe(2);
+      expect(usage.stderr).not.toMatch(/\n\s+at /);
+    },
+  );
+});
+
+describe("readArguments", () => {
+  it("reads --shift with a value, without one, and before the file", () => {
+    expect(readArguments(["f.ode", "--shift", "x=20,y=30"]).request.shift).toEqual({ x: 20, y: 30 });
+    expect(readArguments(["f.ode", "--shift=x=1.5"]).request.shift).toEqual({ x: 1.5 });
+    expect(readArguments(["--shift", "f.ode"])).toMatchObject({ file: "f.ode", request: { shift: "suggested" } });
+    expect(() => readArguments(["f.ode", "--shift", "x=abc"])).toThrow(/cannot read the shift/);
+  });
+});
