@@ -42,6 +42,8 @@ class MechanismReader {
   private readonly diagnostics: Diagnostic[] = [];
   private readonly brokenAt: number[] = [];
   private readonly steps: Step[] = [];
+  /** complexKey of each step's two sides, parallel to `steps`. */
+  private readonly stepKeys: { reactants: string; products: string }[] = [];
   private readonly labels = new Map<string, number>();
   private readonly parameters = new Map<string, Declared>();
   private readonly parameterUses: NameUse[] = [];
@@ -227,8 +229,9 @@ class MechanismReader {
     const products = this.readComplex(right);
     if (!reactants || !products) return;
     const reversible = node.getChild("ReversibleArrow") !== null;
-    if (complexKey(reactants) === complexKey(products)) {
-      this.report("error", node, `The same complex ${complexKey(reactants)} is on both sides: this step changes nothing.`);
+    const keys = { reactants: complexKey(reactants), products: complexKey(products) };
+    if (keys.reactants === keys.products) {
+      this.report("error", node, `The same complex ${keys.reactants} is on both sides: this step changes nothing.`);
       return;
     }
     const step: Step = {
@@ -250,6 +253,7 @@ class MechanismReader {
       return;
     }
     this.steps.push(step);
+    this.stepKeys.push(keys);
   }
 
   private readLabel(node: SyntaxNode | null): string | null {
@@ -468,9 +472,8 @@ class MechanismReader {
 
   private checkDuplicateSteps(mechanism: Mechanism): void {
     const firstLine = new Map<string, number>();
-    for (const step of mechanism.steps) {
-      const reactants = complexKey(step.reactants);
-      const products = complexKey(step.products);
+    mechanism.steps.forEach((step, index) => {
+      const { reactants, products } = this.stepKeys[index];
       const directions = step.reversible ? [`${reactants} -> ${products}`, `${products} -> ${reactants}`] : [`${reactants} -> ${products}`];
       for (const reaction of directions) {
         const line = firstLine.get(reaction);
@@ -480,16 +483,18 @@ class MechanismReader {
           this.report("warning", step, `This step repeats the reaction ${reaction} of line ${line}; they are merged and their rate coefficients add.`);
         }
       }
-      const unchanged = (terms: Term[]) => terms.filter((term) => !(term.species in mechanism.fixed));
-      if (complexKey(unchanged(step.reactants)) === complexKey(unchanged(step.products))) {
+      const unchanged = (terms: Term[]) => terms.filter((term) => !this.fixed.has(term.species));
+      const touchesFixed = this.fixed.size > 0 && [...step.reactants, ...step.products].some((term) => this.fixed.has(term.species));
+      if (touchesFixed && complexKey(unchanged(step.reactants)) === complexKey(unchanged(step.products))) {
         this.report("warning", step, "With its fixed species held constant this step changes no concentration; the structure leaves it out.");
       }
-    }
+    });
   }
 }
 
 /** A complex's identity independent of term order and repetition, e.g. `2X + Y`. */
 function complexKey(terms: Term[]): string {
+  if (terms.length === 1) return terms[0].coefficient === 1 ? terms[0].species : `${terms[0].coefficient}${terms[0].species}`;
   const totals = new Map<string, number>();
   for (const { species, coefficient } of terms) totals.set(species, (totals.get(species) ?? 0) + coefficient);
   const names = [...totals.keys()].sort();
