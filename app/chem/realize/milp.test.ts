@@ -54,9 +54,10 @@ describe("equivalent realizations by MILP", () => {
   });
 
   it("Lotka–Volterra: the sparse realization with 2Y available is the textbook three-step scheme", async () => {
-    // Minimum three: the ODE has three distinct monomials x, x*y, y and each needs a reaction from
-    // its own complex. Szederkényi (2010) reports sparse realizations of this size for the
-    // Lotka–Volterra example (from memory, not checked against the paper).
+    // Minimum three, proved by hand: the ODE has three distinct monomials x, x*y, y and each needs
+    // a reaction out of its own complex. Which textbook example and figure Szederkényi (2010) uses
+    // could not be checked here (from memory only, so no figure from the paper is asserted); this
+    // test asserts the hand-proved minimum instead.
     const { exact } = parseOde("x' = 2*x - 0.5*x*y\ny' = 0.5*x*y - 3*y\n");
     const outcome = await searchRealization(realizationProblem(exact!, [[0, 2]]), "sparse", { deadline: deadline() });
     expect(outcome.status === "found" && steps(outcome.mechanism)).toEqual(["x + y -> 2y", "x -> 2x", "y -> 0"]);

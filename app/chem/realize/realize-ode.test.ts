@@ -1,0 +1,46 @@
+// The API entry point. Sources: Lorenz (1963); Hárs and Tóth (1979); Feinberg (1987) for the
+// deficiency-zero network A ⇌ 2B, A + C ⇌ D ⇌ B + E.
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { equivalentRealizationsOfMechanism } from "./equivalents";
+import { realizeOde, RealizeRequestError } from "./realize-ode";
+
+const lorenz = readFileSync("tests/fixtures/ode/lorenz.ode", "utf8");
+
+describe("realizeOde", () => {
+  it("realizes Lorenz with the suggested shift and the product of the variables, at order five", async () => {
+    const result = await realizeOde({ ode: lorenz, shift: "suggested", multiply: true });
+    expect(result).toMatchObject({ kinetic: true, maxOrder: 5, original: { kinetic: false, degree: 2 } });
+    expect(result.transformations.map((t) => t.kind)).toEqual(["translation", "multiplication"]);
+    expect(result.notes.join("\n")).toMatch(/only supported numerically, not proved: the simulated trajectory .* stays in it/);
+    expect(result.transformedOde).toContain("x(0) = 22");
+  });
+
+  it("says when a given shift is too small for the simulated trajectory", async () => {
+    const result = await realizeOde({ ode: lorenz, shift: { x: 1, y: 1, z: 1 }, multiply: true });
+    expect(result.kinetic).toBe(true);
+    expect(result.notes.join("\n")).toContain("leaves it (in x, y");
+  });
+
+  it("rejects a shift of a variable the ODE does not have", async () => {
+    await expect(realizeOde({ ode: lorenz, shift: { w: 1 } })).rejects.toBeInstanceOf(RealizeRequestError);
+  });
+
+  it("returns the diagnostics of a faulty ODE", async () => {
+    const result = await realizeOde({ ode: "x' = sin(x)\n" });
+    expect(result.mechanism).toBeNull();
+    expect(result.diagnostics[0]).toMatchObject({ line: 1, column: 6 });
+  });
+});
+
+describe("equivalent realizations of a mechanism", () => {
+  it("Feinberg's deficiency-zero network: dense contains its steps, and a weakly reversible one exists", async () => {
+    const source = "A <=> 2B @ 2, 1\nA + C <=> D @ 3, 1\nD <=> B + E @ 5, 4\n";
+    const found = await equivalentRealizationsOfMechanism(source, { timeLimitMs: 20_000 });
+    for (const step of ["A -> 2B", "2B -> A", "A + C -> D", "D -> A + C", "D -> B + E", "B + E -> D"]) {
+      expect(found.dense.mechanism).toContain(`\n${step} @`);
+    }
+    expect(found.sparse.status).toBe("found");
+    expect(found.weaklyReversible.status).toBe("found");
+  });
+});
