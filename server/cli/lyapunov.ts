@@ -1,7 +1,8 @@
 // `mechweave lyapunov FILE --until T [--transient T0] [--interval τ] [--rtol R --atol A] [--method …] [--json]`
 // → { "largest", "converged", "transient", "until", "renormalisations", "history", "stats" }.
 
-import { networkLyapunov, polynomialLyapunov, type LyapunovResult } from "~/chem/kinetics/lyapunov";
+import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
+import { runJob } from "../sim/job";
 import { runModelCommand, UsageError } from "./simulate";
 
 export function run(args: string[]): Promise<number> {
@@ -19,7 +20,7 @@ export function run(args: string[]): Promise<number> {
         atol: flags.atol as number | undefined,
         method: flags.method as "auto" | "stiff" | "explicit" | undefined,
       };
-      return model.kind === "ode" ? polynomialLyapunov(model.ode, options) : networkLyapunov(model.mechanism, model.network, options);
+      return runJob({ kind: "lyapunov", model, options });
     },
     (result: LyapunovResult) =>
       [

@@ -7,13 +7,12 @@ import { readFile } from "node:fs/promises";
 import { extname } from "node:path";
 import { IntegrationFailure, SimulationInputError } from "~/chem/kinetics/errors";
 import { METHODS, settingsProblem } from "~/chem/kinetics/settings";
-import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
-import type { Diagnostic, Mechanism, Network, PolynomialOde } from "~/chem/model";
+import type { SimulationResult } from "~/chem/kinetics/simulate";
+import type { Diagnostic } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
 import { parseMechanism } from "~/chem/parse";
-
-export type LoadedModel = { kind: "mechanism"; mechanism: Mechanism; network: Network } | { kind: "ode"; ode: PolynomialOde };
+import { runJob, type DynamicsModel } from "../sim/job";
 
 export class UsageError extends Error {}
 
@@ -55,7 +54,7 @@ export function readCommandLine(args: string[], declared: Record<string, FlagKin
 }
 
 /** Reads and parses a model file; diagnostics carry the file's errors (then `model` is null). */
-export async function loadModel(file: string): Promise<{ model: LoadedModel | null; diagnostics: Diagnostic[] }> {
+export async function loadModel(file: string): Promise<{ model: DynamicsModel | null; diagnostics: Diagnostic[] }> {
   const extension = extname(file);
   if (extension !== ".weave" && extension !== ".ode") throw new UsageError(`FILE must be a .weave mechanism or a .ode system, not "${file}"`);
   let text: string;
@@ -82,7 +81,7 @@ export async function runModelCommand(
   command: string,
   args: string[],
   declared: Record<string, FlagKind>,
-  body: (model: LoadedModel, flags: Record<string, FlagValue>) => unknown,
+  body: (model: DynamicsModel, flags: Record<string, FlagValue>) => unknown,
   printText: (result: never) => string,
 ): Promise<number> {
   const fail = (message: string, code: number, json: boolean, diagnostics: Diagnostic[] = []) => {
@@ -129,7 +128,7 @@ export function run(args: string[]): Promise<number> {
       };
       const problem = settingsProblem(settings);
       if (problem) throw new UsageError(problem);
-      const result = model.kind === "ode" ? simulatePolynomialOde(model.ode, settings) : simulateNetwork(model.mechanism, model.network, settings);
+      const result = runJob({ kind: "simulate", model, settings });
       return { t: result.t, series: result.series, stats: result.stats };
     },
     (result: Pick<SimulationResult, "t" | "series" | "stats">) => {

@@ -104,6 +104,7 @@ export function largestLyapunovExponent(system: OdeSystem, options: LyapunovOpti
     }
   }
 
+  if (reported < 1) options.onProgress?.(1);
   const largest = estimates[estimates.length - 1].estimate;
   const lastQuarter = estimates.filter((e) => e.t >= until - (until - transient) / 4);
   const tolerance = Math.max(0.05 * Math.abs(largest), 0.005);

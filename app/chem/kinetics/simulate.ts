@@ -55,6 +55,7 @@ export function simulateSystem(system: OdeSystem, options: SimulationOptions): S
       options.onProgress(fraction);
     }
   });
+  if (reported < 1) options.onProgress?.(1);
   const series: Record<string, number[]> = {};
   system.names.forEach((name, v) => (series[name] = columns[v]));
   return {

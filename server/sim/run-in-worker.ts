@@ -1,0 +1,149 @@
+// Runs dynamics jobs off the event loop: each job in its own worker thread, with limits on model
+// size, samples, wall time and heap, progress callbacks, and cancellation by AbortSignal (the
+// worker is terminated, so even a step that never returns is stopped). At most `concurrency` jobs
+// run at once; the rest wait in order.
+
+import { createRequire } from "node:module";
+import { fileURLToPath } from "node:url";
+import { Worker } from "node:worker_threads";
+import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
+import { MAX_SWEEP_POINTS } from "~/chem/kinetics/sweep";
+import { modelSize, type DynamicsJob, type JobResult } from "./job";
+import type { WorkerMessage } from "./worker";
+
+export interface RunLimits {
+  /** Wall-clock limit per job, queueing excluded. */
+  timeMs: number;
+  /** Dense linear algebra is O(n³) per step: beyond a few hundred species a run cannot finish in time. */
+  maxVariables: number;
+  maxReactions: number;
+  maxSamples: number;
+  maxSweepPoints: number;
+  heapMb: number;
+}
+
+export const DEFAULT_LIMITS: RunLimits = {
+  timeMs: 60_000,
+  maxVariables: 500,
+  maxReactions: 5_000,
+  maxSamples: 20_000,
+  maxSweepPoints: 200,
+  heapMb: 512,
+};
+
+/** A job is bigger or longer than this server runs (HTTP 413 for size, 422 or 503 for time is the caller's choice). */
+export class SimulationLimitError extends Error {
+  override name = "SimulationLimitError";
+}
+
+export interface RunOptions {
+  limits?: Partial<RunLimits>;
+  onProgress?: (fraction: number) => void;
+  signal?: AbortSignal;
+}
+
+const rebuilt: Record<string, new (message: string) => Error> = {
+  SimulationInputError,
+  IntegrationFailure,
+};
+
+// The server and the tests run TypeScript through tsx, and the worker needs the same. On Node 20
+// `execArgv: ["--import", "tsx"]` does not reach a worker's entry file and ESM loader hooks do not
+// apply inside workers, but tsx's CommonJS require hook does: the worker boots through it.
+const workerBootstrap = [
+  `require(${JSON.stringify(createRequire(import.meta.url).resolve("tsx/cjs/api"))}).register();`,
+  `require(${JSON.stringify(fileURLToPath(new URL("./worker.ts", import.meta.url)))});`,
+].join("\n");
+
+let concurrency = 2;
+let running = 0;
+const waiting: (() => void)[] = [];
+
+/** How many jobs may run at the same time (the machine's cores are shared with requests). */
+export function setWorkerConcurrency(count: number): void {
+  concurrency = Math.max(1, Math.floor(count));
+}
+
+export async function runInWorker<J extends DynamicsJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
+  const limits = { ...DEFAULT_LIMITS, ...options.limits };
+  checkSize(job, limits);
+  await acquireSlot(options.signal);
+  try {
+    return await runWorker(job, limits, options);
+  } finally {
+    releaseSlot();
+  }
+}
+
+function checkSize(job: DynamicsJob, limits: RunLimits): void {
+  const { variables, reactions } = modelSize(job.model);
+  if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`);
+  if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`);
+  const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" ? job.options.samples : 0;
+  if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`);
+  const points = job.kind === "sweep" ? job.options.points : 0;
+  if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`);
+}
+
+function acquireSlot(signal?: AbortSignal): Promise<void> {
+  if (signal?.aborted) return Promise.reject(new SimulationCancelled());
+  if (running < concurrency) {
+    running++;
+    return Promise.resolve();
+  }
+  return new Promise((resolve, reject) => {
+    const start = () => {
+      signal?.removeEventListener("abort", cancel);
+      running++;
+      resolve();
+    };
+    const cancel = () => {
+      waiting.splice(waiting.indexOf(start), 1);
+      reject(new SimulationCancelled());
+    };
+    signal?.addEventListener("abort", cancel, { once: true });
+    waiting.push(start);
+  });
+}
+
+function releaseSlot(): void {
+  running--;
+  waiting.shift()?.();
+}
+
+function runWorker<J extends DynamicsJob>(job: J, limits: RunLimits, { onProgress, signal }: RunOptions): Promise<JobResult<J>> {
+  return new Promise((resolve, reject) => {
+    if (signal?.aborted) return reject(new SimulationCancelled());
+    const worker = new Worker(workerBootstrap, {
+      eval: true,
+      workerData: job,
+      resourceLimits: { maxOldGenerationSizeMb: limits.heapMb },
+    });
+    let settled = false;
+    const finish = (outcome: () => void) => {
+      if (settled) return;
+      settled = true;
+      clearTimeout(timer);
+      signal?.removeEventListener("abort", cancel);
+      void worker.terminate();
+      outcome();
+    };
+    const timer = setTimeout(
+      () => finish(() => reject(new SimulationLimitError(`the run took longer than ${limits.timeMs / 1000} s and was stopped`))),
+      limits.timeMs,
+    );
+    const cancel = () => finish(() => reject(new SimulationCancelled()));
+    signal?.addEventListener("abort", cancel, { once: true });
+
+    worker.on("message", (message: WorkerMessage) => {
+      if (message.type === "progress") onProgress?.(message.fraction);
+      else if (message.type === "result") finish(() => resolve(message.result as JobResult<J>));
+      else finish(() => reject(new (rebuilt[message.name] ?? Error)(message.message)));
+    });
+    worker.on("error", (error) => {
+      const outOfMemory = (error as NodeJS.ErrnoException).code === "ERR_WORKER_OUT_OF_MEMORY";
+      finish(() => reject(outOfMemory ? new SimulationLimitError(`the run needed more than ${limits.heapMb} MB and was stopped`) : error));
+    });
+    worker.on("exit", (code) => finish(() => reject(new Error(`the simulation worker stopped unexpectedly (exit code ${code})`))));
+  });
+}
