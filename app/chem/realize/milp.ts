@@ -10,6 +10,7 @@ import * as P from "../ode/polynomial";
 import * as Q from "../ode/rational";
 import type { Rational } from "../ode/rational";
 import { snapToExact } from "./exact-solve";
+import type { Edge } from "../linkage";
 import type { MassActionMechanism, MassActionReaction } from "./mass-action";
 import { inducedRhs } from "./mass-action";
 import type { RealizationProblem } from "./problem";
@@ -33,7 +34,7 @@ export interface SearchOptions {
 }
 
 export type SearchOutcome =
-  | { status: "found"; mechanism: MassActionMechanism; edges: [number, number][]; optimal: boolean }
+  | { status: "found"; mechanism: MassActionMechanism; edges: Edge[]; optimal: boolean }
   | { status: "infeasible" }
   | { status: "time-limit" };
 
@@ -60,7 +61,7 @@ export async function searchRealization(problem: RealizationProblem, objective: 
   const highs = await loadSolver();
   const m = problem.complexes.length;
   const reactions: MassActionReaction[] = [];
-  const edges: [number, number][] = [];
+  const edges: Edge[] = [];
   let optimal = true;
   for (let j = 0; j < m; j++) {
     const remaining = (options.deadline - Date.now()) / 1000;
@@ -70,7 +71,7 @@ export async function searchRealization(problem: RealizationProblem, objective: 
     optimal &&= column.optimal;
     for (const [i, rate] of column.rates) {
       reactions.push({ reactant: problem.complexes[j], product: problem.complexes[i], rate });
-      edges.push([j, i]);
+      edges.push({ from: j, to: i });
     }
     options.onProgress?.({ stage: options.stage ?? objective, done: j + 1, total: m });
     // Lets progress reach the caller between the (synchronous) solver calls.

@@ -7,8 +7,9 @@
 // no weakly reversible realization on these complexes exists (provided each search was optimal).
 import type { SearchOptions, SearchOutcome } from "./milp";
 import { searchRealization } from "./milp";
+import type { Edge } from "../linkage";
 import type { RealizationProblem } from "./problem";
-import { strongComponents } from "./strong-components";
+import { analyzeLinkage } from "../linkage";
 
 export type WeakReversibilityOutcome = SearchOutcome | { status: "undetermined"; reason: string };
 
@@ -23,9 +24,16 @@ export async function searchWeaklyReversible(problem: RealizationProblem, option
         : outcome;
     }
     exact &&= outcome.optimal;
-    const component = strongComponents(problem.complexes.length, outcome.edges);
-    const crossing = outcome.edges.filter(([from, to]) => component[from] !== component[to]);
+    const component = strongComponentOf(problem.complexes.length, outcome.edges);
+    const crossing = outcome.edges.filter(({ from, to }) => component[from] !== component[to]);
     if (crossing.length === 0) return outcome;
-    for (const [from, to] of crossing) forbidden.add(`${from}>${to}`);
+    for (const { from, to } of crossing) forbidden.add(`${from}>${to}`);
   }
+}
+
+/** strongComponentOf[complex] labels its strong linkage class. */
+export function strongComponentOf(complexCount: number, edges: Edge[]): number[] {
+  const component: number[] = [];
+  analyzeLinkage(complexCount, edges).strongLinkageClasses.forEach((members, k) => members.forEach((c) => (component[c] = k)));
+  return component;
 }
