@@ -4,6 +4,7 @@ import type { Authenticator } from "remix-auth";
 import type { AuthUser } from "./auth/authenticator";
 import type { RateLimiter } from "./auth/rate-limit";
 import type { SessionStore } from "./auth/sessions";
+import type { CollabHub } from "./collab/hub";
 import type { Db } from "./db/client";
 import type { MailCatcher } from "./mail/catcher";
 import type { Mailer } from "./mail/mailer";
@@ -17,6 +18,8 @@ export interface AppServices {
   mailer: Mailer;
   /** The local mail catcher, when SMTP_URL is not set. */
   mailCatcher: MailCatcher | null;
+  /** The live collaboration rooms: role changes, API writes to the text, versions. */
+  collab: CollabHub;
 }
 
 export interface RequestContext extends AppServices {

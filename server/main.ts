@@ -1,11 +1,13 @@
 // Boots Mechweave: database (embedded PostgreSQL unless DATABASE_URL), migrations, demo seed,
-// services, and one http.Server for the app (and, later, the collaboration WebSocket).
+// services, and one http.Server for the app and the collaboration WebSocket.
 import http from "node:http";
 import path from "node:path";
 import { createAuthenticator } from "./auth/authenticator";
 import { RateLimiter } from "./auth/rate-limit";
 import { createSessionStore } from "./auth/sessions";
 import { createApp } from "./app";
+import { attachCollaboration } from "./collab/endpoint";
+import { identifyCaller } from "./collab/identify";
 import { applyMigrations, connect, ensureDatabase } from "./db/client";
 import { readEnv } from "./env";
 import { startMailCatcher } from "./mail/catcher";
@@ -33,16 +35,18 @@ if ((embedded || env.SEED_DEMO === "1") && (await seedDemoIfEmpty(database.db)))
 const mailCatcher = env.SMTP_URL ? null : await startMailCatcher();
 const mailer = createMailer(env.SMTP_URL ?? mailCatcher!.url);
 
+const server = http.createServer();
+const sessions = createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), false);
 const services = {
   db: database.db,
-  sessions: createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), false),
+  sessions,
   authenticator: createAuthenticator(database.db),
   tokenLimiter: new RateLimiter(120, 60_000),
   mailer,
   mailCatcher,
+  collab: attachCollaboration(server, { db: database.db, identify: identifyCaller(database.db, sessions) }),
 };
 
-const server = http.createServer();
 const vite = dev
   ? await (await import("vite")).createServer({ root: projectRoot, server: { middlewareMode: true, hmr: { server } } })
   : undefined;
@@ -61,6 +65,8 @@ let stopping = false;
 async function shutdown() {
   if (stopping) return;
   stopping = true;
+  // Rooms flush their updates, text and last analysis before the database goes away.
+  await services.collab.close();
   server.closeAllConnections();
   await new Promise((resolve) => server.close(resolve));
   await vite?.close();

@@ -1,0 +1,99 @@
+// One member's socket in a room. Every message is classified first and checked against the
+// connection's current role: viewers may sync *from* the server and share presence, never edit.
+import type { WebSocket } from "ws";
+import { atLeast, type Role } from "../db/roles";
+import { readClientMessage, syncStep2Message } from "./protocol";
+import type { Room } from "./room";
+
+export interface CollabIdentity {
+  /** null for a signed-out visitor holding a view link. */
+  userId: string | null;
+  name: string;
+  role: Role;
+}
+
+/** Close codes: 4400–4499 tell the y-websocket client not to reconnect. */
+export const closeCodes = {
+  /** The role changed: reconnect to sync again under the new role. */
+  roleChanged: 4001,
+  /** The server is going down or the room is unloading; reconnecting later is fine. */
+  goingAway: 1001,
+  protocolError: 1002,
+  accessRevoked: 4403,
+  mechanismGone: 4404,
+  tooSlow: 4408,
+} as const;
+
+/** A client that cannot keep up is dropped rather than buffered without limit. */
+const MAX_BUFFERED_BYTES = 32 * 1024 * 1024;
+
+export class Connection {
+  role: Role;
+  /** Awareness client ids this socket speaks for (removed from the room when it closes). */
+  readonly awarenessClients = new Set<number>();
+  alive = true;
+  private droppedUpdates = 0;
+
+  constructor(
+    readonly socket: WebSocket,
+    readonly identity: CollabIdentity,
+    private readonly room: Room,
+  ) {
+    this.role = identity.role;
+  }
+
+  get canEdit(): boolean {
+    return atLeast(this.role, "editor");
+  }
+
+  send(data: Uint8Array) {
+    if (this.socket.readyState !== this.socket.OPEN) return;
+    if (this.socket.bufferedAmount > MAX_BUFFERED_BYTES) {
+      console.warn(`[collab] ${this.describe()} is too slow; disconnecting`);
+      this.close(closeCodes.tooSlow, "too slow");
+      return;
+    }
+    this.socket.send(data);
+  }
+
+  close(code: number, reason: string) {
+    if (this.socket.readyState === this.socket.OPEN || this.socket.readyState === this.socket.CONNECTING) this.socket.close(code, reason);
+  }
+
+  receive(data: Uint8Array) {
+    const message = readClientMessage(data);
+    switch (message.kind) {
+      case "sync-step-1":
+        this.send(syncStep2Message(this.room.doc, message.stateVector));
+        return;
+      case "document-update":
+        if (!this.canEdit) {
+          this.dropUpdate(message.syncType);
+          return;
+        }
+        if (!this.room.applyClientUpdate(this, message.update)) this.close(closeCodes.protocolError, "bad update");
+        return;
+      case "awareness":
+        this.room.applyClientAwareness(this, message.update);
+        return;
+      case "query-awareness":
+        this.room.sendAwarenessTo(this);
+        return;
+      case "malformed":
+        console.warn(`[collab] ${this.describe()} sent a malformed message (${message.reason}); disconnecting`);
+        this.close(closeCodes.protocolError, "malformed message");
+    }
+  }
+
+  /** Logged once, then counted: a viewer's client may carry local edits it keeps offering. */
+  private dropUpdate(syncType: string) {
+    this.droppedUpdates++;
+    if (this.droppedUpdates === 1 || this.droppedUpdates % 100 === 0) {
+      console.warn(`[collab] dropped document update (${syncType}) #${this.droppedUpdates} from ${this.describe()}: role ${this.role} may not edit`);
+    }
+  }
+
+  describe(): string {
+    return `${this.identity.name} (${this.identity.userId ?? "view link"}) in ${this.room.mechanismId}`;
+  }
+}

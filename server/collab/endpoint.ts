@@ -1,0 +1,92 @@
+// The collaboration WebSocket on the app's own http.Server: `/collab/:id` only, authenticated
+// before the handshake, so a refused caller never gets a socket.
+import type { IncomingMessage, Server } from "node:http";
+import type { Duplex } from "node:stream";
+import { WebSocketServer } from "ws";
+import { z } from "zod";
+import type { Db } from "../db/client";
+import type { CollabIdentity } from "./connection";
+import { CollabHub, type HubTimings } from "./hub";
+
+export type Identify = (request: IncomingMessage, mechanismId: string) => Promise<CollabIdentity | null>;
+
+/** Thrown by an `identify` hook to refuse with a specific status (e.g. 401 when signed out). */
+export class UpgradeRefusal extends Error {
+  constructor(
+    readonly status: 401 | 403 | 404,
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+export interface CollaborationOptions {
+  db: Db;
+  /** Who is asking for this mechanism, with which role; null refuses with 404. */
+  identify: Identify;
+  timings?: Partial<HubTimings>;
+}
+
+/** A document update may hold the whole text (≤ 1 MiB) with its history. */
+const MAX_MESSAGE_BYTES = 8 * 1024 * 1024;
+const roomPath = /^\/collab\/([^/]+)$/;
+const mechanismIdField = z.string().regex(/^[A-Za-z0-9_-]{1,64}$/);
+
+const statusText: Record<number, string> = { 401: "Unauthorized", 403: "Forbidden", 404: "Not Found", 500: "Internal Server Error" };
+
+function refuse(socket: Duplex, status: number, message: string) {
+  if (!socket.writable) return socket.destroy();
+  const body = JSON.stringify({ error: message });
+  socket.end(
+    `HTTP/1.1 ${status} ${statusText[status]}\r\nConnection: close\r\nContent-Type: application/json\r\nContent-Length: ${Buffer.byteLength(body)}\r\n\r\n${body}`,
+  );
+}
+
+/** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
+function sameOrigin(request: IncomingMessage): boolean {
+  const origin = request.headers.origin;
+  if (!origin) return true;
+  try {
+    return new URL(origin).host === request.headers.host;
+  } catch {
+    return false;
+  }
+}
+
+export function attachCollaboration(server: Server, options: CollaborationOptions): CollabHub {
+  const hub = new CollabHub(options.db, options.timings);
+  const sockets = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES, perMessageDeflate: false });
+
+  async function upgrade(request: IncomingMessage, socket: Duplex, head: Buffer, rawId: string) {
+    if (!sameOrigin(request)) throw new UpgradeRefusal(403, "Cross-site connections are not accepted.");
+    const mechanismId = mechanismIdField.safeParse(decodeURIComponent(rawId));
+    if (!mechanismId.success) throw new UpgradeRefusal(404, "No mechanism with that id is visible to you.");
+    const identity = await options.identify(request, mechanismId.data);
+    if (!identity) throw new UpgradeRefusal(404, "No mechanism with that id is visible to you.");
+    const admitted = await hub.admit(
+      mechanismId.data,
+      identity,
+      (join) =>
+        new Promise<void>((resolve) => {
+          socket.once("close", () => resolve());
+          sockets.handleUpgrade(request, socket, head, (ws) => {
+            join(ws);
+            resolve();
+          });
+        }),
+    );
+    if (!admitted) throw new UpgradeRefusal(404, "No mechanism with that id is visible to you.");
+  }
+
+  server.on("upgrade", (request: IncomingMessage, socket: Duplex, head: Buffer) => {
+    const match = roomPath.exec(new URL(request.url ?? "/", "http://localhost").pathname);
+    if (!match) return; // Not ours (in development, Vite's hot reload shares the server).
+    socket.on("error", () => socket.destroy());
+    upgrade(request, socket, head, match[1]).catch((error: unknown) => {
+      if (error instanceof UpgradeRefusal) return refuse(socket, error.status, error.message);
+      console.error(`[collab] upgrade failed: ${(error as Error).stack}`);
+      refuse(socket, 500, "The collaboration server failed; try again.");
+    });
+  });
+  return hub;
+}

@@ -1,0 +1,199 @@
+// All live rooms of the process, in one place: loading on first use, unloading when idle, and
+// the operations routes call (role changes, API writes, versions).
+import type { WebSocket } from "ws";
+import type { Db } from "../db/client";
+import { roleOf } from "../db/mechanisms";
+import { closeCodes, Connection, type CollabIdentity } from "./connection";
+import { Room, type RoomTimings } from "./room";
+import { findSnapshot } from "./snapshots";
+
+export interface HubTimings extends RoomTimings {
+  /** A room without connections is unloaded (after flushing) when this long idle. */
+  idleUnloadMs: number;
+  /** Safety net for role changes nobody reported through refreshRole. */
+  roleSweepMs: number;
+  /** Sockets that miss a ping for this long are dropped. */
+  heartbeatMs: number;
+}
+
+export const defaultTimings: HubTimings = {
+  recomputeMs: 60,
+  snapshotQuietMs: 3000,
+  sourceMirrorMs: 1000,
+  compactEvery: 500,
+  idleUnloadMs: 30_000,
+  roleSweepMs: 30_000,
+  heartbeatMs: 30_000,
+};
+
+export class CollabHub {
+  private readonly rooms = new Map<string, Promise<Room | null>>();
+  private readonly unloading = new Map<string, Promise<void>>();
+  private readonly idleTimers = new Map<string, NodeJS.Timeout>();
+  private readonly intervals: NodeJS.Timeout[];
+  private readonly timings: HubTimings;
+
+  constructor(
+    private readonly db: Db,
+    timings: Partial<HubTimings> = {},
+  ) {
+    this.timings = { ...defaultTimings, ...timings };
+    this.intervals = [setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs), setInterval(() => this.heartbeat(), this.timings.heartbeatMs)];
+    for (const interval of this.intervals) interval.unref();
+  }
+
+  /**
+   * Re-reads a user's role on a mechanism and applies it to their open connections at once:
+   * revoked → closed for good (4403); changed → closed to reconnect under the new role (4001).
+   */
+  async refreshRole(mechanismId: string, userId: string): Promise<void> {
+    const room = await this.rooms.get(mechanismId);
+    if (!room) return;
+    const mine = [...room.connections].filter((c) => c.identity.userId === userId);
+    if (mine.length === 0) return;
+    const role = await roleOf(this.db, mechanismId, userId);
+    for (const connection of mine) {
+      if (role === connection.role) continue;
+      console.log(`[collab] ${connection.describe()}: role ${connection.role} → ${role ?? "none"}`);
+      // The role is lowered before the close completes, so nothing more is accepted meanwhile.
+      connection.role = role ?? "viewer";
+      connection.close(role ? closeCodes.roleChanged : closeCodes.accessRevoked, role ? "role changed" : "access revoked");
+    }
+  }
+
+  /** The whole text, written as one edit by `userId` into the live document. False if no such mechanism. */
+  async replaceSource(mechanismId: string, source: string, userId: string): Promise<boolean> {
+    return (await this.withRoom(mechanismId, (room) => room.replaceSource(source, userId))) !== null;
+  }
+
+  async createNamedSnapshot(mechanismId: string, authorId: string, name: string) {
+    return this.withRoom(mechanismId, (room) => room.recordSnapshot("named", name, authorId));
+  }
+
+  /**
+   * Puts an old version's text into the live document as a new edit (history is kept) and marks
+   * it with a `restore` snapshot. Null when the mechanism or the version does not exist.
+   */
+  async restoreSnapshot(mechanismId: string, userId: string, snapshotId: number) {
+    const snapshot = await findSnapshot(this.db, mechanismId, snapshotId);
+    if (!snapshot) return null;
+    return this.withRoom(mechanismId, async (room) => {
+      await room.replaceSource(snapshot.source, userId);
+      return room.recordSnapshot("restore", `Restored #${snapshot.id}`, userId);
+    });
+  }
+
+  /** After a mechanism is deleted: closes its room without writing anything more. */
+  async forgetMechanism(mechanismId: string) {
+    const room = await this.rooms.get(mechanismId);
+    this.rooms.delete(mechanismId);
+    this.clearIdle(mechanismId);
+    room?.abandon();
+  }
+
+  /** Admits an authenticated socket; `accept` completes the WebSocket handshake. False if no such mechanism. */
+  async admit(mechanismId: string, identity: CollabIdentity, accept: (join: (socket: WebSocket) => void) => Promise<void>): Promise<boolean> {
+    const admitted = await this.withRoom(mechanismId, (room) =>
+      accept((socket) => {
+        const connection = new Connection(socket, identity, room);
+        socket.binaryType = "nodebuffer";
+        socket.on("message", (data: Buffer) => connection.receive(new Uint8Array(data.buffer, data.byteOffset, data.byteLength)));
+        socket.on("pong", () => (connection.alive = true));
+        socket.on("error", (error) => console.warn(`[collab] socket error for ${connection.describe()}: ${error.message}`));
+        socket.on("close", () => {
+          room.leave(connection);
+          this.scheduleUnloadIfIdle(room);
+        });
+        room.join(connection);
+      }),
+    );
+    return admitted !== null;
+  }
+
+  /** Unloads every room (flushing each); for shutdown. */
+  async close() {
+    for (const interval of this.intervals) clearInterval(interval);
+    for (const id of this.idleTimers.keys()) this.clearIdle(id);
+    const ids = [...this.rooms.keys()];
+    await Promise.all(ids.map((id) => this.unload(id)));
+    await Promise.all(this.unloading.values());
+  }
+
+  private async room(mechanismId: string): Promise<Room | null> {
+    await this.unloading.get(mechanismId);
+    let loading = this.rooms.get(mechanismId);
+    if (!loading) {
+      loading = Room.load(this.db, mechanismId, this.timings);
+      this.rooms.set(mechanismId, loading);
+      loading.then(
+        (room) => (room ? this.scheduleUnloadIfIdle(room) : this.rooms.delete(mechanismId)),
+        () => this.rooms.delete(mechanismId),
+      );
+    }
+    return loading;
+  }
+
+  private async withRoom<T>(mechanismId: string, task: (room: Room) => Promise<T>): Promise<T | null> {
+    const room = await this.room(mechanismId);
+    if (!room) return null;
+    room.leases++;
+    this.clearIdle(mechanismId);
+    try {
+      return await task(room);
+    } finally {
+      room.leases--;
+      this.scheduleUnloadIfIdle(room);
+    }
+  }
+
+  private scheduleUnloadIfIdle(room: Room) {
+    if (!room.idle || this.idleTimers.has(room.mechanismId)) return;
+    const timer = setTimeout(() => {
+      this.idleTimers.delete(room.mechanismId);
+      if (room.idle) void this.unload(room.mechanismId);
+    }, this.timings.idleUnloadMs);
+    this.idleTimers.set(room.mechanismId, timer);
+  }
+
+  private clearIdle(mechanismId: string) {
+    clearTimeout(this.idleTimers.get(mechanismId));
+    this.idleTimers.delete(mechanismId);
+  }
+
+  private async unload(mechanismId: string) {
+    const loading = this.rooms.get(mechanismId);
+    if (!loading) return;
+    this.rooms.delete(mechanismId);
+    this.clearIdle(mechanismId);
+    const closing = loading
+      .then((room) => room?.close())
+      .catch((error: Error) => console.error(`[collab] unloading ${mechanismId} failed: ${error.stack}`))
+      .finally(() => this.unloading.delete(mechanismId));
+    this.unloading.set(mechanismId, closing);
+    await closing;
+  }
+
+  private async sweepRoles() {
+    for (const [mechanismId, loading] of this.rooms) {
+      const room = await loading.catch(() => null);
+      if (!room) continue;
+      const users = new Set([...room.connections].map((c) => c.identity.userId).filter((id): id is string => id !== null));
+      for (const userId of users) await this.refreshRole(mechanismId, userId).catch(() => undefined);
+    }
+  }
+
+  private heartbeat() {
+    for (const loading of this.rooms.values()) {
+      void loading.then((room) => {
+        for (const connection of room?.connections ?? []) {
+          if (!connection.alive) {
+            connection.socket.terminate();
+            continue;
+          }
+          connection.alive = false;
+          connection.socket.ping();
+        }
+      });
+    }
+  }
+}

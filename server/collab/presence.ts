@@ -1,0 +1,70 @@
+// Awareness (presence: who is here, their cursor and selection) is allowed for every role, but a
+// connection may speak only for its own awareness clients and only under its own name: the
+// server stamps the name and role it authenticated into `user`, so presence cannot impersonate.
+import * as decoding from "lib0/decoding";
+import * as encoding from "lib0/encoding";
+import type { Role } from "../db/roles";
+
+const MAX_STATE_CHARS = 16 * 1024;
+
+interface AwarenessEntry {
+  clientId: number;
+  clock: number;
+  state: Record<string, unknown> | null;
+}
+
+function decodeEntries(update: Uint8Array): AwarenessEntry[] {
+  const decoder = decoding.createDecoder(update);
+  const entries: AwarenessEntry[] = [];
+  const count = decoding.readVarUint(decoder);
+  for (let i = 0; i < count; i++) {
+    const clientId = decoding.readVarUint(decoder);
+    const clock = decoding.readVarUint(decoder);
+    const json = decoding.readVarString(decoder);
+    if (json.length > MAX_STATE_CHARS) throw new Error("awareness state too large");
+    const state: unknown = JSON.parse(json);
+    if (state !== null && (typeof state !== "object" || Array.isArray(state))) throw new Error("awareness state is not an object");
+    entries.push({ clientId, clock, state: state as AwarenessEntry["state"] });
+  }
+  return entries;
+}
+
+function encodeEntries(entries: AwarenessEntry[]): Uint8Array {
+  const encoder = encoding.createEncoder();
+  encoding.writeVarUint(encoder, entries.length);
+  for (const entry of entries) {
+    encoding.writeVarUint(encoder, entry.clientId);
+    encoding.writeVarUint(encoder, entry.clock);
+    encoding.writeVarString(encoder, JSON.stringify(entry.state));
+  }
+  return encoding.toUint8Array(encoder);
+}
+
+export interface PresenceSpeaker {
+  name: string;
+  role: Role;
+  /** False when another connection in the room already speaks for this awareness client. */
+  mayControl(clientId: number): boolean;
+}
+
+/**
+ * The part of an awareness update this connection may send, with its identity stamped in, and
+ * the client ids it covers; null when nothing is left or the update is malformed.
+ */
+export function vetAwarenessUpdate(update: Uint8Array, speaker: PresenceSpeaker): { update: Uint8Array; clientIds: number[] } | null {
+  let entries: AwarenessEntry[];
+  try {
+    entries = decodeEntries(update);
+  } catch {
+    return null;
+  }
+  const allowed = entries
+    .filter((entry) => speaker.mayControl(entry.clientId))
+    .map((entry) => {
+      if (entry.state === null) return entry;
+      const user = typeof entry.state.user === "object" && entry.state.user !== null ? entry.state.user : {};
+      return { ...entry, state: { ...entry.state, user: { ...user, name: speaker.name, role: speaker.role } } };
+    });
+  if (allowed.length === 0) return null;
+  return { update: encodeEntries(allowed), clientIds: allowed.map((e) => e.clientId) };
+}

@@ -1,0 +1,126 @@
+// The server's structure analysis of the shared text, recomputed shortly after every change and
+// written into the `analysis` map. Only the server may write that map: a client's change to it
+// is put back at once (see `repair`).
+import { createHash } from "node:crypto";
+import * as Y from "yjs";
+import { analyzeSource, type AnalysisReport } from "../../app/chem/analysis";
+
+/** The transaction origin of the server's own writes into the document. */
+export const analysisOrigin = Symbol("mechweave-analysis");
+
+export interface AnalysisResult {
+  source: string;
+  report: AnalysisReport;
+  revision: number;
+}
+
+export function sourceDigest(source: string): string {
+  return createHash("sha256").update(source).digest("base64url").slice(0, 22);
+}
+
+/** Contract keys of PRODUCT.md (counts), a few more counts, and the full report for the panels. */
+function analysisEntries(report: AnalysisReport, digest: string): Record<string, unknown> {
+  return {
+    deficiency: report.deficiency,
+    rank: report.rank,
+    linkageClasses: report.linkageClasses.length,
+    species: report.species.length,
+    complexes: report.complexes.length,
+    reactions: report.reactions.length,
+    weaklyReversible: report.weaklyReversible,
+    errors: report.diagnostics.filter((d) => d.severity === "error").length,
+    digest,
+    // A JSON round trip keeps only plain data (Y.Map values are encoded as JSON-like values).
+    report: JSON.parse(JSON.stringify(report)),
+  };
+}
+
+export class StructureRecompute {
+  private timer: NodeJS.Timeout | null = null;
+  private running: Promise<void> = Promise.resolve();
+  private disposed = false;
+  private readonly text: Y.Text;
+  private readonly analysis: Y.Map<unknown>;
+  /** Serialised values last written, so an unchanged report is not re-sent to every client. */
+  private written = new Map<string, string>();
+  latest: AnalysisResult | null = null;
+
+  constructor(
+    private readonly doc: Y.Doc,
+    private readonly options: { delayMs: number; analyzed(result: AnalysisResult): void },
+  ) {
+    this.text = doc.getText("source");
+    this.analysis = doc.getMap("analysis");
+    for (const [key, value] of this.analysis.entries()) this.written.set(key, JSON.stringify(value));
+    const stored = this.analysis.get("report") as AnalysisReport | undefined;
+    if (stored && !this.stale) {
+      this.latest = { source: this.text.toString(), report: stored, revision: Number(this.analysis.get("revision")) || 0 };
+    }
+    this.analysis.observe((event) => {
+      if (event.transaction.origin !== analysisOrigin) this.repair([...event.keysChanged]);
+    });
+  }
+
+  /** True when the stored analysis belongs to a different text (or there is none). */
+  get stale(): boolean {
+    return this.analysis.get("digest") !== sourceDigest(this.text.toString());
+  }
+
+  /** At most one recompute per `delayMs` window, so steady typing still sees fresh results. */
+  schedule() {
+    if (this.timer || this.disposed) return;
+    this.timer = setTimeout(() => {
+      this.timer = null;
+      this.running = this.running.then(() => this.run());
+    }, this.options.delayMs);
+  }
+
+  /** Runs a pending recompute now and resolves when the analysis matches the current text. */
+  async flush(): Promise<void> {
+    if (this.timer) {
+      clearTimeout(this.timer);
+      this.timer = null;
+    }
+    this.running = this.running.then(() => this.run());
+    await this.running;
+  }
+
+  /** Rewrites keys a client changed, with the server's values. */
+  private repair(keys: string[]) {
+    for (const key of keys) this.written.delete(key);
+    this.running = this.running.then(() => this.run(true));
+  }
+
+  dispose() {
+    this.disposed = true;
+    if (this.timer) clearTimeout(this.timer);
+  }
+
+  private async run(force = false) {
+    if (this.disposed) return;
+    const source = this.text.toString();
+    const digest = sourceDigest(source);
+    if (!force && this.latest && this.analysis.get("digest") === digest) return;
+    let report: AnalysisReport;
+    try {
+      report = await analyzeSource(source);
+    } catch (error) {
+      console.error(`[collab] analysis failed: ${(error as Error).stack}`);
+      return;
+    }
+    if (this.disposed) return;
+    // Revisions keep growing across reloads: the last one is in the stored document.
+    const revision = Math.max(Number(this.analysis.get("revision")) || 0, this.latest?.revision ?? 0) + 1;
+    const entries = { ...analysisEntries(report, digest), revision };
+    this.doc.transact(() => {
+      for (const [key, value] of Object.entries(entries)) {
+        const serialised = JSON.stringify(value);
+        if (this.written.get(key) === serialised) continue;
+        this.analysis.set(key, value);
+        this.written.set(key, serialised);
+      }
+    }, analysisOrigin);
+    this.latest = { source, report, revision };
+    this.options.analyzed(this.latest);
+  }
+}

@@ -1,0 +1,240 @@
+// One mechanism's live shared document on the server: the only copy of the room state, its
+// connections and presence, and the services that keep it durable and analysed.
+import * as awarenessProtocol from "y-protocols/awareness";
+import * as Y from "yjs";
+import type { Db } from "../db/client";
+import { findMechanism } from "../db/mechanisms";
+import { closeCodes, type Connection } from "./connection";
+import { appendUpdates, compactDocument, loadDocument, UpdateLog, type LoggedUpdate } from "./persistence";
+import { vetAwarenessUpdate } from "./presence";
+import { awarenessMessage, syncStep1Message, updateMessage } from "./protocol";
+import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recompute";
+import { AutoSnapshotPolicy, insertSnapshot, latestSummary, summarizeStructure, type SnapshotKind } from "./snapshots";
+import { SourceMirror } from "./source-mirror";
+import { replaceText } from "./text-edit";
+
+export interface RoomTimings {
+  /** Window of the structure recompute after a change. */
+  recomputeMs: number;
+  /** Quiet period before a changed structure becomes an automatic snapshot. */
+  snapshotQuietMs: number;
+  /** Debounce of the mechanisms.source write. */
+  sourceMirrorMs: number;
+  /** Logged updates between compactions. */
+  compactEvery: number;
+}
+
+/** An edit made on a user's behalf through the HTTP API or a restore, not over a socket. */
+export class ServiceEdit {
+  constructor(readonly userId: string) {}
+}
+
+/** Applying stored updates while loading: nothing to log or relay. */
+const loadOrigin = Symbol("mechweave-load");
+
+type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin;
+
+export class Room {
+  readonly connections = new Set<Connection>();
+  readonly awareness: awarenessProtocol.Awareness;
+  /** API calls in progress; a leased room is not unloaded. */
+  leases = 0;
+  private readonly awarenessOwners = new Map<number, Connection>();
+  private readonly text: Y.Text;
+  private readonly log: UpdateLog<UpdateOrigin>;
+  private readonly recompute: StructureRecompute;
+  private readonly snapshots: AutoSnapshotPolicy;
+  private readonly mirror: SourceMirror;
+  private lastEditorId: string | null = null;
+  private closed = false;
+
+  static async load(db: Db, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
+    const mechanism = await findMechanism(db, mechanismId);
+    if (!mechanism) return null;
+    const stored = await loadDocument(db, mechanismId);
+    const doc = new Y.Doc();
+    if (stored.state) Y.applyUpdate(doc, stored.state, loadOrigin);
+    for (const update of stored.updates) Y.applyUpdate(doc, update, loadOrigin);
+    if (!stored.state && stored.updates.length === 0) {
+      // The first document is stored before anyone joins: initialising it again on a later load
+      // would duplicate the text for clients holding the first one.
+      doc.getText("source").insert(0, mechanism.source);
+      await appendUpdates(db, mechanismId, [Y.encodeStateAsUpdate(doc)]);
+    }
+    return new Room(db, mechanismId, doc, mechanism.source, await latestSummary(db, mechanismId), timings);
+  }
+
+  private constructor(
+    private readonly db: Db,
+    readonly mechanismId: string,
+    readonly doc: Y.Doc,
+    savedSource: string,
+    lastSnapshot: Awaited<ReturnType<typeof latestSummary>>,
+    private readonly timings: RoomTimings,
+  ) {
+    this.text = doc.getText("source");
+    this.awareness = new awarenessProtocol.Awareness(doc);
+    this.awareness.setLocalState(null);
+    this.awareness.on("update", this.relayAwareness);
+    this.log = new UpdateLog(db, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
+    this.mirror = new SourceMirror(db, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
+    this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
+    this.recompute = new StructureRecompute(doc, { delayMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
+    doc.on("update", (update: Uint8Array, origin: UpdateOrigin) => {
+      if (origin === loadOrigin) return;
+      if (origin instanceof ServiceEdit) this.lastEditorId = origin.userId;
+      else if (origin !== analysisOrigin) this.lastEditorId = origin.identity.userId ?? this.lastEditorId;
+      this.log.append({ update, origin });
+    });
+    this.text.observe(() => {
+      this.recompute.schedule();
+      this.mirror.changed();
+    });
+    if (this.recompute.stale) this.recompute.schedule();
+    if (this.text.toString() !== savedSource) void this.mirror.flush();
+  }
+
+  get idle(): boolean {
+    return this.connections.size === 0 && this.leases === 0;
+  }
+
+  join(connection: Connection) {
+    this.connections.add(connection);
+    // Editors are asked for what the server lacks (their step 2 comes back as an edit);
+    // viewers are not, since whatever they would offer is dropped anyway.
+    if (connection.canEdit) connection.send(syncStep1Message(this.doc));
+    this.sendAwarenessTo(connection);
+  }
+
+  leave(connection: Connection) {
+    this.connections.delete(connection);
+    for (const clientId of connection.awarenessClients) {
+      if (this.awarenessOwners.get(clientId) === connection) this.awarenessOwners.delete(clientId);
+    }
+    awarenessProtocol.removeAwarenessStates(this.awareness, [...connection.awarenessClients], null);
+  }
+
+  /** False when the update cannot be read (the caller drops the connection). */
+  applyClientUpdate(connection: Connection, update: Uint8Array): boolean {
+    try {
+      Y.applyUpdate(this.doc, update, connection);
+      return true;
+    } catch (error) {
+      console.warn(`[collab] unreadable update from ${connection.describe()}: ${(error as Error).message}`);
+      return false;
+    }
+  }
+
+  applyClientAwareness(connection: Connection, update: Uint8Array) {
+    const vetted = vetAwarenessUpdate(update, {
+      name: connection.identity.name,
+      role: connection.role,
+      mayControl: (clientId) => (this.awarenessOwners.get(clientId) ?? connection) === connection,
+    });
+    if (!vetted) return;
+    for (const clientId of vetted.clientIds) {
+      this.awarenessOwners.set(clientId, connection);
+      connection.awarenessClients.add(clientId);
+    }
+    awarenessProtocol.applyAwarenessUpdate(this.awareness, vetted.update, connection);
+  }
+
+  sendAwarenessTo(connection: Connection) {
+    const clients = [...this.awareness.getStates().keys()];
+    if (clients.length > 0) connection.send(awarenessMessage(awarenessProtocol.encodeAwarenessUpdate(this.awareness, clients)));
+  }
+
+  /** Writes a whole new text as one edit by `userId`; resolves once stored and mirrored. */
+  async replaceSource(source: string, userId: string) {
+    this.doc.transact(() => replaceText(this.text, source), new ServiceEdit(userId));
+    await this.log.flushed();
+    await this.mirror.flush();
+  }
+
+  /** Stores the current version; the analysis is brought up to date with the text first. */
+  async recordSnapshot(kind: SnapshotKind, name: string | null, authorId: string | null) {
+    await this.recompute.flush();
+    const latest = this.recompute.latest;
+    if (!latest) throw new Error(`no analysis of ${this.mechanismId} to store with the snapshot`);
+    const summary = summarizeStructure(latest.report);
+    const row = await insertSnapshot(this.db, {
+      mechanismId: this.mechanismId,
+      kind,
+      name,
+      source: latest.source,
+      state: Y.encodeStateAsUpdate(this.doc),
+      summary,
+      authorId,
+    });
+    this.snapshots.stored(summary);
+    return row;
+  }
+
+  /** Unload: the last analysis, a due snapshot, every update, the text mirror, one compaction. */
+  async close() {
+    if (this.closed) return;
+    this.closed = true;
+    for (const connection of this.connections) connection.close(closeCodes.goingAway, "room closing");
+    try {
+      await this.recompute.flush();
+      if (this.snapshots.pending) await this.autoSnapshot();
+    } finally {
+      this.recompute.dispose();
+      this.snapshots.dispose();
+    }
+    await this.log.flushed();
+    await this.mirror.flush();
+    this.mirror.dispose();
+    await this.log.exclusive(() => compactDocument(this.db, this.mechanismId)).catch((error: Error) => {
+      console.error(`[collab] compacting ${this.mechanismId} failed: ${error.message}`);
+    });
+    this.doc.destroy();
+  }
+
+  /** The mechanism was deleted: nothing is left to store. */
+  abandon() {
+    if (this.closed) return;
+    this.closed = true;
+    for (const connection of this.connections) connection.close(closeCodes.mechanismGone, "mechanism deleted");
+    this.recompute.dispose();
+    this.snapshots.dispose();
+    this.mirror.dispose();
+    this.doc.destroy();
+  }
+
+  private relayCommitted(batch: LoggedUpdate<UpdateOrigin>[]) {
+    const origins = new Set(batch.map((entry) => entry.origin));
+    const sender = origins.size === 1 ? batch[0].origin : null;
+    const update = batch.length === 1 ? batch[0].update : Y.mergeUpdates(batch.map((entry) => entry.update));
+    const message = updateMessage(update);
+    for (const connection of this.connections) if (connection !== sender) connection.send(message);
+    if (this.log.appendedSinceCompaction >= this.timings.compactEvery) {
+      this.log.appendedSinceCompaction = 0;
+      void this.log.exclusive(() => compactDocument(this.db, this.mechanismId)).catch((error: Error) => {
+        console.error(`[collab] compacting ${this.mechanismId} failed: ${error.message}`);
+      });
+    }
+  }
+
+  private readonly relayAwareness = (changes: { added: number[]; updated: number[]; removed: number[] }) => {
+    const clients = [...changes.added, ...changes.updated, ...changes.removed];
+    if (clients.length === 0) return;
+    const message = awarenessMessage(awarenessProtocol.encodeAwarenessUpdate(this.awareness, clients));
+    for (const connection of this.connections) connection.send(message);
+  };
+
+  private analyzed(result: AnalysisResult) {
+    this.snapshots.observe(summarizeStructure(result.report));
+  }
+
+  private async autoSnapshot() {
+    try {
+      await this.recompute.flush();
+      const latest = this.recompute.latest;
+      if (!latest || !this.snapshots.wants(summarizeStructure(latest.report))) return;
+      await this.recordSnapshot("auto", null, this.lastEditorId);
+    } catch (error) {
+      console.error(`[collab] automatic snapshot of ${this.mechanismId} failed: ${(error as Error).message}`);
+    }
+  }
+}
