@@ -31,5 +31,3 @@ export function negativeCrossEffects(ode: ExactOde, sources: readonly EquationSo
       })),
   );
 }
-
-export const isKinetic = (ode: ExactOde) => negativeCrossEffects(ode).length === 0;

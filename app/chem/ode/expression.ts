@@ -7,8 +7,8 @@ import * as Q from "./rational";
 export interface Scope {
   variables: ReadonlyMap<string, number>;
   parameters: ReadonlyMap<string, Q.Rational>;
-  /** Names that have an initial value but no equation, for a more helpful message. */
-  withoutEquation: ReadonlySet<string>;
+  /** Known names that may not be used here, with the reason (a variable in a value, say). */
+  unavailable: ReadonlyMap<string, string>;
 }
 
 /** Why an expression is not a polynomial; `name` lets the caller point at the offending word. */
@@ -40,7 +40,8 @@ export function toPolynomial(node: MathNode, scope: Scope): Polynomial {
       const value = scope.parameters.get(name);
       if (value) return P.constant(n, value);
       if (name === "t") throw new NotPolynomial("time t may not appear: the ODE must be autonomous", name);
-      if (scope.withoutEquation.has(name)) throw new NotPolynomial(`${name} has an initial value but no equation`, name);
+      const reason = scope.unavailable.get(name);
+      if (reason) throw new NotPolynomial(reason, name);
       throw new NotPolynomial(`unknown name ${name}: give it an equation ${name}' = … or a value ${name} = …`, name);
     }
     case "ParenthesisNode":

@@ -74,12 +74,18 @@ export function parseOde(text: string): OdeParseResult {
 
   const equations = unique.filter((s) => s.kind === "equation");
   const variables = new Map(equations.map((s, i) => [s.name, i]));
-  const withoutEquation = new Set(
-    unique.filter((s) => s.kind === "initial" && !variables.has(s.name)).map((s) => s.name),
+  const withoutEquation = new Map(
+    unique
+      .filter((s) => s.kind === "initial" && !variables.has(s.name))
+      .map((s) => [s.name, `${s.name} has an initial value but no equation`]),
   );
+  const inValues = new Map([
+    ...withoutEquation,
+    ...[...variables.keys()].map((v): [string, string] => [v, `${v} is a variable; a value may use only numbers and parameters`]),
+  ]);
   // Parameters first, in order: each may use the ones above it, equations may use any of them.
   const parameters = new Map<string, Q.Rational>();
-  const constants: Scope = { variables: new Map(), parameters, withoutEquation };
+  const constants: Scope = { variables: new Map(), parameters, unavailable: inValues };
   for (const s of unique.filter((u) => u.kind === "parameter")) {
     if (variables.has(s.name)) {
       report(s.nameSpan, `${s.name} has an equation and cannot also be a parameter`);
@@ -100,7 +106,7 @@ export function parseOde(text: string): OdeParseResult {
     if (value) initial[index] = value;
   }
 
-  const fullScope: Scope = { variables, parameters, withoutEquation };
+  const fullScope: Scope = { variables, parameters, unavailable: withoutEquation };
   const sources: EquationSource[] = [];
   const rhs: Polynomial[] = [];
   for (const s of equations) {

@@ -34,7 +34,6 @@ export const abs = (a: Rational): Rational => (a.num < 0n ? neg(a) : a);
 export const isZero = (a: Rational) => a.num === 0n;
 export const sign = (a: Rational) => (a.num > 0n ? 1 : a.num < 0n ? -1 : 0);
 export const equals = (a: Rational, b: Rational) => a.num === b.num && a.den === b.den;
-export const compare = (a: Rational, b: Rational) => sign(sub(a, b));
 
 export function div(a: Rational, b: Rational): Rational {
   if (b.num === 0n) throw new RangeError("division by zero");
