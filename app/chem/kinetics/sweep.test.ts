@@ -42,3 +42,19 @@ describe("parameter sweeps", () => {
     expect(oscillationPeriod(t, t.map((x) => 2 + Math.exp(-x) * Math.sin(2 * Math.PI * x)))).toBeNull();
   });
 });
+
+describe("sweeping a parameter", () => {
+  it("re-folds it into every coefficient that uses it, fixed species included", () => {
+    // A → B @ k with fixed [F] = 2 folded in: effective rate 2k, and B → A @ 1, so B(∞)/A(∞) = 2k.
+    const { mechanism, network } = massAction(["A", "B"], [[{ A: 1 }, { B: 1 }, 2], [{ B: 1 }, { A: 1 }, 1]], { A: 1 });
+    mechanism.parameters.k = 1;
+    mechanism.fixed.F = 2;
+    network.reactions[0].coefficient = [[{ kind: "parameter", symbol: "k", power: 1 }, { kind: "fixed", symbol: "F", power: 1 }]];
+    const result = sweepNetwork(mechanism, network, {
+      target: { kind: "parameter", name: "k" }, from: 0.5, to: 2, points: 2, scale: "log",
+      species: "B", observable: "final", until: 30, samples: 2,
+    });
+    expect(result.observed[0]).toBeCloseTo(1 / 2, 6);
+    expect(result.observed[1]).toBeCloseTo(4 / 5, 6);
+  });
+});

@@ -1,16 +1,21 @@
-// One-parameter sweeps: vary a reaction's rate coefficient or a species' initial concentration
-// over a linear or logarithmic range and record one observable of one species per value — its
-// final value, its maximum, or its period when the course settles into sustained oscillation.
-// The system is compiled once; each point only changes a coefficient or the start.
+// One-parameter sweeps: vary a reaction's rate coefficient, a parameter or a species' initial
+// concentration over a linear or logarithmic range and record one observable of one species per
+// value — its final value, its maximum, or its period when the course settles into sustained
+// oscillation. For a reaction or an initial value the system is compiled once and each point only
+// changes a number; a parameter may enter several coefficients and laws, so each point recompiles.
 
-import type { Mechanism, Network } from "~/chem/model";
+import type { Mechanism, Network, RateFactor } from "~/chem/model";
 import { SimulationCancelled, SimulationInputError } from "./errors";
 import { networkSystem } from "./from-network";
+import type { OdeSystem } from "./ode-system";
 import { oscillationPeriod } from "./oscillation";
 import type { SimulationSettings } from "./settings";
 import { simulateSystem } from "./simulate";
 
-export type SweepTarget = { kind: "rate"; reaction: number } | { kind: "initial"; species: string };
+export type SweepTarget =
+  | { kind: "rate"; reaction: number }
+  | { kind: "parameter"; name: string }
+  | { kind: "initial"; species: string };
 export type Observable = "final" | "max" | "period";
 
 export interface SweepOptions extends SimulationSettings {
@@ -49,16 +54,13 @@ export function sweepValues(from: number, to: number, points: number, scale: "li
 export function sweepNetwork(mechanism: Mechanism, network: Network, options: SweepOptions): SweepResult {
   const started = performance.now();
   const values = sweepValues(options.from, options.to, options.points, options.scale);
-  const system = networkSystem(mechanism, network);
-  const observedIndex = system.names.indexOf(options.species);
-  if (observedIndex < 0) throw new SimulationInputError(`there is no species ${options.species} to observe`);
-  const apply = setter(options.target, network, system.names, system.coefficients, system.initial);
+  if (!network.species.includes(options.species)) throw new SimulationInputError(`there is no species ${options.species} to observe`);
+  const systemAt = pointSystems(options.target, mechanism, network);
 
   const stats = { steps: 0, rejected: 0, jacobians: 0, ms: 0 };
   const observed = values.map((value, i) => {
     if (options.signal?.aborted) throw new SimulationCancelled();
-    apply(value);
-    const run = simulateSystem(system, { ...options, onProgress: undefined });
+    const run = simulateSystem(systemAt(value), { ...options, onProgress: undefined });
     stats.steps += run.stats.steps;
     stats.rejected += run.stats.rejected;
     stats.jacobians += run.stats.jacobians;
@@ -72,16 +74,51 @@ export function sweepNetwork(mechanism: Mechanism, network: Network, options: Sw
   return { values, observed, stats };
 }
 
-function setter(target: SweepTarget, network: Network, names: string[], coefficients: Float64Array, initial: Float64Array): (value: number) => void {
+/** The system to simulate at each value of the target. */
+function pointSystems(target: SweepTarget, mechanism: Mechanism, network: Network): (value: number) => OdeSystem {
+  if (target.kind === "parameter") {
+    if (!(target.name in mechanism.parameters)) throw new SimulationInputError(`there is no parameter ${target.name} to vary`);
+    return (value) => {
+      const parameters = { ...mechanism.parameters, [target.name]: value };
+      const reactions = network.reactions.map((r) =>
+        r.coefficient?.some((product) => product.some((f) => f.kind === "parameter" && f.symbol === target.name))
+          ? { ...r, rate: coefficientValue(r.coefficient, parameters, mechanism.fixed) }
+          : r,
+      );
+      return networkSystem({ ...mechanism, parameters }, { ...network, reactions });
+    };
+  }
+  const system = networkSystem(mechanism, network);
   if (target.kind === "initial") {
-    const index = names.indexOf(target.species);
+    const index = system.names.indexOf(target.species);
     if (index < 0) throw new SimulationInputError(`there is no species ${target.species} to vary`);
-    return (value) => (initial[index] = value);
+    return (value) => {
+      system.initial[index] = value;
+      return system;
+    };
   }
   const reaction = network.reactions[target.reaction];
   if (!reaction) throw new SimulationInputError(`there is no reaction ${target.reaction} to vary`);
   if (reaction.law !== null) throw new SimulationInputError("a step with a custom rate law has no rate coefficient to vary");
   // Monomials are numbered over the mass-action reactions in network order (see from-network.ts).
   const monomial = network.reactions.slice(0, target.reaction).filter((r) => r.law === null).length;
-  return (value) => (coefficients[monomial] = value);
+  return (value) => {
+    system.coefficients[monomial] = value;
+    return system;
+  };
+}
+
+/** A coefficient as written (a sum of products of factors) evaluated; null while one is missing. */
+function coefficientValue(coefficient: RateFactor[][], parameters: Record<string, number>, fixed: Record<string, number>): number | null {
+  let sum = 0;
+  for (const product of coefficient) {
+    let term = 1;
+    for (const { kind, symbol, power } of product) {
+      if (kind === "missing") return null;
+      const value = kind === "value" ? Number(symbol) : kind === "parameter" ? parameters[symbol] : fixed[symbol];
+      term *= Math.pow(value, power);
+    }
+    sum += term;
+  }
+  return sum;
 }
