@@ -52,6 +52,12 @@ export function Layout({ children }: { children: React.ReactNode }) {
   );
 }
 
+const navigation = [
+  ["/dashboard", "Mechanisms"],
+  ["/api", "API"],
+  ["/settings/tokens", "Tokens"],
+] as const;
+
 function Header({ user }: { user: { name: string; email: string } | null }) {
   return (
     <header className="border-b border-line bg-surface/80 backdrop-blur">
@@ -62,9 +68,11 @@ function Header({ user }: { user: { name: string; email: string } | null }) {
         </Link>
         {user && (
           <nav className="flex gap-4 text-sm">
-            <NavLink to="/dashboard" className={({ isActive }) => (isActive ? "font-medium text-ink" : "text-muted hover:text-ink")}>
-              Mechanisms
-            </NavLink>
+            {navigation.map(([to, label]) => (
+              <NavLink key={to} to={to} className={({ isActive }) => (isActive ? "font-medium text-ink" : "text-muted hover:text-ink")}>
+                {label}
+              </NavLink>
+            ))}
           </nav>
         )}
         <div className="ml-auto flex items-center gap-3 text-sm">

@@ -1,18 +1,28 @@
 import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
-import { addMember, changeRole, listMembers, MembershipError, removeMember, roleHistory, transferOwnership } from "../../server/db/mechanisms";
+import { findPendingInvitation, pendingInvitations, revokeInvitation } from "../../server/db/invitations";
+import { addMember, changeRole, listMembers, removeMember, roleHistory, transferOwnership } from "../../server/db/mechanisms";
+import { listViewLinks, revokeViewLink } from "../../server/db/view-links";
+import { InvitationsPanel } from "~/components/invitations-panel";
+import { ViewLinksPanel } from "~/components/view-links-panel";
 import { RolePill } from "~/components/role-pill";
 import { memberRoleField } from "~/utils/fields";
 import { timeAgo } from "~/utils/format";
 import { httpError, requireRole } from "~/utils/permissions.server";
+import { inviteByEmail, makeViewLink, notifyRoleChange } from "~/utils/sharing.server";
 import type { Route } from "./+types/members";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Members of ${data?.title ?? "mechanism"} · Mechweave` }];
 
 export async function loader(args: Route.LoaderArgs) {
   const { mechanism, role, user } = await requireRole(args, args.params.id, "viewer");
-  const [members, history] = await Promise.all([listMembers(args.context.db, mechanism.id), roleHistory(args.context.db, mechanism.id)]);
+  const db = args.context.db;
+  const [members, history] = await Promise.all([listMembers(db, mechanism.id), roleHistory(db, mechanism.id)]);
+  const owner = role === "owner";
+  const iso = (d: Date | null) => d?.toISOString() ?? null;
   return {
+    invitations: owner ? (await pendingInvitations(db, mechanism.id)).map((i) => ({ ...i, createdAt: iso(i.createdAt)!, expiresAt: iso(i.expiresAt)! })) : [],
+    viewLinks: owner ? (await listViewLinks(db, mechanism.id)).map((l) => ({ ...l, createdAt: iso(l.createdAt)!, expiresAt: iso(l.expiresAt) })) : [],
     id: mechanism.id,
     title: mechanism.title,
     role,
@@ -27,6 +37,15 @@ const memberActions = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("change"), userId: z.string().uuid(), role: memberRoleField }),
   z.object({ intent: z.literal("remove"), userId: z.string().uuid() }),
   z.object({ intent: z.literal("transfer"), userId: z.string().uuid() }),
+  z.object({ intent: z.literal("invite"), email: z.string().trim().toLowerCase().email("Enter a valid e-mail address."), role: memberRoleField }),
+  z.object({ intent: z.literal("resend"), invitationId: z.string().uuid() }),
+  z.object({ intent: z.literal("uninvite"), invitationId: z.string().uuid() }),
+  z.object({
+    intent: z.literal("link"),
+    label: z.string().trim().max(80, "Keep the label under 80 characters.").default(""),
+    days: z.union([z.literal(""), z.coerce.number().int().min(1, "Expiry is at least one day.").max(365, "Expiry is at most a year.")]).default(""),
+  }),
+  z.object({ intent: z.literal("unlink"), linkId: z.string().uuid() }),
 ]);
 
 export async function action(args: Route.ActionArgs) {
@@ -40,23 +59,62 @@ export async function action(args: Route.ActionArgs) {
       const added = await addMember(db, user.id, mechanism.id, input.email, input.role);
       return { ok: `${added.name} can now work here as ${input.role}.` };
     }
+    if (input.intent === "invite") {
+      const invitation = await inviteByEmail(args.context, args.request, user, mechanism, input.email, input.role);
+      return { ok: `Invitation sent to ${invitation.email}.` };
+    }
+    if (input.intent === "resend") {
+      const pending = await findPendingInvitation(db, mechanism.id, input.invitationId);
+      if (!pending) return Response.json({ error: "That invitation is no longer pending." }, { status: 400 });
+      await inviteByEmail(args.context, args.request, user, mechanism, pending.email, pending.role);
+      return { ok: `A new link went to ${pending.email}; the old one no longer works.` };
+    }
+    if (input.intent === "uninvite") {
+      await revokeInvitation(db, user.id, mechanism.id, input.invitationId);
+      return { ok: "Invitation withdrawn." };
+    }
+    if (input.intent === "link") {
+      const expiresAt = input.days === "" ? undefined : new Date(Date.now() + input.days * 86400_000);
+      const link = await makeViewLink(args.context, args.request, user, mechanism.id, { label: input.label, expiresAt });
+      return { ok: "View link created. Copy it now: it is shown only once.", newLink: link.url };
+    }
+    if (input.intent === "unlink") {
+      await revokeViewLink(db, user.id, mechanism.id, input.linkId);
+      return { ok: "View link revoked; anyone using it loses access at once." };
+    }
+    const member = (await listMembers(db, mechanism.id)).find((m) => m.userId === input.userId);
     if (input.intent === "change") await changeRole(db, user.id, mechanism.id, input.userId, input.role);
     if (input.intent === "remove") await removeMember(db, user.id, mechanism.id, input.userId);
     if (input.intent === "transfer") await transferOwnership(db, user.id, mechanism.id, input.userId);
+    if (member) {
+      const newRole = input.intent === "change" ? input.role : input.intent === "transfer" ? "owner" : null;
+      if (newRole !== member.role) await notifyRoleChange(args.context, args.request, { to: member.email, actor: user.name, mechanism, role: newRole });
+    }
     return { ok: input.intent === "transfer" ? "Ownership transferred. You stay on as an editor." : "Saved." };
   } catch (error) {
-    if (error instanceof MembershipError) return Response.json({ error: error.message }, { status: 400 });
+    if (error instanceof Error && error.name === "MembershipError") return Response.json({ error: error.message }, { status: 400 });
     throw error;
   }
 }
 
-const actionWords: Record<string, string> = { grant: "added", change: "changed", revoke: "removed", transfer: "made owner", delete: "deleted", create: "created" };
+const actionWords: Record<string, string> = {
+  grant: "added",
+  change: "changed",
+  revoke: "removed",
+  transfer: "made owner",
+  delete: "deleted",
+  invite: "invited",
+  uninvite: "withdrew the invitation of",
+  accept: "— invitation accepted by",
+  link: "created",
+  unlink: "revoked",
+};
 
 export default function Members({ loaderData, actionData }: Route.ComponentProps) {
-  const { members, role, history, id, title } = loaderData;
+  const { members, role, history, id, title, invitations, viewLinks } = loaderData;
   const owner = role === "owner";
   const busy = useNavigation().state === "submitting";
-  const result = actionData as { ok?: string; error?: string } | undefined;
+  const result = actionData as { ok?: string; error?: string; newLink?: string } | undefined;
   return (
     <main className="mx-auto max-w-5xl px-6 py-8">
       <p className="text-xs text-muted"><Link to="/dashboard">Mechanisms</Link> / <Link to={`/m/${id}`}>{title}</Link></p>
@@ -67,9 +125,8 @@ export default function Members({ loaderData, actionData }: Route.ComponentProps
 
       {owner && (
         <Form method="post" className="card mt-6 flex flex-wrap items-end gap-3 p-4">
-          <input type="hidden" name="intent" value="add" />
           <div className="min-w-64 flex-1">
-            <label className="label" htmlFor="email">Add a person by e-mail</label>
+            <label className="label" htmlFor="email">Add or invite a person by e-mail</label>
             <input className="field" id="email" name="email" type="email" placeholder="colleague@example.test" required />
           </div>
           <div>
@@ -79,7 +136,8 @@ export default function Members({ loaderData, actionData }: Route.ComponentProps
               <option value="viewer">viewer</option>
             </select>
           </div>
-          <button className="btn btn-primary" type="submit" disabled={busy}>Add member</button>
+          <button className="btn btn-primary" type="submit" name="intent" value="add" disabled={busy} title="For someone who already has an account">Add member</button>
+          <button className="btn" type="submit" name="intent" value="invite" disabled={busy} title="E-mails a single-use link, valid for a week">Send invitation</button>
         </Form>
       )}
       {result?.error && <p className="notice-error mt-4" role="alert">{result.error}</p>}
@@ -127,6 +185,9 @@ export default function Members({ loaderData, actionData }: Route.ComponentProps
           </tbody>
         </table>
       </div>
+
+      {owner && <InvitationsPanel invitations={invitations} />}
+      {owner && <ViewLinksPanel links={viewLinks} newLink={result?.newLink} />}
 
       <section className="mt-10">
         <h2>Role changes</h2>

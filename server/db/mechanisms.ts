@@ -105,8 +105,10 @@ export async function listMembers(db: Db, mechanismId: string): Promise<Member[]
   return [{ userId: owner!.id, name: owner!.name, email: owner!.email, role: "owner" }, ...rows];
 }
 
-/** A member change the owner should read about, not a server fault. */
-export class MembershipError extends Error {}
+/** A member change the owner should read about, not a server fault (matched by name). */
+export class MembershipError extends Error {
+  override name = "MembershipError";
+}
 
 export async function addMember(db: Db, actorId: string, mechanismId: string, email: string, role: MemberRole) {
   const user = await db.query.users.findFirst({ where: eq(users.email, email.trim().toLowerCase()) });

@@ -1,0 +1,64 @@
+import type { Route } from "./+types/api-docs";
+
+export const meta: Route.MetaFunction = () => [{ title: "JSON API · Mechweave" }];
+
+export function loader({ request }: Route.LoaderArgs) {
+  return { origin: new URL(request.url).origin };
+}
+
+interface Endpoint {
+  method: string;
+  path: string;
+  role: string;
+  what: string;
+  example: (o: string) => string;
+}
+
+const auth = `-H "Authorization: Bearer $MECHWEAVE_TOKEN"`;
+const json = `-H "Content-Type: application/json"`;
+
+const endpoints: Endpoint[] = [
+  { method: "GET", path: "/api/v1/mechanisms", role: "signed in", what: "The mechanisms you can see, with your role.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms` },
+  { method: "POST", path: "/api/v1/mechanisms", role: "signed in", what: "Create a mechanism: { title, source? }.", example: (o) => `curl ${auth} ${json} -d '{"title":"Ozone draft","source":"O3 -> O2 + O @ k1 = 0.1"}' ${o}/api/v1/mechanisms` },
+  { method: "GET", path: "/api/v1/mechanisms/:id", role: "viewer", what: "Title, summary, source, your role and the full structure analysis.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID` },
+  { method: "PUT", path: "/api/v1/mechanisms/:id/source", role: "editor", what: "Replace the text; applied through the live document, so everyone in the room sees it.", example: (o) => `curl -X PUT ${auth} ${json} -d '{"source":"A -> B @ 1"}' ${o}/api/v1/mechanisms/ID/source` },
+  { method: "GET", path: "/api/v1/mechanisms/:id/snapshots", role: "viewer", what: "Versions, newest first.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID/snapshots` },
+  { method: "POST", path: "/api/v1/mechanisms/:id/snapshots", role: "editor", what: "Name the current version: { name }.", example: (o) => `curl ${auth} ${json} -d '{"name":"before review"}' ${o}/api/v1/mechanisms/ID/snapshots` },
+  { method: "POST", path: "/api/v1/mechanisms/:id/simulations", role: "viewer", what: "Simulate: { until, samples, rtol?, atol? } → { t, series, stats }.", example: (o) => `curl ${auth} ${json} -d '{"until":50,"samples":101}' ${o}/api/v1/mechanisms/ID/simulations` },
+  { method: "GET", path: "/api/v1/mechanisms/:id/export?format=sbml|latex|csv", role: "viewer", what: "SBML Level 3 Core, a LaTeX document, or the stoichiometric matrix as CSV.", example: (o) => `curl ${auth} -o mechanism.xml "${o}/api/v1/mechanisms/ID/export?format=sbml"` },
+  { method: "POST", path: "/api/v1/mechanisms/import", role: "signed in", what: "Import an SBML file (multipart field file, or the raw XML as the body).", example: (o) => `curl ${auth} -F file=@model.xml ${o}/api/v1/mechanisms/import` },
+  { method: "POST", path: "/api/v1/mechanisms/:id/invitations", role: "owner", what: "Invite by e-mail: { email, role }.", example: (o) => `curl ${auth} ${json} -d '{"email":"colleague@example.test","role":"editor"}' ${o}/api/v1/mechanisms/ID/invitations` },
+  { method: "POST", path: "/api/v1/mechanisms/:id/view-links", role: "owner", what: "A read-only link: { expiresAt? } → { id, url }.", example: (o) => `curl ${auth} ${json} -d '{}' ${o}/api/v1/mechanisms/ID/view-links` },
+  { method: "DELETE", path: "/api/v1/mechanisms/:id/view-links/:linkId", role: "owner", what: "Revoke a view link.", example: (o) => `curl -X DELETE ${auth} ${o}/api/v1/mechanisms/ID/view-links/LINK` },
+  { method: "POST", path: "/api/v1/analyze", role: "signed in", what: "Analyse a text without saving it: { source }.", example: (o) => `curl ${auth} ${json} -d '{"source":"X + Y -> 2Y @ 1"}' ${o}/api/v1/analyze` },
+  { method: "POST", path: "/api/v1/realizations", role: "signed in", what: "Kinetic check and canonical realization of a polynomial ODE: { ode, shift?, multiply? }.", example: (o) => `curl ${auth} ${json} -d '{"ode":"x\\' = x - x*y\\ny\\' = x*y - y"}' ${o}/api/v1/realizations` },
+  { method: "POST", path: "/api/v1/tokens", role: "browser session", what: "Create a token: { name } → { id, token } (shown once).", example: (o) => `curl -b cookies.txt ${json} -d '{"name":"script"}' ${o}/api/v1/tokens` },
+  { method: "DELETE", path: "/api/v1/tokens/:id", role: "signed in", what: "Revoke a token.", example: (o) => `curl -X DELETE ${auth} ${o}/api/v1/tokens/TOKEN_ID` },
+];
+
+export default function ApiDocs({ loaderData }: Route.ComponentProps) {
+  return (
+    <main className="mx-auto max-w-5xl px-6 py-8">
+      <h1>JSON API</h1>
+      <p className="mt-2 max-w-3xl text-sm text-muted">
+        Every endpoint lives under <code>/api/v1/</code> and accepts your browser session or a personal access token
+        (<a href="/settings/tokens">create one</a>) as <code>Authorization: Bearer TOKEN</code>. A token acts with your roles and has a budget of
+        120 requests a minute. Errors are <code>{`{ "error": "message" }`}</code> with status 400 (bad input), 401 (not signed in), 403 (role too
+        low), 404 (not found or not visible to you), 413 (too large) or 429 (rate limited).
+      </p>
+      <div className="mt-6 space-y-3">
+        {endpoints.map((e) => (
+          <section key={e.method + e.path} className="card p-4">
+            <div className="flex flex-wrap items-center gap-3">
+              <span className="pill bg-accent-soft font-mono text-accent">{e.method}</span>
+              <code className="text-sm font-medium">{e.path}</code>
+              <span className="pill ml-auto border border-line text-muted">{e.role}</span>
+            </div>
+            <p className="mt-2 text-sm">{e.what}</p>
+            <pre className="mt-2 overflow-x-auto rounded-md bg-canvas p-3 text-xs">{e.example(loaderData.origin)}</pre>
+          </section>
+        ))}
+      </div>
+    </main>
+  );
+}

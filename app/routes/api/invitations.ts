@@ -1,0 +1,22 @@
+import { z } from "zod";
+import { memberRoleField } from "~/utils/fields";
+import { httpError } from "~/utils/http";
+import { readJson } from "~/utils/json.server";
+import { requireRole } from "~/utils/permissions.server";
+import { inviteByEmail } from "~/utils/sharing.server";
+import type { Route } from "./+types/invitations";
+
+const body = z.object({ email: z.string().trim().toLowerCase().email("Enter a valid e-mail address."), role: memberRoleField });
+
+export async function action(args: Route.ActionArgs) {
+  if (args.request.method !== "POST") return httpError(405, "Use POST to invite.");
+  const { mechanism, user } = await requireRole(args, args.params.id, "owner");
+  const input = await readJson(args.request, body);
+  try {
+    const invitation = await inviteByEmail(args.context, args.request, user, mechanism, input.email, input.role);
+    return Response.json({ id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt }, { status: 201 });
+  } catch (error) {
+    if (error instanceof Error && error.name === "MembershipError") return httpError(400, error.message);
+    throw error;
+  }
+}

@@ -1,0 +1,19 @@
+// PUT /api/v1/mechanisms/:id/source — the whole text, written through the live document so
+// everyone in the room sees it at once.
+import { z } from "zod";
+import { MAX_SOURCE_BYTES } from "~/utils/fields";
+import { httpError } from "~/utils/http";
+import { readJson } from "~/utils/json.server";
+import { requireRole } from "~/utils/permissions.server";
+import type { Route } from "./+types/source";
+
+const body = z.object({ source: z.string({ message: "source must be a string." }) });
+
+export async function action(args: Route.ActionArgs) {
+  if (args.request.method !== "PUT") return httpError(405, 'Use PUT with { "source" }.');
+  const { mechanism, user } = await requireRole(args, args.params.id, "editor");
+  const { source } = await readJson(args.request, body);
+  if (Buffer.byteLength(source, "utf8") > MAX_SOURCE_BYTES) return httpError(413, "The mechanism text is over 1 MiB; split it or trim comments.");
+  if (!(await args.context.collab.replaceSource(mechanism.id, source, user.id))) return httpError(404, "No mechanism with that id is visible to you.");
+  return Response.json({ id: mechanism.id, source });
+}

@@ -1,0 +1,93 @@
+// Accepting an invitation: sign in or sign up with the invited address, then take the role.
+import { Form, Link, redirect } from "react-router";
+import { z } from "zod";
+import { createUser, isAuthFailure, signUpForm } from "../../server/auth/authenticator";
+import { acceptInvitation, lookUpInvitation } from "../../server/db/invitations";
+import { AuthCard } from "~/components/auth-card";
+import { getUser, startUserSession } from "~/utils/auth.server";
+import { httpError } from "~/utils/http";
+import type { Route } from "./+types/invite";
+
+export const meta: Route.MetaFunction = () => [{ title: "Invitation · Mechweave" }];
+
+export async function loader(args: Route.LoaderArgs) {
+  const found = await lookUpInvitation(args.context.db, args.params.token);
+  if (!found.ok) throw httpError(404, found.reason);
+  const user = await getUser(args);
+  return {
+    title: found.title,
+    inviter: found.inviter,
+    role: found.invitation.role,
+    email: found.invitation.email,
+    signedInAs: user?.email ?? null,
+  };
+}
+
+const acceptForm = z.discriminatedUnion("intent", [
+  z.object({ intent: z.literal("accept") }),
+  signUpForm.extend({ intent: z.literal("sign-up") }),
+]);
+
+export async function action(args: Route.ActionArgs) {
+  const { context, params } = args;
+  const parsed = acceptForm.safeParse(Object.fromEntries(await args.request.formData()));
+  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message }, { status: 400 });
+  try {
+    if (parsed.data.intent === "sign-up") {
+      const found = await lookUpInvitation(context.db, params.token);
+      if (!found.ok) return Response.json({ error: found.reason }, { status: 400 });
+      if (parsed.data.email !== found.invitation.email) return Response.json({ error: `Use the invited address, ${found.invitation.email}.` }, { status: 400 });
+      const user = await createUser(context.db, parsed.data);
+      const mechanismId = await acceptInvitation(context.db, params.token, user);
+      return await startUserSession(args, user, `/m/${mechanismId}`);
+    }
+    const user = await getUser(args);
+    if (!user) return Response.json({ error: "Sign in first." }, { status: 401 });
+    const mechanismId = await acceptInvitation(context.db, params.token, user);
+    throw redirect(`/m/${mechanismId}`);
+  } catch (error) {
+    if (isAuthFailure(error) || (error instanceof Error && error.name === "MembershipError")) {
+      return Response.json({ error: (error as Error).message }, { status: 400 });
+    }
+    throw error;
+  }
+}
+
+export default function Invite({ loaderData, actionData, params }: Route.ComponentProps) {
+  const { title, inviter, role, email, signedInAs } = loaderData;
+  const failed = actionData as { error?: string } | undefined;
+  const next = encodeURIComponent(`/invite/${params.token}`);
+  return (
+    <AuthCard
+      title={`Join “${title}”`}
+      lead={`${inviter} invited ${email} as ${role === "editor" ? "an editor" : "a viewer"}.`}
+      footer={signedInAs ? <>Not you? <Link to="/sign-out">Sign out</Link>.</> : <>Have an account with {email}? <Link to={`/sign-in?next=${next}`}>Sign in</Link> and come back to this link.</>}
+    >
+      {failed?.error && <p className="notice-error mb-4" role="alert">{failed.error}</p>}
+      {signedInAs ? (
+        <Form method="post" className="space-y-3">
+          <p className="text-sm">Signed in as <strong>{signedInAs}</strong>.</p>
+          <button className="btn btn-primary w-full" name="intent" value="accept" type="submit">Accept and open the mechanism</button>
+        </Form>
+      ) : (
+        <Form method="post" className="space-y-4">
+          <input type="hidden" name="intent" value="sign-up" />
+          <input type="hidden" name="email" value={email} />
+          <div>
+            <label className="label" htmlFor="name">Your name</label>
+            <input className="field" id="name" name="name" required autoComplete="name" />
+          </div>
+          <div>
+            <label className="label" htmlFor="invite-email">E-mail</label>
+            <input className="field" id="invite-email" value={email} readOnly disabled />
+          </div>
+          <div>
+            <label className="label" htmlFor="password">Choose a password</label>
+            <input className="field" id="password" name="password" type="password" minLength={10} required autoComplete="new-password" />
+          </div>
+          <button className="btn btn-primary w-full" type="submit">Create account and join</button>
+        </Form>
+      )}
+    </AuthCard>
+  );
+}
