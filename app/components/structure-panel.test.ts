@@ -1,0 +1,22 @@
+import { createElement } from "react";
+import { renderToString } from "react-dom/server";
+import { describe, expect, it } from "vitest";
+import { analyzeSource } from "~/chem/analysis";
+import { StructurePanel } from "./structure-panel";
+
+describe("StructurePanel", () => {
+  it("shows counts, verdicts, typeset ODEs, the matrix and detailed balance", async () => {
+    const report = await analyzeSource("A <=> B @ k1 = 1, k2 = 2\nB <=> C @ k3 = 3, k4 = 4\nC <=> A @ k5 = 8, k6 = 3\nX -> Y");
+    const html = renderToString(createElement(StructurePanel, { report }));
+    expect(html).toContain("Deficiency Zero Theorem");
+    expect(html).toContain("katex");
+    expect(html).toContain("terminal");
+    expect(html).toContain("r6");
+    expect(html).toContain("No rate coefficient");
+  });
+
+  it("renders an empty mechanism without failing", async () => {
+    const html = renderToString(createElement(StructurePanel, { report: await analyzeSource("") }));
+    expect(html).toContain("There are no reactions yet");
+  });
+});
