@@ -4,6 +4,7 @@ import { useEffect, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
+import type { AnalysisReport } from "~/chem/analysis";
 import type { Role } from "../../server/db/roles";
 
 export type RoomStatus = "connecting" | "online" | "offline";
@@ -19,15 +20,16 @@ export interface Peer extends PeerUser {
   clientId: number;
 }
 
-/** The server-written `analysis` map; `report` is the full analysis JSON. */
+/** The server-written `analysis` map (empty until its first recompute arrives). */
 export interface RoomAnalysis {
   deficiency?: number;
   rank?: number;
+  /** Counts; the lists themselves are in `report`. */
   linkageClasses?: number;
   species?: number;
   errors?: number;
   revision?: number;
-  report?: unknown;
+  report?: AnalysisReport;
 }
 
 export interface Room {
@@ -102,7 +104,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
       setStatus((current) => (next === "connected" ? "online" : next === "disconnected" || current === "offline" ? "offline" : "connecting"));
     const onClosed = () => setStatus("offline");
     const onSync = (state: boolean) => setSynced(state);
-    const onAnalysis = () => setAnalysis(readAnalysis(analysisMap));
+    const onAnalysis = () => setAnalysis(analysisMap.toJSON() as RoomAnalysis);
 
     provider.on("status", onStatus);
     provider.on("closed", onClosed);
@@ -165,17 +167,4 @@ function peersOf(awareness: Awareness): Peer[] {
     peers.push({ clientId, name: user.name, colour: user.colour ?? peerPalette[0], role: user.role ?? "viewer" });
   });
   return peers.sort((a, b) => a.clientId - b.clientId);
-}
-
-function readAnalysis(map: Y.Map<unknown>): RoomAnalysis {
-  const analysis = map.toJSON() as RoomAnalysis;
-  // The server may store the report as a JSON string rather than a nested value.
-  if (typeof analysis.report === "string") {
-    try {
-      analysis.report = JSON.parse(analysis.report);
-    } catch {
-      analysis.report = undefined;
-    }
-  }
-  return analysis;
 }

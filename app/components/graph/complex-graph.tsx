@@ -1,0 +1,273 @@
+// The complex graph of a mechanism, shared live: node positions live in the room's `layout` map,
+// complexes nobody has placed yet are laid out by dagre, and dragging a node moves it for everyone.
+import "@xyflow/react/dist/style.css";
+import {
+  applyNodeChanges,
+  Background,
+  BackgroundVariant,
+  Controls,
+  type NodeChange,
+  Panel,
+  ReactFlow,
+  ReactFlowProvider,
+  useNodesInitialized,
+  useReactFlow,
+} from "@xyflow/react";
+import { type CSSProperties, useEffect, useId, useMemo, useRef, useState } from "react";
+import type * as Y from "yjs";
+import { ComplexNodeView, type ComplexNode } from "./complex-node";
+import { GraphLegend } from "./graph-legend";
+import { buildGraphModel, complexLabel, type ComplexGraphReport, type GraphModel } from "./graph-model";
+import { estimateNodeSize, placeComplexes, type XY } from "./layout";
+import { linkageClassColours } from "./linkage-colours";
+import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
+import { useSharedLayout } from "./use-shared-layout";
+
+export type { ComplexGraphReport } from "./graph-model";
+
+export interface GraphSelection {
+  kind: "complex" | "reaction";
+  /** Index into the report's `complexes` or `reactions`. */
+  index: number;
+}
+
+export interface ComplexGraphProps {
+  /** The room's analysis report (`analysis.report`); its fixed species are named in the legend. */
+  report: ComplexGraphReport | null;
+  /** The room's `layout` map; null before the room exists. */
+  layout: Y.Map<unknown> | null;
+  /** Editors share placements and drags; viewers see the shared picture and place new nodes locally. */
+  canEdit: boolean;
+  /** Whether the room holds the server's state; nothing is written before, so no stored layout is overwritten. */
+  synced: boolean;
+  onSelect?: (selection: GraphSelection | null) => void;
+  className?: string;
+}
+
+const nodeTypes = { complex: ComplexNodeView };
+const edgeTypes = { reaction: ReactionEdgeView };
+
+/** Drags reach co-authors at most this often; the final position is always written. */
+const dragWriteInterval = 80;
+
+// React Flow's own colours, pointed at Mechweave's theme variables so both themes just work.
+const themeVariables = {
+  "--xy-background-color": "var(--mw-canvas)",
+  "--xy-background-pattern-color": "var(--mw-line)",
+  "--xy-edge-stroke": "var(--mw-muted)",
+  "--xy-edge-stroke-selected": "var(--mw-accent)",
+  "--xy-node-boxshadow-selected": "none",
+  "--xy-controls-button-background-color": "var(--mw-raised)",
+  "--xy-controls-button-background-color-hover": "var(--mw-accent-soft)",
+  "--xy-controls-button-color": "var(--mw-ink)",
+  "--xy-controls-button-color-hover": "var(--mw-accent)",
+  "--xy-controls-button-border-color": "var(--mw-line)",
+  "--xy-controls-box-shadow": "0 1px 2px rgb(0 0 0 / 0.12)",
+  "--xy-attribution-background-color": "transparent",
+} as CSSProperties;
+
+export function ComplexGraph(props: ComplexGraphProps) {
+  // React Flow measures the DOM; render it in the browser only and keep server markup a plain box.
+  const [mounted, setMounted] = useState(false);
+  useEffect(() => setMounted(true), []);
+  return (
+    <div className={`relative h-full min-h-80 ${props.className ?? ""}`} data-testid="complex-graph">
+      {mounted && (
+        <ReactFlowProvider>
+          <SharedComplexGraph {...props} />
+        </ReactFlowProvider>
+      )}
+    </div>
+  );
+}
+
+function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: ComplexGraphProps) {
+  const model = useMemo(() => (report ? buildGraphModel(report) : null), [report]);
+  const positions = useComplexPositions(model, report, layout, canEdit, synced);
+  const [nodes, setNodes] = useState<ComplexNode[]>([]);
+  // Held by id (complex text), not index, so the same complex stays selected while the text changes.
+  const [selected, setSelected] = useState<{ kind: GraphSelection["kind"]; id: string } | null>(null);
+  const lastWrite = useRef(new Map<string, number>());
+  const markerBase = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
+  const marker = useMemo(() => ({ normal: markerBase, selected: `${markerBase}-selected` }), [markerBase]);
+
+  // Shared positions flow into the nodes, except for a node this user is dragging right now.
+  useEffect(() => {
+    setNodes((previous) => buildNodes(model, positions.all, previous));
+  }, [model, positions.all]);
+
+  const edges = useMemo<ReactionEdge[]>(
+    () =>
+      (model?.edges ?? []).map((edge) => ({
+        id: edge.id,
+        type: "reaction",
+        source: edge.source,
+        target: edge.target,
+        selected: selected?.kind === "reaction" && selected.id === edge.id,
+        data: { bend: edge.bend, label: edge.label, marker },
+      })),
+    [model, selected, marker],
+  );
+
+  const shownNodes = useMemo(
+    () => nodes.map((node) => ({ ...node, selected: selected?.kind === "complex" && selected.id === node.id })),
+    [nodes, selected],
+  );
+
+  const select = (next: { kind: GraphSelection["kind"]; id: string } | null) => {
+    setSelected(next);
+    if (!onSelect || !model) return;
+    if (!next) return onSelect(null);
+    const index =
+      next.kind === "complex" ? model.nodes.find((node) => node.key === next.id)?.index : model.edges.find((edge) => edge.id === next.id)?.index;
+    if (index !== undefined) onSelect({ kind: next.kind, index });
+  };
+
+  const onNodesChange = (changes: NodeChange<ComplexNode>[]) => {
+    // Selection is ours (it mirrors into the text); React Flow keeps only geometry.
+    const geometry = changes.filter((change) => change.type === "position" || change.type === "dimensions");
+    setNodes((current) => applyNodeChanges(geometry, current));
+    if (!canEdit) return;
+    const now = Date.now();
+    const moved: Record<string, XY> = {};
+    for (const change of geometry) {
+      if (change.type !== "position" || !change.position) continue;
+      const finished = !change.dragging;
+      if (finished || now - (lastWrite.current.get(change.id) ?? 0) >= dragWriteInterval) {
+        moved[change.id] = change.position;
+        lastWrite.current.set(change.id, now);
+      }
+    }
+    if (Object.keys(moved).length > 0) positions.write(moved);
+  };
+
+  if (!model || model.nodes.length === 0) {
+    return (
+      <div className="flex h-full items-center justify-center p-6 text-center text-sm text-muted">
+        The complex graph appears here once the text has a reaction step.
+      </div>
+    );
+  }
+
+  return (
+    <>
+      <ArrowheadMarkers ids={marker} />
+      <ReactFlow<ComplexNode, ReactionEdge>
+        nodes={shownNodes}
+        edges={edges}
+        nodeTypes={nodeTypes}
+        edgeTypes={edgeTypes}
+        onNodesChange={onNodesChange}
+        onNodeClick={(_, node) => select({ kind: "complex", id: node.id })}
+        onEdgeClick={(_, edge) => select({ kind: "reaction", id: edge.id })}
+        onPaneClick={() => select(null)}
+        nodesDraggable={canEdit}
+        nodesConnectable={false}
+        edgesReconnectable={false}
+        deleteKeyCode={null}
+        selectionKeyCode={null}
+        multiSelectionKeyCode={null}
+        fitView
+        fitViewOptions={fitOptions}
+        minZoom={0.2}
+        maxZoom={2.5}
+        style={themeVariables}
+        aria-label="Complex graph"
+      >
+        <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
+        <Controls showInteractive={false} position="bottom-left" />
+        <Panel position="top-left">
+          <GraphLegend linkageClassCount={model.linkageClassCount} fixedSpecies={Object.keys(report?.fixedSpecies ?? {})} />
+        </Panel>
+        <FitWhenFirstFilled />
+      </ReactFlow>
+    </>
+  );
+}
+
+const fitOptions = { padding: 0.2, maxZoom: 1.3 };
+
+/**
+ * Positions for every complex: the shared ones, plus dagre's for the rest. An editor writes its
+ * placements to the shared map once the room is synced; a viewer (or anyone before sync) keeps
+ * them locally, so nothing it computes can overwrite a co-author's layout.
+ */
+function useComplexPositions(model: GraphModel | null, report: ComplexGraphReport | null, layout: Y.Map<unknown> | null, canEdit: boolean, synced: boolean) {
+  const shared = useSharedLayout(layout);
+  const [local, setLocal] = useState<Record<string, XY>>({});
+  const sharing = canEdit && synced;
+
+  // Local placements made against an incomplete picture are dropped once the real one arrives.
+  useEffect(() => setLocal({}), [synced, layout]);
+
+  const known = useMemo(() => ({ ...local, ...shared.positions }), [local, shared.positions]);
+  const placed = useMemo(() => {
+    if (!model || !report) return {};
+    return placeComplexes({
+      keys: report.complexes,
+      reactions: report.reactions,
+      linkageClasses: report.linkageClasses,
+      known,
+      sizeOf: (key) => estimateNodeSize(complexLabel(key)),
+    });
+  }, [model, report, known]);
+
+  useEffect(() => {
+    if (Object.keys(placed).length === 0) return;
+    if (sharing) shared.write(placed);
+    else setLocal((current) => ({ ...current, ...placed }));
+  }, [placed, sharing, shared.write]);
+
+  const all = useMemo(() => ({ ...known, ...placed }), [known, placed]);
+  return { all, write: shared.write };
+}
+
+function buildNodes(model: GraphModel | null, positions: Readonly<Record<string, XY>>, previous: ComplexNode[]): ComplexNode[] {
+  if (!model) return [];
+  const before = new Map(previous.map((node) => [node.id, node]));
+  return model.nodes.map((complex) => {
+    const old = before.get(complex.key);
+    return {
+      ...old,
+      id: complex.key,
+      type: "complex",
+      position: old?.dragging ? old.position : (positions[complex.key] ?? old?.position ?? { x: 0, y: 0 }),
+      data: {
+        label: complex.label,
+        colours: linkageClassColours(complex.linkageClass),
+        terminal: complex.terminal,
+        linkageClass: complex.linkageClass,
+      },
+    };
+  });
+}
+
+/** The `fitView` prop fits the first render only; a graph that starts empty is fitted when it fills. */
+function FitWhenFirstFilled() {
+  const initialized = useNodesInitialized();
+  const { fitView } = useReactFlow();
+  const fitted = useRef(false);
+  useEffect(() => {
+    if (!initialized || fitted.current) return;
+    fitted.current = true;
+    void fitView(fitOptions);
+  }, [initialized, fitView]);
+  return null;
+}
+
+function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: string } }) {
+  return (
+    <svg className="absolute h-0 w-0" aria-hidden="true">
+      <defs>
+        {[
+          [ids.normal, "var(--mw-muted)"],
+          [ids.selected, "var(--mw-accent)"],
+        ].map(([id, colour]) => (
+          <marker key={id} id={id} viewBox="0 0 10 10" refX="9" refY="5" markerWidth="9" markerHeight="9" markerUnits="userSpaceOnUse" orient="auto-start-reverse">
+            <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
+          </marker>
+        ))}
+      </defs>
+    </svg>
+  );
+}

@@ -1,0 +1,38 @@
+// One complex as a box: tinted by its linkage class, with a double rim when it belongs to a
+// terminal strong linkage class.
+import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
+import type { ClassColours } from "./linkage-colours";
+
+export type ComplexNodeData = {
+  label: string;
+  colours: ClassColours;
+  terminal: boolean;
+  linkageClass: number;
+};
+
+export type ComplexNode = Node<ComplexNodeData, "complex">;
+
+// Arrows are drawn centre to centre (see edge-geometry), so handles exist only because React Flow
+// attaches edges to them; they stay invisible and cannot start a connection.
+const hiddenHandle = { opacity: 0, pointerEvents: "none", width: 1, height: 1, minWidth: 0, minHeight: 0, border: 0 } as const;
+
+export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
+  return (
+    <div
+      className="rounded-lg px-3.5 py-1.5 font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink shadow-sm"
+      style={{
+        background: data.colours.fill,
+        borderColor: data.colours.outline,
+        borderStyle: data.terminal ? "double" : "solid",
+        borderWidth: data.terminal ? 4 : 1.5,
+        outline: selected ? "2px solid var(--mw-accent)" : undefined,
+        outlineOffset: 2,
+      }}
+      title={`${data.label} · linkage class ${data.linkageClass + 1}${data.terminal ? " · terminal" : ""}`}
+    >
+      <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
+      {data.label}
+      <Handle type="source" position={Position.Right} isConnectable={false} style={hiddenHandle} />
+    </div>
+  );
+}

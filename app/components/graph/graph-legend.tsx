@@ -1,0 +1,39 @@
+// The key to the complex graph: which tint is which linkage class, what a double rim means, and
+// which species are held fixed (and so appear in no complex).
+import { linkageClassColours } from "./linkage-colours";
+
+const shownClasses = 8;
+
+export function GraphLegend({ linkageClassCount, fixedSpecies }: { linkageClassCount: number; fixedSpecies: readonly string[] }) {
+  const swatches = Array.from({ length: Math.min(linkageClassCount, shownClasses) }, (_, index) => linkageClassColours(index));
+  return (
+    <div className="card max-w-64 space-y-1.5 bg-surface/95 px-3 py-2 text-xs text-muted" data-testid="graph-legend">
+      <div className="flex flex-wrap items-center gap-1.5">
+        <span className="mr-0.5 font-medium text-ink">
+          {linkageClassCount} linkage {linkageClassCount === 1 ? "class" : "classes"}
+        </span>
+        {swatches.map((colours, index) => (
+          <span
+            key={index}
+            className="inline-flex h-4 min-w-4 items-center justify-center rounded px-0.5 text-[10px] font-medium text-ink"
+            style={{ background: colours.fill, border: `1.5px solid ${colours.outline}` }}
+            title={`Linkage class ${index + 1}`}
+          >
+            {index + 1}
+          </span>
+        ))}
+        {linkageClassCount > shownClasses && <span>+{linkageClassCount - shownClasses}</span>}
+      </div>
+      <div className="flex items-center gap-2">
+        <span className="inline-block h-3.5 w-5 rounded-sm" style={{ border: "3.5px double var(--mw-muted)" }} />
+        <span>terminal strong linkage class</span>
+      </div>
+      {fixedSpecies.length > 0 && (
+        <div>
+          <span className="font-medium text-ink">Fixed:</span> <span className="font-mono">{fixedSpecies.join(", ")}</span>
+          <span className="block text-[11px]">held constant, left out of the complexes</span>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,78 @@
+import { describe, expect, it } from "vitest";
+import { buildGraphModel, rateText } from "./graph-model";
+import { edgeCurve } from "./edge-geometry";
+import { linkageClassColours } from "./linkage-colours";
+
+// X <=> 2X, X + Y -> 2Y, Y -> 0
+const report = {
+  complexes: ["X", "2X", "X + Y", "2Y", "Y", "0"],
+  reactions: [
+    { from: 0, to: 1, rate: 30, coefficient: "30" },
+    { from: 1, to: 0, rate: 0.25, coefficient: "0.25" },
+    { from: 2, to: 3, rate: null, coefficient: "k2" },
+    { from: 4, to: 5, rate: 10 },
+  ],
+  linkageClasses: [[0, 1], [2, 3], [4, 5]],
+  terminalStrongLinkageClasses: [[0, 1], [3], [5]],
+};
+
+describe("graph model", () => {
+  const model = buildGraphModel(report);
+
+  it("has one node per complex keyed by its text, the zero complex drawn as ∅", () => {
+    expect(model.nodes.map((node) => node.key)).toEqual(report.complexes);
+    expect(model.nodes[5].label).toBe("∅");
+    expect(model.nodes.map((node) => node.linkageClass)).toEqual([0, 0, 1, 1, 2, 2]);
+    expect(model.nodes.map((node) => node.terminal)).toEqual([true, true, false, true, false, true]);
+  });
+
+  it("bends both reactions of a reversible pair and no other", () => {
+    expect(model.edges.map((edge) => edge.bend)).toEqual([1, 1, 0, 0]);
+    expect(new Set(model.edges.map((edge) => edge.id)).size).toBe(4);
+    expect(model.edges[2]).toMatchObject({ source: "X + Y", target: "2Y", label: "k2", index: 2 });
+    expect(model.edges[3].label).toBe("10");
+  });
+});
+
+describe("rate labels", () => {
+  it("stay short", () => {
+    expect(rateText(0.25)).toBe("0.25");
+    expect(rateText(30)).toBe("30");
+    expect(rateText(1 / 3)).toBe("0.3333");
+    expect(rateText(1e-4)).toBe("1e-4");
+    expect(rateText(2.5e6)).toBe("2.5e6");
+    expect(rateText(0)).toBe("0");
+  });
+});
+
+describe("reaction curves", () => {
+  const left = { x: 0, y: 0, width: 60, height: 40 };
+  const right = { x: 200, y: 0, width: 60, height: 40 };
+
+  it("draw a reversible pair on opposite sides of the line between the boxes", () => {
+    const forward = edgeCurve(left, right, 1);
+    const backward = edgeCurve(right, left, 1);
+    expect(Math.sign(forward.middle.y - 20)).toBe(-Math.sign(backward.middle.y - 20));
+    expect(Math.abs(forward.middle.y - 20)).toBeGreaterThan(5);
+  });
+
+  it("run straight between the box borders when unbent", () => {
+    const straight = edgeCurve(left, right, 0);
+    expect(straight.start).toEqual({ x: 60, y: 20 });
+    expect(straight.end.x).toBeCloseTo(197);
+    expect(straight.middle.y).toBeCloseTo(20);
+  });
+});
+
+describe("linkage class colours", () => {
+  it("differ for every class of a large network", () => {
+    const bases = Array.from({ length: 30 }, (_, index) => linkageClassColours(index).base);
+    expect(new Set(bases).size).toBe(30);
+  });
+
+  it("mix with the theme so they follow light and dark", () => {
+    const { fill, outline } = linkageClassColours(0);
+    expect(fill).toContain("var(--mw-raised)");
+    expect(outline).toContain("var(--mw-ink)");
+  });
+});

@@ -1,0 +1,76 @@
+// From an analysis report to what the complex graph draws: one node per complex, one edge per
+// reaction, each tagged with its linkage class, terminal strong linkage class and pairing.
+
+/** The parts of an analysis report the graph reads (the `analyze` JSON has them all). */
+export interface ComplexGraphReport {
+  /** Canonical complex text, e.g. "X + 2Y" or "0". */
+  complexes: string[];
+  reactions: { from: number; to: number; rate?: number | null; coefficient?: string | null }[];
+  linkageClasses: number[][];
+  terminalStrongLinkageClasses: number[][];
+  /** External species held constant, with their concentrations. */
+  fixedSpecies?: Record<string, number>;
+}
+
+export interface ComplexNodeModel {
+  /** Canonical text: the node id and the key of its position in the shared layout. */
+  key: string;
+  index: number;
+  label: string;
+  linkageClass: number;
+  terminal: boolean;
+}
+
+export interface ReactionEdgeModel {
+  id: string;
+  index: number;
+  source: string;
+  target: string;
+  /** +1 when the reverse reaction is drawn too: each of the pair bows to its own left. */
+  bend: 0 | 1;
+  label: string | null;
+}
+
+export interface GraphModel {
+  nodes: ComplexNodeModel[];
+  edges: ReactionEdgeModel[];
+  linkageClassCount: number;
+}
+
+/** The zero complex is written 0 in the text and drawn as the empty-set sign. */
+export const complexLabel = (text: string) => (text === "0" ? "∅" : text);
+
+export function buildGraphModel(report: ComplexGraphReport): GraphModel {
+  const classOf = membership(report.linkageClasses);
+  const terminal = new Set(report.terminalStrongLinkageClasses.flat());
+  const nodes = report.complexes.map((text, index) => ({
+    key: text,
+    index,
+    label: complexLabel(text),
+    linkageClass: classOf.get(index) ?? report.linkageClasses.length,
+    terminal: terminal.has(index),
+  }));
+  const directed = new Set(report.reactions.map(({ from, to }) => `${from}>${to}`));
+  const edges = report.reactions.map(({ from, to, rate, coefficient }, index) => ({
+    id: `${report.complexes[from]} → ${report.complexes[to]}`,
+    index,
+    source: report.complexes[from],
+    target: report.complexes[to],
+    bend: directed.has(`${to}>${from}`) ? (1 as const) : (0 as const),
+    label: coefficient ?? (rate == null ? null : rateText(rate)),
+  }));
+  return { nodes, edges, linkageClassCount: report.linkageClasses.length };
+}
+
+/** A rate coefficient short enough to sit beside an arrow: four significant digits at most. */
+export function rateText(rate: number): string {
+  const magnitude = Math.abs(rate);
+  if (magnitude !== 0 && (magnitude < 1e-3 || magnitude >= 1e5)) return rate.toExponential(2).replace(/\.?0+e/, "e").replace("e+", "e");
+  return String(Number(rate.toPrecision(4)));
+}
+
+function membership(classes: number[][]): Map<number, number> {
+  const classOf = new Map<number, number>();
+  classes.forEach((members, classIndex) => members.forEach((member) => classOf.set(member, classIndex)));
+  return classOf;
+}

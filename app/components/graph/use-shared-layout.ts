@@ -1,0 +1,49 @@
+// The `layout` map of the shared document as React state: complex text → top-left corner. Every
+// co-author reads and writes the same map, so all of them see one picture of the graph.
+import { useCallback, useEffect, useState } from "react";
+import type * as Y from "yjs";
+import type { XY } from "./layout";
+
+export interface SharedLayout {
+  positions: Readonly<Record<string, XY>>;
+  /** Stores positions (rounded to whole pixels) in one transaction; a no-op without a map. */
+  write(entries: Readonly<Record<string, XY>>): void;
+}
+
+export function useSharedLayout(layout: Y.Map<unknown> | null): SharedLayout {
+  const [positions, setPositions] = useState<Record<string, XY>>({});
+
+  useEffect(() => {
+    if (!layout) return setPositions({});
+    const read = () => setPositions(readPositions(layout));
+    layout.observe(read);
+    read();
+    return () => layout.unobserve(read);
+  }, [layout]);
+
+  const write = useCallback(
+    (entries: Readonly<Record<string, XY>>) => {
+      if (!layout) return;
+      const apply = () => {
+        for (const [key, { x, y }] of Object.entries(entries)) layout.set(key, { x: Math.round(x), y: Math.round(y) });
+      };
+      if (layout.doc) layout.doc.transact(apply);
+      else apply();
+    },
+    [layout],
+  );
+
+  return { positions, write };
+}
+
+/** Entries that are not a point (written by an older or broken client) are ignored. */
+function readPositions(layout: Y.Map<unknown>): Record<string, XY> {
+  const positions: Record<string, XY> = {};
+  layout.forEach((value, key) => {
+    const point = value as Partial<XY> | null;
+    if (typeof point?.x === "number" && typeof point.y === "number" && Number.isFinite(point.x) && Number.isFinite(point.y)) {
+      positions[key] = { x: point.x, y: point.y };
+    }
+  });
+  return positions;
+}
