@@ -22,7 +22,20 @@ export class NotPolynomial extends Error {
   }
 }
 
+/** Expansion limits, so that one pasted `(x + y + z)^500` cannot stall the server. */
+const MAX_TERMS = 10_000;
+const MAX_POWER = 1_000;
+
+/** The named mathematical constants, when no variable or parameter takes the name. */
+const CONSTANTS: Record<string, number> = { pi: Math.PI, e: Math.E };
+
 export function toPolynomial(node: MathNode, scope: Scope): Polynomial {
+  const result = expand(node, scope);
+  if (result.size > MAX_TERMS) throw new NotPolynomial(`${node.toString()} expands to more than ${MAX_TERMS.toLocaleString("en")} terms`);
+  return result;
+}
+
+function expand(node: MathNode, scope: Scope): Polynomial {
   const n = scope.variables.size;
   const recurse = (child: MathNode) => toPolynomial(child, scope);
   const constantOf = (p: Polynomial) => P.constantValue(p);
@@ -30,7 +43,7 @@ export function toPolynomial(node: MathNode, scope: Scope): Polynomial {
   switch (node.type) {
     case "ConstantNode": {
       const value = (node as unknown as { value: unknown }).value;
-      if (typeof value !== "number") throw new NotPolynomial(`only numbers are allowed, not ${JSON.stringify(value)}`);
+      if (typeof value !== "number" || !Number.isFinite(value)) throw new NotPolynomial(`${node.toString()} is not a finite number`);
       return P.constant(n, Q.fromNumber(value));
     }
     case "SymbolNode": {
@@ -39,6 +52,7 @@ export function toPolynomial(node: MathNode, scope: Scope): Polynomial {
       if (index !== undefined) return P.variable(n, index);
       const value = scope.parameters.get(name);
       if (value) return P.constant(n, value);
+      if (name in CONSTANTS) return P.constant(n, Q.fromNumber(CONSTANTS[name]));
       if (name === "t") throw new NotPolynomial("time t may not appear: the ODE must be autonomous", name);
       const reason = scope.unavailable.get(name);
       if (reason) throw new NotPolynomial(reason, name);
@@ -93,12 +107,29 @@ function power(node: MathNode, base: Polynomial, exponent: Polynomial, args: Mat
   const e = P.constantValue(exponent);
   if (!e) throw new NotPolynomial(`a power with a variable exponent (${args[1].toString()}) is not polynomial`);
   const baseValue = P.constantValue(base);
-  if (e.den === 1n && e.num >= 0n) return P.power(base, Number(e.num), n);
+  if (e.den === 1n && (e.num > BigInt(MAX_POWER) || e.num < -BigInt(MAX_POWER))) {
+    throw new NotPolynomial(`the power ${e.num} is beyond the limit of ±${MAX_POWER}`);
+  }
+  if (e.den === 1n && e.num >= 0n) {
+    if (termBound(base.size, Number(e.num)) > MAX_TERMS) {
+      throw new NotPolynomial(`${node.toString()} expands to more than ${MAX_TERMS.toLocaleString("en")} terms`);
+    }
+    return P.power(base, Number(e.num), n);
+  }
   if (baseValue && !Q.isZero(baseValue)) {
     if (e.den === 1n) return P.constant(n, Q.pow(baseValue, Number(e.num)));
-    return P.constant(n, Q.fromNumber(Q.toNumber(baseValue) ** Q.toNumber(e)));
+    const value = Q.toNumber(baseValue) ** Q.toNumber(e);
+    if (!Number.isFinite(value)) throw new NotPolynomial(`${node.toString()} is not a finite real number`);
+    return P.constant(n, Q.fromNumber(value));
   }
   throw new NotPolynomial(
     `${node.toString()}: a variable may only be raised to a non-negative integer power, not ${Q.toText(e)}`,
   );
+}
+
+/** At most C(e + k − 1, k − 1) terms in the e-th power of a k-term polynomial, computed with an early exit. */
+function termBound(k: number, e: number): number {
+  let bound = 1;
+  for (let i = 1; i < k && bound <= MAX_TERMS; i++) bound = (bound * (e + i)) / i;
+  return bound;
 }

@@ -23,6 +23,11 @@ describe("parseOde", () => {
     );
   });
 
+  it("knows pi and e unless they are taken, and accepts a typographic prime", () => {
+    expect(parseOde("x′ = pi*x\n").ode!.rhs[0][0].coefficient).toBe(Math.PI);
+    expect(parseOde("e' = -e\n").ode!.rhs[0]).toEqual([{ coefficient: -1, exponents: [1] }]);
+  });
+
   it("reads decimals exactly and accepts dx/dt", () => {
     const { exact } = parseOde("dx/dt = 2.667*x - 1e-3\n");
     expect(toText(exact!.rhs[0].get("1")!.coefficient)).toBe("2667/1000");
@@ -51,6 +56,10 @@ describe("parseOde", () => {
     ["k = 1\nk = 2\nx' = k", 2, 1, "second value of k"],
     ["x' = 1\nx = 3", 2, 1, "cannot also be a parameter"],
     ["x' = 1\nthis is not it", 2, 1, "expected x' ="],
+    ["x' = (x + y + z)^150\ny' = 1\nz' = 1", 1, 6, "more than 10,000 terms"],
+    ["x' = x^5000", 1, 6, "beyond the limit"],
+    ["x' = 1e400*x", 1, 6, "not a finite number"],
+    ["x' = (-2)^0.5", 1, 6, "not a finite real number"],
   ])("reports %j at line %i column %i", (text, line, column, message) => {
     const { ode, diagnostics } = parseOde(text);
     expect(ode).toBeNull();

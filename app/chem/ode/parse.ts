@@ -35,7 +35,7 @@ export interface OdeParseResult {
 }
 
 const NAME = "[A-Za-z][A-Za-z0-9_]*";
-const EQUATION = [new RegExp(`^(${NAME})\\s*'$`), new RegExp(`^d\\s*(${NAME})\\s*/\\s*dt$`)];
+const EQUATION = [new RegExp(`^(${NAME})\\s*['′]$`), new RegExp(`^d\\s*(${NAME})\\s*/\\s*dt$`)];
 const INITIAL = new RegExp(`^(${NAME})\\s*\\(\\s*0\\s*\\)$`);
 const PARAMETER = new RegExp(`^(${NAME})$`);
 
