@@ -8,6 +8,7 @@ import type { CollabHub } from "./collab/hub";
 import type { Db } from "./db/client";
 import type { MailCatcher } from "./mail/catcher";
 import type { Mailer } from "./mail/mailer";
+import type { runInWorker } from "./sim/run-in-worker";
 
 export interface AppServices {
   db: Db;
@@ -16,6 +17,8 @@ export interface AppServices {
   /** Per-token request budget for the JSON API. */
   tokenLimiter: RateLimiter;
   mailer: Mailer;
+  /** Dynamics jobs in worker threads (loaded by the server, not bundled with the routes). */
+  dynamics: { run: typeof runInWorker };
   /** The local mail catcher, when SMTP_URL is not set. */
   mailCatcher: MailCatcher | null;
   /** The live collaboration rooms: role changes, API writes to the text, versions. */

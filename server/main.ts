@@ -14,6 +14,7 @@ import { startMailCatcher } from "./mail/catcher";
 import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
 import { sessionSecret } from "./secret";
+import { runInWorker } from "./sim/run-in-worker";
 import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
 
 const projectRoot = path.resolve(import.meta.dirname, "..");
@@ -44,6 +45,7 @@ const services = {
   tokenLimiter: new RateLimiter(120, 60_000),
   mailer,
   mailCatcher,
+  dynamics: { run: runInWorker },
   collab: attachCollaboration(server, { db: database.db, identify: identifyCaller(database.db, sessions) }),
 };
 

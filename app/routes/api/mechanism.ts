@@ -1,3 +1,4 @@
+import { analyzeSource } from "~/chem/analysis";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/mechanism";
 
@@ -10,5 +11,6 @@ export async function loader(args: Route.LoaderArgs) {
     source: mechanism.source,
     role,
     updatedAt: mechanism.updatedAt,
+    analysis: await analyzeSource(mechanism.source),
   });
 }

@@ -1,0 +1,55 @@
+// Every dynamics job the Dynamics panel runs (time course, equilibrium, Lyapunov exponent,
+// sweep), on the text the page is showing; streamed with progress when asked.
+import { z } from "zod";
+import { sourceField } from "~/utils/fields";
+import { readJson } from "~/utils/json.server";
+import { modelFromSource, respondWithJob } from "~/utils/dynamics.server";
+import { httpError } from "~/utils/http";
+import { requireViewAccess } from "~/utils/permissions.server";
+import type { Route } from "./+types/dynamics";
+
+const settings = {
+  until: z.number().positive(),
+  rtol: z.number().positive().optional(),
+  atol: z.number().positive().optional(),
+  method: z.enum(["auto", "stiff", "explicit"]).optional(),
+};
+
+const body = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("simulate"), source: sourceField, settings: z.object({ ...settings, samples: z.number().int().min(2).max(20_000) }) }),
+  z.object({ kind: z.literal("equilibrium"), source: sourceField, options: z.object({ settleTime: z.number().positive().optional(), start: z.array(z.number()).optional() }) }),
+  z.object({ kind: z.literal("lyapunov"), source: sourceField, options: z.object({ ...settings, transient: z.number().nonnegative().optional() }) }),
+  z.object({
+    kind: z.literal("sweep"),
+    source: sourceField,
+    options: z.object({
+      ...settings,
+      samples: z.number().int().min(2).max(5_000),
+      target: z.discriminatedUnion("kind", [
+        z.object({ kind: z.literal("parameter"), name: z.string() }),
+        z.object({ kind: z.literal("initial"), species: z.string() }),
+        z.object({ kind: z.literal("rate"), reaction: z.number().int().nonnegative() }),
+      ]),
+      from: z.number(),
+      to: z.number(),
+      points: z.number().int().min(2).max(200),
+      scale: z.enum(["linear", "log"]),
+      species: z.string(),
+      observable: z.enum(["final", "max", "period"]),
+    }),
+  }),
+]);
+
+export async function action(args: Route.ActionArgs) {
+  if (args.request.method !== "POST") return httpError(405, "Use POST.");
+  await requireViewAccess(args, args.params.id);
+  const input = await readJson(args.request, body);
+  const model = modelFromSource(input.source);
+  const job =
+    input.kind === "simulate"
+      ? { kind: input.kind, model, settings: input.settings }
+      : input.kind === "sweep"
+        ? { kind: input.kind, model, options: input.options }
+        : { kind: input.kind, model, options: input.options };
+  return respondWithJob(args.request, args.context, job as Parameters<typeof respondWithJob>[2]);
+}

@@ -1,0 +1,22 @@
+import { z } from "zod";
+import { readJson } from "~/utils/json.server";
+import { modelFromSource, respondWithJob } from "~/utils/dynamics.server";
+import { httpError } from "~/utils/http";
+import { requireRole } from "~/utils/permissions.server";
+import type { Route } from "./+types/simulations";
+
+const body = z.object({
+  until: z.number().positive("until must be a positive time."),
+  samples: z.number().int().min(2).max(100_000),
+  rtol: z.number().positive().optional(),
+  atol: z.number().positive().optional(),
+  method: z.enum(["auto", "stiff", "explicit"]).optional(),
+});
+
+/** The `simulate` JSON of the command line, for viewers and editors alike. */
+export async function action(args: Route.ActionArgs) {
+  if (args.request.method !== "POST") return httpError(405, "Use POST with { until, samples }.");
+  const { mechanism } = await requireRole(args, args.params.id, "viewer");
+  const settings = await readJson(args.request, body);
+  return respondWithJob(args.request, args.context, { kind: "simulate", model: modelFromSource(mechanism.source), settings });
+}
