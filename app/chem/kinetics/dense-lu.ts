@@ -14,6 +14,14 @@ export class DenseLu {
     this.pivots = new Int32Array(n);
   }
 
+  /** Factors s·I − J (J dense row-major), the matrix of a Rosenbrock step. */
+  factorShifted(shift: number, jacobian: Float64Array): boolean {
+    const { n, lu } = this;
+    for (let i = 0; i < n * n; i++) lu[i] = -jacobian[i];
+    for (let i = 0; i < n; i++) lu[i * n + i] += shift;
+    return this.factor();
+  }
+
   /** Factors the matrix currently held in `lu`. Returns false when it is singular. */
   factor(): boolean {
     const { n, lu, pivots } = this;

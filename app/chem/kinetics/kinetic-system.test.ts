@@ -50,3 +50,25 @@ describe("compiled kinetic systems", () => {
     }
   });
 });
+
+describe("sparse factorisation of the Rosenbrock matrix", () => {
+  it("solves like dense partial pivoting on a generated network's Jacobian", async () => {
+    const { generatedNetwork } = await import("../../../tests/fixtures/dynamics/models");
+    const { SparseShiftedLu } = await import("./sparse-lu");
+    const { DenseLu } = await import("./dense-lu");
+    const { mechanism, network: generated } = generatedNetwork(60, 7);
+    const system = compileKineticSystem(networkSpec(mechanism, generated));
+    const n = system.names.length;
+    const jacobian = new Float64Array(n * n);
+    system.jacobian(system.initial, jacobian);
+    const sparse = new SparseShiftedLu(system.sparsity as number[][]);
+    const dense = new DenseLu(n);
+    expect(sparse.factor(3, jacobian)).toBe(true);
+    expect(dense.factorShifted(3, jacobian)).toBe(true);
+    const b = Float64Array.from({ length: n }, (_, i) => Math.sin(i + 1));
+    const [x1, x2] = [Float64Array.from(b), Float64Array.from(b)];
+    sparse.solve(x1);
+    dense.solve(x2);
+    for (let i = 0; i < n; i++) expect(x1[i]).toBeCloseTo(x2[i], 10);
+  });
+});

@@ -66,6 +66,7 @@ export function compileKineticSystem(spec: KineticSpec, options: { generate?: bo
     names: spec.names,
     initial: Float64Array.from(spec.initial),
     nonNegative: spec.nonNegative,
+    sparsity: jacobianPattern(spec, rateChanges),
     coefficients,
     generated,
     rhs(y, dy) {
@@ -90,6 +91,16 @@ export function compileKineticSystem(spec: KineticSpec, options: { generate?: bo
       }
     },
   };
+}
+
+/** ∂f_i/∂y_a can be non-zero only where a rate that reads y_a changes y_i. */
+function jacobianPattern(spec: KineticSpec, rateChanges: { variable: number }[][]): number[][] {
+  const rows = spec.names.map(() => new Set<number>());
+  const reads = [...spec.monomials.map((m) => m.factors.map((f) => f.variable)), ...spec.custom.map((c) => c.dependsOn)];
+  reads.forEach((variables, rate) => {
+    for (const { variable } of rateChanges[rate]) for (const a of variables) rows[variable].add(a);
+  });
+  return rows.map((row) => [...row].sort((a, b) => a - b));
 }
 
 function changesByRate(spec: KineticSpec, rateCount: number): { variable: number; change: number }[][] {

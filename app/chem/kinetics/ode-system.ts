@@ -11,6 +11,8 @@ export interface OdeSystem {
   rhs(y: Float64Array, dy: Float64Array): void;
   /** Writes ∂f/∂y into jacobian (row-major, n×n, every entry). */
   jacobian(y: Float64Array, jacobian: Float64Array): void;
+  /** Per row i, the columns j where ∂f_i/∂y_j can be non-zero; absent means dense. */
+  readonly sparsity?: readonly (readonly number[])[];
 }
 
 /**
