@@ -46,6 +46,8 @@ class MechanismReader {
   private readonly stepKeys: { reactants: string; products: string }[] = [];
   private readonly labels = new Map<string, number>();
   private readonly parameters = new Map<string, Declared>();
+  /** Names given a value, valid or not, so that an invalid value is not also "never given". */
+  private readonly attemptedParameters = new Set<string>();
   private readonly parameterUses: NameUse[] = [];
   private readonly lawUses: { step: Step; symbols: string[]; span: Span }[] = [];
   private readonly speciesSeen = new Map<string, Span>();
@@ -126,15 +128,18 @@ class MechanismReader {
     this.brokenAt.sort((a, b) => a - b);
   }
 
+  /** Whether a syntax problem sits on the statement's lines: then nothing of it is trusted. */
   private isBroken(statement: SyntaxNode): boolean {
+    const from = this.lineStarts[this.lineOf(statement.from) - 1];
+    const to = this.lineStarts[this.lineOf(statement.to)] ?? this.source.length;
     let low = 0;
     let high = this.brokenAt.length;
     while (low < high) {
       const middle = (low + high) >> 1;
-      if (this.brokenAt[middle] < statement.from) low = middle + 1;
+      if (this.brokenAt[middle] < from) low = middle + 1;
       else high = middle;
     }
-    return low < this.brokenAt.length && this.brokenAt[low] <= statement.to;
+    return low < this.brokenAt.length && this.brokenAt[low] < to;
   }
 
   private quotedNameProblem(node: SyntaxNode): SyntaxProblem | null {
@@ -151,6 +156,9 @@ class MechanismReader {
     for (let i = node.from; i < end && i < this.source.length; i++) {
       const char = this.source[i];
       if (char === '"') break;
+      if (char === ">" || char === "<") {
+        return { from: i, to: i + 1, rank: 0, message: "Unknown arrow: write -> for one direction or <=> for both." };
+      }
       if (!tokenStart.test(char)) {
         return {
           from: i,
@@ -169,7 +177,8 @@ class MechanismReader {
     if (!before || this.lineOf(before.to) !== this.lineOf(error.from)) {
       return `This line cannot be read: ${statementHint}.`;
     }
-    const statement = this.statementOf(error);
+    // The error may sit outside any statement node; the token before it tells what was being read.
+    const statement = this.statementOf(before);
     switch (before.name) {
       case "+":
         return "Expected a species after +.";
@@ -385,10 +394,12 @@ class MechanismReader {
   }
 
   private readParameter(node: SyntaxNode): void {
-    this.declareParameter(this.text(node.getChild("ParameterName")!), node.getChild("ParameterName")!, node.getChild("Number")!);
+    const name = node.getChild("ParameterName")!;
+    this.declareParameter(this.text(name), name, node.getChild("Number")!);
   }
 
   private declareParameter(name: string, at: SyntaxNode, number: SyntaxNode): void {
+    this.attemptedParameters.add(name);
     const value = this.readNonNegative(number, `The value of ${name}`);
     if (value === null) return;
     const earlier = this.parameters.get(name);
@@ -448,7 +459,7 @@ class MechanismReader {
     }
     const reported = new Set<string>();
     for (const use of this.parameterUses) {
-      if (this.parameters.has(use.name) || clashes.has(use.name) || reported.has(use.name)) continue;
+      if (this.attemptedParameters.has(use.name) || clashes.has(use.name) || reported.has(use.name)) continue;
       reported.add(use.name);
       this.report("error", use, `${use.name} is used but never given a value: add a line ${use.name} = …`);
     }
