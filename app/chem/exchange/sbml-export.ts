@@ -1,0 +1,152 @@
+// A mechanism as an SBML Level 3 Version 2 Core document. Choices (see docs/decisions/):
+// - one compartment `vessel` of size 1, so amount and concentration rates coincide;
+// - each step is one reaction; a reversible step stays one reaction with reversible="true" and the
+//   law kf*A*B - kb*C, which keeps its label and reads back as one `<=>` step;
+// - named rate coefficients become global parameters; literal numbers become local parameters
+//   (k, or kf and kb) of their kinetic law, which importSbml reads back as literal numbers;
+// - mass-action laws carry sboTerm SBO:0000012, so that checkSbml can verify them numerically;
+// - every species, parameter and reaction keeps its `.weave` name in the `name` attribute.
+// The mechanism should be free of errors; steps without rate coefficients get no kinetic law.
+import { ConstantNode, OperatorNode, SymbolNode, type MathNode } from "mathjs";
+import { readLaw } from "~/chem/law";
+import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
+import { mathmlOf } from "./mathml";
+import { NameAllocator, toSId } from "./names";
+import { massActionSboTerm } from "./sbml-document";
+import { writeXml, type XmlOut } from "./xml";
+
+export interface SbmlExportOptions {
+  title: string;
+}
+
+export function exportSbml(mechanism: Mechanism, { title }: SbmlExportOptions): string {
+  const ids = new NameAllocator(toSId);
+  // Parameters first: their names are already SIds and are what laws refer to.
+  const parameterIds = new Map(Object.keys(mechanism.parameters).map((name) => [name, ids.take(name)]));
+  const allSpecies = [...mechanism.species, ...Object.keys(mechanism.fixed).filter((name) => !mechanism.species.includes(name))];
+  const speciesIds = new Map(allSpecies.map((name) => [name, ids.take(name)]));
+  const compartment = ids.take("vessel");
+  const modelId = ids.take(title || "mechanism");
+  // Labelled steps claim their ids before generated ones, so that `r2` stays the step labelled r2.
+  const reactionIds = new Map<number, string>();
+  mechanism.steps.forEach((step, index) => step.label && reactionIds.set(index, ids.take(step.label)));
+  mechanism.steps.forEach((step, index) => reactionIds.has(index) || reactionIds.set(index, ids.take(`r${index + 1}`)));
+  const globalIds = new Set([...parameterIds.values(), ...speciesIds.values(), compartment, modelId, ...reactionIds.values()]);
+
+  const lawWriter = new KineticLawWriter(mechanism, speciesIds, parameterIds, globalIds);
+  const species: XmlOut[] = allSpecies.map((name) => {
+    const fixed = name in mechanism.fixed;
+    return {
+      name: "species",
+      attributes: {
+        id: speciesIds.get(name),
+        name,
+        compartment,
+        initialConcentration: fixed ? mechanism.fixed[name] : (mechanism.initial[name] ?? 0),
+        hasOnlySubstanceUnits: false,
+        boundaryCondition: fixed,
+        constant: fixed,
+      },
+    };
+  });
+  const parameters: XmlOut[] = Object.entries(mechanism.parameters).map(([name, value]) => ({
+    name: "parameter",
+    attributes: { id: parameterIds.get(name), name, value, constant: true },
+  }));
+  const reactions: XmlOut[] = mechanism.steps.map((step, index) => ({
+    name: "reaction",
+    attributes: { id: reactionIds.get(index), name: step.label ?? undefined, reversible: step.reversible },
+    children: [
+      speciesList("listOfReactants", step.reactants, speciesIds),
+      speciesList("listOfProducts", step.products, speciesIds),
+      lawWriter.kineticLaw(step),
+    ].filter((each): each is XmlOut => each !== null),
+  }));
+
+  return writeXml({
+    name: "sbml",
+    attributes: { xmlns: "http://www.sbml.org/sbml/level3/version2/core", level: 3, version: 2 },
+    children: [
+      {
+        name: "model",
+        attributes: { id: modelId, name: title || undefined },
+        children: [
+          { name: "listOfCompartments", children: [{ name: "compartment", attributes: { id: compartment, spatialDimensions: 3, size: 1, constant: true } }] },
+          nonEmptyList("listOfSpecies", species),
+          nonEmptyList("listOfParameters", parameters),
+          nonEmptyList("listOfReactions", reactions),
+        ].filter((each): each is XmlOut => each !== null),
+      },
+    ],
+  });
+}
+
+/** SBML lists must not be empty. */
+function nonEmptyList(name: string, items: XmlOut[]): XmlOut | null {
+  return items.length > 0 ? { name, children: items } : null;
+}
+
+/** Species references with repeated species merged (`X + X` is one reference of stoichiometry 2). */
+function speciesList(name: string, terms: Term[], speciesIds: Map<string, string>): XmlOut | null {
+  return nonEmptyList(
+    name,
+    [...stoichiometry(terms)].map(([species, coefficient]) => ({
+      name: "speciesReference",
+      attributes: { species: speciesIds.get(species), stoichiometry: coefficient, constant: true },
+    })),
+  );
+}
+
+function stoichiometry(terms: Term[]): Map<string, number> {
+  const totals = new Map<string, number>();
+  for (const { species, coefficient } of terms) totals.set(species, (totals.get(species) ?? 0) + coefficient);
+  return totals;
+}
+
+class KineticLawWriter {
+  constructor(
+    private readonly mechanism: Mechanism,
+    private readonly speciesIds: Map<string, string>,
+    private readonly parameterIds: Map<string, string>,
+    private readonly globalIds: Set<string>,
+  ) {}
+
+  kineticLaw(step: Step): XmlOut | null {
+    if (step.law !== null) return this.customLaw(step.law);
+    if (step.forward === null || (step.reversible && step.backward === null)) return null;
+    // Local ids avoid every model-wide id, so that no local parameter shadows a species or parameter.
+    const locals = new NameAllocator(toSId, this.globalIds);
+    const localParameters: XmlOut[] = [];
+    const coefficient = (rate: RateRef, wish: string): MathNode => {
+      if (rate.kind === "parameter") return new SymbolNode(this.parameterIds.get(rate.name)!);
+      const id = locals.take(wish);
+      localParameters.push({ name: "localParameter", attributes: { id, value: rate.value } });
+      return new SymbolNode(id);
+    };
+    let rate = this.massAction(coefficient(step.forward, step.reversible ? "kf" : "k"), step.reactants);
+    if (step.reversible) {
+      rate = new OperatorNode("-", "subtract", [rate, this.massAction(coefficient(step.backward!, "kb"), step.products)]);
+    }
+    return {
+      name: "kineticLaw",
+      attributes: { sboTerm: massActionSboTerm },
+      children: [mathmlOf(rate, (id) => id), ...(localParameters.length > 0 ? [{ name: "listOfLocalParameters", children: localParameters }] : [])],
+    };
+  }
+
+  /** coefficient · Π species^stoichiometry, species written by their SIds. */
+  private massAction(coefficient: MathNode, terms: Term[]): MathNode {
+    const factors = [...stoichiometry(terms)].map(([species, power]): MathNode => {
+      const symbol = new SymbolNode(this.speciesIds.get(species)!);
+      return power === 1 ? symbol : new OperatorNode("^", "pow", [symbol, new ConstantNode(power)]);
+    });
+    return factors.reduce((product, factor) => new OperatorNode("*", "multiply", [product, factor]), coefficient);
+  }
+
+  private customLaw(law: string): XmlOut {
+    const reading = readLaw(law);
+    if (!reading.ok) throw new Error(`The rate law { ${law} } cannot be read: ${reading.message}`);
+    const idOf = (name: string) => this.speciesIds.get(name) ?? this.parameterIds.get(name) ?? null;
+    return { name: "kineticLaw", children: [mathmlOf(reading.node, idOf)] };
+  }
+}
