@@ -4,6 +4,7 @@
 import { readFileSync } from "node:fs";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { odeArbitrary } from "../ode/arbitrary";
 import { negativeCrossEffects } from "../ode/cross-effects";
 import type { ExactOde } from "../ode/exact";
 import { parseOde } from "../ode/parse";
@@ -71,29 +72,10 @@ describe("canonical realization", () => {
   });
 
   it("for random kinetic ODEs the induced ODE of the canonical realization is the input (fast-check)", () => {
-    const n = 3;
-    const term = fc.record({
-      equation: fc.integer({ min: 0, max: n - 1 }),
-      exponents: fc.array(fc.integer({ min: 0, max: 3 }), { minLength: n, maxLength: n }),
-      num: fc.integer({ min: -50, max: 50 }).filter((v) => v !== 0),
-      den: fc.integer({ min: 1, max: 12 }),
-    });
     fc.assert(
-      fc.property(fc.array(term, { maxLength: 12 }), (terms) => {
-        const rhs = Array.from({ length: n }, (_, i) =>
-          P.fromTerms(
-            terms
-              .filter((t) => t.equation === i)
-              // Keep it kinetic: a negative term in x_i' must contain x_i.
-              .map((t) => ({
-                exponents: t.num < 0 && t.exponents[i] === 0 ? t.exponents.map((e, j) => (j === i ? 1 : e)) : t.exponents,
-                coefficient: Q.rational(t.num, t.den),
-              })),
-          ),
-        );
-        const ode: ExactOde = { variables: ["a", "b", "c"], rhs, initial: rhs.map(() => Q.ZERO) };
+      fc.property(odeArbitrary({ kinetic: true }), (ode) => {
         expect(effects(ode)).toEqual([]);
-        expect(sameRhs(inducedRhs(canonicalRealization(ode)), rhs)).toBe(true);
+        expect(sameRhs(inducedRhs(canonicalRealization(ode)), ode.rhs)).toBe(true);
       }),
     );
   });

@@ -4,7 +4,10 @@
 // "Chemical reaction network structure and the stability of complex isothermal reactors I", for the
 // deficiency-zero network A ⇌ 2B, A + C ⇌ D ⇌ B + E. Lotka (1920) / Volterra (1926) for the
 // predator–prey scheme X → 2X, X + Y → 2Y, Y → 0.
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { odeArbitrary } from "../ode/arbitrary";
+import { canonicalRealization } from "./canonical";
 import { parseOde } from "../ode/parse";
 import * as Q from "../ode/rational";
 import type { MassActionMechanism } from "./mass-action";
@@ -73,6 +76,30 @@ describe("equivalent realizations by MILP", () => {
     const { exact } = parseOde("x' = 2*x - 0.5*x*y\ny' = 0.5*x*y - 3*y\n");
     const none = await searchWeaklyReversible(realizationProblem(exact!, [[0, 2]]), { deadline: deadline() });
     expect(none.status).toBe("infeasible");
+  });
+
+  it("for random kinetic ODEs: sparse ≤ canonical ≤ dense, and dense contains the sparse and canonical graphs (fast-check)", async () => {
+    // Each search already checks Y·A_k = M exactly and throws otherwise.
+    await fc.assert(
+      fc.asyncProperty(odeArbitrary({ kinetic: true, maxTerms: 6 }), async (ode) => {
+        const problem = realizationProblem(ode);
+        const sparse = await searchRealization(problem, "sparse", { deadline: deadline() });
+        const dense = await searchRealization(problem, "dense", { deadline: deadline() });
+        if (sparse.status !== "found" || dense.status !== "found") throw new Error("a kinetic ODE always has a realization");
+        const canonical = canonicalRealization(ode).reactions.length;
+        expect(sparse.mechanism.reactions.length).toBeLessThanOrEqual(canonical);
+        expect(dense.mechanism.reactions.length).toBeGreaterThanOrEqual(canonical);
+        const denseEdges = new Set(dense.edges.map(({ from, to }) => `${from}>${to}`));
+        expect(sparse.edges.every(({ from, to }) => denseEdges.has(`${from}>${to}`))).toBe(true);
+        const index = (c: number[]) => problem.complexes.findIndex((d) => d.join() === c.join());
+        expect(canonicalRealization(ode).reactions.every((r) => denseEdges.has(`${index(r.reactant)}>${index(r.product)}`))).toBe(true);
+      }),
+      { numRuns: 20 },
+    );
+  });
+
+  it("gives up at the time limit", async () => {
+    expect(await searchRealization(feinbergProblem(), "dense", { deadline: Date.now() - 1 })).toEqual({ status: "time-limit" });
   });
 
   it("reports progress per source complex", async () => {
