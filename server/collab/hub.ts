@@ -4,13 +4,16 @@ import type { WebSocket } from "ws";
 import type { Db } from "../db/client";
 import { roleOf } from "../db/mechanisms";
 import { closeCodes, Connection, type CollabIdentity } from "./connection";
+import { RoleChangeFeed, type RoleChange } from "./role-feed";
 import { Room, type RoomTimings } from "./room";
 import { findSnapshot } from "./snapshots";
 
 export interface HubTimings extends RoomTimings {
   /** A room without connections is unloaded (after flushing) when this long idle. */
   idleUnloadMs: number;
-  /** Safety net for role changes nobody reported through refreshRole. */
+  /** How often the audit trail of role changes is read (see role-feed.ts). */
+  roleFeedMs: number;
+  /** Safety net: every connection's role re-read from the memberships. */
   roleSweepMs: number;
   /** Sockets that miss a ping for this long are dropped. */
   heartbeatMs: number;
@@ -22,6 +25,7 @@ export const defaultTimings: HubTimings = {
   sourceMirrorMs: 1000,
   compactEvery: 500,
   idleUnloadMs: 30_000,
+  roleFeedMs: 1000,
   roleSweepMs: 30_000,
   heartbeatMs: 30_000,
 };
@@ -32,6 +36,7 @@ export class CollabHub {
   private readonly idleTimers = new Map<string, NodeJS.Timeout>();
   private readonly intervals: NodeJS.Timeout[];
   private readonly timings: HubTimings;
+  private readonly roleFeed: RoleChangeFeed;
 
   constructor(
     private readonly db: Db,
@@ -40,6 +45,8 @@ export class CollabHub {
     this.timings = { ...defaultTimings, ...timings };
     this.intervals = [setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs), setInterval(() => this.heartbeat(), this.timings.heartbeatMs)];
     for (const interval of this.intervals) interval.unref();
+    this.roleFeed = new RoleChangeFeed(db, (change) => this.applyRoleChange(change));
+    this.roleFeed.start(this.timings.roleFeedMs);
   }
 
   /**
@@ -112,6 +119,7 @@ export class CollabHub {
 
   /** Unloads every room (flushing each); for shutdown. */
   async close() {
+    this.roleFeed.stop();
     for (const interval of this.intervals) clearInterval(interval);
     for (const id of this.idleTimers.keys()) this.clearIdle(id);
     const ids = [...this.rooms.keys()];
@@ -173,13 +181,22 @@ export class CollabHub {
     await closing;
   }
 
+  private async applyRoleChange({ mechanismId, userId, mechanismDeleted }: RoleChange) {
+    if (!this.rooms.has(mechanismId)) return;
+    if (mechanismDeleted) return this.forgetMechanism(mechanismId);
+    if (userId) return this.refreshRole(mechanismId, userId);
+    await this.refreshRoom(mechanismId);
+  }
+
+  private async refreshRoom(mechanismId: string) {
+    const room = await this.rooms.get(mechanismId)?.catch(() => null);
+    if (!room) return;
+    const users = new Set([...room.connections].map((c) => c.identity.userId).filter((id): id is string => id !== null));
+    for (const userId of users) await this.refreshRole(mechanismId, userId).catch(() => undefined);
+  }
+
   private async sweepRoles() {
-    for (const [mechanismId, loading] of this.rooms) {
-      const room = await loading.catch(() => null);
-      if (!room) continue;
-      const users = new Set([...room.connections].map((c) => c.identity.userId).filter((id): id is string => id !== null));
-      for (const userId of users) await this.refreshRole(mechanismId, userId).catch(() => undefined);
-    }
+    for (const mechanismId of [...this.rooms.keys()]) await this.refreshRoom(mechanismId);
   }
 
   private heartbeat() {

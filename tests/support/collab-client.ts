@@ -1,5 +1,6 @@
 // Real y-websocket clients (the same provider the browser uses) against a test server, signed in
 // by cookie; plus a raw socket for messages no honest client would send.
+import pg from "pg";
 import WebSocket from "ws";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
@@ -72,4 +73,20 @@ export function rawSocket(baseUrl: string, mechanismId: string, cookie: string):
     });
     socket.once("error", (error) => reject(error));
   });
+}
+
+/** The document as the server stored it (compacted state plus logged updates), read straight from PostgreSQL. */
+export async function storedDocument(databaseUrl: string, mechanismId: string): Promise<Y.Doc> {
+  const client = new pg.Client(databaseUrl);
+  await client.connect();
+  try {
+    const doc = new Y.Doc();
+    const state = await client.query("select state from doc_states where mechanism_id = $1", [mechanismId]);
+    if (state.rows[0]) Y.applyUpdate(doc, state.rows[0].state);
+    const updates = await client.query("select update from doc_updates where mechanism_id = $1 order by id", [mechanismId]);
+    for (const row of updates.rows) Y.applyUpdate(doc, row.update);
+    return doc;
+  } finally {
+    await client.end();
+  }
 }

@@ -1,0 +1,253 @@
+// The collaboration server end to end: real server process, real PostgreSQL, real y-websocket
+// clients signed in by cookie.
+import fc from "fast-check";
+import * as decoding from "lib0/decoding";
+import * as encoding from "lib0/encoding";
+import * as Y from "yjs";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eventually, joinRoom, rawSocket, storedDocument, type RoomClient } from "../support/collab-client";
+import { signUp, type Client } from "../support/http";
+import { startTestServer } from "../support/server";
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+const open: RoomClient[] = [];
+beforeAll(async () => {
+  server = await startTestServer();
+});
+afterAll(async () => {
+  for (const client of open) client.close();
+  await server?.dispose();
+});
+
+function join(client: Client, id: string): RoomClient {
+  const room = joinRoom(server.url, id, client.cookieHeader);
+  open.push(room);
+  return room;
+}
+
+async function mechanism(owner: Client, source = "") {
+  const response = await owner.json("/api/v1/mechanisms", "POST", { title: "Shared mechanism", source });
+  expect(response.status).toBe(201);
+  return ((await response.json()) as { id: string }).id;
+}
+
+async function member(owner: Client, id: string, role: "editor" | "viewer", name: string) {
+  const person = await signUp(server.url, name);
+  const response = await owner.post(`/m/${id}/members`, { intent: "add", email: person.email, role });
+  expect(response.status).toBe(200);
+  return person;
+}
+
+async function userIdOf(owner: Client, id: string, email: string) {
+  const page = await (await owner.get(`/m/${id}/members`)).text();
+  const row = page.slice(page.indexOf(`member-${email}`));
+  return row.match(/name="userId" value="([0-9a-f-]{36})"/)![1];
+}
+
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+describe("live co-editing", () => {
+  it("converges: concurrent random edits by three editors end in one text, the one the server stored", async () => {
+    const owner = await signUp(server.url, "Converging Owner");
+    const id = await mechanism(owner, "A -> B @ 1\n");
+    const others = await Promise.all([member(owner, id, "editor", "Editor One"), member(owner, id, "editor", "Editor Two")]);
+    const rooms = [owner, ...others].map((c) => join(c, id));
+    await Promise.all(rooms.map((r) => r.synced));
+
+    const edit = fc.record({
+      who: fc.integer({ min: 0, max: 2 }),
+      at: fc.double({ min: 0, max: 1, noNaN: true }),
+      insert: fc.boolean(),
+      text: fc.string({ minLength: 1, maxLength: 6 }),
+      pause: fc.integer({ min: 0, max: 3 }),
+    });
+    await fc.assert(
+      fc.asyncProperty(fc.array(edit, { minLength: 1, maxLength: 30 }), async (edits) => {
+        for (const e of edits) {
+          const text = rooms[e.who].text;
+          const at = Math.floor(e.at * text.length);
+          if (e.insert || text.length === 0) text.insert(at, e.text);
+          else text.delete(at, Math.min(e.text.length, text.length - at));
+          if (e.pause) await sleep(e.pause);
+        }
+        await eventually("the three texts to agree", () => rooms.every((r) => r.text.toString() === rooms[0].text.toString()));
+        const stored = await storedDocument(server.databaseUrl, id);
+        expect(stored.getText("source").toString()).toBe(rooms[0].text.toString());
+      }),
+      { numRuns: 8 },
+    );
+  });
+
+  it("refuses the upgrade to strangers, signed-out callers and unknown mechanisms", async () => {
+    const owner = await signUp(server.url, "Private Owner");
+    const id = await mechanism(owner, "X -> Y\n");
+    const stranger = await signUp(server.url, "Stranger");
+    expect(await rawSocket(server.url, id, stranger.cookieHeader)).toEqual({ refused: 404 });
+    expect(await rawSocket(server.url, id, "")).toEqual({ refused: 401 });
+    expect(await rawSocket(server.url, "nosuchmechanism", owner.cookieHeader)).toEqual({ refused: 404 });
+    const allowed = await rawSocket(server.url, id, owner.cookieHeader);
+    expect("socket" in allowed).toBe(true);
+    if ("socket" in allowed) allowed.socket.close();
+  });
+
+  it("gives viewers the document but drops every update they send", async () => {
+    const owner = await signUp(server.url, "Teaching Owner");
+    const id = await mechanism(owner, "S -> P @ 2\n");
+    const viewer = await member(owner, id, "viewer", "Curious Viewer");
+    const editorRoom = join(owner, id);
+    const viewerRoom = join(viewer, id);
+    await Promise.all([editorRoom.synced, viewerRoom.synced]);
+    expect(viewerRoom.text.toString()).toBe("S -> P @ 2\n");
+
+    // An honest client's local edit, and a crafted socket speaking the protocol directly.
+    viewerRoom.text.insert(0, "# vandalism\n");
+    const raw = await rawSocket(server.url, id, viewer.cookieHeader);
+    if (!("socket" in raw)) throw new Error(`viewer refused: ${raw.refused}`);
+    const local = new Y.Doc();
+    const firstState = new Promise<void>((resolve) =>
+      raw.socket.on("message", (data: Buffer) => {
+        const decoder = decoding.createDecoder(new Uint8Array(data));
+        if (decoding.readVarUint(decoder) !== 0 || decoding.readVarUint(decoder) !== 1) return;
+        Y.applyUpdate(local, decoding.readVarUint8Array(decoder));
+        resolve();
+      }),
+    );
+    const step1 = encoding.createEncoder();
+    encoding.writeVarUint(step1, 0);
+    encoding.writeVarUint(step1, 0);
+    encoding.writeVarUint8Array(step1, Y.encodeStateVector(local));
+    raw.socket.send(encoding.toUint8Array(step1));
+    await firstState;
+    const before = Y.encodeStateVector(local);
+    local.getText("source").insert(0, "# crafted\n");
+    local.getMap("analysis").set("deficiency", 99);
+    for (const innerType of [1, 2]) {
+      const message = encoding.createEncoder();
+      encoding.writeVarUint(message, 0);
+      encoding.writeVarUint(message, innerType);
+      encoding.writeVarUint8Array(message, Y.encodeStateAsUpdate(local, before));
+      raw.socket.send(encoding.toUint8Array(message));
+    }
+    await sleep(500);
+    raw.socket.close();
+
+    expect(editorRoom.text.toString()).toBe("S -> P @ 2\n");
+    expect(editorRoom.analysis.get("deficiency")).not.toBe(99);
+    const stored = await storedDocument(server.databaseUrl, id);
+    expect(stored.getText("source").toString()).toBe("S -> P @ 2\n");
+    expect(server.logs()).toContain("dropped document update");
+  });
+
+  it("applies a revoked or lowered role at once", async () => {
+    const owner = await signUp(server.url, "Strict Owner");
+    const id = await mechanism(owner, "A -> B\n");
+    const editor = await member(owner, id, "editor", "Soon Viewer");
+    const leaver = await member(owner, id, "editor", "Soon Gone");
+    const ownerRoom = join(owner, id);
+    const editorRoom = join(editor, id);
+    const leaverRoom = join(leaver, id);
+    await Promise.all([ownerRoom.synced, editorRoom.synced, leaverRoom.synced]);
+
+    editorRoom.text.insert(editorRoom.text.length, "B -> C\n");
+    await eventually("the editor's line to arrive", () => ownerRoom.text.toString().includes("B -> C"));
+
+    const closed = new Promise<number>((resolve) => leaverRoom.provider.on("closed", (event: { code: number }) => resolve(event.code)));
+    await owner.post(`/m/${id}/members`, { intent: "remove", userId: await userIdOf(owner, id, leaver.email) });
+    expect(await closed).toBe(4403);
+    expect(await rawSocket(server.url, id, leaver.cookieHeader)).toEqual({ refused: 404 });
+
+    const lowered = new Promise<number | undefined>((resolve) => editorRoom.provider.on("connection-close", (event: CloseEvent | null) => resolve(event?.code)));
+    await owner.post(`/m/${id}/members`, { intent: "change", userId: await userIdOf(owner, id, editor.email), role: "viewer" });
+    expect(await lowered).toBe(4001);
+    await eventually("the lowered editor to reconnect", () => editorRoom.provider.synced && editorRoom.provider.wsconnected);
+    editorRoom.text.insert(0, "# after the change\n");
+    leaverRoom.text.insert(0, "# after removal\n");
+    await sleep(500);
+    expect(ownerRoom.text.toString()).toBe("A -> B\nB -> C\n");
+    expect((await storedDocument(server.databaseUrl, id)).getText("source").toString()).toBe("A -> B\nB -> C\n");
+  });
+
+  it("recomputes the structure into the analysis map with a growing revision", async () => {
+    const owner = await signUp(server.url, "Analyst");
+    const id = await mechanism(owner, "X + Y -> 2Y @ 1\n");
+    const viewer = await member(owner, id, "viewer", "Watcher");
+    const ownerRoom = join(owner, id);
+    const viewerRoom = join(viewer, id);
+    await Promise.all([ownerRoom.synced, viewerRoom.synced]);
+    await eventually("a first analysis", () => viewerRoom.analysis.get("species") === 2);
+    const first = viewerRoom.analysis.get("revision") as number;
+    expect(viewerRoom.analysis.get("deficiency")).toBe(0);
+    expect(viewerRoom.analysis.get("linkageClasses")).toBe(1);
+
+    ownerRoom.text.insert(ownerRoom.text.length, "Y -> 0 @ 10\nX <=> 2X @ 30, 0.25\n");
+    await eventually("the analysis of the new text", () => viewerRoom.analysis.get("linkageClasses") === 3);
+    expect(viewerRoom.analysis.get("revision") as number).toBeGreaterThan(first);
+    expect(viewerRoom.analysis.get("errors")).toBe(0);
+    expect(viewerRoom.analysis.get("rank")).toBe(2);
+    const report = viewerRoom.analysis.get("report") as { complexes: string[] };
+    expect(report.complexes).toContain("X + Y");
+
+    const revision = viewerRoom.analysis.get("revision") as number;
+    ownerRoom.text.insert(0, "X -> @ \n");
+    await eventually("errors reported", () => (viewerRoom.analysis.get("errors") as number) > 0);
+    expect(viewerRoom.analysis.get("revision") as number).toBeGreaterThan(revision);
+  });
+
+  it("writes PUT source through the live document, with the API's statuses", async () => {
+    const owner = await signUp(server.url, "Scripter");
+    const id = await mechanism(owner, "A -> B\n");
+    const viewer = await member(owner, id, "viewer", "Script Viewer");
+    const stranger = await signUp(server.url, "Outsider");
+    const room = join(viewer, id);
+    await room.synced;
+
+    const put = (client: Client, body: unknown) => client.json(`/api/v1/mechanisms/${id}/source`, "PUT", body);
+    const response = await put(owner, { source: "A -> B\nB -> C @ 3\n" });
+    expect(response.status).toBe(200);
+    await eventually("the room to see the new text", () => room.text.toString() === "A -> B\nB -> C @ 3\n");
+    const fetched = (await (await owner.get(`/api/v1/mechanisms/${id}`)).json()) as { source: string };
+    expect(fetched.source).toBe("A -> B\nB -> C @ 3\n");
+
+    expect((await put(viewer, { source: "" })).status).toBe(403);
+    expect((await put(stranger, { source: "" })).status).toBe(404);
+    expect((await put(owner, { text: "no" })).status).toBe(400);
+    const tooLarge = await put(owner, { source: "#".repeat(1024 * 1024 + 1) });
+    expect(tooLarge.status).toBe(413);
+    expect(await tooLarge.json()).toHaveProperty("error");
+    expect(room.text.toString()).toBe("A -> B\nB -> C @ 3\n");
+  });
+
+  it("keeps versions on structural change, names them, and restores one as a new change", async () => {
+    const owner = await signUp(server.url, "Historian");
+    const id = await mechanism(owner, "A -> B @ 1\n");
+    const viewer = await member(owner, id, "viewer", "History Viewer");
+    const room = join(owner, id);
+    await room.synced;
+    type Listing = { snapshots: { id: number; kind: string; name: string | null; author: string | null; summary: { species: number; deficiency: number } }[] };
+    const list = async () => ((await (await viewer.get(`/api/v1/mechanisms/${id}/snapshots`)).json()) as Listing).snapshots;
+    await eventually("a first automatic version", async () => (await list()).length === 1, 8000);
+
+    room.text.insert(room.text.length, "B -> C @ 2\n");
+    await eventually("a second automatic version", async () => (await list()).length === 2, 8000);
+    const [second, first] = await list();
+    expect(second).toMatchObject({ kind: "auto", author: "Historian", summary: { species: 3 } });
+    expect(first.summary.species).toBe(2);
+
+    const named = await owner.json(`/api/v1/mechanisms/${id}/snapshots`, "POST", { name: "two steps" });
+    expect(named.status).toBe(201);
+    expect((await viewer.json(`/api/v1/mechanisms/${id}/snapshots`, "POST", { name: "mine" })).status).toBe(403);
+    expect((await owner.json(`/api/v1/mechanisms/${id}/snapshots`, "POST", { name: "" })).status).toBe(400);
+
+    const restored = await owner.post(`/m/${id}/history`, { intent: "restore", snapshotId: String(first.id) });
+    expect(restored.status).toBe(200);
+    await eventually("the old text back in the room", () => room.text.toString() === "A -> B @ 1\n");
+    const versions = await list();
+    expect(versions[0]).toMatchObject({ kind: "restore", summary: { species: 2 } });
+    expect(versions.some((v) => v.kind === "named" && v.name === "two steps")).toBe(true);
+    expect((await viewer.post(`/m/${id}/history`, { intent: "restore", snapshotId: String(first.id) })).status).toBe(403);
+
+    const page = await (await viewer.get(`/m/${id}/history?from=${second.id}&to=${versions[0].id}`)).text();
+    expect(page).toContain("species 3 → 2");
+    expect(page).toContain("B -&gt; C @ 2");
+  });
+});
