@@ -131,7 +131,7 @@ class MechanismReader {
   /** Whether a syntax problem sits on the statement's lines: then nothing of it is trusted. */
   private isBroken(statement: SyntaxNode): boolean {
     const from = this.lineStarts[this.lineOf(statement.from) - 1];
-    const to = this.lineStarts[this.lineOf(statement.to)] ?? this.source.length;
+    const to = this.lineStarts[this.lineOf(statement.to)] ?? this.source.length + 1;
     let low = 0;
     let high = this.brokenAt.length;
     while (low < high) {
