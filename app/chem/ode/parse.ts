@@ -61,7 +61,7 @@ export function parseOde(text: string): OdeParseResult {
   const statements = readStatements(text, lineStarts, report);
   const firstOf = new Map<string, Statement>();
   const unique = statements.filter((s) => {
-    const key = `${s.kind === "parameter" ? "parameter" : s.kind}:${s.name}`;
+    const key = `${s.kind}:${s.name}`;
     const first = firstOf.get(key);
     if (first) {
       const what = { equation: "equation for", initial: "initial value of", parameter: "value of" }[s.kind];
@@ -130,9 +130,9 @@ function readStatements(text: string, lineStarts: number[], report: Report): Sta
   const statements: Statement[] = [];
   lineStarts.forEach((start, index) => {
     const end = index + 1 < lineStarts.length ? lineStarts[index + 1] - 1 : text.length;
-    const hash = text.indexOf("#", start);
-    const contentEnd = hash >= 0 && hash < end ? hash : end;
-    const content = text.slice(start, contentEnd);
+    const lineText = text.slice(start, end);
+    const hash = lineText.indexOf("#");
+    const content = hash >= 0 ? lineText.slice(0, hash) : lineText;
     if (content.trim() === "") return;
     const lead = start + (content.length - content.trimStart().length);
     const tail = start + content.trimEnd().length;
