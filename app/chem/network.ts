@@ -21,8 +21,7 @@ export function buildNetwork(mechanism: Mechanism): Network {
   const speciesIndex = new Map(mechanism.species.map((name, index) => [name, index]));
   const complexes: ComplexVector[] = [];
   const complexIndex = new Map<string, number>();
-  const complexOf = (terms: Term[]): number => {
-    const complex = toComplex(terms, speciesIndex, mechanism.species);
+  const complexOf = (complex: ComplexVector): number => {
     let index = complexIndex.get(complex.text);
     if (index === undefined) {
       index = complexes.push(complex) - 1;
@@ -36,8 +35,8 @@ export function buildNetwork(mechanism: Mechanism): Network {
     const reactants = toComplex(step.reactants, speciesIndex, mechanism.species);
     const products = toComplex(step.products, speciesIndex, mechanism.species);
     if (reactants.text === products.text) return; // only fixed species change: no reaction at all
-    const from = complexOf(step.reactants);
-    const to = complexOf(step.products);
+    const from = complexOf(reactants);
+    const to = complexOf(products);
     contributions.push(contribution(mechanism, step, stepIndex, from, to, "forward"));
     if (step.reversible) contributions.push(contribution(mechanism, step, stepIndex, to, from, "backward"));
   });
