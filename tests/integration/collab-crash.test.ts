@@ -1,0 +1,83 @@
+// kill -9 in the middle of a session: every update the server acknowledged (relayed to another
+// member, which it does only after the insert commits) is in the database afterwards, and
+// what a client still holds re-syncs when the server is back.
+import * as Y from "yjs";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eventually, joinRoom, storedDocument } from "../support/collab-client";
+import { signUp } from "../support/http";
+import { startTestServer } from "../support/server";
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+beforeAll(async () => {
+  server = await startTestServer();
+});
+afterAll(() => server?.dispose());
+
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+function typeAtRandom(text: Y.Text, running: () => boolean): Promise<number> {
+  return (async () => {
+    let edits = 0;
+    for (; running() && edits < 5000; edits++) {
+      const at = Math.floor(Math.random() * (text.length + 1));
+      if (Math.random() < 0.8 || text.length === 0) text.insert(at, "XY+ \n"[Math.floor(Math.random() * 5)]);
+      else text.delete(Math.min(at, text.length - 1), 1);
+      await sleep(Math.floor(Math.random() * 4));
+    }
+    return edits;
+  })();
+}
+
+describe("crash safety", () => {
+  it("keeps every acknowledged update through kill -9, and takes back what clients still hold", async () => {
+    const owner = await signUp(server.url, "Crash Owner");
+    const viewer = await signUp(server.url, "Crash Witness");
+    const { id } = (await (await owner.json("/api/v1/mechanisms", "POST", { title: "Crash", source: "A -> B\n" })).json()) as { id: string };
+    await owner.post(`/m/${id}/members`, { intent: "add", email: viewer.email, role: "viewer" });
+
+    for (let round = 0; round < 3; round++) {
+      const editor = joinRoom(server.url, id, owner.cookieHeader);
+      const witness = joinRoom(server.url, id, viewer.cookieHeader);
+      await Promise.all([editor.synced, witness.synced]);
+      let typing = true;
+      const typist = typeAtRandom(editor.text, () => typing);
+      await sleep(200 + Math.random() * 600);
+      await server.crash();
+      typing = false;
+      expect(await typist).toBeGreaterThan(10);
+
+      // What the witness received was acknowledged; nobody can resend it once both clients are gone.
+      const acknowledged = Y.encodeStateAsUpdate(witness.doc);
+      witness.close();
+      editor.close();
+      await server.restart();
+
+      const stored = await storedDocument(server.databaseUrl, id);
+      const storedText = stored.getText("source").toString();
+      Y.applyUpdate(stored, acknowledged);
+      expect(stored.getText("source").toString()).toBe(storedText);
+
+      const fresh = joinRoom(server.url, id, owner.cookieHeader);
+      await fresh.synced;
+      expect(fresh.text.toString()).toBe(storedText);
+      fresh.close();
+    }
+
+    // A client that stays up through the crash re-sends what the server had not stored.
+    const editor = joinRoom(server.url, id, owner.cookieHeader);
+    await editor.synced;
+    let typing = true;
+    const typist = typeAtRandom(editor.text, () => typing);
+    await sleep(300);
+    await server.crash();
+    typing = false;
+    await typist;
+    editor.text.insert(0, "# typed while the server was down\n");
+    await server.restart();
+    await eventually("the editor's text to be stored", async () => {
+      const stored = await storedDocument(server.databaseUrl, id);
+      return stored.getText("source").toString() === editor.text.toString();
+    }, 15_000);
+    editor.close();
+  }, 120_000);
+});
