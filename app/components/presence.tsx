@@ -29,7 +29,13 @@ export function Presence({ self, peers, max = 6 }: PresenceProps) {
           </li>
         ))}
         {hidden > 0 && (
-          <li className="flex h-7 min-w-7 items-center justify-center rounded-full border-2 border-surface bg-raised px-1 text-[11px] font-medium text-ink" title={people.slice(max).map((p) => p.name).join(", ")}>
+          <li
+            className="flex h-7 min-w-7 items-center justify-center rounded-full border-2 border-surface bg-raised px-1 text-[11px] font-medium text-ink"
+            title={people
+              .slice(max)
+              .map((p) => p.name)
+              .join(", ")}
+          >
             +{hidden}
           </li>
         )}

@@ -101,7 +101,9 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
 
     const onStatus = ({ status: next }: { status: "connected" | "disconnected" | "connecting" }) =>
       // A reconnect attempt after a drop is still "offline" to the reader, not a fresh start.
-      setStatus((current) => (next === "connected" ? "online" : next === "disconnected" || current === "offline" ? "offline" : "connecting"));
+      setStatus((current) =>
+        next === "connected" ? "online" : next === "disconnected" || current === "offline" ? "offline" : "connecting",
+      );
     const onClosed = () => setStatus("offline");
     const onSync = (state: boolean) => setSynced(state);
     const onAnalysis = () => setAnalysis(analysisMap.toJSON() as RoomAnalysis);

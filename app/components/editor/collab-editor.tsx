@@ -97,6 +97,8 @@ function editorExtensions({ source, awareness, undoManager, readOnly, label }: E
     highlightActiveLineGutter(),
     highlightSpecialChars(),
     drawSelection(),
+    // Long comments wrap instead of scrolling sideways, which would hide the start of every step.
+    EditorView.lineWrapping,
     highlightActiveLine(),
     highlightSelectionMatches(),
     bracketMatching(),

@@ -34,7 +34,13 @@ const editorChrome = EditorView.theme({
   ".cm-activeLineGutter": { backgroundColor: "transparent", color: "var(--mw-ink)" },
   ".cm-lineNumbers .cm-gutterElement": { padding: "0 10px 0 14px", fontSize: "12px" },
   ".cm-foldGutter .cm-gutterElement": { color: "var(--mw-muted)", padding: "0 4px" },
-  ".cm-foldPlaceholder": { backgroundColor: "var(--mw-accent-soft)", border: "none", color: "var(--mw-accent)", padding: "0 6px", borderRadius: "4px" },
+  ".cm-foldPlaceholder": {
+    backgroundColor: "var(--mw-accent-soft)",
+    border: "none",
+    color: "var(--mw-accent)",
+    padding: "0 6px",
+    borderRadius: "4px",
+  },
   "&.cm-focused .cm-matchingBracket, .cm-matchingBracket": {
     backgroundColor: "var(--mw-accent-soft)",
     color: "var(--mw-accent)",
@@ -51,7 +57,13 @@ const editorChrome = EditorView.theme({
   ".cm-diagnostic-error": { borderLeftColor: "var(--mw-danger)" },
   ".cm-diagnostic-warning": { borderLeftColor: "var(--mw-signal)" },
 
-  ".cm-tooltip": { backgroundColor: "var(--mw-raised)", color: "var(--mw-ink)", border: "1px solid var(--mw-line)", borderRadius: "6px", overflow: "hidden" },
+  ".cm-tooltip": {
+    backgroundColor: "var(--mw-raised)",
+    color: "var(--mw-ink)",
+    border: "1px solid var(--mw-line)",
+    borderRadius: "6px",
+    overflow: "hidden",
+  },
   ".cm-tooltip.cm-tooltip-autocomplete > ul": { fontFamily: mono, fontSize: "13px" },
   ".cm-tooltip.cm-tooltip-autocomplete > ul > li": { padding: "2px 10px" },
   ".cm-tooltip.cm-tooltip-autocomplete > ul > li[aria-selected]": { backgroundColor: "var(--mw-accent-soft)", color: "var(--mw-ink)" },
@@ -60,8 +72,19 @@ const editorChrome = EditorView.theme({
 
   ".cm-panels": { backgroundColor: "var(--mw-raised)", color: "var(--mw-ink)", fontFamily: sans },
   ".cm-panels.cm-panels-bottom": { borderTop: "1px solid var(--mw-line)" },
-  ".cm-textfield": { backgroundColor: "var(--mw-surface)", border: "1px solid var(--mw-line)", borderRadius: "4px", color: "var(--mw-ink)" },
-  ".cm-button": { backgroundImage: "none", backgroundColor: "var(--mw-surface)", border: "1px solid var(--mw-line)", borderRadius: "4px", color: "var(--mw-ink)" },
+  ".cm-textfield": {
+    backgroundColor: "var(--mw-surface)",
+    border: "1px solid var(--mw-line)",
+    borderRadius: "4px",
+    color: "var(--mw-ink)",
+  },
+  ".cm-button": {
+    backgroundImage: "none",
+    backgroundColor: "var(--mw-surface)",
+    border: "1px solid var(--mw-line)",
+    borderRadius: "4px",
+    color: "var(--mw-ink)",
+  },
   ".cm-searchMatch": { backgroundColor: "var(--mw-signal-soft)" },
   ".cm-searchMatch.cm-searchMatch-selected": { outline: "1px solid var(--mw-signal)" },
 

@@ -18,7 +18,11 @@ export const linkedRanges = [
     update(marks, transaction) {
       let next = marks.map(transaction.changes);
       for (const effect of transaction.effects) {
-        if (effect.is(setLinkedRanges)) next = Decoration.set(effect.value.map(({ from, to }) => linkedMark.range(from, to)), true);
+        if (effect.is(setLinkedRanges))
+          next = Decoration.set(
+            effect.value.map(({ from, to }) => linkedMark.range(from, to)),
+            true,
+          );
       }
       return next;
     },

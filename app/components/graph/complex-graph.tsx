@@ -7,11 +7,11 @@ import {
   BackgroundVariant,
   Controls,
   type NodeChange,
-  Panel,
   ReactFlow,
   ReactFlowProvider,
   useNodesInitialized,
   useReactFlow,
+  useStore,
 } from "@xyflow/react";
 import { type CSSProperties, useEffect, useId, useMemo, useRef, useState } from "react";
 import type * as Y from "yjs";
@@ -71,7 +71,7 @@ export function ComplexGraph(props: ComplexGraphProps) {
   const [mounted, setMounted] = useState(false);
   useEffect(() => setMounted(true), []);
   return (
-    <div className={`relative h-full min-h-80 ${props.className ?? ""}`} data-testid="complex-graph">
+    <div className={`flex h-full min-h-80 flex-col ${props.className ?? ""}`} data-testid="complex-graph">
       {mounted && (
         <ReactFlowProvider>
           <SharedComplexGraph {...props} />
@@ -88,6 +88,8 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
   // Held by id (complex text), not index, so the same complex stays selected while the text changes.
   const [selected, setSelected] = useState<{ kind: GraphSelection["kind"]; id: string } | null>(null);
   const lastWrite = useRef(new Map<string, number>());
+  // Until the reader pans or zooms, the view follows the graph as complexes come and go.
+  const [viewTouched, setViewTouched] = useState(false);
   const markerBase = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
   const marker = useMemo(() => ({ normal: markerBase, selected: `${markerBase}-selected` }), [markerBase]);
 
@@ -119,7 +121,9 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
     if (!onSelect || !model) return;
     if (!next) return onSelect(null);
     const index =
-      next.kind === "complex" ? model.nodes.find((node) => node.key === next.id)?.index : model.edges.find((edge) => edge.id === next.id)?.index;
+      next.kind === "complex"
+        ? model.nodes.find((node) => node.key === next.id)?.index
+        : model.edges.find((edge) => edge.id === next.id)?.index;
     if (index !== undefined) onSelect({ kind: next.kind, index });
   };
 
@@ -151,36 +155,38 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
 
   return (
     <>
-      <ArrowheadMarkers ids={marker} />
-      <ReactFlow<ComplexNode, ReactionEdge>
-        nodes={shownNodes}
-        edges={edges}
-        nodeTypes={nodeTypes}
-        edgeTypes={edgeTypes}
-        onNodesChange={onNodesChange}
-        onNodeClick={(_, node) => select({ kind: "complex", id: node.id })}
-        onEdgeClick={(_, edge) => select({ kind: "reaction", id: edge.id })}
-        onPaneClick={() => select(null)}
-        nodesDraggable={canEdit}
-        nodesConnectable={false}
-        edgesReconnectable={false}
-        deleteKeyCode={null}
-        selectionKeyCode={null}
-        multiSelectionKeyCode={null}
-        fitView
-        fitViewOptions={fitOptions}
-        minZoom={0.2}
-        maxZoom={2.5}
-        style={themeVariables}
-        aria-label="Complex graph"
-      >
-        <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
-        <Controls showInteractive={false} position="bottom-left" />
-        <Panel position="top-left">
-          <GraphLegend linkageClassCount={model.linkageClassCount} fixedSpecies={Object.keys(report?.fixedSpecies ?? {})} />
-        </Panel>
-        <FitWhenFirstFilled />
-      </ReactFlow>
+      <div className="relative min-h-0 flex-1">
+        <ArrowheadMarkers ids={marker} />
+        <ReactFlow<ComplexNode, ReactionEdge>
+          nodes={shownNodes}
+          edges={edges}
+          nodeTypes={nodeTypes}
+          edgeTypes={edgeTypes}
+          onNodesChange={onNodesChange}
+          onNodeClick={(_, node) => select({ kind: "complex", id: node.id })}
+          onEdgeClick={(_, edge) => select({ kind: "reaction", id: edge.id })}
+          onPaneClick={() => select(null)}
+          // Only the reader's own pans and zooms carry an input event; fitting reports none.
+          onMoveStart={(event) => event && setViewTouched(true)}
+          nodesDraggable={canEdit}
+          nodesConnectable={false}
+          edgesReconnectable={false}
+          deleteKeyCode={null}
+          selectionKeyCode={null}
+          multiSelectionKeyCode={null}
+          fitView
+          fitViewOptions={fitOptions}
+          minZoom={0.2}
+          maxZoom={2.5}
+          style={themeVariables}
+          aria-label="Complex graph"
+        >
+          <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
+          <Controls showInteractive={false} position="bottom-left" />
+          <FitWhileUntouched touched={viewTouched} />
+        </ReactFlow>
+      </div>
+      <GraphLegend linkageClassCount={model.linkageClassCount} fixedSpecies={Object.keys(report?.fixedSpecies ?? {})} />
     </>
   );
 }
@@ -192,7 +198,13 @@ const fitOptions = { padding: 0.2, maxZoom: 1.3 };
  * placements to the shared map once the room is synced; a viewer (or anyone before sync) keeps
  * them locally, so nothing it computes can overwrite a co-author's layout.
  */
-function useComplexPositions(model: GraphModel | null, report: ComplexGraphReport | null, layout: Y.Map<unknown> | null, canEdit: boolean, synced: boolean) {
+function useComplexPositions(
+  model: GraphModel | null,
+  report: ComplexGraphReport | null,
+  layout: Y.Map<unknown> | null,
+  canEdit: boolean,
+  synced: boolean,
+) {
   const shared = useSharedLayout(layout);
   const [local, setLocal] = useState<Record<string, XY>>({});
   const sharing = canEdit && synced;
@@ -242,16 +254,14 @@ function buildNodes(model: GraphModel | null, positions: Readonly<Record<string,
   });
 }
 
-/** The `fitView` prop fits the first render only; a graph that starts empty is fitted when it fills. */
-function FitWhenFirstFilled() {
+/** Fits the whole graph again whenever its complexes change, unless the reader has taken the view. */
+function FitWhileUntouched({ touched }: { touched: boolean }) {
   const initialized = useNodesInitialized();
   const { fitView } = useReactFlow();
-  const fitted = useRef(false);
+  const nodeIds = useStore((state) => [...state.nodeLookup.keys()].join("\n"));
   useEffect(() => {
-    if (!initialized || fitted.current) return;
-    fitted.current = true;
-    void fitView(fitOptions);
-  }, [initialized, fitView]);
+    if (initialized && !touched) void fitView(fitOptions);
+  }, [initialized, touched, nodeIds, fitView]);
   return null;
 }
 
@@ -263,7 +273,17 @@ function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: string } }
           [ids.normal, "var(--mw-muted)"],
           [ids.selected, "var(--mw-accent)"],
         ].map(([id, colour]) => (
-          <marker key={id} id={id} viewBox="0 0 10 10" refX="9" refY="5" markerWidth="9" markerHeight="9" markerUnits="userSpaceOnUse" orient="auto-start-reverse">
+          <marker
+            key={id}
+            id={id}
+            viewBox="0 0 10 10"
+            refX="9"
+            refY="5"
+            markerWidth="9"
+            markerHeight="9"
+            markerUnits="userSpaceOnUse"
+            orient="auto-start-reverse"
+          >
             <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
           </marker>
         ))}

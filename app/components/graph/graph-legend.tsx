@@ -1,5 +1,6 @@
-// The key to the complex graph: which tint is which linkage class, what a double rim means, and
-// which species are held fixed (and so appear in no complex).
+// The key to the complex graph, in a strip under the canvas so it never covers a node: which tint
+// is which linkage class, what a double rim means, and which species are held fixed (and so appear
+// in no complex).
 import { linkageClassColours } from "./linkage-colours";
 
 const shownClasses = 8;
@@ -7,9 +8,12 @@ const shownClasses = 8;
 export function GraphLegend({ linkageClassCount, fixedSpecies }: { linkageClassCount: number; fixedSpecies: readonly string[] }) {
   const swatches = Array.from({ length: Math.min(linkageClassCount, shownClasses) }, (_, index) => linkageClassColours(index));
   return (
-    <div className="card max-w-64 space-y-1.5 bg-surface/95 px-3 py-2 text-xs text-muted" data-testid="graph-legend">
-      <div className="flex flex-wrap items-center gap-1.5">
-        <span className="mr-0.5 font-medium text-ink">
+    <div
+      className="flex flex-wrap items-center gap-x-5 gap-y-1 border-t border-line bg-surface px-3 py-1.5 text-xs text-muted"
+      data-testid="graph-legend"
+    >
+      <div className="flex items-center gap-1">
+        <span className="mr-1">
           {linkageClassCount} linkage {linkageClassCount === 1 ? "class" : "classes"}
         </span>
         {swatches.map((colours, index) => (
@@ -24,14 +28,13 @@ export function GraphLegend({ linkageClassCount, fixedSpecies }: { linkageClassC
         ))}
         {linkageClassCount > shownClasses && <span>+{linkageClassCount - shownClasses}</span>}
       </div>
-      <div className="flex items-center gap-2">
+      <div className="flex items-center gap-1.5">
         <span className="inline-block h-3.5 w-5 rounded-sm" style={{ border: "3.5px double var(--mw-muted)" }} />
         <span>terminal strong linkage class</span>
       </div>
       {fixedSpecies.length > 0 && (
-        <div>
-          <span className="font-medium text-ink">Fixed:</span> <span className="font-mono">{fixedSpecies.join(", ")}</span>
-          <span className="block text-[11px]">held constant, left out of the complexes</span>
+        <div title="Held constant: their concentrations are folded into the rate coefficients">
+          fixed <span className="font-mono text-ink">{fixedSpecies.join(", ")}</span> (not drawn in complexes)
         </div>
       )}
     </div>

@@ -12,7 +12,11 @@ const report = {
     { from: 2, to: 3, rate: null, coefficient: "k2" },
     { from: 4, to: 5, rate: 10 },
   ],
-  linkageClasses: [[0, 1], [2, 3], [4, 5]],
+  linkageClasses: [
+    [0, 1],
+    [2, 3],
+    [4, 5],
+  ],
   terminalStrongLinkageClasses: [[0, 1], [3], [5]],
 };
 

@@ -65,7 +65,11 @@ export function buildGraphModel(report: ComplexGraphReport): GraphModel {
 /** A rate coefficient short enough to sit beside an arrow: four significant digits at most. */
 export function rateText(rate: number): string {
   const magnitude = Math.abs(rate);
-  if (magnitude !== 0 && (magnitude < 1e-3 || magnitude >= 1e5)) return rate.toExponential(2).replace(/\.?0+e/, "e").replace("e+", "e");
+  if (magnitude !== 0 && (magnitude < 1e-3 || magnitude >= 1e5))
+    return rate
+      .toExponential(2)
+      .replace(/\.?0+e/, "e")
+      .replace("e+", "e");
   return String(Number(rate.toPrecision(4)));
 }
 

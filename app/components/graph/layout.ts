@@ -44,7 +44,11 @@ export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf 
   for (const members of classes) {
     const memberKeys = members.map((index) => keys[index]);
     if (memberKeys.every((key) => key in known)) continue;
-    const local = layoutClass(memberKeys, reactions.map(({ from, to }) => [keys[from], keys[to]] as const), sizeOf);
+    const local = layoutClass(
+      memberKeys,
+      reactions.map(({ from, to }) => [keys[from], keys[to]] as const),
+      sizeOf,
+    );
     const anchors = memberKeys.filter((key) => key in known);
     // Keep the class's own shape: shift dagre's picture onto the members that already have places,
     // or, for a class entirely new, put it under everything drawn so far.
@@ -60,7 +64,11 @@ export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf 
   return placed;
 }
 
-function layoutClass(memberKeys: string[], edges: readonly (readonly [string, string])[], sizeOf: (key: string) => Size): Record<string, XY> {
+function layoutClass(
+  memberKeys: string[],
+  edges: readonly (readonly [string, string])[],
+  sizeOf: (key: string) => Size,
+): Record<string, XY> {
   const graph = new dagre.graphlib.Graph();
   graph.setGraph({ rankdir: "LR", nodesep: 28, ranksep: 72, marginx: 0, marginy: 0 });
   graph.setDefaultEdgeLabel(() => ({}));
@@ -80,7 +88,10 @@ function layoutClass(memberKeys: string[], edges: readonly (readonly [string, st
 }
 
 function meanOffset(anchors: string[], known: Readonly<Record<string, XY>>, local: Record<string, XY>): XY {
-  const sum = anchors.reduce((total, key) => ({ x: total.x + known[key].x - local[key].x, y: total.y + known[key].y - local[key].y }), { x: 0, y: 0 });
+  const sum = anchors.reduce((total, key) => ({ x: total.x + known[key].x - local[key].x, y: total.y + known[key].y - local[key].y }), {
+    x: 0,
+    y: 0,
+  });
   return { x: Math.round(sum.x / anchors.length), y: Math.round(sum.y / anchors.length) };
 }
 
