@@ -2,7 +2,7 @@
 // (Feinberg 1989): one circuit condition for each independent cycle of the undirected complex
 // graph (the Wegscheider-type conditions), and one spanning-forest condition for each linear
 // dependency among the reaction vectors of a spanning forest. Together r/2 − s conditions.
-import { nullSpace, type SparseVector } from "./exact";
+import { sparseNullSpace, type SparseVector } from "./exact";
 import { coefficientLatex, coefficientText } from "./expression";
 import type { Network } from "./model";
 import { reactionVector } from "./network";
@@ -151,11 +151,11 @@ function forestDependencies(network: Network, tree: Pair[]): { left: Power[]; ri
       rows[species].values.push(values[k]);
     });
   });
-  return nullSpace(rows, tree.length).map((alpha) => {
+  return sparseNullSpace(rows, tree.length).map((alpha) => {
     const left: Power[] = [];
     const right: Power[] = [];
-    alpha.forEach((power, edge) => {
-      if (power === 0) return;
+    alpha.indices.forEach((edge, k) => {
+      const power = alpha.values[k];
       const { forward, backward } = tree[edge];
       left.push({ reaction: power > 0 ? forward : backward, power: Math.abs(power) });
       right.push({ reaction: power > 0 ? backward : forward, power: Math.abs(power) });

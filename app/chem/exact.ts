@@ -28,6 +28,15 @@ export function rank(rows: SparseVector[]): number {
  * entries have gcd 1) with a positive entry at the free column it stands for.
  */
 export function nullSpace(rows: SparseVector[], width: number): number[][] {
+  return sparseNullSpace(rows, width).map(({ indices, values }) => {
+    const dense = new Array<number>(width).fill(0);
+    indices.forEach((index, k) => (dense[index] = values[k]));
+    return dense;
+  });
+}
+
+/** The same basis as `nullSpace`, as sparse vectors: wide kernels are mostly zeros. */
+export function sparseNullSpace(rows: SparseVector[], width: number): SparseVector[] {
   const pivots = echelon(rows);
   const pivotColumns = [...pivots.keys()].sort((a, b) => a - b);
   for (const column of pivotColumns) backSubstitute(pivots.get(column)!, pivots);
@@ -45,19 +54,18 @@ export function nullSpace(rows: SparseVector[], width: number): number[][] {
     }
   }
 
-  const basis: number[][] = [];
+  const basis: SparseVector[] = [];
   for (let free = 0; free < width; free++) {
     if (pivots.has(free)) continue;
     const entries = byFree.get(free) ?? [];
     // x_free = L and x_pivot = −L·value/pivot, with L the lcm of the pivots involved.
     let scale = 1n;
     for (const { pivot } of entries) scale = lcm(scale, abs(pivot));
-    const vector = new Array<bigint>(width).fill(0n);
-    vector[free] = scale;
-    for (const { column, value, pivot } of entries) vector[column] = (-scale * value) / pivot;
+    const vector = [{ index: free, value: scale }, ...entries.map(({ column, value, pivot }) => ({ index: column, value: (-scale * value) / pivot }))];
+    vector.sort((a, b) => a.index - b.index);
     let divisor = 0n;
-    for (const entry of vector) if (entry !== 0n) divisor = gcd(divisor, abs(entry));
-    basis.push(vector.map((entry) => Number(entry / divisor)));
+    for (const { value } of vector) divisor = gcd(divisor, abs(value));
+    basis.push({ indices: vector.map(({ index }) => index), values: vector.map(({ value }) => Number(value / divisor)) });
   }
   return basis;
 }

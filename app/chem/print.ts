@@ -33,11 +33,11 @@ function printComplex(terms: Term[]): string {
 function printRates(step: Step): string {
   if (step.law !== null) return ` @ { ${step.law} }`;
   const rates = step.reversible ? [step.forward, step.backward] : [step.forward];
-  if (rates.every((rate) => rate === null)) return "";
-  return ` @ ${rates.map(printRate).join(", ")}`;
+  // A step missing a coefficient is printed without any rather than with an invented one.
+  if (rates.some((rate) => rate === null)) return "";
+  return ` @ ${(rates as RateRef[]).map(printRate).join(", ")}`;
 }
 
-function printRate(rate: RateRef | null): string {
-  if (rate === null) return "0";
+function printRate(rate: RateRef): string {
   return rate.kind === "value" ? String(rate.value) : rate.name;
 }
