@@ -61,7 +61,7 @@ const navigation = [
 function Header({ user }: { user: { name: string; email: string } | null }) {
   return (
     <header className="border-b border-line bg-surface/80 backdrop-blur">
-      <div className="mx-auto flex h-14 max-w-7xl items-center gap-6 px-6">
+      <div className="mx-auto flex h-14 max-w-[96rem] items-center gap-6 px-6">
         <Link to={user ? "/dashboard" : "/"} className="flex items-center gap-2 text-ink no-underline">
           <Logo />
           <span className="text-base font-semibold tracking-tight">Mechweave</span>

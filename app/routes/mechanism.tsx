@@ -1,19 +1,29 @@
+import { useMemo, useRef, useState } from "react";
 import { Form, Link, redirect, useNavigation } from "react-router";
 import { deleteMechanism, renameMechanism } from "../../server/db/mechanisms";
 import { atLeast } from "../../server/db/roles";
+import { CollabEditor, type CollabEditorHandle } from "~/components/editor/collab-editor";
+import { ComplexGraph } from "~/components/graph/complex-graph";
+import { Presence } from "~/components/presence";
 import { RolePill } from "~/components/role-pill";
+import { StructurePanel } from "~/components/structure-panel";
+import { DynamicsTab } from "~/components/dynamics-tab";
+import { FilesPanel } from "~/components/files-panel";
 import { titleField } from "~/utils/fields";
-import { timeAgo } from "~/utils/format";
 import { httpError, requireRole, requireViewAccess } from "~/utils/permissions.server";
+import { stepRangesFor } from "~/utils/step-ranges";
+import { pickColour, useRoom } from "~/utils/use-room";
 import type { Route } from "./+types/mechanism";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.mechanism.title ?? "Mechanism"} · Mechweave` }];
 
 export async function loader(args: Route.LoaderArgs) {
-  const { mechanism, role } = await requireViewAccess(args, args.params.id);
+  const { mechanism, role, user } = await requireViewAccess(args, args.params.id);
   return {
     role,
-    mechanism: { id: mechanism.id, title: mechanism.title, summary: mechanism.summary, source: mechanism.source, updatedAt: mechanism.updatedAt.toISOString() },
+    user: user ? { name: user.name } : { name: "Guest viewer" },
+    signedIn: Boolean(user),
+    mechanism: { id: mechanism.id, title: mechanism.title, summary: mechanism.summary, source: mechanism.source },
   };
 }
 
@@ -35,61 +45,112 @@ export async function action(args: Route.ActionArgs) {
   throw httpError(400, "Unknown action.");
 }
 
-export default function MechanismPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { mechanism, role } = loaderData;
-  const canEdit = atLeast(role, "editor");
-  const busy = useNavigation().state === "submitting";
-  const result = actionData as { error?: string; ok?: string } | undefined;
-  return (
-    <main className="mx-auto max-w-7xl px-6 py-8">
-      <div className="flex flex-wrap items-start justify-between gap-4">
-        <div className="min-w-0">
-          <p className="text-xs text-muted"><Link to="/dashboard">Mechanisms</Link> / {mechanism.id}</p>
-          <h1 className="mt-1 truncate" data-testid="mechanism-title">{mechanism.title}</h1>
-          {mechanism.summary && <p className="mt-1 max-w-2xl text-sm text-muted">{mechanism.summary}</p>}
-          <p className="mt-2 flex items-center gap-2 text-xs text-muted">
-            <RolePill role={role} /> changed {timeAgo(mechanism.updatedAt)}
-          </p>
-        </div>
-        <nav className="flex gap-2">
-          <Link to={`/m/${mechanism.id}/members`} className="btn">Members</Link>
-        </nav>
-      </div>
+const tabs = ["Graph", "Structure", "Dynamics", "Files & settings"] as const;
+type Tab = (typeof tabs)[number];
 
-      <section className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
-        <div className="card overflow-hidden">
-          <div className="flex items-center justify-between border-b border-line px-4 py-2 text-xs text-muted">
-            <span>Mechanism text</span>
-            <span>{canEdit ? "read-only for now" : "read-only"}</span>
-          </div>
-          <pre className="overflow-x-auto p-4 text-sm leading-relaxed" data-testid="source">{mechanism.source || "(empty)"}</pre>
+export default function MechanismPage({ loaderData, actionData }: Route.ComponentProps) {
+  const { mechanism, role, user, signedIn } = loaderData;
+  const canEdit = atLeast(role, "editor");
+  const room = useRoom(mechanism.id, { user, readOnly: !canEdit, role });
+  const editor = useRef<CollabEditorHandle>(null);
+  const [tab, setTab] = useState<Tab>("Graph");
+  const source = useMemo(() => room.doc?.getText("source") ?? null, [room.doc]);
+  const layout = useMemo(() => room.doc?.getMap("layout") ?? null, [room.doc]);
+  const report = room.analysis.report ?? null;
+
+  return (
+    <main className="mx-auto max-w-[96rem] px-6 py-5">
+      <header className="flex flex-wrap items-center justify-between gap-4">
+        <div className="min-w-0">
+          <p className="text-xs text-muted">
+            {signedIn ? <Link to="/dashboard">Mechanisms</Link> : "Shared view"} / <span className="font-mono">{mechanism.id}</span>
+          </p>
+          <h1 className="mt-0.5 truncate" data-testid="mechanism-title">{mechanism.title}</h1>
+          {mechanism.summary && <p className="max-w-3xl truncate text-sm text-muted" title={mechanism.summary}>{mechanism.summary}</p>}
         </div>
-        <aside className="space-y-4">
-          {canEdit && (
-            <Form method="post" className="card space-y-2 p-4">
-              <h3>Title</h3>
-              <input type="hidden" name="intent" value="rename" />
-              <input className="field" name="title" defaultValue={mechanism.title} aria-label="Title" required maxLength={200} />
-              <button className="btn" type="submit" disabled={busy}>Rename</button>
-              {result?.error && <p className="text-xs text-danger">{result.error}</p>}
-              {result?.ok && <p className="text-xs text-ok">{result.ok}</p>}
-            </Form>
+        <div className="flex flex-wrap items-center gap-3">
+          <RoomStatusBadge status={room.status} revision={room.analysis.revision} />
+          <Presence self={{ name: user.name, colour: pickColour(user.name), role }} peers={room.peers} />
+          <RolePill role={role} />
+          {signedIn && (
+            <nav className="flex gap-2">
+              <Link to={`/m/${mechanism.id}/history`} className="btn">History</Link>
+              <Link to={`/m/${mechanism.id}/members`} className="btn">Members</Link>
+              <Link to={`/m/${mechanism.id}/projector`} className="btn" title="A full-screen graph for a projector">Project</Link>
+            </nav>
           )}
-          {role === "owner" && (
-            <Form
-              method="post"
-              className="card space-y-2 p-4"
-              onSubmit={(e) => {
-                if (!confirm(`Delete “${mechanism.title}” for every member? This cannot be undone.`)) e.preventDefault();
-              }}
-            >
-              <h3>Danger zone</h3>
-              <input type="hidden" name="intent" value="delete" />
-              <button className="btn btn-danger" type="submit">Delete mechanism</button>
-            </Form>
+        </div>
+      </header>
+
+      <section className="mt-4 grid gap-4 xl:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
+        <div className="card flex min-h-[32rem] flex-col overflow-hidden">
+          <div className="flex items-center justify-between border-b border-line px-4 py-2 text-xs text-muted">
+            <span>Mechanism text{canEdit ? "" : " · read-only"}</span>
+            <Summary errors={room.analysis.errors} deficiency={room.analysis.deficiency} />
+          </div>
+          {/* Before the room connects, the saved text stands in so the page is never blank. */}
+          {source ? (
+            <CollabEditor ref={editor} source={source} awareness={room.awareness} readOnly={!canEdit} className="min-h-0 flex-1" />
+          ) : (
+            <pre className="flex-1 overflow-auto p-4 text-sm leading-relaxed text-muted" data-testid="source">{mechanism.source}</pre>
           )}
-        </aside>
+        </div>
+
+        <div className="flex min-w-0 flex-col gap-3">
+          <div role="tablist" className="flex gap-1 border-b border-line">
+            {tabs.map((name) => (
+              <button
+                key={name}
+                role="tab"
+                aria-selected={tab === name}
+                onClick={() => setTab(name)}
+                className={`-mb-px border-b-2 px-3 py-2 text-sm font-medium ${tab === name ? "border-accent text-ink" : "border-transparent text-muted hover:text-ink"}`}
+              >
+                {name}
+              </button>
+            ))}
+          </div>
+          {tab === "Graph" && (
+            <ComplexGraph
+              report={report}
+              layout={layout}
+              canEdit={canEdit}
+              synced={room.synced}
+              className="h-[36rem]"
+              onSelect={(selection) => editor.current?.highlight(source ? stepRangesFor(source.toString(), selection) : [])}
+            />
+          )}
+          {tab === "Structure" && (report ? <StructurePanel report={report} /> : <Waiting />)}
+          {tab === "Dynamics" && <DynamicsTab mechanismId={mechanism.id} source={source} report={report} />}
+          {tab === "Files & settings" && (
+            <FilesPanel mechanismId={mechanism.id} title={mechanism.title} role={role} actionData={actionData as { ok?: string; error?: string } | undefined} />
+          )}
+        </div>
       </section>
     </main>
+  );
+}
+
+function Waiting() {
+  return <p className="card p-6 text-sm text-muted">Waiting for the server's analysis…</p>;
+}
+
+function Summary({ errors, deficiency }: { errors?: number; deficiency?: number }) {
+  if (errors === undefined) return null;
+  return (
+    <span data-testid="live-summary">
+      {errors > 0 ? <span className="text-danger">{errors} error{errors === 1 ? "" : "s"}</span> : <span className="text-ok">no errors</span>}
+      {deficiency !== undefined && <> · deficiency <strong className="text-ink">{deficiency}</strong></>}
+    </span>
+  );
+}
+
+function RoomStatusBadge({ status, revision }: { status: string; revision?: number }) {
+  const tone = status === "online" ? "bg-ok" : status === "offline" ? "bg-danger" : "bg-signal";
+  return (
+    <span className="flex items-center gap-1.5 text-xs text-muted" data-testid="room-status" data-status={status} title={revision ? `analysis revision ${revision}` : undefined}>
+      <span className={`inline-block h-2 w-2 rounded-full ${tone}`} aria-hidden="true" />
+      {status === "online" ? "live" : status}
+    </span>
   );
 }

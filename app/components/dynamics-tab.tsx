@@ -1,0 +1,314 @@
+// The Dynamics panel: time courses of the live text, with progress and cancel, measured data
+// overlaid with residuals, a phase portrait, equilibrium and stability, the largest Lyapunov
+// exponent, and one-parameter sweeps. Every run happens on the server, in a worker thread.
+import { useMemo, useState } from "react";
+import type * as Y from "yjs";
+import type { AnalysisReport } from "~/chem/analysis";
+import { CsvError, readMeasuredCsv, residuals, simulationCsv, type MeasuredCourses } from "~/chem/kinetics/csv";
+import type { EquilibriumResult } from "~/chem/kinetics/equilibrium";
+import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
+import type { SimulationResult } from "~/chem/kinetics/simulate";
+import type { SweepResult } from "~/chem/kinetics/sweep";
+import { PhasePortrait } from "./dynamics/phase-portrait";
+import { TimeCourseChart } from "./dynamics/time-course-chart";
+import { useDynamicsJob, type JobState } from "./dynamics/use-dynamics-job";
+
+interface Props {
+  mechanismId: string;
+  source: Y.Text | null;
+  report: AnalysisReport | null;
+}
+
+export function DynamicsTab({ mechanismId, source, report }: Props) {
+  const text = () => source?.toString() ?? "";
+  const simulation = useDynamicsJob<SimulationResult>(mechanismId);
+  const [until, setUntil] = useState(50);
+  const [samples, setSamples] = useState(400);
+  const [method, setMethod] = useState<"auto" | "stiff" | "explicit">("auto");
+  const [logTime, setLogTime] = useState(false);
+  const [hidden, setHidden] = useState<string[]>([]);
+  const [measured, setMeasured] = useState<MeasuredCourses | null>(null);
+  const [csvNote, setCsvNote] = useState<string | null>(null);
+
+  const result = simulation.result;
+  const species = result ? Object.keys(result.series) : (report?.species ?? []);
+  const shown = species.filter((s) => !hidden.includes(s));
+  const fit = useMemo(() => (result && measured ? residuals(measured, result) : null), [result, measured]);
+
+  async function loadCsv(file: File) {
+    try {
+      const { data, warnings } = readMeasuredCsv(await file.text(), { species: report?.species });
+      setMeasured(data);
+      setCsvNote(warnings.length ? warnings.join("; ") : `${data.time.length} measured times loaded.`);
+    } catch (error) {
+      setMeasured(null);
+      setCsvNote(error instanceof CsvError ? `That file cannot be used: ${error.message}.` : "That file could not be read.");
+    }
+  }
+
+  function downloadCsv() {
+    if (!result) return;
+    const url = URL.createObjectURL(new Blob([simulationCsv(result)], { type: "text/csv" }));
+    const link = Object.assign(document.createElement("a"), { href: url, download: `simulation-${mechanismId}.csv` });
+    link.click();
+    URL.revokeObjectURL(url);
+  }
+
+  return (
+    <div className="space-y-4" data-testid="dynamics">
+      <p className="rounded-md border border-signal bg-signal-soft px-3 py-2 text-xs text-signal" role="note">
+        Simulated dynamics model the chemistry as written. They do not replace experimental hazard assessment, local rules or licensed practice.
+      </p>
+
+      <section className="card p-4">
+        <form
+          className="flex flex-wrap items-end gap-3"
+          onSubmit={(e) => {
+            e.preventDefault();
+            void simulation.run({ kind: "simulate", source: text(), settings: { until, samples, method } });
+          }}
+        >
+          <NumberField label="Until time" value={until} onChange={setUntil} min={1e-9} />
+          <NumberField label="Samples" value={samples} onChange={(v) => setSamples(Math.round(v))} min={2} max={20000} />
+          <label className="text-sm">
+            <span className="label">Method</span>
+            <select className="field py-1.5" value={method} onChange={(e) => setMethod(e.target.value as typeof method)}>
+              <option value="auto">automatic</option>
+              <option value="stiff">stiff (Rosenbrock)</option>
+              <option value="explicit">explicit (Dormand–Prince)</option>
+            </select>
+          </label>
+          {simulation.running ? (
+            <button type="button" className="btn btn-danger" onClick={simulation.cancel}>Cancel</button>
+          ) : (
+            <button type="submit" className="btn btn-primary" disabled={!source}>Simulate</button>
+          )}
+          <label className="ml-auto flex items-center gap-2 text-sm">
+            <input type="checkbox" checked={logTime} onChange={(e) => setLogTime(e.target.checked)} /> log time axis
+          </label>
+        </form>
+        <JobStatus job={simulation} />
+        {result && (
+          <>
+            <div className="mt-3 flex flex-wrap gap-2">
+              {species.map((name) => (
+                <label key={name} className="pill cursor-pointer border border-line">
+                  <input
+                    type="checkbox"
+                    className="mr-1"
+                    checked={!hidden.includes(name)}
+                    onChange={(e) => setHidden((h) => (e.target.checked ? h.filter((n) => n !== name) : [...h, name]))}
+                  />
+                  {name}
+                </label>
+              ))}
+            </div>
+            <div className="mt-3">
+              <TimeCourseChart t={result.t} series={result.series} shown={shown} logTime={logTime} measured={measured} />
+            </div>
+            <p className="mt-2 text-xs text-muted">
+              {result.stats.steps} steps ({result.stats.rejected} rejected, {result.stats.jacobians} Jacobians) in {result.stats.ms.toFixed(0)} ms
+              with the {result.method} method{result.switchedAt !== null ? `, switched to stiff at t = ${result.switchedAt.toPrecision(3)}` : ""}.
+              Drag to zoom, double-click to reset.
+            </p>
+            <div className="mt-3 flex flex-wrap items-center gap-3">
+              <button type="button" className="btn" onClick={downloadCsv}>Download CSV</button>
+              <label className="btn">
+                Overlay measured CSV…
+                <input type="file" accept=".csv,text/csv" className="sr-only" onChange={(e) => e.target.files?.[0] && loadCsv(e.target.files[0])} />
+              </label>
+              {csvNote && <span className="text-xs text-muted">{csvNote}</span>}
+            </div>
+            {fit && <ResidualTable fit={fit} />}
+          </>
+        )}
+      </section>
+
+      {result && (
+        <section className="card p-4">
+          <h3>Phase portrait</h3>
+          <div className="mt-2"><PhasePortrait series={result.series} /></div>
+        </section>
+      )}
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <EquilibriumCard mechanismId={mechanismId} text={text} settleTime={until} />
+        <LyapunovCard mechanismId={mechanismId} text={text} />
+      </div>
+      <SweepCard mechanismId={mechanismId} text={text} report={report} until={until} />
+    </div>
+  );
+}
+
+function NumberField({ label, value, onChange, min, max }: { label: string; value: number; onChange: (v: number) => void; min?: number; max?: number }) {
+  return (
+    <label className="text-sm">
+      <span className="label">{label}</span>
+      <input className="field w-28 py-1.5" type="number" step="any" min={min} max={max} value={value} onChange={(e) => onChange(Number(e.target.value))} required />
+    </label>
+  );
+}
+
+function JobStatus({ job }: { job: JobState<unknown> }) {
+  if (job.running) {
+    return (
+      <div className="mt-3" role="progressbar" aria-valuenow={Math.round(job.progress * 100)} aria-valuemin={0} aria-valuemax={100}>
+        <div className="h-1.5 overflow-hidden rounded-full bg-canvas">
+          <div className="h-full bg-accent transition-[width]" style={{ width: `${Math.max(2, job.progress * 100)}%` }} />
+        </div>
+        <p className="mt-1 text-xs text-muted">Running on the server… {Math.round(job.progress * 100)} %</p>
+      </div>
+    );
+  }
+  return job.error ? <p className="notice-error mt-3">{job.error}</p> : null;
+}
+
+function ResidualTable({ fit }: { fit: ReturnType<typeof residuals> }) {
+  return (
+    <table className="mt-3 w-full text-sm">
+      <thead className="text-left text-xs uppercase tracking-wider text-muted">
+        <tr><th className="py-1">Species</th><th>Measured points</th><th>RMS residual</th></tr>
+      </thead>
+      <tbody>
+        {Object.entries(fit).map(([name, r]) => (
+          <tr key={name} className="border-t border-line"><td className="py-1 font-medium">{name}</td><td>{r.points}</td><td>{Number.isNaN(r.rms) ? "—" : r.rms.toPrecision(3)}</td></tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+function EquilibriumCard({ mechanismId, text, settleTime }: { mechanismId: string; text: () => string; settleTime: number }) {
+  const job = useDynamicsJob<EquilibriumResult>(mechanismId);
+  const r = job.result;
+  return (
+    <section className="card p-4">
+      <div className="flex items-center justify-between">
+        <h3>Equilibrium and stability</h3>
+        <button className="btn" disabled={job.running} onClick={() => job.run({ kind: "equilibrium", source: text(), options: { settleTime } })}>Find</button>
+      </div>
+      <JobStatus job={job} />
+      {r && (
+        <div className="mt-3 space-y-2 text-sm" data-testid="equilibrium">
+          <p>{r.summary}</p>
+          <table className="w-full text-xs">
+            <tbody>
+              {Object.entries(r.state).map(([name, value]) => (
+                <tr key={name} className="border-t border-line"><td className="py-0.5 font-medium">{name}</td><td className="font-mono">{value.toPrecision(6)}</td></tr>
+              ))}
+            </tbody>
+          </table>
+          <p className="text-xs text-muted">
+            Eigenvalues in the compatibility class: {r.eigenvalues.map((e) => (e.im ? `${e.re.toPrecision(3)} ± ${Math.abs(e.im).toPrecision(3)}i` : e.re.toPrecision(3))).join(", ") || "none"}
+          </p>
+        </div>
+      )}
+    </section>
+  );
+}
+
+function LyapunovCard({ mechanismId, text }: { mechanismId: string; text: () => string }) {
+  const job = useDynamicsJob<LyapunovResult>(mechanismId);
+  const [until, setUntil] = useState(500);
+  const r = job.result;
+  return (
+    <section className="card p-4">
+      <div className="flex items-end justify-between gap-3">
+        <h3>Largest Lyapunov exponent</h3>
+        <div className="flex items-end gap-2">
+          <NumberField label="Until" value={until} onChange={setUntil} min={1} />
+          {job.running ? (
+            <button className="btn btn-danger" onClick={job.cancel}>Cancel</button>
+          ) : (
+            <button className="btn" onClick={() => job.run({ kind: "lyapunov", source: text(), options: { until } })}>Estimate</button>
+          )}
+        </div>
+      </div>
+      <JobStatus job={job} />
+      {r && (
+        <div className="mt-3 text-sm">
+          <p>
+            λ₁ ≈ <strong className="font-mono">{r.largest.toPrecision(4)}</strong> {r.converged ? "(the running estimate settled)" : "(not yet settled: integrate longer)"}
+          </p>
+          <p className="mt-1 text-xs text-muted">
+            {r.largest > 0.01 && r.converged
+              ? "A positive exponent: nearby trajectories separate exponentially — a numerical sign of chaos, not a proof."
+              : "No sign of exponential separation of nearby trajectories."}{" "}
+            {r.renormalisations} renormalisations after a transient of {r.transient.toPrecision(3)}.
+          </p>
+        </div>
+      )}
+    </section>
+  );
+}
+
+function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; text: () => string; report: AnalysisReport | null; until: number }) {
+  const job = useDynamicsJob<SweepResult>(mechanismId);
+  const species = report?.species ?? [];
+  const [target, setTarget] = useState("");
+  const [observed, setObserved] = useState("");
+  const [from, setFrom] = useState(0.1);
+  const [to, setTo] = useState(10);
+  const [points, setPoints] = useState(20);
+  const [scale, setScale] = useState<"linear" | "log">("log");
+  const [observable, setObservable] = useState<"final" | "max" | "period">("final");
+  const targets = [...species.map((s) => `initial:${s}`)];
+  const chosenTarget = target || targets[0] || "";
+  const chosenSpecies = observed || species[0] || "";
+
+  function start() {
+    const [kind, name] = chosenTarget.split(":");
+    const sweepTarget = kind === "initial" ? { kind: "initial", species: name } : { kind: "parameter", name };
+    void job.run({
+      kind: "sweep",
+      source: text(),
+      options: { until, samples: 400, target: sweepTarget, from, to, points, scale, species: chosenSpecies, observable },
+    });
+  }
+
+  return (
+    <section className="card p-4">
+      <h3>Parameter sweep</h3>
+      <div className="mt-2 flex flex-wrap items-end gap-3 text-sm">
+        <label>
+          <span className="label">Vary</span>
+          <input className="field w-44 py-1.5" list="sweep-targets" value={chosenTarget} onChange={(e) => setTarget(e.target.value)} placeholder="initial:S or parameter:k1" />
+          <datalist id="sweep-targets">{targets.map((t) => <option key={t} value={t} />)}</datalist>
+        </label>
+        <NumberField label="From" value={from} onChange={setFrom} />
+        <NumberField label="To" value={to} onChange={setTo} />
+        <NumberField label="Points" value={points} onChange={(v) => setPoints(Math.round(v))} min={2} max={200} />
+        <label>
+          <span className="label">Scale</span>
+          <select className="field py-1.5" value={scale} onChange={(e) => setScale(e.target.value as typeof scale)}><option>log</option><option>linear</option></select>
+        </label>
+        <label>
+          <span className="label">Observe</span>
+          <select className="field py-1.5" value={observable} onChange={(e) => setObservable(e.target.value as typeof observable)}>
+            <option value="final">final value</option><option value="max">maximum</option><option value="period">period</option>
+          </select>
+        </label>
+        <label>
+          <span className="label">of</span>
+          <select className="field py-1.5" value={chosenSpecies} onChange={(e) => setObserved(e.target.value)}>{species.map((s) => <option key={s}>{s}</option>)}</select>
+        </label>
+        {job.running ? <button className="btn btn-danger" onClick={job.cancel}>Cancel</button> : <button className="btn" onClick={start} disabled={!chosenTarget}>Sweep</button>}
+      </div>
+      <p className="mt-1 text-xs text-muted">Vary an initial concentration (initial:NAME) or a named rate coefficient (parameter:NAME); each point simulates to the time set above.</p>
+      <JobStatus job={job} />
+      {job.result && (
+        <div className="mt-3">
+          <TimeCourseChart
+            t={job.result.values}
+            series={{ [`${observable} of ${chosenSpecies}`]: job.result.observed.map((v) => v ?? Number.NaN) }}
+            shown={[`${observable} of ${chosenSpecies}`]}
+            logTime={scale === "log"}
+            xLabel={chosenTarget}
+            yLabel={observable}
+            height={260}
+          />
+        </div>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,58 @@
+// Runs a dynamics job on the server with live progress (newline-delimited JSON) and lets the
+// reader cancel it: aborting the request stops the worker on the server too.
+import { useCallback, useRef, useState } from "react";
+
+export interface JobState<T> {
+  running: boolean;
+  progress: number;
+  result: T | null;
+  error: string | null;
+}
+
+export function useDynamicsJob<T>(mechanismId: string) {
+  const [state, setState] = useState<JobState<T>>({ running: false, progress: 0, result: null, error: null });
+  const controller = useRef<AbortController | null>(null);
+
+  const run = useCallback(
+    async (body: unknown) => {
+      controller.current?.abort();
+      const abort = (controller.current = new AbortController());
+      setState((s) => ({ ...s, running: true, progress: 0, error: null }));
+      try {
+        const response = await fetch(`/api/v1/mechanisms/${mechanismId}/dynamics`, {
+          method: "POST",
+          headers: { "Content-Type": "application/json", Accept: "application/x-ndjson" },
+          body: JSON.stringify(body),
+          signal: abort.signal,
+        });
+        if (!response.ok || !response.body) {
+          const message = (await response.json().catch(() => null))?.error ?? `The server answered ${response.status}.`;
+          setState((s) => ({ ...s, running: false, error: message }));
+          return;
+        }
+        const reader = response.body.pipeThrough(new TextDecoderStream()).getReader();
+        let buffer = "";
+        for (;;) {
+          const { value, done } = await reader.read();
+          if (done) break;
+          buffer += value;
+          const lines = buffer.split("\n");
+          buffer = lines.pop() ?? "";
+          for (const line of lines.filter(Boolean)) {
+            const message = JSON.parse(line) as { progress?: number; result?: T; error?: string };
+            if (message.progress !== undefined) setState((s) => ({ ...s, progress: message.progress! }));
+            if (message.result !== undefined) setState({ running: false, progress: 1, result: message.result, error: null });
+            if (message.error !== undefined) setState((s) => ({ ...s, running: false, error: message.error! }));
+          }
+        }
+      } catch (error) {
+        if ((error as Error).name === "AbortError") setState((s) => ({ ...s, running: false, error: "Cancelled." }));
+        else setState((s) => ({ ...s, running: false, error: "The connection to the server was lost." }));
+      }
+    },
+    [mechanismId],
+  );
+
+  const cancel = useCallback(() => controller.current?.abort(), []);
+  return { ...state, run, cancel };
+}
