@@ -1,0 +1,200 @@
+// Dynamics benchmark: our integrators against the targets in the dynamics issue and, side by
+// side in the same run, against odex (explicit, non-stiff) and scipy's LSODA
+// (`scipy.integrate.odeint` with a vectorised numpy right-hand side and Jacobian, run in a child
+// python3 process on the very same systems). Python is only the peer here; the product never
+// needs it. Run: npx tsx tests/bench/dynamics.ts
+import { spawnSync } from "node:child_process";
+import { createRequire } from "node:module";
+import { networkSpec } from "~/chem/kinetics/from-network";
+import { polynomialSpec } from "~/chem/kinetics/from-polynomial";
+import { compileKineticSystem, type KineticSpec } from "~/chem/kinetics/kinetic-system";
+import type { Method } from "~/chem/kinetics/integrator";
+import { simulateSystem } from "~/chem/kinetics/simulate";
+import { brusselator, generatedNetwork, lorenz, robertson } from "../fixtures/dynamics/models";
+
+// odex is CommonJS marked __esModule: tsx's ESM interop hides its named exports, require does not.
+const { Solver } = createRequire(import.meta.url)("odex") as typeof import("odex");
+
+interface Problem {
+  name: string;
+  spec: KineticSpec;
+  until: number;
+  rtol: number;
+  atol: number;
+  method: Method;
+}
+
+interface Figures {
+  ms: number;
+  steps: number;
+  jacobians: number;
+  final: number[];
+}
+
+const problems: Problem[] = [
+  { name: "Robertson to t = 1e11", spec: networkSpec(robertson().mechanism, robertson().network), until: 1e11, rtol: 1e-6, atol: 1e-10, method: "auto" },
+  { name: "generated 200 species, t = 100", spec: generatedSpec(200), until: 100, rtol: 1e-6, atol: 1e-10, method: "auto" },
+  { name: "Brusselator (non-stiff), t = 20", spec: polynomialSpec(brusselator()), until: 20, rtol: 1e-8, atol: 1e-10, method: "explicit" },
+  { name: "Lorenz (non-stiff), t = 20", spec: polynomialSpec(lorenz()), until: 20, rtol: 1e-8, atol: 1e-10, method: "explicit" },
+];
+
+function generatedSpec(size: number): KineticSpec {
+  const { mechanism, network } = generatedNetwork(size);
+  return networkSpec(mechanism, network);
+}
+
+/**
+ * Best of `runs` timed runs after two warm-up runs: the machine is shared, and the minimum is the
+ * figure least disturbed by other load. The Python peer is timed the same way.
+ */
+function best<T>(runs: number, run: () => { ms: number; value: T }): { ms: number; value: T } {
+  run();
+  run();
+  return Array.from({ length: runs }, run).reduce((a, b) => (b.ms < a.ms ? b : a));
+}
+
+function ours(problem: Problem): Figures {
+  const { ms, value } = best(9, () => {
+    const system = compileKineticSystem(problem.spec);
+    const result = simulateSystem(system, { until: problem.until, samples: 2, rtol: problem.rtol, atol: problem.atol, method: problem.method });
+    return { ms: result.stats.ms, value: result };
+  });
+  return { ms, steps: value.stats.steps, jacobians: value.stats.jacobians, final: problem.spec.names.map((name) => value.series[name][1]) };
+}
+
+function odex(problem: Problem): Figures {
+  const system = compileKineticSystem(problem.spec);
+  const n = problem.spec.names.length;
+  const y = new Float64Array(n);
+  const dy = new Float64Array(n);
+  const f = (_t: number, state: number[]) => {
+    y.set(state);
+    system.rhs(y, dy);
+    return Array.from(dy);
+  };
+  const { ms, value } = best(9, () => {
+    const solver = new Solver(n);
+    solver.relativeTolerance = problem.rtol;
+    solver.absoluteTolerance = problem.atol;
+    solver.maxSteps = 1e6;
+    const start = performance.now();
+    const result = solver.solve(f, 0, [...problem.spec.initial], problem.until);
+    return { ms: performance.now() - start, value: result };
+  });
+  return { ms, steps: value.nStep, jacobians: 0, final: value.y };
+}
+
+const LSODA = String.raw`
+import json, sys, time
+import numpy as np
+from scipy.integrate import odeint
+
+problems = json.load(sys.stdin)
+out = []
+for p in problems:
+    n = len(p["names"]); R = len(p["rates"])
+    F = max([1] + [len(r) for r in p["rates"]])
+    I = np.zeros((R, F), dtype=np.int64); P = np.zeros((R, F))
+    for j, factors in enumerate(p["rates"]):
+        for f, (v, power) in enumerate(factors):
+            I[j, f] = v; P[j, f] = power
+    k = np.array(p["coefficients"], dtype=float)
+    S = np.zeros((n, R))
+    for v, j, change in p["changes"]:
+        S[v, j] += change
+    rows = np.arange(R)
+
+    def powers(y):
+        return np.where(P == 0, 1.0, y[I] ** P)
+
+    def rhs(y, t):
+        return S @ (k * np.prod(powers(y), axis=1))
+
+    def jac(y, t):
+        base = powers(y)
+        Jr = np.zeros((R, n))
+        for f in range(F):
+            others = np.prod(np.delete(base, f, axis=1), axis=1) if F > 1 else 1.0
+            own = np.where(P[:, f] == 0, 0.0, P[:, f] * np.where(P[:, f] == 1, 1.0, y[I[:, f]] ** (P[:, f] - 1)))
+            np.add.at(Jr, (rows, I[:, f]), k * own * others)
+        return S @ Jr
+
+    y0 = np.array(p["initial"], dtype=float)
+    times = []
+    for _ in range(2 if R > 100 else 7):
+        start = time.perf_counter()
+        y, info = odeint(rhs, y0, [0.0, p["until"]], Dfun=jac, rtol=p["rtol"], atol=p["atol"], full_output=True, mxstep=1000000)
+        times.append((time.perf_counter() - start) * 1000)
+    out.append({"ms": min(times), "steps": int(info["nst"][-1]), "jacobians": int(info["nje"][-1]), "final": y[-1].tolist()})
+print(json.dumps(out))
+`;
+
+function lsoda(list: Problem[]): Figures[] | null {
+  const input = list.map((p) => ({
+    names: p.spec.names,
+    initial: p.spec.initial,
+    rates: p.spec.monomials.map((m) => m.factors.map((f) => [f.variable, f.power])),
+    coefficients: p.spec.monomials.map((m) => m.coefficient),
+    changes: p.spec.changes.map((c) => [c.variable, c.rate, c.change]),
+    until: p.until,
+    rtol: p.rtol,
+    atol: p.atol,
+  }));
+  const run = spawnSync("python3", ["-c", LSODA], { input: JSON.stringify(input), encoding: "utf8", maxBuffer: 64 << 20 });
+  if (run.status !== 0) {
+    console.log(`(scipy's LSODA could not run: ${run.stderr.trim().split("\n").pop() ?? run.error?.message})`);
+    return null;
+  }
+  return JSON.parse(run.stdout) as Figures[];
+}
+
+/** Largest relative difference between two final states, relative to the state's size. */
+function disagreement(a: number[], b: number[]): number {
+  const scale = Math.max(...a.map(Math.abs), 1e-300);
+  return Math.max(...a.map((x, i) => Math.abs(x - b[i]))) / scale;
+}
+
+function row(cells: (string | number)[]): string {
+  const widths = [34, 10, 8, 11, 11, 8, 7, 12, 10];
+  return cells.map((cell, i) => (i === 0 ? String(cell).padEnd(widths[i]) : String(cell).padStart(widths[i]))).join("");
+}
+
+function main() {
+  const peers = lsoda(problems);
+  console.log(row(["problem", "ours ms", "steps", "Jacobians", "LSODA ms", "steps", "Jac.", "LSODA/ours", "max diff"]));
+  const mine = problems.map((problem, i) => {
+    const figures = ours(problem);
+    const peer = peers?.[i];
+    console.log(
+      row([
+        problem.name,
+        figures.ms.toFixed(2),
+        figures.steps,
+        figures.jacobians,
+        peer ? peer.ms.toFixed(2) : "–",
+        peer ? peer.steps : "–",
+        peer ? peer.jacobians : "–",
+        peer ? (peer.ms / figures.ms).toFixed(2) : "–",
+        peer ? disagreement(figures.final, peer.final).toExponential(1) : "–",
+      ]),
+    );
+    return figures;
+  });
+
+  console.log("\nnon-stiff problems against odex (Gragg–Bulirsch–Stoer extrapolation), same tolerances:");
+  problems.forEach((problem, i) => {
+    if (problem.method !== "explicit") return;
+    const peer = odex(problem);
+    console.log(
+      `  ${problem.name.padEnd(34)} ours ${mine[i].ms.toFixed(2)} ms, odex ${peer.ms.toFixed(2)} ms: odex/ours = ${(peer.ms / mine[i].ms).toFixed(2)}` +
+        `  (max diff ${disagreement(mine[i].final, peer.final).toExponential(1)})`,
+    );
+  });
+
+  const [stiff, large] = mine;
+  console.log("\ntargets:");
+  console.log(`  Robertson to 1e11: ${stiff.steps} steps (< 1,000) in ${stiff.ms.toFixed(2)} ms (< 50 ms)`);
+  console.log(`  generated 200 species to t = 100: ${large.ms.toFixed(1)} ms (< 1,000 ms) = ${(large.ms / 1000).toFixed(2)} × target`);
+}
+
+main();
