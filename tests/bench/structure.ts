@@ -16,10 +16,10 @@ function random(seed: number): () => number {
 
 /**
  * A mechanism shaped like real ones: species take part in steps with nearby species (a pathway,
- * a homologous series), uni- and bimolecular steps, about a third reversible, named and literal
+ * a homologous series), uni- and bimolecular steps, a share of them reversible, named and literal
  * rate coefficients. `reactions` counts directed reactions (a reversible step gives two).
  */
-export function generatedMechanism(reactions: number, species: number, seed = 1): string {
+export function generatedMechanism(reactions: number, species: number, { seed = 1, reversibleShare = 0.35 } = {}): string {
   const next = random(seed);
   const pick = (centre: number) => `S${1 + ((centre + Math.floor(next() * 12) + species) % species)}`;
   const lines: string[] = [];
@@ -31,7 +31,7 @@ export function generatedMechanism(reactions: number, species: number, seed = 1)
     const left = shape < 0.3 ? pick(centre) : `${pick(centre)} + ${pick(centre)}`;
     const right = shape < 0.5 ? `${pick(centre)} + ${pick(centre)}` : shape < 0.8 ? pick(centre) : `2${pick(centre)}`;
     if (left.replace(/\s/g, "") === right.replace(/\s/g, "")) continue;
-    const reversible = count + 2 <= reactions && next() < 0.35;
+    const reversible = count + 2 <= reactions && next() < reversibleShare;
     const rate = () => (next() < 0.5 ? `k${++parameters} = ${(next() * 10).toPrecision(3)}` : (next() * 10).toPrecision(3));
     lines.push(`${left} ${reversible ? "<=>" : "->"} ${right} @ ${reversible ? `${rate()}, ${rate()}` : rate()}`);
     count += reversible ? 2 : 1;
@@ -39,39 +39,57 @@ export function generatedMechanism(reactions: number, species: number, seed = 1)
   return lines.join("\n") + "\n";
 }
 
-async function medianMs(source: string, runs: number): Promise<{ ms: number; report: Awaited<ReturnType<typeof analyzeSource>> }> {
-  const times: number[] = [];
+interface Timing {
+  wallMs: number;
+  /** CPU time of this process: less disturbed than wall time on a machine shared with others. */
+  cpuMs: number;
+  report: Awaited<ReturnType<typeof analyzeSource>>;
+}
+
+async function median(source: string, runs: number): Promise<Timing> {
   let report = await analyzeSource(source);
+  const wall: number[] = [];
+  const cpu: number[] = [];
   for (let run = 0; run < runs; run++) {
     const start = performance.now();
+    const startCpu = process.cpuUsage();
     report = await analyzeSource(source);
-    times.push(performance.now() - start);
+    const used = process.cpuUsage(startCpu);
+    wall.push(performance.now() - start);
+    cpu.push((used.user + used.system) / 1000);
   }
-  times.sort((a, b) => a - b);
-  return { ms: times[Math.floor(times.length / 2)], report };
+  const middle = (values: number[]) => values.sort((a, b) => a - b)[Math.floor(values.length / 2)];
+  return { wallMs: middle(wall), cpuMs: middle(cpu), report };
+}
+
+function row(label: string, { wallMs, cpuMs, report }: Timing, growth: string): string {
+  return (
+    `${label.padStart(9)}  ${String(report.species.length).padStart(7)}  ${String(report.complexes.length).padStart(9)}` +
+    `  ${String(report.rank).padStart(4)}  ${String(report.deficiency).padStart(10)}  ${wallMs.toFixed(1).padStart(8)}  ${cpuMs.toFixed(1).padStart(7)}  ${growth.padStart(6)}`
+  );
 }
 
 async function main() {
   await loadSolver();
   const sizes = [100, 250, 500, 1000, 2500, 5000];
-  console.log("reactions  species  complexes  rank  deficiency   median ms  growth");
+  console.log("reactions  species  complexes  rank  deficiency   wall ms   cpu ms  growth");
   let previous: { reactions: number; ms: number } | null = null;
-  let largest = 0;
+  let largest: Timing | null = null;
   for (const reactions of sizes) {
-    const species = Math.round((reactions * 2) / 5);
-    const { ms, report } = await medianMs(generatedMechanism(reactions, species), reactions >= 2500 ? 5 : 11);
-    const growth = previous ? (Math.log(ms / previous.ms) / Math.log(reactions / previous.reactions)).toFixed(2) : "";
-    console.log(
-      `${String(reactions).padStart(9)}  ${String(report.species.length).padStart(7)}  ${String(report.complexes.length).padStart(9)}` +
-        `  ${String(report.rank).padStart(4)}  ${String(report.deficiency).padStart(10)}  ${ms.toFixed(1).padStart(10)}  ${growth.padStart(6)}`,
-    );
-    previous = { reactions, ms };
-    largest = ms;
+    const timing = await median(generatedMechanism(reactions, Math.round((reactions * 2) / 5)), reactions >= 2500 ? 7 : 15);
+    // Growth exponent: how wall time scales with size between neighbouring rows (1 = linear).
+    const growth = previous ? (Math.log(timing.wallMs / previous.ms) / Math.log(reactions / previous.reactions)).toFixed(2) : "";
+    console.log(row(String(reactions), timing, growth));
+    previous = { reactions, ms: timing.wallMs };
+    largest = timing;
   }
-  const hundredSteps = generatedMechanism(100, 40, 7).split("\n").slice(0, 100).join("\n");
-  const small = await medianMs(hundredSteps, 51);
-  console.log(`\n5,000 reactions / 2,000 species: ${largest.toFixed(1)} ms = ${(largest / 500).toFixed(2)} × the 500 ms target`);
-  console.log(`100-step mechanism:             ${small.ms.toFixed(2)} ms = ${(small.ms / 5).toFixed(2)} × the 5 ms target`);
+  const reversible = await median(generatedMechanism(5000, 2000, { reversibleShare: 1 }), 5);
+  console.log(row("5000 rev", reversible, ""), ` (every step reversible: detailed balance, ${reversible.report.detailedBalance.spanningForestConditions.length + reversible.report.detailedBalance.circuitConditions.length} conditions)`);
+
+  const hundredSteps = generatedMechanism(100, 40, { seed: 7 }).split("\n").slice(0, 100).join("\n");
+  const small = await median(hundredSteps, 101);
+  console.log(`\n5,000 reactions / 2,000 species: ${largest!.wallMs.toFixed(1)} ms wall = ${(largest!.wallMs / 500).toFixed(2)} × the 500 ms target`);
+  console.log(`100-step mechanism:             ${small.wallMs.toFixed(2)} ms wall = ${(small.wallMs / 5).toFixed(2)} × the 5 ms target`);
 }
 
 if (process.argv[1]?.endsWith("structure.ts")) main();
