@@ -41,6 +41,8 @@ export interface Room {
   /** True once the server's state of the document has arrived. */
   synced: boolean;
   analysis: RoomAnalysis;
+  /** This user as others see them (the colour may have moved off one an earlier peer holds). */
+  self: PeerUser;
   /** Everyone else in the room, one entry per connected client. */
   peers: Peer[];
 }
@@ -91,6 +93,8 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
   const [synced, setSynced] = useState(false);
   const [analysis, setAnalysis] = useState<RoomAnalysis>({});
   const [peers, setPeers] = useState<Peer[]>([]);
+  const publishedRole: Role = role ?? (readOnly ? "viewer" : "editor");
+  const [self, setSelf] = useState<PeerUser>(() => ({ name: user.name, colour: user.colour ?? pickColour(user.name), role: publishedRole }));
 
   // Effects run only in the browser, which is what keeps the socket out of server rendering.
   useEffect(() => {
@@ -127,12 +131,15 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
   }, [mechanismId]);
 
   const awareness = connection?.provider.awareness ?? null;
-  const publishedRole: Role = role ?? (readOnly ? "viewer" : "editor");
 
   useEffect(() => {
     if (!awareness) return;
     let colour = user.colour ?? pickColour(user.name);
-    const publish = () => awareness.setLocalStateField("user", awarenessUser({ name: user.name, colour, role: publishedRole }));
+    const publish = () => {
+      const published = { name: user.name, colour, role: publishedRole };
+      setSelf(published);
+      awareness.setLocalStateField("user", awarenessUser(published));
+    };
 
     const onChange = () => {
       const others = peersOf(awareness);
@@ -141,8 +148,10 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
       // Clients that joined earlier keep their colour; a newcomer with the same one moves on.
       // The same person in a second tab is not a clash.
       const earlier = others.filter((peer) => peer.clientId < awareness.clientID && peer.name !== user.name).map((peer) => peer.colour);
-      if (earlier.includes(colour)) {
-        colour = pickColour(user.name, earlier);
+      // When every colour is taken the pick repeats one; comparing first ends the exchange there.
+      const next = earlier.includes(colour) ? pickColour(user.name, earlier) : colour;
+      if (next !== colour) {
+        colour = next;
         publish();
       }
     };
@@ -153,7 +162,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     return () => awareness.off("change", onChange);
   }, [awareness, user.name, user.colour, publishedRole]);
 
-  return { doc: connection?.doc ?? null, provider: connection?.provider ?? null, awareness, status, synced, analysis, peers };
+  return { doc: connection?.doc ?? null, provider: connection?.provider ?? null, awareness, status, synced, analysis, self, peers };
 }
 
 /** y-codemirror.next draws remote carets from `color` and selections from `colorLight`. */
