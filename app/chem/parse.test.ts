@@ -143,6 +143,15 @@ describe("errors, each with line and column", () => {
     expect(messages("X -> @ 1")[0]).toContain("complex after the arrow");
   });
 
+  it("arrows that are not arrows, a second arrow, and 0 beside species", () => {
+    expect(where("X => Y @ 1")).toEqual(["error 1:4"]);
+    expect(messages("X => Y @ 1")[0]).toContain("Unknown arrow");
+    expect(where("X -> Y -> Z @ 1")).toEqual(["error 1:9"]);
+    expect(messages("X -> Y -> Z @ 1")[0]).toContain("one arrow");
+    expect(messages("0 + X -> Y @ 1")[0]).toContain("stands alone");
+    expect(messages("X + 2 -> Y @ 1")[0]).toContain("species after the coefficient 2");
+  });
+
   it("a rate law mathjs cannot read, or one outside plain algebra", () => {
     expect(where("X -> Y @ { k* }")).toEqual(["error 1:14"]); // mathjs points at the end of the text
     expect(where("X -> Y @ { X > 2 }\nk = 1")).toEqual(["error 1:12"]);

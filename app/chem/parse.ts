@@ -157,7 +157,15 @@ class MechanismReader {
       const char = this.source[i];
       if (char === '"') break;
       if (char === ">" || char === "<") {
-        return { from: i, to: i + 1, rank: 0, message: "Unknown arrow: write -> for one direction or <=> for both." };
+        // The rest of a well-formed arrow (->, <=>, <->) here means a second arrow on the line.
+        const arrowHere =
+          char === ">"
+            ? /(^|[^<=])->$|<[-=]>$/.test(this.source.slice(Math.max(0, i - 2), i + 1))
+            : /^<[-=]>/.test(this.source.slice(i, i + 3));
+        const message = arrowHere
+          ? "A step has one arrow: split a chain such as A -> B -> C into two steps."
+          : "Unknown arrow: write -> for one direction or <=> for both.";
+        return { from: i, to: i + 1, rank: 0, message };
       }
       if (!tokenStart.test(char)) {
         return {
@@ -204,6 +212,9 @@ class MechanismReader {
       case "InitialClose":
         return "Expected = and a concentration.";
     }
+    const zero = "0 is the empty complex and stands alone: write 0, or species, not both.";
+    if (before.parent?.name === "Zero" || (before.parent?.name === "Term" && Number(this.text(before)) === 0)) return zero;
+    if (before.name === "Number" && before.parent?.name === "Term") return `Expected a species after the coefficient ${this.text(before)}.`;
     if (statement?.name === "Initial") return "Write an initial concentration as [X]0 = 1.5.";
     if (statement?.name === "Fixed") return "Write a fixed species as fixed [A] = 2.0.";
     if (statement?.name === "Parameter") return "Expected the end of the line after the parameter's value.";
