@@ -2,7 +2,17 @@
 // and recognised as mass action — a coefficient times the reactant species to their stoichiometric
 // powers, minus the same for the products when reversible — or else kept as a custom law.
 // Mechweave models one well-mixed volume, so every compartment size is read as 1.
-import { isConstantNode, isFunctionNode, isOperatorNode, isParenthesisNode, isSymbolNode, type EvalFunction, type MathNode } from "mathjs";
+import {
+  ConstantNode,
+  OperatorNode,
+  isConstantNode,
+  isFunctionNode,
+  isOperatorNode,
+  isParenthesisNode,
+  isSymbolNode,
+  type EvalFunction,
+  type MathNode,
+} from "mathjs";
 import type { SbmlModel, SbmlReaction, SbmlSpeciesReference } from "./sbml-document";
 
 /** A rate coefficient as the file gives it: a model parameter, or a number (literals and local parameters). */
@@ -32,7 +42,7 @@ export function readKineticLaw(model: SbmlModel, reaction: SbmlReaction): Kineti
   const problem = evaluation.problem();
   if (problem) return { kind: "unevaluable", reason: problem };
 
-  const shape = massActionShape(law.math);
+  const shape = massActionShape(withoutCompartmentFactors(law.math, (name) => evaluation.isCompartment(name)));
   if (!shape) return { kind: "custom", reason: "it is not a product of a rate coefficient and species concentrations" };
   const forward = evaluation.coefficient(shape.forward, reaction.reactants);
   const backward = shape.backward ? evaluation.coefficient(shape.backward, reaction.products) : null;
@@ -93,6 +103,10 @@ class LawEvaluation {
       for (const id of this.species) scope.set(id, 0.5 + 1.5 * random());
       this.points.push(scope);
     }
+  }
+
+  isCompartment(name: string): boolean {
+    return this.compartments.has(name);
   }
 
   /** Why the law cannot be evaluated, or null. */
@@ -217,6 +231,21 @@ function productShape(node: MathNode): ProductShape | null {
     }
   }
   return null;
+}
+
+/**
+ * The law without compartment factors at its top level: `cell * (k1*E*S - k2*ES)` → the
+ * difference. With every size read as 1 they change no value, and SBML authors often write them.
+ */
+export function withoutCompartmentFactors(node: MathNode, isCompartment: (name: string) => boolean): MathNode {
+  const factors = topLevelFactors(node).filter((factor) => !(isSymbolNode(factor) && isCompartment(factor.name)));
+  if (factors.length === 0) return new ConstantNode(1);
+  return factors.reduce((product, factor) => new OperatorNode("*", "multiply", [product, factor]));
+}
+
+function topLevelFactors(node: MathNode): MathNode[] {
+  const inner = unwrap(node);
+  return isOperatorNode(inner) && inner.fn === "multiply" ? inner.args.flatMap(topLevelFactors) : [node];
 }
 
 function unwrap(node: MathNode): MathNode {

@@ -310,7 +310,10 @@ class SbmlReader {
       return;
     }
     const earlier = this.ids.get(id);
-    if (earlier) this.errors.push(`The id ${id} is used twice: by a ${earlier} and by a ${kind}; SIds must be unique in a model.`);
+    if (earlier) {
+      const by = earlier === kind ? `two ${kind === "species" ? kind : `${kind}s`}` : `a ${earlier} and a ${kind}`;
+      this.errors.push(`The id ${id} is used twice, by ${by}; SIds must be unique in a model.`);
+    }
     else this.ids.set(id, kind);
   }
 

@@ -2,11 +2,11 @@
 // parameter by name, a literal or local parameter as its number); any other law is kept as a custom
 // law with a warning. Either the whole file is translated or nothing is: the result is parsed back
 // and any error refuses the import.
-import { ConstantNode, OperatorNode, SymbolNode, isOperatorNode, isParenthesisNode, isSymbolNode, type MathNode } from "mathjs";
+import { ConstantNode, SymbolNode, isSymbolNode } from "mathjs";
 import { checkSourceLimits } from "~/chem/limits";
 import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
 import { parseMechanism, printMechanism } from "~/chem/parse";
-import { readKineticLaw, stoichiometryOf, type KineticLawReading, type SbmlCoefficient } from "./kinetic-law";
+import { readKineticLaw, stoichiometryOf, withoutCompartmentFactors, type KineticLawReading, type SbmlCoefficient } from "./kinetic-law";
 import { NameAllocator, isWeaveIdentifier, toWeaveIdentifier } from "./names";
 import { readSbml, type SbmlModel, type SbmlReaction, type SbmlSpecies } from "./sbml-document";
 
@@ -217,22 +217,15 @@ class Translation {
       locals.set(id, name);
       this.parameters[name] = value!;
     }
-    const isCompartment = (node: MathNode) => isSymbolNode(node) && this.compartments.has(node.name) && !locals.has(node.name);
-    const factors = topLevelFactors(reaction.law!.math!).filter((factor) => !isCompartment(factor));
-    const body = factors.length === 0 ? new ConstantNode(1) : factors.reduce((product, factor) => new OperatorNode("*", "multiply", [product, factor]));
-    const renamed = body.transform((node, path) => {
+    const isCompartment = (name: string) => this.compartments.has(name) && !locals.has(name);
+    const renamed = withoutCompartmentFactors(reaction.law!.math!, isCompartment).transform((node, path) => {
       if (!isSymbolNode(node) || path === "fn") return node;
       if (locals.has(node.name)) return new SymbolNode(locals.get(node.name)!);
-      if (isCompartment(node)) return new ConstantNode(1);
+      if (isCompartment(node.name)) return new ConstantNode(1);
       return new SymbolNode(this.speciesNames.get(node.name) ?? this.parameterNames.get(node.name)!);
     });
     return renamed.toString({ parenthesis: "auto", implicit: "show" });
   }
-}
-
-function topLevelFactors(node: MathNode): MathNode[] {
-  const inner = isParenthesisNode(node) ? node.content : node;
-  return isOperatorNode(inner) && inner.fn === "multiply" ? inner.args.flatMap(topLevelFactors) : [node];
 }
 
 function sameComplex(a: Term[], b: Term[]): boolean {

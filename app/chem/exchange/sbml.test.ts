@@ -1,0 +1,267 @@
+import { readFileSync } from "node:fs";
+import fc from "fast-check";
+import { evaluate } from "mathjs";
+import { describe, expect, it } from "vitest";
+import { analyzeSource } from "~/chem/analysis";
+import { lawFunctions } from "~/chem/law";
+import { parseMechanism } from "~/chem/parse";
+import { demoMechanisms } from "../../../server/seed/demo";
+import { isSId } from "./names";
+import { checkSbml } from "./sbml-check";
+import { exportSbml } from "./sbml-export";
+import { importSbml } from "./sbml-import";
+
+const fixture = (name: string) => readFileSync(new URL(`../../../tests/fixtures/sbml/${name}.xml`, import.meta.url), "utf8");
+
+function imported(xml: string) {
+  const result = importSbml(xml);
+  if ("errors" in result) throw new Error(`import failed:\n${result.errors.join("\n")}`);
+  return result;
+}
+
+function errorsOf(xml: string): string[] {
+  const result = importSbml(xml);
+  expect(result).not.toHaveProperty("source");
+  return "errors" in result ? result.errors : [];
+}
+
+function exported(source: string, title = "Test mechanism"): string {
+  const { mechanism, diagnostics } = parseMechanism(source);
+  expect(diagnostics.filter((each) => each.severity === "error")).toEqual([]);
+  return exportSbml(mechanism, { title });
+}
+
+/** What a round trip must keep: the network (complexes, reactions, rates), fixed species and ODEs. */
+async function structure(source: string) {
+  const report = await analyzeSource(source);
+  const { mechanism } = parseMechanism(source);
+  // Species in no step are left out on import (with a warning), so only those in steps count.
+  const taking = new Set(mechanism.steps.flatMap((step) => [...step.reactants, ...step.products].map((term) => term.species)));
+  return {
+    species: report.species,
+    complexes: report.complexes,
+    reactions: report.reactions,
+    fixed: Object.fromEntries(Object.entries(report.fixedSpecies).filter(([name]) => taking.has(name))),
+    initial: Object.fromEntries(Object.entries(mechanism.initial).filter(([name, value]) => taking.has(name) && value !== 0)),
+    odes: report.odes,
+    deficiency: report.deficiency,
+  };
+}
+
+/** Right-hand sides evaluated at positive values, for ODEs whose custom laws are spelled differently. */
+function odeValues(odes: Record<string, string>): Record<string, number> {
+  const scope: Record<string, number> = {};
+  const symbol = (text: string) => text.replace(/"([^"]*)"/g, (_, name: string) => `q_${[...name].map((c) => c.charCodeAt(0)).join("_")}`);
+  const names = new Set(Object.values(odes).flatMap((rhs) => symbol(rhs).match(/[A-Za-z_][A-Za-z0-9_]*/g) ?? []));
+  for (const name of lawFunctions) names.delete(name);
+  [...names].sort().forEach((name, index) => (scope[name] = 0.7 + 0.13 * index));
+  return Object.fromEntries(Object.entries(odes).map(([species, rhs]) => [species, evaluate(symbol(rhs), { ...scope }) as number]));
+}
+
+describe("SBML round trip of the demo mechanisms", () => {
+  for (const demo of demoMechanisms) {
+    it(demo.title, async () => {
+      const xml = exported(demo.source, demo.title);
+      expect(checkSbml(xml)).toEqual([]);
+      const back = imported(xml);
+      expect(back.title).toBe(demo.title);
+      expect(back.warnings).toEqual([]);
+      expect(await structure(back.source)).toEqual(await structure(demo.source));
+    });
+  }
+});
+
+describe("SBML export", () => {
+  const awkward = `# names SBML cannot take as ids, labels colliding with parameters, custom laws
+k1: "Fe3+" + "e-" -> "Fe2+" @ k1 = 2.5e-3
+"Fe2+" + "a&b <c>" <=> "Fe3+" @ 4, k1
+"2-butene" -> vessel @ 1e-7
+vessel -> 0 @ { Vmax*vessel/(Km + vessel) + exp(-Km) * sqrt(vessel) }
+0 -> ATP @ { kin * max(1, ATP) / log(1 + ATP) + cbrt(ATP) - log10(ATP + 10) + pow(ATP, 2)/(1 + ATP^3) }
+ATP -> 2 ADP
+ATP -> 2 ADP @ 0.5
+Vmax = 3
+Km = 0.25
+kin = 1.5
+["Fe3+"]0 = 0.1
+fixed ["a&b <c>"] = 2
+`;
+
+  it("writes valid SIds, keeps the original names and passes the checks", () => {
+    const xml = exported(awkward);
+    expect(checkSbml(xml)).toEqual([]);
+    const ids = [...xml.matchAll(/<(?:model|compartment|species|parameter|reaction) id="([^"]*)"/g)].map((match) => match[1]);
+    expect(ids.every(isSId)).toBe(true);
+    expect(new Set(ids).size).toBe(ids.length);
+    expect(xml).toContain('id="Fe3_plus" name="Fe3+"');
+    expect(xml).toContain('name="a&amp;b &lt;c&gt;"');
+    expect(xml).toMatch(/id="s_2_minus_butene" name="2-butene"/);
+    expect(xml).toMatch(/<species id="a_b_c" name="a&amp;b &lt;c&gt;" compartment="vessel_2" initialConcentration="2" hasOnlySubstanceUnits="false" boundaryCondition="true" constant="true"\/>/);
+    expect(xml).toContain('<math xmlns="http://www.w3.org/1998/Math/MathML">');
+    expect(xml).toMatch(/<cn type="e-notation">1<sep\/>-7<\/cn>|<localParameter id="k" value="1e-7"\/>/);
+  });
+
+  it("reads back to the same network, rates and ODEs", async () => {
+    const back = imported(exported(awkward));
+    const before = await structure(awkward);
+    const after = await structure(back.source);
+    expect({ ...after, odes: undefined }).toEqual({ ...before, odes: undefined });
+    const [valuesBefore, valuesAfter] = [odeValues(before.odes), odeValues(after.odes)];
+    for (const species of Object.keys(valuesBefore)) expect(valuesAfter[species]).toBeCloseTo(valuesBefore[species], 10);
+    expect(back.warnings.filter((warning) => /custom rate law/.test(warning))).toHaveLength(2);
+    expect(back.warnings).toContain("Reaction r6 has no kinetic law, so its step has no rate coefficient.");
+  });
+
+  it("round-trips random mass-action mechanisms", async () => {
+    const species = fc.constantFrom("A", "B", "C2", '"Fe3+"', '"x y"', "vessel", "k");
+    const complex = fc.uniqueArray(species, { maxLength: 3 }).chain((names) =>
+      fc.tuple(...names.map((name) => fc.integer({ min: 1, max: 3 }).map((n) => `${n === 1 ? "" : n}${name}`))).map((terms) => terms.join(" + ") || "0"),
+    );
+    const rate = fc.oneof(fc.constantFrom("ka", "kb", "kf"), fc.double({ min: 1e-9, max: 1e9, noNaN: true }).map(String));
+    const step = fc.record({ left: complex, right: complex, reversible: fc.boolean(), forward: rate, backward: rate });
+    await fc.assert(
+      fc.asyncProperty(fc.array(step, { minLength: 1, maxLength: 6 }), fc.boolean(), async (steps, fixedA) => {
+        const lines = steps.map(({ left, right, reversible, forward, backward }) =>
+          reversible ? `${left} <=> ${right} @ ${forward}, ${backward}` : `${left} -> ${right} @ ${forward}`,
+        );
+        const source = [...lines, "ka = 1.5", "kb = 0.25", "kf = 3e-4", "[B]0 = 0.5", ...(fixedA ? ["fixed [A] = 2"] : [])].join("\n");
+        const parsed = parseMechanism(source);
+        fc.pre(parsed.diagnostics.every((each) => each.severity !== "error"));
+        const xml = exportSbml(parsed.mechanism, { title: "random" });
+        expect(checkSbml(xml)).toEqual([]);
+        expect(await structure(imported(xml).source)).toEqual(await structure(source));
+      }),
+      { numRuns: 60 },
+    );
+  });
+});
+
+describe("SBML import of hand-written textbook models", () => {
+  it("Michaelis–Menten elementary steps (Level 3 Version 1, compartment factors, global parameters)", async () => {
+    const xml = fixture("michaelis-menten");
+    expect(checkSbml(xml)).toEqual([]);
+    const back = imported(xml);
+    expect(back.title).toBe("Michaelis–Menten enzyme scheme");
+    expect(back.warnings).toEqual([]);
+    const report = await analyzeSource(back.source);
+    expect(report.diagnostics).toEqual([]);
+    expect(report.species).toEqual(["enzyme", "substrate", "enzyme–substrate complex", "product"]);
+    expect(report.complexes).toEqual(["enzyme + substrate", '"enzyme–substrate complex"', "enzyme + product"]);
+    expect(report.reactions).toEqual([
+      { from: 0, to: 1, rate: 1e6 },
+      { from: 1, to: 0, rate: 1000 },
+      { from: 1, to: 2, rate: 100 },
+    ]);
+    expect(report.deficiency).toBe(0);
+    expect(report.odes.product).toBe('k2*"enzyme–substrate complex"');
+  });
+
+  it("Lotka's scheme (local parameters, literal numbers, boundary species)", async () => {
+    const back = imported(fixture("lotka-volterra"));
+    const report = await analyzeSource(back.source);
+    expect(report.diagnostics).toEqual([]);
+    expect(report.species).toEqual(["X", "Y"]);
+    expect(report.fixedSpecies).toEqual({ A: 1, B: 0 });
+    expect(report.complexes).toEqual(["X", "2X", "X + Y", "2Y", "Y", "0"]);
+    expect(report.reactions).toEqual([
+      { from: 0, to: 1, rate: 1 },
+      { from: 2, to: 3, rate: 0.5 },
+      { from: 4, to: 5, rate: 0.3 },
+    ]);
+    expect(report.deficiency).toBe(1);
+    expect(report.odes).toEqual({ X: "A*X - 0.5*X*Y", Y: "0.5*X*Y - 0.3*Y" });
+  });
+
+  it("the Brusselator (X*X*Y read as X^2*Y, fed species fixed)", async () => {
+    const back = imported(fixture("brusselator"));
+    const report = await analyzeSource(back.source);
+    expect(report.diagnostics).toEqual([]);
+    expect(report.species).toEqual(["X", "Y"]);
+    expect(report.complexes).toEqual(["0", "X", "2X + Y", "3X", "Y"]);
+    expect(report.reactions.map(({ from, to }) => [from, to])).toEqual([[0, 1], [2, 3], [1, 4], [1, 0]]);
+    expect(report.reactions.map(({ rate }) => rate)).toEqual([1, 1, 3, 1]);
+    expect(report.deficiency).toBe(1);
+    expect(report.linkageClasses).toHaveLength(2);
+  });
+
+  it("keeps a law that is not mass action as a custom law, with a warning", async () => {
+    const back = imported(fixture("michaelis-menten-rate-law"));
+    expect(back.warnings).toEqual([
+      "Reaction conversion: its kinetic law is not mass action (it is not a product of a rate coefficient and species concentrations); it is kept as a custom rate law.",
+    ]);
+    expect(back.source).toContain("conversion: S -> P @ { Vmax * S / (conversion_Km + S) }");
+    const report = await analyzeSource(back.source);
+    expect(report.diagnostics).toEqual([]);
+    expect(report.customLaws).toHaveLength(1);
+    expect(evaluate(report.odes.P, { Vmax: 2.5, conversion_Km: 0.5, S: 2 })).toBeCloseTo((2.5 * 2) / 2.5, 12);
+  });
+});
+
+describe("SBML import refuses bad files with clear errors", () => {
+  const good = fixture("brusselator");
+  const cases: [string, string, RegExp][] = [
+    ["not XML", "species A, B and C", /not well-formed XML/],
+    ["unclosed XML", good.replace("</model>", ""), /not well-formed XML \(line \d+/],
+    ["not SBML", "<html><body>hello</body></html>", /not an SBML file: its root element is <html>/],
+    ["SBML Level 2", good.replace("level3/version2/core", "level2/version4").replace('level="3" version="2"', 'level="2" version="4"'), /SBML Level 2 Version 4; Mechweave reads SBML Level 3/],
+    ["no model", good.replace(/<model[\s\S]*<\/model>/, ""), /holds no <model>/],
+    ["missing species attribute", good.replace('<species id="X" compartment="reactor"', '<species id="X"'), /<species id="X">: the required attribute compartment is missing/],
+    ["missing reaction attribute", good.replace('<reaction id="feed" reversible="false">', '<reaction id="feed">'), /<reaction id="feed">: the required attribute reversible is missing/],
+    ["missing speciesReference constant", good.replace('<speciesReference species="A" stoichiometry="1" constant="true"/>', '<speciesReference species="A" stoichiometry="1"/>'), /<speciesReference species="A">: the required attribute constant is missing/],
+    ["unknown species", good.replace('<speciesReference species="A" stoichiometry="1" constant="true"/></listOfReactants>', '<speciesReference species="Q" stoichiometry="1" constant="true"/></listOfReactants>'), /Reaction feed: its reactant Q is not a species defined in listOfSpecies/],
+    ["unknown compartment", good.replace('<species id="X" compartment="reactor"', '<species id="X" compartment="flask"'), /Species X: its compartment flask is not defined/],
+    ["duplicate ids", good.replace('<parameter id="k4"', '<parameter id="X"').replace("<ci>k4</ci>", "<ci>X</ci>"), /The id X is used twice, by a species and a parameter/],
+    ["invalid SId", good.replace('<parameter id="k4"', '<parameter id="4k"'), /"4k" is not a valid SId/],
+    ["bad boolean", good.replace('<reaction id="feed" reversible="false">', '<reaction id="feed" reversible="no">'), /reversible="no" must be true or false/],
+    ["bad number", good.replace('<parameter id="k1" value="1"', '<parameter id="k1" value="one"'), /value="one" is not a number/],
+    ["unknown name in a law", good.replace("<ci>k1</ci>", "<ci>k9</ci>"), /uses k9, which is neither a local parameter nor defined in the model/],
+    ["fractional stoichiometry", good.replace('species="X" stoichiometry="2"', 'species="X" stoichiometry="1.5"').replace("<ci>X</ci><ci>X</ci><ci>Y</ci>", "<ci>X</ci><ci>Y</ci>"), /stoichiometry 1.5 of X is not a whole number/],
+    ["unsupported MathML", good.replace("<apply><times/><ci>k1</ci><ci>A</ci></apply>", "<piecewise><piece><ci>k1</ci><true/></piece></piecewise>"), /<piecewise> is not something a Mechweave rate law can express/],
+    ["parameter without a value", good.replace('<parameter id="k1" value="1" constant="true"/>', '<parameter id="k1" constant="true"/>'), /feed: its kinetic law cannot be evaluated: it uses k1 without a value/],
+    ["entity declarations", `<?xml version="1.0"?><!DOCTYPE sbml [<!ENTITY a "aaaa">]>${good.slice(good.indexOf("<sbml"))}`, /entities/],
+  ];
+  for (const [what, xml, message] of cases) {
+    it(what, () => {
+      const errors = errorsOf(xml);
+      expect(errors.length).toBeGreaterThan(0);
+      expect(errors.join("\n")).toMatch(message);
+    });
+  }
+
+  it("reports every problem of a file at once", () => {
+    const broken = good.replace('<species id="X" compartment="reactor"', '<species id="X"').replace('<parameter id="k4"', '<parameter id="k3"');
+    expect(errorsOf(broken)).toEqual([
+      '<species id="X">: the required attribute compartment is missing.',
+      "The id k3 is used twice, by two parameters; SIds must be unique in a model.",
+      "The kinetic law of reaction removal uses k4, which is neither a local parameter nor defined in the model.",
+    ]);
+  });
+});
+
+describe("checkSbml", () => {
+  it("accepts the hand-written models", () => {
+    for (const name of ["michaelis-menten", "lotka-volterra", "brusselator", "michaelis-menten-rate-law"]) expect(checkSbml(fixture(name))).toEqual([]);
+  });
+
+  it("verifies a law declared as mass action numerically", () => {
+    const declared = fixture("brusselator").replaceAll("<kineticLaw>", '<kineticLaw sboTerm="SBO:0000012">');
+    expect(checkSbml(declared)).toEqual([]);
+    const wrongOrder = declared.replace("<ci>k2</ci><ci>X</ci><ci>X</ci><ci>Y</ci>", "<ci>k2</ci><ci>X</ci><ci>Y</ci>");
+    expect(checkSbml(wrongOrder)).toEqual([
+      "The kinetic law of reaction autocatalysis is declared mass action (SBO:0000012), but it does not evaluate to the mass-action rate of the reaction's stoichiometry.",
+    ]);
+  });
+
+  it("accepts a mass-action law however it is written, and a reversible law's two coefficients", () => {
+    const reversible = fixture("michaelis-menten").replace("<kineticLaw>", '<kineticLaw sboTerm="SBO:0000012">');
+    expect(checkSbml(reversible)).toEqual([]);
+    const negative = reversible.replace('value="1000" constant="true"', 'value="-1000" constant="true"');
+    expect(checkSbml(negative)[0]).toMatch(/fitted rate coefficients are negative/);
+  });
+
+  it("reports a law that cannot be evaluated and a malformed sboTerm", () => {
+    const unevaluable = fixture("brusselator").replace('<parameter id="k1" value="1" constant="true"/>', '<parameter id="k1" constant="true"/>');
+    expect(checkSbml(unevaluable)[0]).toMatch(/reaction feed cannot be evaluated: it uses k1 without a value/);
+    expect(checkSbml(fixture("brusselator").replace("<kineticLaw>", '<kineticLaw sboTerm="12">'))[0]).toMatch(/sboTerm "12" is not of the form/);
+  });
+});
