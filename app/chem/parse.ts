@@ -33,7 +33,8 @@ interface Declared extends Span {
 
 /** A syntax problem; on each line only the most telling one is reported, to avoid cascades. */
 interface SyntaxProblem extends Span {
-  rank: number;
+  /** Lower is more telling: an unknown character explains more than what the parser expected. */
+  priority: number;
   message: string;
 }
 
@@ -49,7 +50,7 @@ class MechanismReader {
   /** Names given a value, valid or not, so that an invalid value is not also "never given". */
   private readonly attemptedParameters = new Set<string>();
   private readonly parameterUses: NameUse[] = [];
-  private readonly lawUses: { step: Step; symbols: string[]; span: Span }[] = [];
+  private readonly lawUses: { symbols: string[]; span: Span }[] = [];
   private readonly speciesSeen = new Map<string, Span>();
   private readonly initial = new Map<string, Declared>();
   private readonly fixed = new Map<string, Declared>();
@@ -120,7 +121,7 @@ class MechanismReader {
       this.brokenAt.push(problem.from);
       const line = this.lineOf(problem.from);
       const best = bestPerLine.get(line);
-      if (!best || problem.rank < best.rank || (problem.rank === best.rank && problem.from < best.from)) {
+      if (!best || problem.priority < best.priority || (problem.priority === best.priority && problem.from < best.from)) {
         bestPerLine.set(line, problem);
       }
     }
@@ -145,9 +146,9 @@ class MechanismReader {
   private quotedNameProblem(node: SyntaxNode): SyntaxProblem | null {
     const text = this.text(node);
     if (text.length < 2 || !text.endsWith('"')) {
-      return { from: node.from, to: node.to, rank: 1, message: `The quoted name ${text} is not closed: add " before the end of the line.` };
+      return { from: node.from, to: node.to, priority: 1, message: `The quoted name ${text} is not closed: add " before the end of the line.` };
     }
-    if (text === '""') return { from: node.from, to: node.to, rank: 1, message: "A quoted species name cannot be empty." };
+    if (text === '""') return { from: node.from, to: node.to, priority: 1, message: "A quoted species name cannot be empty." };
     return null;
   }
 
@@ -165,18 +166,18 @@ class MechanismReader {
         const message = arrowHere
           ? "A step has one arrow: split a chain such as A -> B -> C into two steps."
           : "Unknown arrow: write -> for one direction or <=> for both.";
-        return { from: i, to: i + 1, rank: 0, message };
+        return { from: i, to: i + 1, priority: 0, message };
       }
       if (!tokenStart.test(char)) {
         return {
           from: i,
           to: i + 1,
-          rank: 0,
+          priority: 0,
           message: `Unknown character "${char}": species names use letters, digits and _, or double quotes ("Fe3+").`,
         };
       }
     }
-    return { from: node.from, to: node.to, rank: 2, message: this.expectation(node) };
+    return { from: node.from, to: node.to, priority: 2, message: this.expectation(node) };
   }
 
   /** What the text should have held at an error, judged from the token just before it. */
@@ -371,7 +372,7 @@ class MechanismReader {
       return false;
     }
     step.law = text;
-    this.lawUses.push({ step, symbols: reading.symbols, span: body });
+    this.lawUses.push({ symbols: reading.symbols, span: body });
     return true;
   }
 
