@@ -95,4 +95,10 @@ describe("readArguments", () => {
     expect(readArguments(["--shift", "f.ode"])).toMatchObject({ file: "f.ode", request: { shift: "suggested" } });
     expect(() => readArguments(["f.ode", "--shift", "x=abc"])).toThrow(/cannot read the shift/);
   });
+
+  it("reads --multiply alone and with a monomial", () => {
+    expect(readArguments(["f.ode", "--multiply"]).request.multiply).toBe(true);
+    expect(readArguments(["f.ode", "--multiply=x*y^2"]).request.multiply).toEqual({ x: 1, y: 2 });
+    expect(() => readArguments(["f.ode", "--multiply=x+y"])).toThrow(/cannot read the multiplier/);
+  });
 });

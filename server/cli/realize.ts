@@ -1,12 +1,13 @@
-// `mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply] [--until T] [--equivalents
+// `mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply[=x*y]] [--until T] [--equivalents
 // [--time-limit S]] [--json]`: a thin shell around realizeOde. `--shift` without a value (or
-// followed by the file name) means "use the shift suggested from a simulated bounding box".
+// followed by the file name) means "use the shift suggested from a simulated bounding box";
+// `--multiply` alone multiplies by the product of all variables.
 // Exit 0 on success, 1 when the file has errors, 2 on bad usage.
 import { readFile } from "node:fs/promises";
 import type { RealizeOdeRequest, RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { realizeOde, RealizeRequestError } from "~/chem/realize/realize-ode";
 
-const usage = "usage: mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply] [--until T] [--equivalents [--time-limit S]] [--json]";
+const usage = "usage: mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply[=x*y]] [--until T] [--equivalents [--time-limit S]] [--json]";
 
 class UsageError extends Error {}
 
@@ -34,7 +35,7 @@ export function readArguments(args: string[]): Invocation {
         json = true;
         break;
       case "--multiply":
-        request.multiply = true;
+        request.multiply = inline === undefined ? true : readMonomial(inline);
         break;
       case "--equivalents":
         request.equivalents = true;
@@ -62,6 +63,17 @@ export function readArguments(args: string[]): Invocation {
     request.equivalents = { timeLimitMs: timeLimit * 1000 };
   }
   return { file, json, request };
+}
+
+/** `x*y^2` → { x: 1, y: 2 }. */
+function readMonomial(text: string): Record<string, number> {
+  const exponents: Record<string, number> = {};
+  for (const factor of text.split("*")) {
+    const match = /^\s*([A-Za-z][A-Za-z0-9_]*)\s*(?:\^\s*(\d+))?\s*$/.exec(factor);
+    if (!match) throw new UsageError(`cannot read the multiplier "${text}": write --multiply=x*y^2`);
+    exponents[match[1]] = (exponents[match[1]] ?? 0) + Number(match[2] ?? 1);
+  }
+  return exponents;
 }
 
 /** `x=20,y=30` → { x: 20, y: 30 }. */
@@ -109,6 +121,9 @@ function readable(result: RealizeOdeResult, file: string): string {
   if (result.transformedOde) lines.push("transformed ODE:", ...result.transformedOde.trimEnd().split("\n").map((l) => `  ${l}`));
   lines.push(result.kinetic ? "kinetic" : "not kinetic");
   for (const e of result.negativeCrossEffects) lines.push(`  negative cross effect in ${e.equation}': ${e.term}`);
+  if (result.suggestedMultiplier) {
+    lines.push(`smallest multiplier: --multiply=${Object.entries(result.suggestedMultiplier).map(([v, e]) => (e === 1 ? v : `${v}^${e}`)).join("*")}`);
+  }
   if (result.suggestedShift) {
     lines.push(`suggested shift: --shift ${Object.entries(result.suggestedShift).map(([v, s]) => `${v}=${s}`).join(",")}`);
   }

@@ -1,5 +1,6 @@
 // Transformations that map a polynomial ODE to one whose trajectories can live in the positive
 // orthant, so that it may become kinetic.
+import { negativeCrossEffects } from "./cross-effects";
 import type { ExactOde } from "./exact";
 import * as P from "./polynomial";
 import type { Polynomial } from "./polynomial";
@@ -37,3 +38,13 @@ export function multiplyByMonomial(ode: ExactOde, exponents: readonly number[]):
 
 /** The default multiplier: the product of all variables. */
 export const productOfAllVariables = (ode: ExactOde) => ode.variables.map(() => 1);
+
+/**
+ * The lowest-degree monomial that removes every negative cross effect: x_i to the first power for
+ * each equation i that has one (then every term of x_i' contains x_i), nothing for the others.
+ * Fewer factors mean reactions of lower order.
+ */
+export function smallestMultiplier(ode: ExactOde): number[] {
+  const offending = new Set(negativeCrossEffects(ode).map((e) => e.equation));
+  return ode.variables.map((v) => (offending.has(v) ? 1 : 0));
+}

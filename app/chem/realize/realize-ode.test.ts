@@ -22,6 +22,17 @@ describe("realizeOde", () => {
     expect(result.notes.join("\n")).toContain("leaves it (in x, y");
   });
 
+  it("suggests the smallest multiplier, and a smaller multiplier gives lower-order steps", async () => {
+    // Rössler's only negative cross effects are in x', so multiplying by x alone removes them.
+    const rossler = readFileSync("tests/fixtures/ode/rossler.ode", "utf8");
+    const plain = await realizeOde({ ode: rossler });
+    expect(plain.suggestedMultiplier).toEqual({ x: 1 });
+    const byX = await realizeOde({ ode: rossler, multiply: { x: 1 } });
+    const byAll = await realizeOde({ ode: rossler, multiply: true });
+    expect(byX).toMatchObject({ kinetic: true, maxOrder: 3 });
+    expect(byAll).toMatchObject({ kinetic: true, maxOrder: 5 });
+  });
+
   it("rejects a shift of a variable the ODE does not have", async () => {
     await expect(realizeOde({ ode: lorenz, shift: { w: 1 } })).rejects.toBeInstanceOf(RealizeRequestError);
   });

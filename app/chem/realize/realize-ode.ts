@@ -11,8 +11,8 @@ import { parseOde } from "../ode/parse";
 import * as P from "../ode/polynomial";
 import * as Q from "../ode/rational";
 import { boundingBox, DEFAULT_HORIZON, suggestShift } from "../ode/suggest-shift";
-import type { ShiftSuggestion } from "../ode/suggest-shift";
-import { multiplyByMonomial, productOfAllVariables, translate } from "../ode/transform";
+import type { Horizon, ShiftSuggestion } from "../ode/suggest-shift";
+import { multiplyByMonomial, productOfAllVariables, smallestMultiplier, translate } from "../ode/transform";
 import { canonicalRealization } from "./canonical";
 import type { EquivalentOptions, EquivalentRealizations } from "./equivalents";
 import { equivalentRealizations } from "./equivalents";
@@ -23,8 +23,8 @@ export interface RealizeOdeRequest {
   ode: string;
   /** A translation vector by variable (missing ones are 0), or "suggested" for one read off a simulation. */
   shift?: Record<string, number> | "suggested";
-  /** Multiply every right-hand side by the product of all variables. */
-  multiply?: boolean;
+  /** Multiply every right-hand side by the product of all variables (true) or by x^exponents. */
+  multiply?: boolean | Record<string, number>;
   /** Simulated interval behind a suggested or checked shift (default 0..50). */
   until?: number;
   /** Also search for sparse, dense and weakly reversible realizations. */
@@ -53,6 +53,8 @@ export interface RealizeOdeResult {
   /** Offered whenever the given ODE is not kinetic or a suggested shift was asked for. */
   suggestedShift?: Record<string, number> | null;
   boundingBox?: Record<string, { min: number; max: number }>;
+  /** When the (translated) ODE still has negative cross effects: the lowest-degree monomial that removes them. */
+  suggestedMultiplier?: Record<string, number>;
   transformations: ({ kind: "translation"; shift: Record<string, number> } | { kind: "multiplication"; monomial: string })[];
   transformedOde?: string;
   /** Plain statements of what the transformations do and do not establish. */
@@ -65,7 +67,7 @@ export class RealizeRequestError extends Error {}
 
 export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOdeResult> {
   const parsed = parseOde(request.ode);
-  const empty: RealizeOdeResult = {
+  const result: RealizeOdeResult = {
     kinetic: false,
     negativeCrossEffects: [],
     mechanism: null,
@@ -75,54 +77,26 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
     transformations: [],
     notes: [],
   };
-  if (!parsed.exact) return empty;
+  if (!parsed.exact) return result;
   const given = parsed.exact;
   const locate = locator(request.ode);
   const givenEffects = negativeCrossEffects(given, parsed.sources).map((e) => report(e, locate));
   const horizon = { ...DEFAULT_HORIZON, until: request.until ?? DEFAULT_HORIZON.until };
-  const result: RealizeOdeResult = { ...empty, notes: [] };
 
-  let suggestion: ShiftSuggestion | null = null;
-  if (givenEffects.length > 0 || request.shift === "suggested") {
-    try {
-      suggestion = suggestShift(toPolynomialOde(given), horizon);
-      result.suggestedShift = suggestion.shift;
-      result.boundingBox = suggestion.box;
-    } catch (error) {
-      result.suggestedShift = null;
-      result.notes.push(`No shift could be suggested: ${(error as Error).message}.`);
-      if (request.shift === "suggested") throw new RealizeRequestError(`no suggested shift: ${(error as Error).message}`);
-    }
-  }
-
-  let ode = given;
-  if (request.shift !== undefined) {
-    const shift = request.shift === "suggested" ? suggestion!.exact : shiftVector(given, request.shift);
-    ode = translate(ode, shift);
-    result.transformations.push({ kind: "translation", shift: Object.fromEntries(given.variables.map((v, i) => [v, Q.toNumber(shift[i])])) });
-    result.notes.push(translationNote(given, shift, suggestion ?? { box: boundingBoxOrNull(given, horizon), until: horizon.until }));
-  }
-  if (request.multiply) {
-    const exponents = productOfAllVariables(ode);
-    ode = multiplyByMonomial(ode, exponents);
-    const monomial = formatMonomial(exponents, ode.variables);
-    result.transformations.push({ kind: "multiplication", monomial });
-    result.notes.push(
-      `Multiplying by ${monomial}, positive inside the positive orthant, changes only the time scale there: the orbits are the same, traversed at another speed. Outside the orthant the two systems differ.`,
-    );
-  }
-
+  const suggestion = givenEffects.length > 0 || request.shift === "suggested" ? offerShift(given, horizon, request, result) : null;
+  const { ode, shift } = transform(given, request, suggestion, result);
   const transformed = result.transformations.length > 0;
-  const effects = transformed ? negativeCrossEffects(ode).map((e) => report(e, locate)) : givenEffects;
-  result.kinetic = effects.length === 0;
-  result.negativeCrossEffects = effects;
   if (transformed) {
+    const box = suggestion?.box ?? boundingBoxOrNull(given, horizon);
+    result.notes.push(orthantNote(given, shift, box, horizon.until));
     result.original = { kinetic: givenEffects.length === 0, negativeCrossEffects: givenEffects, degree: degree(given) };
     result.transformedOde = formatOde(ode);
   }
+  result.negativeCrossEffects = transformed ? negativeCrossEffects(ode).map((e) => report(e, locate)) : givenEffects;
+  result.kinetic = result.negativeCrossEffects.length === 0;
   if (!result.kinetic) {
     result.notes.push(
-      "By the theorem of Hárs and Tóth (1979) an ODE with a negative cross effect is the mass-action ODE of no mechanism; a translation followed by multiplication by the product of the variables removes every such term.",
+      "By the theorem of Hárs and Tóth (1979) an ODE with a negative cross effect is the mass-action ODE of no mechanism; a translation followed by multiplication by a monomial (the suggested one, or the product of the variables) removes every such term.",
     );
     return result;
   }
@@ -132,14 +106,52 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
   result.maxOrder = maxOrder(mechanism);
   result.reactions = mechanism.reactions.length;
   if (transformed) {
-    result.notes.push(
-      `Cost: ${mechanism.reactions.length} steps of order up to ${result.maxOrder}, for an ODE of degree ${degree(given)}.`,
-    );
+    result.notes.push(`Cost: ${result.reactions} steps of order up to ${result.maxOrder}, for an ODE of degree ${degree(given)}.`);
   }
   if (request.equivalents) {
     result.equivalents = await equivalentRealizations(ode, request.equivalents === true ? {} : request.equivalents);
   }
   return result;
+}
+
+/** A shift read off a simulation; recorded in the result, or its failure in the notes. */
+function offerShift(given: ExactOde, horizon: Horizon, request: RealizeOdeRequest, result: RealizeOdeResult): ShiftSuggestion | null {
+  try {
+    const suggestion = suggestShift(toPolynomialOde(given), horizon);
+    result.suggestedShift = suggestion.shift;
+    result.boundingBox = suggestion.box;
+    return suggestion;
+  } catch (error) {
+    if (request.shift === "suggested") throw new RealizeRequestError(`no suggested shift: ${(error as Error).message}`);
+    result.suggestedShift = null;
+    result.notes.push(`No shift could be suggested: ${(error as Error).message}.`);
+    return null;
+  }
+}
+
+/** Applies the translation, then the multiplication, recording each and the smallest multiplier. */
+function transform(given: ExactOde, request: RealizeOdeRequest, suggestion: ShiftSuggestion | null, result: RealizeOdeResult) {
+  let ode = given;
+  let shift = given.variables.map(() => Q.ZERO);
+  if (request.shift !== undefined) {
+    shift = request.shift === "suggested" ? suggestion!.exact : shiftVector(given, request.shift);
+    ode = translate(ode, shift);
+    result.transformations.push({ kind: "translation", shift: Object.fromEntries(given.variables.map((v, i) => [v, Q.toNumber(shift[i])])) });
+  }
+  if (negativeCrossEffects(ode).length > 0) {
+    const smallest = smallestMultiplier(ode);
+    result.suggestedMultiplier = Object.fromEntries(ode.variables.flatMap((v, i) => (smallest[i] ? [[v, smallest[i]]] : [])));
+  }
+  if (request.multiply) {
+    const exponents = request.multiply === true ? productOfAllVariables(ode) : exponentVector(ode, request.multiply);
+    ode = multiplyByMonomial(ode, exponents);
+    const monomial = formatMonomial(exponents, ode.variables);
+    result.transformations.push({ kind: "multiplication", monomial });
+    result.notes.push(
+      `Multiplying by ${monomial}, positive inside the positive orthant, changes only the time scale there: the orbits are the same, traversed at another speed. Outside the orthant the two systems differ.`,
+    );
+  }
+  return { ode, shift };
 }
 
 function shiftVector(ode: ExactOde, shift: Record<string, number>) {
@@ -152,7 +164,16 @@ function shiftVector(ode: ExactOde, shift: Record<string, number>) {
   });
 }
 
-function boundingBoxOrNull(ode: ExactOde, horizon: typeof DEFAULT_HORIZON) {
+function exponentVector(ode: ExactOde, exponents: Record<string, number>) {
+  const unknown = Object.keys(exponents).filter((name) => !ode.variables.includes(name));
+  if (unknown.length > 0) throw new RealizeRequestError(`the multiplier names ${unknown.join(", ")}, which the ODE does not have`);
+  const vector = ode.variables.map((v) => exponents[v] ?? 0);
+  if (!vector.every((e) => Number.isInteger(e) && e >= 0)) throw new RealizeRequestError("the multiplier's exponents must be non-negative integers");
+  if (vector.every((e) => e === 0)) throw new RealizeRequestError("the multiplier must contain a variable");
+  return vector;
+}
+
+function boundingBoxOrNull(ode: ExactOde, horizon: Horizon) {
   try {
     return boundingBox(toPolynomialOde(ode), horizon);
   } catch {
@@ -160,18 +181,15 @@ function boundingBoxOrNull(ode: ExactOde, horizon: typeof DEFAULT_HORIZON) {
   }
 }
 
-/** States what the simulation showed about the translated trajectory, and that it is no proof. */
-function translationNote(
-  ode: ExactOde,
-  shift: Q.Rational[],
-  evidence: { box: Record<string, { min: number; max: number }> | null; until: number },
-): string {
-  const limit = "That the trajectory stays bounded inside the shifted positive orthant is only supported numerically, not proved";
-  if (!evidence.box) return `${limit}; here not even that: the trajectory could not be simulated.`;
-  const leaving = ode.variables.filter((v, i) => evidence.box![v].min + Q.toNumber(shift[i]) <= 0);
+/** States what the simulation showed about the (shifted) trajectory, and that it is no proof. */
+function orthantNote(ode: ExactOde, shift: Q.Rational[], box: Record<string, { min: number; max: number }> | null, until: number): string {
+  const orthant = shift.some((s) => !Q.isZero(s)) ? "the shifted positive orthant" : "the positive orthant";
+  const limit = `That the trajectory stays bounded inside ${orthant} is only supported numerically, not proved`;
+  if (!box) return `${limit}; here not even that: the trajectory could not be simulated.`;
+  const leaving = ode.variables.filter((v, i) => box[v].min + Q.toNumber(shift[i]) <= 0);
   return leaving.length === 0
-    ? `${limit}: the simulated trajectory from the initial values stays in it for 0 ≤ t ≤ ${evidence.until}.`
-    : `${limit}, and here the simulated trajectory leaves it (in ${leaving.join(", ")}) before t = ${evidence.until}: the mechanism does not reproduce it.`;
+    ? `${limit}: the simulated trajectory from the initial values stays in it for 0 ≤ t ≤ ${until}.`
+    : `${limit}, and here the simulated trajectory leaves it (in ${leaving.join(", ")}) before t = ${until}: the mechanism does not reproduce it.`;
 }
 
 function heading(result: RealizeOdeResult): string {
