@@ -1,5 +1,6 @@
 // "From ODE to mechanism": the polynomial ODE with its negative cross effects marked, the
-// transformations on offer, and the resulting mechanism. Presentational: the route runs
+// transformations on offer (the smallest multiplier is the one for the ODE as last realized, so
+// it can change once a shift is applied), and the resulting mechanism. Presentational: the route runs
 // realizeOde and passes the result; choices come back through the callbacks.
 import { useState } from "react";
 import type { CrossEffectReport, RealizeOdeResult } from "~/chem/realize/realize-ode";
@@ -7,8 +8,14 @@ import type { EquivalentRealization } from "~/chem/realize/equivalents";
 
 export interface RealizationChoice {
   shift?: Record<string, number>;
-  multiply: boolean;
+  /** true: the product of all variables; an exponent map: that monomial. */
+  multiply: boolean | Record<string, number>;
 }
+
+type MultiplierChoice = "none" | "smallest" | "all";
+
+const monomialText = (exponents: Record<string, number>) =>
+  Object.entries(exponents).map(([v, e]) => (e === 1 ? v : `${v}^${e}`)).join("*");
 
 interface RealizationPanelProps {
   ode: string;
@@ -27,7 +34,10 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
     Object.fromEntries(variables.map((v) => [v, String((applied?.kind === "translation" ? applied.shift : result.suggestedShift)?.[v] ?? 0)])),
   );
   const [translateOn, setTranslateOn] = useState(Boolean(applied));
-  const [multiply, setMultiply] = useState(result.transformations.some((t) => t.kind === "multiplication"));
+  const [multiplier, setMultiplier] = useState<MultiplierChoice>(
+    result.transformations.some((t) => t.kind === "multiplication") ? "all" : "none",
+  );
+  const smallest = result.suggestedMultiplier;
   const given = result.original ?? { kinetic: result.kinetic, negativeCrossEffects: result.negativeCrossEffects };
   const errors = result.diagnostics.filter((d) => d.severity === "error");
 
@@ -69,15 +79,29 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
                 ))}
               </div>
             )}
-            <label className="mt-3 flex items-center gap-2 text-sm">
-              <input type="checkbox" checked={multiply} onChange={(e) => setMultiply(e.target.checked)} />
-              Multiply the right-hand sides by {variables.join("*")} (same orbits in the positive orthant, another time scale)
-            </label>
+            <div className="mt-3 text-sm" role="radiogroup" aria-label="Multiplier">
+              <p>Multiply the right-hand sides by a positive monomial (same orbits in the positive orthant, another time scale):</p>
+              {(
+                [
+                  ["none", "no multiplication"],
+                  ...(smallest ? [["smallest", `${monomialText(smallest)} — the smallest that removes every negative cross effect`]] : []),
+                  ["all", `${variables.join("*")} — the product of all variables`],
+                ] as [MultiplierChoice, string][]
+              ).map(([value, label]) => (
+                <label key={value} className="mt-1 flex items-center gap-2">
+                  <input type="radio" name="multiplier" checked={multiplier === value} onChange={() => setMultiplier(value)} />
+                  {label}
+                </label>
+              ))}
+            </div>
             <button
               type="button"
               className="btn btn-primary mt-4"
               onClick={() =>
-                onApply?.({ multiply, shift: translateOn ? Object.fromEntries(variables.map((v) => [v, Number(shift[v]) || 0])) : undefined })
+                onApply?.({
+                  multiply: multiplier === "all" || (multiplier === "smallest" && smallest ? smallest : false),
+                  shift: translateOn ? Object.fromEntries(variables.map((v) => [v, Number(shift[v]) || 0])) : undefined,
+                })
               }
             >
               Apply
