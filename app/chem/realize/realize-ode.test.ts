@@ -2,6 +2,7 @@
 // deficiency-zero network A ⇌ 2B, A + C ⇌ D ⇌ B + E.
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
+import { analyzeSource } from "../analysis";
 import { equivalentRealizationsOfMechanism } from "./equivalents";
 import { realizeOde, RealizeRequestError } from "./realize-ode";
 
@@ -47,6 +48,7 @@ describe("realizeOde", () => {
 describe("equivalent realizations of a mechanism", () => {
   it("Feinberg's deficiency-zero network: dense contains its steps, and a weakly reversible one exists", async () => {
     const source = "A <=> 2B @ 2, 1\nA + C <=> D @ 3, 1\nD <=> B + E @ 5, 4\n";
+    expect(await analyzeSource(source)).toMatchObject({ deficiency: 0, weaklyReversible: true });
     const found = await equivalentRealizationsOfMechanism(source, { timeLimitMs: 20_000 });
     for (const step of ["A -> 2B", "2B -> A", "A + C -> D", "D -> A + C", "D -> B + E", "B + E -> D"]) {
       expect(found.dense.mechanism).toContain(`\n${step} @`);
