@@ -75,7 +75,7 @@ export async function searchRealization(problem: RealizationProblem, objective: 
     }
     options.onProgress?.({ stage: options.stage ?? objective, done: j + 1, total: m });
     // Lets progress reach the caller between the (synchronous) solver calls.
-    await new Promise((resolve) => setImmediate(resolve));
+    await new Promise((resolve) => setTimeout(resolve, 0));
   }
   const mechanism = { species: [...problem.species], reactions };
   const rhs = inducedRhs(mechanism);
