@@ -54,6 +54,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
 
 const navigation = [
   ["/dashboard", "Mechanisms"],
+  ["/realize", "ODE to mechanism"],
   ["/api", "API"],
   ["/settings/tokens", "Tokens"],
 ] as const;

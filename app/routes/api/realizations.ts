@@ -1,0 +1,13 @@
+import { z } from "zod";
+import { requireUser } from "~/utils/auth.server";
+import { httpError } from "~/utils/http";
+import { readJson } from "~/utils/json.server";
+import { realizationRequest, runRealization } from "~/utils/realization.server";
+import type { Route } from "./+types/realizations";
+
+export async function action(args: Route.ActionArgs) {
+  if (args.request.method !== "POST") return httpError(405, "Use POST with { ode, shift?, multiply? }.");
+  await requireUser(args);
+  const input = await readJson(args.request, realizationRequest.extend({ equivalents: z.boolean().optional() }));
+  return runRealization(input);
+}
