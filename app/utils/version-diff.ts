@@ -1,6 +1,7 @@
 // What changed between two versions of a mechanism: the text, line by line, and the network's
 // invariants in words. Pure, so the History page can run it in the browser.
 import { diffLines } from "diff";
+import type { AnalysisReport } from "~/chem/analysis";
 
 /** The invariants stored with every snapshot (snapshots.summary). */
 export interface StructureSummary {
@@ -14,6 +15,21 @@ export interface StructureSummary {
   reversible: boolean;
   weaklyReversible: boolean;
   errors: number;
+}
+
+export function summarizeStructure(report: AnalysisReport): StructureSummary {
+  return {
+    species: report.species.length,
+    speciesNames: report.species,
+    complexes: report.complexes.length,
+    reactions: report.reactions.length,
+    linkageClasses: report.linkageClasses.length,
+    rank: report.rank,
+    deficiency: report.deficiency,
+    reversible: report.reversible,
+    weaklyReversible: report.weaklyReversible,
+    errors: report.diagnostics.filter((d) => d.severity === "error").length,
+  };
 }
 
 export interface DiffLine {

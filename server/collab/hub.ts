@@ -3,6 +3,7 @@
 import type { WebSocket } from "ws";
 import type { Db } from "../db/client";
 import { roleOf } from "../db/mechanisms";
+import { AnalysisPool } from "./analysis-pool";
 import { closeCodes, Connection, type CollabIdentity } from "./connection";
 import { RoleChangeFeed, type RoleChange } from "./role-feed";
 import { Room, type RoomTimings } from "./room";
@@ -37,6 +38,7 @@ export class CollabHub {
   private readonly intervals: NodeJS.Timeout[];
   private readonly timings: HubTimings;
   private readonly roleFeed: RoleChangeFeed;
+  private readonly analysis = new AnalysisPool();
 
   constructor(
     private readonly db: Db,
@@ -125,13 +127,14 @@ export class CollabHub {
     const ids = [...this.rooms.keys()];
     await Promise.all(ids.map((id) => this.unload(id)));
     await Promise.all(this.unloading.values());
+    this.analysis.stop();
   }
 
   private async room(mechanismId: string): Promise<Room | null> {
     await this.unloading.get(mechanismId);
     let loading = this.rooms.get(mechanismId);
     if (!loading) {
-      loading = Room.load(this.db, mechanismId, this.timings);
+      loading = Room.load(this.db, this.analysis, mechanismId, this.timings);
       this.rooms.set(mechanismId, loading);
       loading.then(
         (room) => (room ? this.scheduleUnloadIfIdle(room) : this.rooms.delete(mechanismId)),

@@ -3,36 +3,21 @@
 // is put back at once (see `repair`).
 import { createHash } from "node:crypto";
 import * as Y from "yjs";
-import { analyzeSource, type AnalysisReport } from "../../app/chem/analysis";
+import type { AnalysisReport } from "../../app/chem/analysis";
+import { summarizeStructure, type StructureSummary } from "../../app/utils/version-diff";
+import type { AnalysisPool } from "./analysis-pool";
 
 /** The transaction origin of the server's own writes into the document. */
 export const analysisOrigin = Symbol("mechweave-analysis");
 
 export interface AnalysisResult {
   source: string;
-  report: AnalysisReport;
+  summary: StructureSummary;
   revision: number;
 }
 
 export function sourceDigest(source: string): string {
   return createHash("sha256").update(source).digest("base64url").slice(0, 22);
-}
-
-/** Contract keys of PRODUCT.md (counts), a few more counts, and the full report for the panels. */
-function analysisEntries(report: AnalysisReport, digest: string): Record<string, unknown> {
-  return {
-    deficiency: report.deficiency,
-    rank: report.rank,
-    linkageClasses: report.linkageClasses.length,
-    species: report.species.length,
-    complexes: report.complexes.length,
-    reactions: report.reactions.length,
-    weaklyReversible: report.weaklyReversible,
-    errors: report.diagnostics.filter((d) => d.severity === "error").length,
-    digest,
-    // A JSON round trip keeps only plain data (Y.Map values are encoded as JSON-like values).
-    report: JSON.parse(JSON.stringify(report)),
-  };
 }
 
 export class StructureRecompute {
@@ -42,11 +27,12 @@ export class StructureRecompute {
   private readonly text: Y.Text;
   private readonly analysis: Y.Map<unknown>;
   /** Serialised values last written, so an unchanged report is not re-sent to every client. */
-  private written = new Map<string, string>();
+  private readonly written = new Map<string, string>();
   latest: AnalysisResult | null = null;
 
   constructor(
     private readonly doc: Y.Doc,
+    private readonly pool: AnalysisPool,
     private readonly options: { delayMs: number; analyzed(result: AnalysisResult): void },
   ) {
     this.text = doc.getText("source");
@@ -54,7 +40,7 @@ export class StructureRecompute {
     for (const [key, value] of this.analysis.entries()) this.written.set(key, JSON.stringify(value));
     const stored = this.analysis.get("report") as AnalysisReport | undefined;
     if (stored && !this.stale) {
-      this.latest = { source: this.text.toString(), report: stored, revision: Number(this.analysis.get("revision")) || 0 };
+      this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), revision: Number(this.analysis.get("revision")) || 0 };
     }
     this.analysis.observe((event) => {
       if (event.transaction.origin !== analysisOrigin) this.repair([...event.keysChanged]);
@@ -71,24 +57,15 @@ export class StructureRecompute {
     if (this.timer || this.disposed) return;
     this.timer = setTimeout(() => {
       this.timer = null;
-      this.running = this.running.then(() => this.run());
+      this.enqueue(false);
     }, this.options.delayMs);
   }
 
   /** Runs a pending recompute now and resolves when the analysis matches the current text. */
   async flush(): Promise<void> {
-    if (this.timer) {
-      clearTimeout(this.timer);
-      this.timer = null;
-    }
-    this.running = this.running.then(() => this.run());
-    await this.running;
-  }
-
-  /** Rewrites keys a client changed, with the server's values. */
-  private repair(keys: string[]) {
-    for (const key of keys) this.written.delete(key);
-    this.running = this.running.then(() => this.run(true));
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = null;
+    await this.enqueue(false);
   }
 
   dispose() {
@@ -96,31 +73,41 @@ export class StructureRecompute {
     if (this.timer) clearTimeout(this.timer);
   }
 
-  private async run(force = false) {
+  /** Rewrites keys a client changed, with the server's values. */
+  private repair(keys: string[]) {
+    for (const key of keys) this.written.delete(key);
+    void this.enqueue(true);
+  }
+
+  private enqueue(force: boolean): Promise<void> {
+    this.running = this.running.then(() => this.run(force));
+    return this.running;
+  }
+
+  private async run(force: boolean) {
     if (this.disposed) return;
     const source = this.text.toString();
     const digest = sourceDigest(source);
     if (!force && this.latest && this.analysis.get("digest") === digest) return;
-    let report: AnalysisReport;
+    let outcome;
     try {
-      report = await analyzeSource(source);
+      outcome = await this.pool.analyze(source);
     } catch (error) {
-      console.error(`[collab] analysis failed: ${(error as Error).stack}`);
+      console.error(`[collab] analysis failed: ${(error as Error).message}`);
       return;
     }
     if (this.disposed) return;
     // Revisions keep growing across reloads: the last one is in the stored document.
     const revision = Math.max(Number(this.analysis.get("revision")) || 0, this.latest?.revision ?? 0) + 1;
-    const entries = { ...analysisEntries(report, digest), revision };
+    const entries = { ...outcome.entries, digest: JSON.stringify(digest), revision: JSON.stringify(revision) };
     this.doc.transact(() => {
-      for (const [key, value] of Object.entries(entries)) {
-        const serialised = JSON.stringify(value);
+      for (const [key, serialised] of Object.entries(entries)) {
         if (this.written.get(key) === serialised) continue;
-        this.analysis.set(key, value);
+        this.analysis.set(key, JSON.parse(serialised));
         this.written.set(key, serialised);
       }
     }, analysisOrigin);
-    this.latest = { source, report, revision };
+    this.latest = { source, summary: outcome.summary, revision };
     this.options.analyzed(this.latest);
   }
 }

@@ -8,8 +8,9 @@ import { closeCodes, type Connection } from "./connection";
 import { appendUpdates, compactDocument, loadDocument, UpdateLog, type LoggedUpdate } from "./persistence";
 import { vetAwarenessUpdate } from "./presence";
 import { awarenessMessage, syncStep1Message, updateMessage } from "./protocol";
+import type { AnalysisPool } from "./analysis-pool";
 import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recompute";
-import { AutoSnapshotPolicy, insertSnapshot, latestSummary, summarizeStructure, type SnapshotKind } from "./snapshots";
+import { AutoSnapshotPolicy, insertSnapshot, latestSummary, type SnapshotKind } from "./snapshots";
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
 
@@ -48,7 +49,7 @@ export class Room {
   private lastEditorId: string | null = null;
   private closed = false;
 
-  static async load(db: Db, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
+  static async load(db: Db, pool: AnalysisPool, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
     const mechanism = await findMechanism(db, mechanismId);
     if (!mechanism) return null;
     const stored = await loadDocument(db, mechanismId);
@@ -61,11 +62,12 @@ export class Room {
       doc.getText("source").insert(0, mechanism.source);
       await appendUpdates(db, mechanismId, [Y.encodeStateAsUpdate(doc)]);
     }
-    return new Room(db, mechanismId, doc, mechanism.source, await latestSummary(db, mechanismId), timings);
+    return new Room(db, pool, mechanismId, doc, mechanism.source, await latestSummary(db, mechanismId), timings);
   }
 
   private constructor(
     private readonly db: Db,
+    pool: AnalysisPool,
     readonly mechanismId: string,
     readonly doc: Y.Doc,
     savedSource: string,
@@ -79,7 +81,7 @@ export class Room {
     this.log = new UpdateLog(db, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
     this.mirror = new SourceMirror(db, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
     this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
-    this.recompute = new StructureRecompute(doc, { delayMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
+    this.recompute = new StructureRecompute(doc, pool, { delayMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
     doc.on("update", (update: Uint8Array, origin: UpdateOrigin) => {
       if (origin === loadOrigin) return;
       if (origin instanceof ServiceEdit) this.lastEditorId = origin.userId;
@@ -156,7 +158,7 @@ export class Room {
     await this.recompute.flush();
     const latest = this.recompute.latest;
     if (!latest) throw new Error(`no analysis of ${this.mechanismId} to store with the snapshot`);
-    const summary = summarizeStructure(latest.report);
+    const { summary } = latest;
     const row = await insertSnapshot(this.db, {
       mechanismId: this.mechanismId,
       kind,
@@ -224,14 +226,14 @@ export class Room {
   };
 
   private analyzed(result: AnalysisResult) {
-    this.snapshots.observe(summarizeStructure(result.report));
+    this.snapshots.observe(result.summary);
   }
 
   private async autoSnapshot() {
     try {
       await this.recompute.flush();
       const latest = this.recompute.latest;
-      if (!latest || !this.snapshots.wants(summarizeStructure(latest.report))) return;
+      if (!latest || !this.snapshots.wants(latest.summary)) return;
       await this.recordSnapshot("auto", null, this.lastEditorId);
     } catch (error) {
       console.error(`[collab] automatic snapshot of ${this.mechanismId} failed: ${(error as Error).message}`);

@@ -3,7 +3,6 @@
 // and the invariants, so History can compare versions without re-parsing.
 import { and, desc, eq } from "drizzle-orm";
 import { z } from "zod";
-import type { AnalysisReport } from "../../app/chem/analysis";
 import { sameStructure, type StructureSummary } from "../../app/utils/version-diff";
 import type { Db } from "../db/client";
 import { snapshots, users } from "../db/schema";
@@ -12,21 +11,6 @@ export type SnapshotKind = "auto" | "named" | "restore";
 
 /** The rule for a version's name, shared by the API and the History page. */
 export const snapshotNameField = z.string().trim().min(1, "Give the version a name.").max(120, "Keep the name under 120 characters.");
-
-export function summarizeStructure(report: AnalysisReport): StructureSummary {
-  return {
-    species: report.species.length,
-    speciesNames: report.species,
-    complexes: report.complexes.length,
-    reactions: report.reactions.length,
-    linkageClasses: report.linkageClasses.length,
-    rank: report.rank,
-    deficiency: report.deficiency,
-    reversible: report.reversible,
-    weaklyReversible: report.weaklyReversible,
-    errors: report.diagnostics.filter((d) => d.severity === "error").length,
-  };
-}
 
 export interface NewSnapshot {
   mechanismId: string;
