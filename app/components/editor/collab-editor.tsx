@@ -99,7 +99,8 @@ function editorExtensions({ source, awareness, undoManager, readOnly, label }: E
     drawSelection(),
     // Long comments wrap instead of scrolling sideways, which would hide the start of every step.
     EditorView.lineWrapping,
-    highlightActiveLine(),
+    // A viewer has no caret of their own, so a lit "current" line would only mislead.
+    readOnly ? [] : highlightActiveLine(),
     highlightSelectionMatches(),
     bracketMatching(),
     closeBrackets(),

@@ -191,7 +191,7 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
   );
 }
 
-const fitOptions = { padding: 0.2, maxZoom: 1.3 };
+const fitOptions = { padding: 0.2, maxZoom: 1.15 };
 
 /**
  * Positions for every complex: the shared ones, plus dagre's for the rest. An editor writes its

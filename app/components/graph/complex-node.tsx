@@ -19,14 +19,14 @@ const hiddenHandle = { opacity: 0, pointerEvents: "none", width: 1, height: 1, m
 export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
   return (
     <div
-      className="rounded-lg px-3.5 py-1.5 font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink shadow-sm"
+      className="rounded-lg px-3.5 py-1.5 font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink"
       style={{
         background: data.colours.fill,
         borderColor: data.colours.outline,
         borderStyle: data.terminal ? "double" : "solid",
         borderWidth: data.terminal ? 4 : 1.5,
-        outline: selected ? "2px solid var(--mw-accent)" : undefined,
-        outlineOffset: 2,
+        // A soft halo, not a second line: a crisp ring would read as the terminal double rim.
+        boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : undefined,
       }}
       title={`${data.label} · linkage class ${data.linkageClass + 1}${data.terminal ? " · terminal" : ""}`}
     >
