@@ -65,7 +65,7 @@ export function massActionMismatch(model: SbmlModel, reaction: SbmlReaction): st
   const fitted = evaluation.fit();
   if (!fitted) return "its value is not proportional to the mass-action rate of the reaction's stoichiometry";
   const [kf, kb] = fitted;
-  if (kf < 0 || kb < 0) return `its fitted rate coefficients are negative (${kf}, ${kb})`;
+  if (evaluation.negative(kf, kb)) return `its fitted rate coefficients are negative (${kf}, ${kb})`;
   return evaluation.agrees(kf, kb) ? null : "it does not evaluate to the mass-action rate of the reaction's stoichiometry";
 }
 
@@ -159,6 +159,13 @@ class LawEvaluation {
     const determinant = a * d - b * c;
     if (Math.abs(determinant) <= 1e-12 * Math.abs(a * d)) return null;
     return [(f1 * d - b * f2) / determinant, (a * f2 - c * f1) / determinant];
+  }
+
+  /** Whether a fitted coefficient is negative beyond rounding, measured against the size of the rate. */
+  negative(kf: number, kb: number): boolean {
+    const [forward, backward] = [kf * this.forward(this.points[0]), kb * this.backward(this.points[0])];
+    const rounding = 1e-9 * (Math.abs(forward) + Math.abs(backward));
+    return forward < -rounding || backward < -rounding;
   }
 
   /** Whether the law equals kf·x^reactants − kb·x^products at every sample point. */

@@ -1,0 +1,26 @@
+import { describe, expect, it } from "vitest";
+import { analyzeSource } from "~/chem/analysis";
+import { stoichiometricMatrixCsv } from "./csv";
+
+describe("stoichiometric matrix CSV", () => {
+  it("has species rows and reaction columns headed by the reaction", async () => {
+    const csv = stoichiometricMatrixCsv(await analyzeSource("A + B -> C @ 1\nC <=> 2A @ 1, 2\n"));
+    expect(csv).toBe(
+      ["species,r1: A + B -> C,r2: C -> 2A,r3: 2A -> C", "A,-1,2,-2", "B,-1,0,0", "C,1,-1,1"].map((line) => `${line}\r\n`).join(""),
+    );
+  });
+
+  it("quotes fields with commas, quotes and line breaks as RFC 4180 says", async () => {
+    const csv = stoichiometricMatrixCsv(await analyzeSource('"Fe3+" + "a,b" -> q\nline -> 0\n'));
+    const lines = csv.split("\r\n");
+    expect(lines[0]).toBe('species,"r1: ""Fe3+"" + ""a,b"" -> q",r2: line -> 0');
+    expect(lines[1]).toBe("Fe3+,-1,0");
+    expect(lines[2]).toBe('"a,b",-1,0');
+    expect(csv.endsWith("\r\n")).toBe(true);
+  });
+
+  it("refuses a report whose matrix was left out for size", async () => {
+    const report = await analyzeSource("A -> B @ 1\n");
+    expect(() => stoichiometricMatrixCsv({ ...report, stoichiometricMatrix: [] })).toThrow(/too large/);
+  });
+});

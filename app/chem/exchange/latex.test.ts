@@ -1,0 +1,107 @@
+import { execFileSync } from "node:child_process";
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { analyzeSource } from "~/chem/analysis";
+import { parseMechanism } from "~/chem/parse";
+import { demoMechanisms } from "../../../server/seed/demo";
+import { exportLatex } from "./latex";
+
+async function latexOf(source: string, title?: string): Promise<string> {
+  const parsed = parseMechanism(source);
+  expect(parsed.diagnostics.filter((each) => each.severity === "error")).toEqual([]);
+  return exportLatex(parsed.mechanism, await analyzeSource(source), { title });
+}
+
+/** Names and a title full of characters that LaTeX treats specially, or cannot read as they are. */
+const awkward = `bind_1: "Fe3+" + "a^b~c\\d" <=> "x_{1}" @ k_on = 2.5e-3, 0.4
+"50% $#&" -> 2 "café" @ { Vmax*Km }
+"α-glucose" + "ł⁺₂" -> 0 @ 1e-7
+"日本" -> "Fe3+" @ { Vmax * min(1, Km) / (Km + 1) }
+0 -> "α-glucose"
+Vmax = 3
+Km = 0.5
+["Fe3+"]0 = 1
+fixed ["50% $#&"] = 2
+`;
+
+/** Braces balance once escaped braces and line breaks are set aside, and environments nest. */
+function expectBalanced(latex: string): void {
+  const bare = latex.replace(/\\\\/g, "").replace(/\\[{}]/g, "");
+  let depth = 0;
+  for (const char of bare) {
+    if (char === "{") depth++;
+    if (char === "}") depth--;
+    expect(depth).toBeGreaterThanOrEqual(0);
+  }
+  expect(depth).toBe(0);
+  const open: string[] = [];
+  for (const [, kind, name] of bare.matchAll(/\\(begin|end)\{([^}]*)\}/g)) {
+    if (kind === "begin") open.push(name);
+    else expect(open.pop()).toBe(name);
+  }
+  expect(open).toEqual([]);
+}
+
+const pdflatex = (() => {
+  try {
+    return execFileSync("which", ["pdflatex"], { encoding: "utf8" }).trim() || null;
+  } catch {
+    return null;
+  }
+})();
+
+describe("LaTeX export", () => {
+  it("writes a complete article with the steps over arrows and the ODEs in align*", async () => {
+    const latex = await latexOf(demoMechanisms[0].source, demoMechanisms[0].title);
+    expect(latex).toMatch(/^\\documentclass\[11pt\]\{article\}\n\\usepackage\{amsmath\}\n/);
+    expect(latex).toContain("\\title{Autocatalytic dye bleaching}");
+    expect(latex).toContain("\\text{init:}\\quad & D + O \\xrightarrow{k_{\\mathrm{init}}} R");
+    expect(latex).toContain("\\text{decay:}\\quad & R \\xrightarrow{0.05} \\emptyset");
+    expect(latex).toContain("\\frac{dR}{dt} &= ");
+    expect(latex.trimEnd().endsWith("\\end{document}")).toBe(true);
+    expectBalanced(latex);
+  });
+
+  it("puts both coefficients on a reversible arrow", async () => {
+    const latex = await latexOf(demoMechanisms[4].source);
+    expect(latex).toContain("2\\,M \\mathrel{\\underset{\\mathrm{kb}}{\\overset{\\mathrm{kf}}{\\rightleftharpoons}}} M_{2}");
+  });
+
+  it("escapes every special character and writes ASCII only", async () => {
+    const latex = await latexOf(awkward, 'Fe³⁺ & friends: 50% {done} #1 ~x^y_z \\ "quoted" <a|b>');
+    expect(latex).toMatch(/^[\x00-\x7F]*$/);
+    expect(latex).toContain(
+      "\\title{Fe\\ensuremath{^{3}}\\ensuremath{^{+}} \\& friends: 50\\% \\{done\\} \\#1 \\~{}x\\^{}y\\_z \\textbackslash{} {''}quoted{''} \\textless{}a\\textbar{}b\\textgreater{}}",
+    );
+    expect(latex).toContain("\\text{bind\\_1:}");
+    expect(latex).toContain("\\mathrm{a\\text{\\^{}}b\\text{\\~{}}c\\backslash d}");
+    expect(latex).toContain("\\mathrm{50\\% \\$\\#\\&}");
+    expect(latex).toContain("\\mathrm{caf\\text{\\'{e}}}");
+    expect(latex).toContain("\\ensuremath{\\alpha}");
+    expect(latex).toContain("\\text{[U+65E5]}");
+    expect(latex).toContain("{[\\mathrm{50\\% \\$\\#\\&}]} &= 2 \\quad \\text{(held constant)}");
+    expect(latex).toContain("\\xrightarrow{10^{-7}} \\emptyset");
+    expectBalanced(latex);
+  });
+
+  it.skipIf(!pdflatex)("compiles with pdflatex", async () => {
+    const folder = mkdtempSync(join(tmpdir(), "mechweave-latex-"));
+    try {
+      const documents = [await latexOf(awkward, "Awkward & 100% {odd}"), ...(await Promise.all(demoMechanisms.map((demo) => latexOf(demo.source, demo.title))))];
+      documents.forEach((latex, index) => {
+        const file = join(folder, `mechanism-${index}.tex`);
+        writeFileSync(file, latex);
+        execFileSync(pdflatex!, ["-interaction=nonstopmode", "-halt-on-error", "-no-shell-escape", `-output-directory=${folder}`, file], {
+          cwd: folder,
+          timeout: 60_000,
+          stdio: "pipe",
+        });
+        expect(existsSync(join(folder, `mechanism-${index}.pdf`))).toBe(true);
+      });
+    } finally {
+      rmSync(folder, { recursive: true, force: true });
+    }
+  });
+});
