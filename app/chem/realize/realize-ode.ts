@@ -118,6 +118,9 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
 function offerShift(given: ExactOde, horizon: Horizon, request: RealizeOdeRequest, result: RealizeOdeResult): ShiftSuggestion | null {
   try {
     const suggestion = suggestShift(toPolynomialOde(given), horizon);
+    if (given.initial.every(Q.isZero)) {
+      result.notes.push("No initial values were given, so the suggested shift is read off the trajectory that starts at 0.");
+    }
     result.suggestedShift = suggestion.shift;
     result.boundingBox = suggestion.box;
     return suggestion;
