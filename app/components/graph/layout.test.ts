@@ -47,6 +47,26 @@ describe("placing complexes", () => {
     expect(Math.abs(placed.Z.y - 300)).toBeLessThan(120);
   });
 
+  it("attaches a new complex to its own neighbour, wherever co-authors dragged the class", () => {
+    // A triangle dragged into a wide shape; a new complex hangs off its left corner only.
+    const triangle = ["A", "B", "C", "D"];
+    const known = { A: { x: 0, y: 0 }, B: { x: 400, y: 0 }, C: { x: 200, y: 300 } };
+    const placed = placeComplexes({
+      keys: triangle,
+      reactions: [
+        { from: 0, to: 1 },
+        { from: 1, to: 2 },
+        { from: 2, to: 0 },
+        { from: 0, to: 3 },
+      ],
+      linkageClasses: [[0, 1, 2, 3]],
+      known,
+      sizeOf,
+    });
+    expect(Object.keys(placed)).toEqual(["D"]);
+    expect(Math.hypot(placed.D.x - known.A.x, placed.D.y - known.A.y)).toBeLessThan(260);
+  });
+
   it("puts a new linkage class below everything already drawn", () => {
     const known = { "X + Y": { x: 40, y: 20 }, "2Y": { x: 200, y: 20 }, Z: { x: 360, y: 20 } };
     const placed = placeComplexes({ keys, reactions, linkageClasses, known, sizeOf });

@@ -41,24 +41,46 @@ export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf 
   const covered = new Set(linkageClasses.flat());
   const classes = [...linkageClasses, ...keys.flatMap((_, index) => (covered.has(index) ? [] : [[index]]))];
 
+  const edges = reactions.map(({ from, to }) => [keys[from], keys[to]] as const);
+  const place = (key: string, at: XY) => {
+    const size = sizeOf(key);
+    placed[key] = clearOf(at, size, occupied);
+    occupied.push({ at: placed[key], size });
+  };
+
   for (const members of classes) {
     const memberKeys = members.map((index) => keys[index]);
     if (memberKeys.every((key) => key in known)) continue;
-    const local = layoutClass(
-      memberKeys,
-      reactions.map(({ from, to }) => [keys[from], keys[to]] as const),
-      sizeOf,
-    );
-    const anchors = memberKeys.filter((key) => key in known);
-    // Keep the class's own shape: shift dagre's picture onto the members that already have places,
-    // or, for a class entirely new, put it under everything drawn so far.
-    const shift = anchors.length > 0 ? meanOffset(anchors, known, local) : belowAll(occupied, local);
+    const local = layoutClass(memberKeys, edges, sizeOf);
+    const drawn = memberKeys.filter((key) => key in known);
+
+    if (drawn.length === 0) {
+      // A class entirely new keeps dagre's shape and goes under everything drawn so far.
+      const shift = belowAll(occupied, local);
+      for (const key of memberKeys) place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y });
+      continue;
+    }
+
+    // Grow outward from what is drawn: each new complex sits where dagre would put it relative to
+    // its already-placed neighbours, wherever co-authors have dragged those.
+    const neighbours = neighbourMap(memberKeys, edges);
+    const where = (key: string) => known[key] ?? placed[key];
+    const queue = [...drawn];
+    const reached = new Set(drawn);
+    for (let next = queue.shift(); next !== undefined; next = queue.shift()) {
+      for (const key of neighbours.get(next) ?? []) {
+        if (reached.has(key)) continue;
+        reached.add(key);
+        queue.push(key);
+        const anchors = [...(neighbours.get(key) ?? [])].filter((neighbour) => where(neighbour) !== undefined);
+        const shift = meanOffset(anchors, where, local);
+        place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y });
+      }
+    }
+    // Members no reaction reaches (a report caught mid-change) follow the class as a whole.
+    const classShift = meanOffset(drawn, where, local);
     for (const key of memberKeys) {
-      if (key in known) continue;
-      const size = sizeOf(key);
-      const at = clearOf({ x: local[key].x + shift.x, y: local[key].y + shift.y }, size, occupied);
-      placed[key] = at;
-      occupied.push({ at, size });
+      if (where(key) === undefined) place(key, { x: local[key].x + classShift.x, y: local[key].y + classShift.y });
     }
   }
   return placed;
@@ -87,8 +109,19 @@ function layoutClass(
   return corners;
 }
 
-function meanOffset(anchors: string[], known: Readonly<Record<string, XY>>, local: Record<string, XY>): XY {
-  const sum = anchors.reduce((total, key) => ({ x: total.x + known[key].x - local[key].x, y: total.y + known[key].y - local[key].y }), {
+function neighbourMap(memberKeys: string[], edges: readonly (readonly [string, string])[]): Map<string, Set<string>> {
+  const members = new Set(memberKeys);
+  const neighbours = new Map(memberKeys.map((key) => [key, new Set<string>()]));
+  for (const [from, to] of edges) {
+    if (!members.has(from) || !members.has(to)) continue;
+    neighbours.get(from)!.add(to);
+    neighbours.get(to)!.add(from);
+  }
+  return neighbours;
+}
+
+function meanOffset(anchors: string[], where: (key: string) => XY, local: Record<string, XY>): XY {
+  const sum = anchors.reduce((total, key) => ({ x: total.x + where(key).x - local[key].x, y: total.y + where(key).y - local[key].y }), {
     x: 0,
     y: 0,
   });
