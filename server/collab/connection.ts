@@ -61,6 +61,8 @@ export class Connection {
   }
 
   receive(data: Uint8Array) {
+    // A socket being closed (role revoked, room unloading) is heard no more.
+    if (this.socket.readyState !== this.socket.OPEN) return;
     const message = readClientMessage(data);
     switch (message.kind) {
       case "sync-step-1":

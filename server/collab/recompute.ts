@@ -29,6 +29,7 @@ export class StructureRecompute {
   /** Serialised values last written, so an unchanged report is not re-sent to every client. */
   private readonly written = new Map<string, string>();
   latest: AnalysisResult | null = null;
+  private lastDurationMs = 0;
 
   constructor(
     private readonly doc: Y.Doc,
@@ -52,13 +53,17 @@ export class StructureRecompute {
     return this.analysis.get("digest") !== sourceDigest(this.text.toString());
   }
 
-  /** At most one recompute per `delayMs` window, so steady typing still sees fresh results. */
+  /**
+   * At most one recompute per window, so steady typing still sees fresh results. The window is
+   * never shorter than the last analysis took: a large network keeps a worker busy at most half
+   * the time instead of queueing analyses of texts that are already outdated.
+   */
   schedule() {
     if (this.timer || this.disposed) return;
     this.timer = setTimeout(() => {
       this.timer = null;
       this.enqueue(false);
-    }, this.options.delayMs);
+    }, Math.max(this.options.delayMs, this.lastDurationMs));
   }
 
   /** Runs a pending recompute now and resolves when the analysis matches the current text. */
@@ -90,11 +95,14 @@ export class StructureRecompute {
     const digest = sourceDigest(source);
     if (!force && this.latest && this.analysis.get("digest") === digest) return;
     let outcome;
+    const started = performance.now();
     try {
       outcome = await this.pool.analyze(source);
     } catch (error) {
       console.error(`[collab] analysis failed: ${(error as Error).message}`);
       return;
+    } finally {
+      this.lastDurationMs = performance.now() - started;
     }
     if (this.disposed) return;
     // Revisions keep growing across reloads: the last one is in the stored document.
