@@ -1,6 +1,7 @@
 // The server's structure analysis of the shared text, recomputed shortly after every change and
 // written into the `analysis` map. Only the server may write that map: a client's change to it
-// is put back at once (see `repair`).
+// is put back at once (see `repair`). These writes are logged like any other update, so a
+// reload shows the last analysis; a restore puts back only the text, so they never get in its way.
 import { createHash } from "node:crypto";
 import * as Y from "yjs";
 import type { AnalysisReport } from "../../app/chem/analysis";

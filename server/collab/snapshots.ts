@@ -36,13 +36,15 @@ export async function insertSnapshot(db: Db, snapshot: NewSnapshot): Promise<{ i
   return row;
 }
 
-export async function listSnapshots(db: Db, mechanismId: string): Promise<SnapshotListing[]> {
+/** The newest `limit` versions, newest first. */
+export async function listSnapshots(db: Db, mechanismId: string, limit = 500): Promise<SnapshotListing[]> {
   const rows = await db
     .select({ id: snapshots.id, kind: snapshots.kind, name: snapshots.name, at: snapshots.at, author: users.name, summary: snapshots.summary })
     .from(snapshots)
     .leftJoin(users, eq(users.id, snapshots.authorId))
     .where(eq(snapshots.mechanismId, mechanismId))
-    .orderBy(desc(snapshots.at), desc(snapshots.id));
+    .orderBy(desc(snapshots.at), desc(snapshots.id))
+    .limit(limit);
   return rows.map((r) => ({ ...r, summary: r.summary as StructureSummary }));
 }
 

@@ -187,6 +187,10 @@ describe("live co-editing", () => {
     const report = viewerRoom.analysis.get("report") as { complexes: string[] };
     expect(report.complexes).toContain("X + Y");
 
+    // Only the server writes the analysis: an editor's write to it is put back.
+    ownerRoom.analysis.set("deficiency", 42);
+    await eventually("the server's value back", () => ownerRoom.analysis.get("deficiency") === 0 && viewerRoom.analysis.get("deficiency") === 0);
+
     const revision = viewerRoom.analysis.get("revision") as number;
     ownerRoom.text.insert(0, "X -> @ \n");
     await eventually("errors reported", () => (viewerRoom.analysis.get("errors") as number) > 0);
