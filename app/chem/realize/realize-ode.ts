@@ -55,7 +55,10 @@ export interface RealizeOdeResult {
   boundingBox?: Record<string, { min: number; max: number }>;
   /** When the (translated) ODE still has negative cross effects: the lowest-degree monomial that removes them. */
   suggestedMultiplier?: Record<string, number>;
-  transformations: ({ kind: "translation"; shift: Record<string, number> } | { kind: "multiplication"; monomial: string })[];
+  transformations: (
+    | { kind: "translation"; shift: Record<string, number> }
+    | { kind: "multiplication"; monomial: string; exponents: Record<string, number> }
+  )[];
   transformedOde?: string;
   /** Plain statements of what the transformations do and do not establish. */
   notes: string[];
@@ -149,7 +152,11 @@ function transform(given: ExactOde, request: RealizeOdeRequest, suggestion: Shif
     const exponents = request.multiply === true ? productOfAllVariables(ode) : exponentVector(ode, request.multiply);
     ode = multiplyByMonomial(ode, exponents);
     const monomial = formatMonomial(exponents, ode.variables);
-    result.transformations.push({ kind: "multiplication", monomial });
+    result.transformations.push({
+      kind: "multiplication",
+      monomial,
+      exponents: Object.fromEntries(ode.variables.flatMap((v, i) => (exponents[i] ? [[v, exponents[i]]] : []))),
+    });
     result.notes.push(
       `Multiplying by ${monomial}, positive inside the positive orthant, changes only the time scale there: the orbits are the same, traversed at another speed. Outside the orthant the two systems differ.`,
     );
