@@ -67,6 +67,24 @@ describe("placing complexes", () => {
     expect(Math.hypot(placed.D.x - known.A.x, placed.D.y - known.A.y)).toBeLessThan(260);
   });
 
+  it("keeps a new complex off the arrows already drawn", () => {
+    // X and Z in one row with an arrow between; Y hangs off X and dagre would put it on that arrow.
+    const known = { X: { x: 0, y: 0 }, Z: { x: 300, y: 0 } };
+    const size = { width: 52, height: 38 };
+    const placed = placeComplexes({
+      keys: ["X", "Z", "Y"],
+      reactions: [
+        { from: 0, to: 1 },
+        { from: 0, to: 2 },
+      ],
+      linkageClasses: [[0, 1, 2]],
+      known,
+      sizeOf: () => size,
+    });
+    const arrowY = size.height / 2;
+    expect(placed.Y.y > arrowY || placed.Y.y + size.height < arrowY).toBe(true);
+  });
+
   it("puts a new linkage class below everything already drawn", () => {
     const known = { "X + Y": { x: 40, y: 20 }, "2Y": { x: 200, y: 20 }, Z: { x: 360, y: 20 } };
     const placed = placeComplexes({ keys, reactions, linkageClasses, known, sizeOf });

@@ -24,6 +24,15 @@ export interface PlacementInput {
 
 const classGap = 56;
 const nodeGap = 24;
+const arrowClearance = 22;
+const arrowStep = 16;
+/** Bounds the downward search for a free spot, so a crowded picture cannot stall placement. */
+const maxAttempts = 400;
+
+interface Drawn {
+  at: XY;
+  size: Size;
+}
 
 /** Size a node will have before the browser has measured it: monospace label plus padding. */
 export function estimateNodeSize(label: string): Size {
@@ -34,7 +43,7 @@ export function estimateNodeSize(label: string): Size {
 export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf }: PlacementInput): Record<string, XY> {
   const placed: Record<string, XY> = {};
   const present = new Set(keys);
-  const occupied: { at: XY; size: Size }[] = Object.entries(known)
+  const occupied: Drawn[] = Object.entries(known)
     .filter(([key]) => present.has(key))
     .map(([key, at]) => ({ at, size: sizeOf(key) }));
   // A complex missing from every class (a report caught mid-change) still gets a place of its own.
@@ -42,29 +51,35 @@ export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf 
   const classes = [...linkageClasses, ...keys.flatMap((_, index) => (covered.has(index) ? [] : [[index]]))];
 
   const edges = reactions.map(({ from, to }) => [keys[from], keys[to]] as const);
-  const place = (key: string, at: XY) => {
+  const centre = (key: string): XY => ({ x: known[key].x + sizeOf(key).width / 2, y: known[key].y + sizeOf(key).height / 2 });
+  // Only arrows between complexes drawn before: a class laid out afresh keeps dagre's own picture.
+  const drawnArrows: Segment[] = edges.filter(([from, to]) => from in known && to in known).map(([from, to]) => [centre(from), centre(to)]);
+  const place = (key: string, at: XY, arrows: readonly Segment[]) => {
     const size = sizeOf(key);
-    placed[key] = clearOf(at, size, occupied);
+    placed[key] = clearOf(at, size, occupied, arrows);
     occupied.push({ at: placed[key], size });
   };
 
   for (const members of classes) {
     const memberKeys = members.map((index) => keys[index]);
     if (memberKeys.every((key) => key in known)) continue;
-    const local = layoutClass(memberKeys, edges, sizeOf);
     const drawn = memberKeys.filter((key) => key in known);
 
     if (drawn.length === 0) {
       // A class entirely new keeps dagre's shape and goes under everything drawn so far.
+      const local = layoutClass(memberKeys, edges, sizeOf);
       const shift = belowAll(occupied, local);
-      for (const key of memberKeys) place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y });
+      for (const key of memberKeys) place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y }, []);
       continue;
     }
 
     // Grow outward from what is drawn: each new complex sits where dagre would put it relative to
-    // its already-placed neighbours, wherever co-authors have dragged those.
+    // its already-placed neighbours, wherever co-authors have dragged those. Dagre sees only the new
+    // complexes and their neighbours, so adding one complex to a large class stays cheap.
     const neighbours = neighbourMap(memberKeys, edges);
-    const where = (key: string) => known[key] ?? placed[key];
+    const around = new Set(memberKeys.filter((key) => !(key in known)).flatMap((key) => [key, ...(neighbours.get(key) ?? [])]));
+    const local = layoutClass([...around], edges, sizeOf);
+    const where = (key: string): XY | undefined => known[key] ?? placed[key];
     const queue = [...drawn];
     const reached = new Set(drawn);
     for (let next = queue.shift(); next !== undefined; next = queue.shift()) {
@@ -74,13 +89,14 @@ export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf 
         queue.push(key);
         const anchors = [...(neighbours.get(key) ?? [])].filter((neighbour) => where(neighbour) !== undefined);
         const shift = meanOffset(anchors, where, local);
-        place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y });
+        place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y }, drawnArrows);
       }
     }
-    // Members no reaction reaches (a report caught mid-change) follow the class as a whole.
-    const classShift = meanOffset(drawn, where, local);
-    for (const key of memberKeys) {
-      if (where(key) === undefined) place(key, { x: local[key].x + classShift.x, y: local[key].y + classShift.y });
+    // Members no reaction reaches (a report caught mid-change) go under everything drawn.
+    const stray = memberKeys.filter((key) => where(key) === undefined);
+    if (stray.length > 0) {
+      const shift = belowAll(occupied, local);
+      for (const key of stray) place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y }, []);
     }
   }
   return placed;
@@ -120,15 +136,15 @@ function neighbourMap(memberKeys: string[], edges: readonly (readonly [string, s
   return neighbours;
 }
 
-function meanOffset(anchors: string[], where: (key: string) => XY, local: Record<string, XY>): XY {
-  const sum = anchors.reduce((total, key) => ({ x: total.x + where(key).x - local[key].x, y: total.y + where(key).y - local[key].y }), {
+function meanOffset(anchors: string[], where: (key: string) => XY | undefined, local: Record<string, XY>): XY {
+  const sum = anchors.reduce((total, key) => ({ x: total.x + where(key)!.x - local[key].x, y: total.y + where(key)!.y - local[key].y }), {
     x: 0,
     y: 0,
   });
   return { x: Math.round(sum.x / anchors.length), y: Math.round(sum.y / anchors.length) };
 }
 
-function belowAll(occupied: { at: XY; size: Size }[], local: Record<string, XY>): XY {
+function belowAll(occupied: Drawn[], local: Record<string, XY>): XY {
   const localTop = Math.min(...Object.values(local).map(({ y }) => y));
   const localLeft = Math.min(...Object.values(local).map(({ x }) => x));
   if (occupied.length === 0) return { x: -localLeft, y: -localTop };
@@ -137,21 +153,55 @@ function belowAll(occupied: { at: XY; size: Size }[], local: Record<string, XY>)
   return { x: left - localLeft, y: bottom + classGap - localTop };
 }
 
-/** Moves a new node down until it overlaps nothing already drawn. */
-function clearOf(at: XY, size: Size, occupied: { at: XY; size: Size }[]): XY {
+type Segment = readonly [XY, XY];
+
+/**
+ * Moves a new node down until it overlaps no node and no arrow already drawn. Arrows are taken
+ * as straight lines between centres, with room to spare for the bow of a reversible pair.
+ */
+function clearOf(at: XY, size: Size, occupied: Drawn[], arrows: readonly Segment[]): XY {
   let y = at.y;
-  for (let blocker = overlapping({ x: at.x, y }, size, occupied); blocker; blocker = overlapping({ x: at.x, y }, size, occupied)) {
-    y = blocker.at.y + blocker.size.height + nodeGap;
+  for (let attempt = 0; attempt < maxAttempts; attempt++) {
+    const box = { x: at.x, y, ...size };
+    const node = overlapping(box, occupied);
+    if (node) y = node.at.y + node.size.height + nodeGap;
+    else if (arrows.some((arrow) => crosses(arrow, box))) y += arrowStep;
+    else break;
   }
   return { x: at.x, y };
 }
 
-function overlapping(at: XY, size: Size, occupied: { at: XY; size: Size }[]) {
+function overlapping(box: XY & Size, occupied: Drawn[]) {
   return occupied.find(
     (other) =>
-      at.x < other.at.x + other.size.width + nodeGap &&
-      other.at.x < at.x + size.width + nodeGap &&
-      at.y < other.at.y + other.size.height + nodeGap &&
-      other.at.y < at.y + size.height + nodeGap,
+      box.x < other.at.x + other.size.width + nodeGap &&
+      other.at.x < box.x + box.width + nodeGap &&
+      box.y < other.at.y + other.size.height + nodeGap &&
+      other.at.y < box.y + box.height + nodeGap,
   );
+}
+
+/** Whether the segment passes through the box widened by the arrow clearance (Liang–Barsky clipping). */
+function crosses([a, b]: Segment, box: XY & Size): boolean {
+  const dx = b.x - a.x;
+  const dy = b.y - a.y;
+  const bounds: [number, number][] = [
+    [-dx, a.x - (box.x - arrowClearance)],
+    [dx, box.x + box.width + arrowClearance - a.x],
+    [-dy, a.y - (box.y - arrowClearance)],
+    [dy, box.y + box.height + arrowClearance - a.y],
+  ];
+  let enter = 0;
+  let leave = 1;
+  for (const [p, q] of bounds) {
+    if (p === 0) {
+      if (q < 0) return false;
+      continue;
+    }
+    const t = q / p;
+    if (p < 0) enter = Math.max(enter, t);
+    else leave = Math.min(leave, t);
+    if (enter > leave) return false;
+  }
+  return true;
 }
