@@ -56,9 +56,11 @@ export async function equivalentRealizations(
       optimal: outcome.optimal,
     };
   };
+  // The weakly reversible search starts from the dense one; the cache saves solving it twice.
+  const cache = new Map();
   const sparse = await searchRealization(problem, "sparse", { deadline, onProgress, stage: "sparse" });
-  const dense = await searchRealization(problem, "dense", { deadline, onProgress, stage: "dense" });
-  const weaklyReversible = await searchWeaklyReversible(problem, { deadline, onProgress, stage: "weakly reversible" });
+  const dense = await searchRealization(problem, "dense", { deadline, onProgress, stage: "dense", cache });
+  const weaklyReversible = await searchWeaklyReversible(problem, { deadline, onProgress, stage: "weakly reversible", cache });
   return {
     complexes: problem.complexes.length,
     sparse: describe(sparse, "sparse realization: the fewest reactions with the same mass-action ODE"),

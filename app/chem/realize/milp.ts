@@ -31,7 +31,12 @@ export interface SearchOptions {
   deadline: number;
   onProgress?: (progress: SearchProgress) => void;
   stage?: string;
+  /** Shared between searches on one problem, so a repeated search re-solves only changed columns. */
+  cache?: ColumnCache;
 }
+
+/** Solved columns by objective, source complex and the reactions forbidden out of it. */
+export type ColumnCache = Map<string, ColumnOutcome>;
 
 export type SearchOutcome =
   | { status: "found"; mechanism: MassActionMechanism; edges: Edge[]; optimal: boolean }
@@ -66,7 +71,10 @@ export async function searchRealization(problem: RealizationProblem, objective: 
   for (let j = 0; j < m; j++) {
     const remaining = (options.deadline - Date.now()) / 1000;
     if (remaining <= 0) return { status: "time-limit" };
-    const column = solveColumn(highs, problem, j, objective, options.forbidden ?? new Set(), remaining);
+    const forbidden = options.forbidden ?? new Set<string>();
+    const key = `${objective}:${j}:${[...forbidden].filter((f) => f.startsWith(`${j}>`)).sort().join(" ")}`;
+    const column = options.cache?.get(key) ?? solveColumn(highs, problem, j, objective, forbidden, remaining);
+    if (column !== "time-limit") options.cache?.set(key, column);
     if (column === "infeasible" || column === "time-limit") return { status: column };
     optimal &&= column.optimal;
     for (const [i, rate] of column.rates) {

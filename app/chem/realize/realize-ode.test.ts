@@ -56,4 +56,15 @@ describe("equivalent realizations of a mechanism", () => {
     expect(found.sparse.status).toBe("found");
     expect(found.weaklyReversible.status).toBe("found");
   });
+
+  it("finds a weakly reversible mechanism for a network that is not: 0 → 2X, X → 0 becomes 0 ⇌ X", async () => {
+    // By hand: x' = 2 - 2x is also the ODE of 0 → X, X → 0 with both rates 2.
+    const source = "0 -> 2X @ 1\nX -> 0 @ 2\n";
+    expect(await analyzeSource(source)).toMatchObject({ weaklyReversible: false });
+    const found = await equivalentRealizationsOfMechanism(source);
+    const text = found.weaklyReversible.mechanism!;
+    expect(await analyzeSource(text)).toMatchObject({ weaklyReversible: true, deficiency: 0 });
+    expect(text).toContain("\n0 -> X @ 2\n");
+    expect(text).toContain("\nX -> 0 @ 2\n");
+  });
 });

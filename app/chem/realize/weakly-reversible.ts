@@ -15,9 +15,10 @@ export type WeakReversibilityOutcome = SearchOutcome | { status: "undetermined";
 
 export async function searchWeaklyReversible(problem: RealizationProblem, options: SearchOptions): Promise<WeakReversibilityOutcome> {
   const forbidden = new Set(options.forbidden ?? []);
+  const cache = options.cache ?? new Map();
   let exact = true;
   for (;;) {
-    const outcome = await searchRealization(problem, "dense", { ...options, forbidden, stage: options.stage ?? "weakly reversible" });
+    const outcome = await searchRealization(problem, "dense", { ...options, forbidden, cache, stage: options.stage ?? "weakly reversible" });
     if (outcome.status !== "found") {
       return outcome.status === "infeasible" && !exact
         ? { status: "undetermined", reason: "an earlier dense search stopped at its time limit before proving optimality" }
