@@ -4,7 +4,8 @@
 // inside one strong component of that graph; reactions joining two different strong components can
 // therefore be forbidden and the dense search repeated. When no such reaction is left, the dense
 // graph is a union of strong components — weakly reversible. When the search becomes infeasible,
-// no weakly reversible realization on these complexes exists (provided each search was optimal).
+// no weakly reversible realization on these complexes exists — provided each search was optimal
+// and no realization needs rates outside the solver's bounds (see milp.ts).
 import type { SearchOptions, SearchOutcome } from "./milp";
 import { searchRealization } from "./milp";
 import type { Edge } from "../linkage";
