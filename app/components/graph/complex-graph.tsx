@@ -6,6 +6,7 @@ import {
   Background,
   BackgroundVariant,
   Controls,
+  type EdgeChange,
   type NodeChange,
   ReactFlow,
   ReactFlowProvider,
@@ -42,6 +43,12 @@ export interface ComplexGraphProps {
   synced: boolean;
   onSelect?: (selection: GraphSelection | null) => void;
   className?: string;
+}
+
+/** A selected node or arrow by its React Flow id. */
+interface Chosen {
+  kind: GraphSelection["kind"];
+  id: string;
 }
 
 const nodeTypes = { complex: ComplexNodeView };
@@ -86,7 +93,7 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
   const positions = useComplexPositions(model, report, layout, canEdit, synced);
   const [nodes, setNodes] = useState<ComplexNode[]>([]);
   // Held by id (complex text), not index, so the same complex stays selected while the text changes.
-  const [selected, setSelected] = useState<{ kind: GraphSelection["kind"]; id: string } | null>(null);
+  const [selected, setSelected] = useState<Chosen | null>(null);
   const lastWrite = useRef(new Map<string, number>());
   // Until the reader pans or zooms, the view follows the graph as complexes come and go.
   const [viewTouched, setViewTouched] = useState(false);
@@ -116,7 +123,12 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
     [nodes, selected],
   );
 
-  const select = (next: { kind: GraphSelection["kind"]; id: string } | null) => {
+  // Clicks and the keyboard (Enter on a focused node or arrow) both arrive as React Flow's select
+  // changes; a ref lets repeated reports of one choice reach the page once.
+  const chosen = useRef(selected);
+  const select = (next: Chosen | null) => {
+    if (next?.kind === chosen.current?.kind && next?.id === chosen.current?.id) return;
+    chosen.current = next;
     setSelected(next);
     if (!onSelect || !model) return;
     if (!next) return onSelect(null);
@@ -126,8 +138,13 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
         : model.edges.find((edge) => edge.id === next.id)?.index;
     if (index !== undefined) onSelect({ kind: next.kind, index });
   };
+  const pickFrom = (kind: Chosen["kind"], changes: (NodeChange<ComplexNode> | EdgeChange<ReactionEdge>)[]) => {
+    const picked = changes.find((change) => change.type === "select" && change.selected);
+    if (picked?.type === "select") select({ kind, id: picked.id });
+  };
 
   const onNodesChange = (changes: NodeChange<ComplexNode>[]) => {
+    pickFrom("complex", changes);
     // Selection is ours (it mirrors into the text); React Flow keeps only geometry.
     const geometry = changes.filter((change) => change.type === "position" || change.type === "dimensions");
     setNodes((current) => applyNodeChanges(geometry, current));
@@ -163,12 +180,13 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
           nodeTypes={nodeTypes}
           edgeTypes={edgeTypes}
           onNodesChange={onNodesChange}
-          onNodeClick={(_, node) => select({ kind: "complex", id: node.id })}
-          onEdgeClick={(_, edge) => select({ kind: "reaction", id: edge.id })}
+          onEdgesChange={(changes) => pickFrom("reaction", changes)}
           onPaneClick={() => select(null)}
           // Only the reader's own pans and zooms carry an input event; fitting reports none.
           onMoveStart={(event) => event && setViewTouched(true)}
           nodesDraggable={canEdit}
+          // Moving a complex is not choosing it: the text should not jump while co-authors arrange.
+          selectNodesOnDrag={false}
           nodesConnectable={false}
           edgesReconnectable={false}
           deleteKeyCode={null}
