@@ -35,88 +35,109 @@ type Scope = Map<string, number>;
 /** How many positive concentration vectors a law is compared at; drawn from a fixed seed for reproducible verdicts. */
 const samplePoints = 4;
 
-export function readKineticLaw(model: SbmlModel, reaction: SbmlReaction): KineticLawReading {
-  const law = reaction.law;
-  if (!law?.math) return { kind: "unevaluable", reason: "it has no math" };
-  const evaluation = new LawEvaluation(model, reaction);
-  const problem = evaluation.problem();
-  if (problem) return { kind: "unevaluable", reason: problem };
+type QuantityKind = "species" | "compartment" | "parameter";
 
-  const shape = massActionShape(withoutCompartmentFactors(law.math, (name) => evaluation.isCompartment(name)));
-  if (!shape) return { kind: "custom", reason: "it is not a product of a rate coefficient and species concentrations" };
-  const forward = evaluation.coefficient(shape.forward, reaction.reactants);
-  const backward = shape.backward ? evaluation.coefficient(shape.backward, reaction.products) : null;
-  if (!forward || (shape.backward && !backward)) {
-    return { kind: "custom", reason: "its species and powers differ from the reaction's stoichiometry" };
+/** Reads the kinetic laws of one model; the model-wide names are looked up once, not per law. */
+export class KineticLawReader {
+  private readonly kinds = new Map<string, QuantityKind>();
+  /** Values of the model-wide constants: compartments (read as 1) and parameters that have one. */
+  private readonly values: Scope = new Map();
+
+  constructor(model: SbmlModel) {
+    for (const { id } of model.species) this.kinds.set(id, "species");
+    for (const { id } of model.compartments) {
+      this.kinds.set(id, "compartment");
+      this.values.set(id, 1);
+    }
+    for (const { id, value } of model.parameters) {
+      this.kinds.set(id, "parameter");
+      if (value !== null) this.values.set(id, value);
+    }
   }
-  if (!evaluation.agrees(forward.value, backward?.value ?? 0)) return { kind: "custom", reason: "it does not evaluate to a mass-action rate" };
-  return { kind: "mass-action", forward: forward.coefficient, backward: backward?.coefficient ?? null, folded: forward.folded || !!backward?.folded };
-}
 
-/**
- * For a law declared as mass action: null when it evaluates to kf·x^reactants (− kb·x^products
- * for a reversible reaction) for some kf, kb ≥ 0, whatever way it is written; else the reason.
- */
-export function massActionMismatch(model: SbmlModel, reaction: SbmlReaction): string | null {
-  if (!reaction.law?.math) return null;
-  const evaluation = new LawEvaluation(model, reaction);
-  const problem = evaluation.problem();
-  if (problem) return problem;
-  const fitted = evaluation.fit();
-  if (!fitted) return "its value is not proportional to the mass-action rate of the reaction's stoichiometry";
-  const [kf, kb] = fitted;
-  if (evaluation.negative(kf, kb)) return `its fitted rate coefficients are negative (${kf}, ${kb})`;
-  return evaluation.agrees(kf, kb) ? null : "it does not evaluate to the mass-action rate of the reaction's stoichiometry";
+  read(reaction: SbmlReaction): KineticLawReading {
+    const law = reaction.law;
+    if (!law?.math) return { kind: "unevaluable", reason: "it has no math" };
+    const evaluation = this.evaluation(reaction);
+    const problem = evaluation.problem();
+    if (problem) return { kind: "unevaluable", reason: problem };
+
+    const shape = massActionShape(withoutCompartmentFactors(law.math, (name) => evaluation.kindOf(name) === "compartment"));
+    if (!shape) return { kind: "custom", reason: "it is not a product of a rate coefficient and species concentrations" };
+    const forward = evaluation.coefficient(shape.forward, reaction.reactants);
+    const backward = shape.backward ? evaluation.coefficient(shape.backward, reaction.products) : null;
+    if (!forward || (shape.backward && !backward)) {
+      return { kind: "custom", reason: "its species and powers differ from the reaction's stoichiometry" };
+    }
+    if (!evaluation.agrees(forward.value, backward?.value ?? 0)) return { kind: "custom", reason: "it does not evaluate to a mass-action rate" };
+    return { kind: "mass-action", forward: forward.coefficient, backward: backward?.coefficient ?? null, folded: forward.folded || !!backward?.folded };
+  }
+
+  /**
+   * For a law declared as mass action: null when it evaluates to kf·x^reactants (− kb·x^products
+   * for a reversible reaction) for some kf, kb ≥ 0, whatever way it is written; else the reason.
+   */
+  massActionMismatch(reaction: SbmlReaction): string | null {
+    if (!reaction.law?.math) return null;
+    const evaluation = this.evaluation(reaction);
+    const problem = evaluation.problem();
+    if (problem) return problem;
+    const fitted = evaluation.fit();
+    if (!fitted) return "its value is not proportional to the mass-action rate of the reaction's stoichiometry";
+    const [kf, kb] = fitted;
+    if (evaluation.negative(kf, kb)) return `its fitted rate coefficients are negative (${kf}, ${kb})`;
+    return evaluation.agrees(kf, kb) ? null : "it does not evaluate to the mass-action rate of the reaction's stoichiometry";
+  }
+
+  private evaluation(reaction: SbmlReaction): LawEvaluation {
+    return new LawEvaluation(reaction, (id) => this.kinds.get(id), (id) => this.values.get(id));
+  }
 }
 
 /** One law with the model's values, evaluated at a few positive concentration vectors. */
 class LawEvaluation {
-  private readonly values: Scope = new Map();
   private readonly points: Scope[] = [];
-  private readonly species = new Set<string>();
-  private readonly compartments = new Set<string>();
-  private readonly parameters = new Set<string>();
   private readonly locals: ReadonlyMap<string, number | null>;
   private readonly compiled: EvalFunction;
+  /** Names the law uses that have no value (parameters without one, reaction ids, …). */
+  private readonly missing: string[] = [];
 
   constructor(
-    model: SbmlModel,
     private readonly reaction: SbmlReaction,
+    private readonly modelKind: (id: string) => QuantityKind | undefined,
+    modelValue: (id: string) => number | undefined,
   ) {
-    this.locals = reaction.law!.localParameters;
-    this.compiled = reaction.law!.math!.compile();
-    // A local parameter shadows any model-wide quantity of the same id within its law.
-    const visible = (id: string) => !this.locals.has(id);
-    for (const { id } of model.compartments.filter((each) => visible(each.id))) {
-      this.compartments.add(id);
-      this.values.set(id, 1);
-    }
-    for (const { id, value } of model.parameters.filter((each) => visible(each.id))) {
-      this.parameters.add(id);
-      if (value !== null) this.values.set(id, value);
-    }
-    for (const [id, value] of this.locals) if (value !== null) this.values.set(id, value);
-    for (const { id } of model.species.filter((each) => visible(each.id))) this.species.add(id);
+    const law = reaction.law!;
+    this.locals = law.localParameters;
+    this.compiled = law.math!.compile();
+    const constants: Scope = new Map();
+    const species = new Set([...reaction.reactants, ...reaction.products].map((each) => each.species));
+    law.math!.traverse((node, path) => {
+      if (!isSymbolNode(node) || path === "fn" || constants.has(node.name) || species.has(node.name)) return;
+      if (this.kindOf(node.name) === "species") species.add(node.name);
+      else {
+        const value = this.locals.has(node.name) ? this.locals.get(node.name) : modelValue(node.name);
+        if (value === null || value === undefined) this.missing.push(node.name);
+        else constants.set(node.name, value);
+      }
+    });
     const random = seededRandom(0x5eed);
     for (let point = 0; point < samplePoints; point++) {
-      const scope = new Map(this.values);
-      for (const id of this.species) scope.set(id, 0.5 + 1.5 * random());
+      const scope = new Map(constants);
+      for (const id of species) scope.set(id, 0.5 + 1.5 * random());
       this.points.push(scope);
     }
   }
 
-  isCompartment(name: string): boolean {
-    return this.compartments.has(name);
+  /** What a name means inside this law: a local parameter shadows any model-wide quantity. */
+  kindOf(name: string): QuantityKind | "local" | undefined {
+    return this.locals.has(name) ? "local" : this.modelKind(name);
   }
 
   /** Why the law cannot be evaluated, or null. */
   problem(): string | null {
-    const missing = new Set<string>();
-    this.reaction.law!.math!.traverse((node, path) => {
-      if (isSymbolNode(node) && path !== "fn" && !this.points[0].has(node.name)) missing.add(node.name);
-    });
-    if (missing.size > 0) {
-      const what = [...missing].map((name) => (this.locals.has(name) ? `the local parameter ${name}` : name)).join(", ");
+    if (this.missing.length > 0) {
+      const what = [...new Set(this.missing)].map((name) => (this.locals.has(name) ? `the local parameter ${name}` : name)).join(", ");
       return `it uses ${what} without a value Mechweave can read (a parameter without a value, or a reaction or species-reference id)`;
     }
     if (this.points.some((point) => this.evaluate(point) === null)) {
@@ -132,14 +153,15 @@ class LawEvaluation {
     let value = term.constant;
     let literal = term.constant !== 1;
     for (const [name, power] of term.symbols) {
-      if (this.species.has(name)) {
+      const kind = this.kindOf(name);
+      if (kind === "species") {
         if (expected.get(name) !== power) return null;
         expected.delete(name);
         continue;
       }
-      value *= this.values.get(name)! ** power;
-      if (this.parameters.has(name)) parameters.push([name, power]);
-      else if (this.locals.has(name)) literal = true;
+      value *= this.points[0].get(name)! ** power;
+      if (kind === "parameter") parameters.push([name, power]);
+      else if (kind === "local") literal = true;
     }
     if (expected.size > 0 || value < 0) return null;
     if (parameters.length === 1 && parameters[0][1] === 1 && !literal) {

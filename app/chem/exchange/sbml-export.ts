@@ -1,4 +1,4 @@
-// A mechanism as an SBML Level 3 Version 2 Core document. Choices (see docs/decisions/):
+// A mechanism as an SBML Level 3 Version 2 Core document. Choices:
 // - one compartment `vessel` of size 1, so amount and concentration rates coincide;
 // - each step is one reaction; a reversible step stays one reaction with reversible="true" and the
 //   law kf*A*B - kb*C, which keeps its label and reads back as one `<=>` step;
@@ -6,9 +6,10 @@
 //   (k, or kf and kb) of their kinetic law, which importSbml reads back as literal numbers;
 // - mass-action laws carry sboTerm SBO:0000012, so that checkSbml can verify them numerically;
 // - every species, parameter and reaction keeps its `.weave` name in the `name` attribute.
-// The mechanism should be free of errors; steps without rate coefficients get no kinetic law.
+// Steps without rate coefficients get no kinetic law; a parameter used but never given a value (an
+// error in the text) becomes a parameter without a value, so that a draft still exports.
 import { ConstantNode, OperatorNode, SymbolNode, type MathNode } from "mathjs";
-import { readLaw } from "~/chem/law";
+import { lawConstants, readLaw } from "~/chem/law";
 import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
 import { mathmlOf } from "./mathml";
 import { NameAllocator, toSId } from "./names";
@@ -22,7 +23,7 @@ export interface SbmlExportOptions {
 export function exportSbml(mechanism: Mechanism, { title }: SbmlExportOptions): string {
   const ids = new NameAllocator(toSId);
   // Parameters first: their names are already SIds and are what laws refer to.
-  const parameterIds = new Map(Object.keys(mechanism.parameters).map((name) => [name, ids.take(name)]));
+  const parameterIds = new Map(parameterNames(mechanism).map((name) => [name, ids.take(name)]));
   const allSpecies = [...mechanism.species, ...Object.keys(mechanism.fixed).filter((name) => !mechanism.species.includes(name))];
   const speciesIds = new Map(allSpecies.map((name) => [name, ids.take(name)]));
   const compartment = ids.take("vessel");
@@ -33,7 +34,7 @@ export function exportSbml(mechanism: Mechanism, { title }: SbmlExportOptions): 
   mechanism.steps.forEach((step, index) => reactionIds.has(index) || reactionIds.set(index, ids.take(`r${index + 1}`)));
   const globalIds = new Set([...parameterIds.values(), ...speciesIds.values(), compartment, modelId, ...reactionIds.values()]);
 
-  const lawWriter = new KineticLawWriter(mechanism, speciesIds, parameterIds, globalIds);
+  const lawWriter = new KineticLawWriter(speciesIds, parameterIds, globalIds);
   const species: XmlOut[] = allSpecies.map((name) => {
     const fixed = name in mechanism.fixed;
     return {
@@ -49,9 +50,9 @@ export function exportSbml(mechanism: Mechanism, { title }: SbmlExportOptions): 
       },
     };
   });
-  const parameters: XmlOut[] = Object.entries(mechanism.parameters).map(([name, value]) => ({
+  const parameters: XmlOut[] = [...parameterIds].map(([name, id]) => ({
     name: "parameter",
-    attributes: { id: parameterIds.get(name), name, value, constant: true },
+    attributes: { id, name, value: mechanism.parameters[name], constant: true },
   }));
   const reactions: XmlOut[] = mechanism.steps.map((step, index) => ({
     name: "reaction",
@@ -81,6 +82,18 @@ export function exportSbml(mechanism: Mechanism, { title }: SbmlExportOptions): 
   });
 }
 
+/** Declared parameters, then any that steps use without declaring them. */
+function parameterNames(mechanism: Mechanism): string[] {
+  const names = new Set(Object.keys(mechanism.parameters));
+  const species = new Set([...mechanism.species, ...Object.keys(mechanism.fixed)]);
+  for (const step of mechanism.steps) {
+    for (const rate of [step.forward, step.backward]) if (rate?.kind === "parameter") names.add(rate.name);
+    const law = step.law === null ? null : readLaw(step.law);
+    for (const symbol of law?.ok ? law.symbols : []) if (!species.has(symbol) && !lawConstants.has(symbol)) names.add(symbol);
+  }
+  return [...names];
+}
+
 /** SBML lists must not be empty. */
 function nonEmptyList(name: string, items: XmlOut[]): XmlOut | null {
   return items.length > 0 ? { name, children: items } : null;
@@ -104,22 +117,26 @@ function stoichiometry(terms: Term[]): Map<string, number> {
 }
 
 class KineticLawWriter {
+  /** Ids of the local parameters that carry literal numbers, the same in every law. */
+  private readonly localIds: Record<"k" | "kf" | "kb", string>;
+
   constructor(
-    private readonly mechanism: Mechanism,
     private readonly speciesIds: Map<string, string>,
     private readonly parameterIds: Map<string, string>,
-    private readonly globalIds: Set<string>,
-  ) {}
+    globalIds: Set<string>,
+  ) {
+    // Local ids avoid every model-wide id, so that no local parameter shadows a species or parameter.
+    const locals = new NameAllocator(toSId, globalIds);
+    this.localIds = { k: locals.take("k"), kf: locals.take("kf"), kb: locals.take("kb") };
+  }
 
   kineticLaw(step: Step): XmlOut | null {
     if (step.law !== null) return this.customLaw(step.law);
     if (step.forward === null || (step.reversible && step.backward === null)) return null;
-    // Local ids avoid every model-wide id, so that no local parameter shadows a species or parameter.
-    const locals = new NameAllocator(toSId, this.globalIds);
     const localParameters: XmlOut[] = [];
-    const coefficient = (rate: RateRef, wish: string): MathNode => {
+    const coefficient = (rate: RateRef, role: "k" | "kf" | "kb"): MathNode => {
       if (rate.kind === "parameter") return new SymbolNode(this.parameterIds.get(rate.name)!);
-      const id = locals.take(wish);
+      const id = this.localIds[role];
       localParameters.push({ name: "localParameter", attributes: { id, value: rate.value } });
       return new SymbolNode(id);
     };

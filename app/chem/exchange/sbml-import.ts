@@ -6,7 +6,7 @@ import { ConstantNode, SymbolNode, isSymbolNode } from "mathjs";
 import { checkSourceLimits } from "~/chem/limits";
 import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
 import { parseMechanism, printMechanism } from "~/chem/parse";
-import { readKineticLaw, stoichiometryOf, withoutCompartmentFactors, type KineticLawReading, type SbmlCoefficient } from "./kinetic-law";
+import { KineticLawReader, stoichiometryOf, withoutCompartmentFactors, type KineticLawReading, type SbmlCoefficient } from "./kinetic-law";
 import { NameAllocator, isWeaveIdentifier, toWeaveIdentifier } from "./names";
 import { readSbml, type SbmlModel, type SbmlReaction, type SbmlSpecies } from "./sbml-document";
 
@@ -37,10 +37,14 @@ class Translation {
   private readonly parameters: Record<string, number> = {};
   private readonly compartments: Set<string>;
   private readonly laws: Map<SbmlReaction, KineticLawReading>;
+  /** Species that are a reactant or product somewhere. */
+  private readonly inReactions: Set<string>;
 
   constructor(private readonly model: SbmlModel) {
     this.compartments = new Set(model.compartments.map((each) => each.id));
-    this.laws = new Map(model.reactions.map((reaction) => [reaction, readKineticLaw(model, reaction)]));
+    const reader = new KineticLawReader(model);
+    this.laws = new Map(model.reactions.map((reaction) => [reaction, reader.read(reaction)]));
+    this.inReactions = new Set(model.reactions.flatMap((reaction) => [...reaction.reactants, ...reaction.products].map((each) => each.species)));
   }
 
   translate(): SbmlImport {
@@ -99,13 +103,13 @@ class Translation {
    * only refer to identifiers), else the id. Returns the species that take part, in file order.
    */
   private nameSpecies(): SbmlSpecies[] {
-    const inReactions = new Set(this.model.reactions.flatMap((reaction) => [...reaction.reactants, ...reaction.products].map((each) => each.species)));
+    const inReactions = this.inReactions;
     const inCustomLaws = this.symbolsInLaws((reading) => reading.kind === "custom");
     const nameCounts = new Map<string, number>();
     for (const { name } of this.model.species) if (name !== null) nameCounts.set(name, (nameCounts.get(name) ?? 0) + 1);
 
     const used = this.model.species.filter((species) => inReactions.has(species.id) || inCustomLaws.has(species.id));
-    const unused = this.model.species.filter((species) => !used.includes(species));
+    const unused = this.model.species.filter((species) => !inReactions.has(species.id) && !inCustomLaws.has(species.id));
     if (unused.length > 0) this.warnings.push(`Species ${unused.map((each) => each.id).join(", ")} take part in no reaction and are left out.`);
     for (const species of used) {
       const name = species.name;
@@ -125,8 +129,7 @@ class Translation {
   }
 
   private isFixed(species: SbmlSpecies): boolean {
-    const inReactions = this.model.reactions.some((reaction) => [...reaction.reactants, ...reaction.products].some((each) => each.species === species.id));
-    return species.boundaryCondition || !inReactions;
+    return species.boundaryCondition || !this.inReactions.has(species.id);
   }
 
   /** Model-wide ids that the kinetic laws (of the readings that pass the filter) refer to. */

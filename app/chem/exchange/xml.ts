@@ -21,6 +21,9 @@ export type XmlReading = { ok: true; root: XmlElement } | { ok: false; error: st
 
 type OrderedNode = Record<string, unknown> & { ":@"?: Record<string, string> };
 
+/** Deeper than any real kinetic law, shallow enough that no reader here runs out of stack. */
+const maxDepth = 200;
+
 const parser = new XMLParser({
   preserveOrder: true,
   ignoreAttributes: false,
@@ -30,6 +33,7 @@ const parser = new XMLParser({
   trimValues: true,
   htmlEntities: true,
   commentPropName: false,
+  maxNestedTags: maxDepth,
 });
 
 export function readXml(text: string): XmlReading {
@@ -41,7 +45,15 @@ export function readXml(text: string): XmlReading {
     const where = line ? ` (line ${line}${col ? `, column ${col}` : ""})` : "";
     return { ok: false, error: `The file is not well-formed XML${where}: ${msg}` };
   }
-  const roots = (parser.parse(text) as OrderedNode[]).filter((node) => !tagOf(node).startsWith("?"));
+  let nodes: OrderedNode[];
+  try {
+    nodes = parser.parse(text) as OrderedNode[];
+  } catch (error) {
+    const message = error instanceof Error ? error.message : String(error);
+    if (/nested/i.test(message)) return { ok: false, error: `The file nests elements more than ${maxDepth} deep, which Mechweave does not read.` };
+    return { ok: false, error: `The file cannot be read as XML: ${message}` };
+  }
+  const roots = nodes.filter((node) => !tagOf(node).startsWith("?"));
   if (roots.length !== 1) return { ok: false, error: "The file is not well-formed XML: it must have exactly one root element." };
   return { ok: true, root: toElement(roots[0], new Map([["", ""]])) };
 }
