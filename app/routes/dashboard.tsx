@@ -4,6 +4,7 @@ import { createMechanism, listMechanismsFor } from "../../server/db/mechanisms";
 import { RolePill } from "~/components/role-pill";
 import { requireUser } from "~/utils/auth.server";
 import { titleField } from "~/utils/fields";
+import { importSbmlFile } from "~/utils/import.server";
 import { timeAgo } from "~/utils/format";
 import type { Route } from "./+types/dashboard";
 
@@ -18,6 +19,17 @@ export async function loader(args: Route.LoaderArgs) {
 export async function action(args: Route.ActionArgs) {
   const user = await requireUser(args);
   const form = await args.request.formData();
+  if (form.get("intent") === "import") {
+    const file = form.get("file");
+    if (!(file instanceof File) || file.size === 0) return Response.json({ error: "Choose an SBML file to import." }, { status: 400 });
+    try {
+      const { row } = await importSbmlFile(args.context, user, await file.text(), file.name);
+      throw redirect(`/m/${row.id}`);
+    } catch (error) {
+      if (error instanceof Response && error.status >= 400) return Response.json(await error.json(), { status: error.status });
+      throw error;
+    }
+  }
   const title = titleField.safeParse(form.get("title"));
   if (!title.success) return Response.json({ error: title.error.issues[0].message }, { status: 400 });
   const row = await createMechanism(args.context.db, user.id, { title: title.data, source: "# Write one reaction step a line, e.g.\n# A + B -> C @ k1 = 0.5\n" });
@@ -54,6 +66,13 @@ export default function Dashboard({ loaderData, actionData }: Route.ComponentPro
             {failed?.error && <p className="mt-1 text-xs text-danger">{failed.error}</p>}
           </div>
           <button className="btn btn-primary" type="submit" disabled={busy}>New mechanism</button>
+        </Form>
+        <Form method="post" encType="multipart/form-data" className="flex items-center gap-2">
+          <input type="hidden" name="intent" value="import" />
+          <label className="btn">
+            Import SBML…
+            <input type="file" name="file" accept=".xml,.sbml" className="sr-only" onChange={(e) => e.currentTarget.form?.requestSubmit()} />
+          </label>
         </Form>
       </div>
 

@@ -45,8 +45,8 @@ export async function action(args: Route.ActionArgs) {
   throw httpError(400, "Unknown action.");
 }
 
-const tabs = ["Graph", "Structure", "Dynamics", "Files & settings"] as const;
-type Tab = (typeof tabs)[number];
+const allTabs = ["Graph", "Structure", "Dynamics", "Files & settings"] as const;
+type Tab = (typeof allTabs)[number];
 
 export default function MechanismPage({ loaderData, actionData }: Route.ComponentProps) {
   const { mechanism, role, user, signedIn } = loaderData;
@@ -57,6 +57,8 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   const source = useMemo(() => room.doc?.getText("source") ?? null, [room.doc]);
   const layout = useMemo(() => room.doc?.getMap("layout") ?? null, [room.doc]);
   const report = room.analysis.report ?? null;
+  // A view-link guest sees the live mechanism and nothing else: no files, no settings.
+  const tabs = signedIn ? allTabs : allTabs.filter((name) => name !== "Files & settings");
 
   return (
     <main className="mx-auto max-w-[96rem] px-6 py-5">

@@ -1,0 +1,33 @@
+// A mechanism as a file: SBML Level 3 Core, a LaTeX document, or its stoichiometric matrix as CSV.
+import { analyzeSource } from "~/chem/analysis";
+import { stoichiometricMatrixCsv } from "~/chem/exchange/csv";
+import { exportLatex } from "~/chem/exchange/latex";
+import { exportSbml } from "~/chem/exchange/sbml-export";
+import { parseMechanism } from "~/chem/parse";
+import { httpError } from "~/utils/http";
+import { requireRole } from "~/utils/permissions.server";
+import type { Route } from "./+types/export";
+
+const formats = {
+  sbml: { type: "application/sbml+xml; charset=utf-8", extension: "xml" },
+  latex: { type: "application/x-tex; charset=utf-8", extension: "tex" },
+  csv: { type: "text/csv; charset=utf-8", extension: "csv" },
+} as const;
+
+export async function loader(args: Route.LoaderArgs) {
+  const { mechanism } = await requireRole(args, args.params.id, "viewer");
+  const format = new URL(args.request.url).searchParams.get("format") ?? "";
+  if (!(format in formats)) return httpError(400, "Ask for format=sbml, latex or csv.");
+  const parsed = parseMechanism(mechanism.source);
+  const error = parsed.diagnostics.find((d) => d.severity === "error");
+  if (error) return httpError(400, `Fix the mechanism before exporting it: line ${error.line}: ${error.message}`);
+  const chosen = formats[format as keyof typeof formats];
+  const body =
+    format === "sbml"
+      ? exportSbml(parsed.mechanism, { title: mechanism.title })
+      : format === "latex"
+        ? exportLatex(parsed.mechanism, await analyzeSource(mechanism.source), { title: mechanism.title })
+        : stoichiometricMatrixCsv(await analyzeSource(mechanism.source));
+  const filename = `${mechanism.title.replace(/[^\w.-]+/g, "-").replace(/^-|-$/g, "") || mechanism.id}.${chosen.extension}`;
+  return new Response(body, { headers: { "Content-Type": chosen.type, "Content-Disposition": `attachment; filename="${filename}"` } });
+}

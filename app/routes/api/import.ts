@@ -1,0 +1,23 @@
+// POST /api/v1/mechanisms/import: a multipart `file` field, or the raw XML as the body.
+import { requireUser } from "~/utils/auth.server";
+import { httpError } from "~/utils/http";
+import { importSbmlFile, MAX_SBML_BYTES } from "~/utils/import.server";
+import type { Route } from "./+types/import";
+
+async function readUpload(request: Request): Promise<{ xml: string; filename: string | null }> {
+  if (Number(request.headers.get("Content-Length") ?? 0) > MAX_SBML_BYTES + 64 * 1024) throw httpError(413, "The file is over 4 MiB.");
+  if ((request.headers.get("Content-Type") ?? "").startsWith("multipart/form-data")) {
+    const file = (await request.formData()).get("file");
+    if (!(file instanceof File)) throw httpError(400, "Send the SBML file in a form field named file.");
+    return { xml: await file.text(), filename: file.name };
+  }
+  return { xml: await request.text(), filename: null };
+}
+
+export async function action(args: Route.ActionArgs) {
+  if (args.request.method !== "POST") return httpError(405, "Use POST with an SBML file.");
+  const user = await requireUser(args);
+  const { xml, filename } = await readUpload(args.request);
+  const { row, warnings } = await importSbmlFile(args.context, user, xml, filename);
+  return Response.json({ id: row.id, title: row.title, summary: row.summary, source: row.source, role: "owner", warnings }, { status: 201 });
+}
