@@ -72,13 +72,28 @@ describe("mechweave realize", () => {
     expect(out.mechanism).toContain("y -> 0 @ 3");
   });
 
+  it("Lotka–Volterra with 2y as a candidate: the sparse realization is the textbook X → 2X, X + Y → 2Y, Y → 0", async () => {
+    const { code, stdout } = await realize(fixture("lotka-volterra.ode"), "--equivalents", "--complexes", "2y", "--json");
+    expect(code).toBe(0);
+    const { sparse } = JSON.parse(stdout).equivalents;
+    expect(sparse).toMatchObject({ status: "found", reactions: 3, optimal: true });
+    const steps = sparse.mechanism.split("\n").filter((l: string) => l.includes("->")).map((l: string) => l.replace(/ @ .*/, ""));
+    expect(steps.sort()).toEqual(["x + y -> 2y", "x -> 2x", "y -> 0"]);
+  });
+
   it("exits 1 with diagnostics for errors in the file", async () => {
     const bad = await realize(fixture("not-polynomial.ode"), "--json");
     expect(bad.code).toBe(1);
     expect(JSON.parse(bad.stdout).diagnostics[0]).toMatchObject({ line: 2, message: expect.stringContaining("division") });
   });
 
-  it.each([[["--json"]], [[fixture("lorenz.ode"), "--shift", "w=3"]], [[fixture("lorenz.ode"), "--frobnicate"]], [["missing.ode"]]])(
+  it.each([
+    [["--json"]],
+    [[fixture("lorenz.ode"), "--shift", "w=3"]],
+    [[fixture("lorenz.ode"), "--frobnicate"]],
+    [["missing.ode"]],
+    [[fixture("lotka-volterra.ode"), "--equivalents", "--complexes", "2w"]],
+  ])(
     "exits 2 on bad usage %j, without a stack trace",
     async (args) => {
       const usage = await realize(...args);

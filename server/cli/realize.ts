@@ -1,13 +1,13 @@
-// `mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply[=x*y]] [--until T] [--equivalents
-// [--time-limit S]] [--json]`: a thin shell around realizeOde. `--shift` without a value (or
-// followed by the file name) means "use the shift suggested from a simulated bounding box";
-// `--multiply` alone multiplies by the product of all variables.
+// `mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply[=x*y]] [--until T]
+// [--equivalents [--complexes 2y,x+y] [--time-limit S]] [--json]`: a thin shell around realizeOde.
+// `--shift` without a value (or followed by the file name) means "use the shift suggested from a
+// simulated bounding box"; `--multiply` alone multiplies by the product of all variables.
 // Exit 0 on success, 1 when the file has errors, 2 on bad usage.
 import { readFile } from "node:fs/promises";
 import type { RealizeOdeRequest, RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { realizeOde, RealizeRequestError } from "~/chem/realize/realize-ode";
 
-const usage = "usage: mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply[=x*y]] [--until T] [--equivalents [--time-limit S]] [--json]";
+const usage = "usage: mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply[=x*y]] [--until T] [--equivalents [--complexes 2y,x+y] [--time-limit S]] [--json]";
 
 class UsageError extends Error {}
 
@@ -43,6 +43,12 @@ export function readArguments(args: string[]): Invocation {
       case "--until":
         request.until = positiveNumber("--until", inline ?? args[++k]);
         break;
+      case "--complexes": {
+        const value = inline ?? args[++k];
+        if (value === undefined) throw new UsageError("--complexes needs a list such as 2y,x+y");
+        request.complexes = value.split(",").map((c) => c.trim());
+        break;
+      }
       case "--time-limit":
         timeLimit = positiveNumber("--time-limit", inline ?? args[++k]);
         break;
@@ -58,8 +64,10 @@ export function readArguments(args: string[]): Invocation {
     }
   }
   if (file === null) throw new UsageError("no ODE file given");
+  if ((timeLimit !== undefined || request.complexes) && !request.equivalents) {
+    throw new UsageError("--time-limit and --complexes go with --equivalents");
+  }
   if (timeLimit !== undefined) {
-    if (!request.equivalents) throw new UsageError("--time-limit goes with --equivalents");
     request.equivalents = { timeLimitMs: timeLimit * 1000 };
   }
   return { file, json, request };

@@ -13,6 +13,7 @@ import * as Q from "../ode/rational";
 import { boundingBox, DEFAULT_HORIZON, suggestShift } from "../ode/suggest-shift";
 import type { Horizon, ShiftSuggestion } from "../ode/suggest-shift";
 import { multiplyByMonomial, productOfAllVariables, smallestMultiplier, translate } from "../ode/transform";
+import { readComplexes } from "./candidate-complexes";
 import { canonicalRealization } from "./canonical";
 import type { EquivalentOptions, EquivalentRealizations } from "./equivalents";
 import { equivalentRealizations } from "./equivalents";
@@ -29,6 +30,8 @@ export interface RealizeOdeRequest {
   until?: number;
   /** Also search for sparse, dense and weakly reversible realizations. */
   equivalents?: boolean | EquivalentOptions;
+  /** Extra candidate complexes for that search, as written in a mechanism (`2y`, `x + y`). */
+  complexes?: string[];
 }
 
 export interface CrossEffectReport {
@@ -112,7 +115,9 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
     result.notes.push(`Cost: ${result.reactions} steps of order up to ${result.maxOrder}, for an ODE of degree ${degree(given)}.`);
   }
   if (request.equivalents) {
-    result.equivalents = await equivalentRealizations(ode, request.equivalents === true ? {} : request.equivalents);
+    const options = request.equivalents === true ? {} : request.equivalents;
+    const extra = candidateComplexes(request.complexes ?? [], ode.variables);
+    result.equivalents = await equivalentRealizations(ode, { ...options, extraComplexes: [...(options.extraComplexes ?? []), ...extra] });
   }
   return result;
 }
@@ -172,6 +177,14 @@ function shiftVector(ode: ExactOde, shift: Record<string, number>) {
     if (!Number.isFinite(value)) throw new RealizeRequestError(`the shift of ${v} is not a number`);
     return Q.fromNumber(value);
   });
+}
+
+function candidateComplexes(texts: string[], variables: string[]) {
+  try {
+    return readComplexes(texts, variables);
+  } catch (error) {
+    throw new RealizeRequestError((error as Error).message);
+  }
 }
 
 function exponentVector(ode: ExactOde, exponents: Record<string, number>) {
