@@ -110,7 +110,10 @@ class Translation {
 
     const used = this.model.species.filter((species) => inReactions.has(species.id) || inCustomLaws.has(species.id));
     const unused = this.model.species.filter((species) => !inReactions.has(species.id) && !inCustomLaws.has(species.id));
-    if (unused.length > 0) this.warnings.push(`Species ${unused.map((each) => each.id).join(", ")} take part in no reaction and are left out.`);
+    if (unused.length > 0) {
+      const [takes, is] = unused.length === 1 ? ["takes", "is"] : ["take", "are"];
+      this.warnings.push(`Species ${unused.map((each) => each.id).join(", ")} ${takes} part in no reaction and ${is} left out.`);
+    }
     for (const species of used) {
       const name = species.name;
       const usable =

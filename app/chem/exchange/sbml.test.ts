@@ -197,6 +197,116 @@ describe("SBML import of hand-written textbook models", () => {
   });
 });
 
+describe("SBML import of features that files written elsewhere use", () => {
+  const model = `<?xml version="1.0" encoding="UTF-8"?>
+<sbml xmlns="http://www.sbml.org/sbml/level3/version2/core" level="3" version="2">
+  <model id="elsewhere">
+    <listOfFunctionDefinitions>
+      <functionDefinition id="saturating">
+        <math xmlns="http://www.w3.org/1998/Math/MathML">
+          <lambda><bvar><ci>V</ci></bvar><bvar><ci>K</ci></bvar><bvar><ci>x</ci></bvar>
+            <apply><divide/><apply><times/><ci>V</ci><ci>x</ci></apply><apply><plus/><ci>K</ci><ci>x</ci></apply></apply>
+          </lambda>
+        </math>
+      </functionDefinition>
+    </listOfFunctionDefinitions>
+    <listOfCompartments>
+      <compartment id="cytosol" size="2" constant="true"/>
+      <compartment id="nucleus" size="1" constant="true"/>
+    </listOfCompartments>
+    <listOfSpecies>
+      <species id="S" name="glucose 6-phosphate" compartment="cytosol" initialConcentration="4" hasOnlySubstanceUnits="false" boundaryCondition="false" constant="false"/>
+      <species id="E" name="enzyme" compartment="cytosol" initialConcentration="0.2" hasOnlySubstanceUnits="false" boundaryCondition="false" constant="false"/>
+      <species id="P" compartment="cytosol" hasOnlySubstanceUnits="false" boundaryCondition="false" constant="false"/>
+      <species id="X" name="ATP" compartment="cytosol" initialConcentration="1" hasOnlySubstanceUnits="false" boundaryCondition="false" constant="false"/>
+      <species id="Y" name="ATP" compartment="nucleus" hasOnlySubstanceUnits="false" boundaryCondition="false" constant="false"/>
+      <species id="Q" name="Fe3+" compartment="cytosol" initialAmount="3" hasOnlySubstanceUnits="true" boundaryCondition="false" constant="false"/>
+      <species id="Z" compartment="cytosol" hasOnlySubstanceUnits="false" boundaryCondition="false" constant="false"/>
+    </listOfSpecies>
+    <listOfParameters>
+      <parameter id="Vmax" value="3" constant="true"/>
+      <parameter id="Km" value="0.5" constant="true"/>
+      <parameter id="k1" value="0.1" constant="true"/>
+      <parameter id="k2" value="4" constant="true"/>
+      <parameter id="total" constant="false"/>
+    </listOfParameters>
+    <listOfRules>
+      <assignmentRule variable="total"><math xmlns="http://www.w3.org/1998/Math/MathML"><apply><plus/><ci>S</ci><ci>P</ci></apply></math></assignmentRule>
+    </listOfRules>
+    <listOfReactions>
+      <reaction id="convert" reversible="false">
+        <listOfReactants><speciesReference species="S" stoichiometry="1" constant="true"/></listOfReactants>
+        <listOfProducts><speciesReference species="P" stoichiometry="1" constant="true"/></listOfProducts>
+        <listOfModifiers><modifierSpeciesReference species="E"/></listOfModifiers>
+        <kineticLaw>
+          <math xmlns="http://www.w3.org/1998/Math/MathML">
+            <apply><times/><ci>cytosol</ci><ci>E</ci><apply><ci>saturating</ci><ci>Vmax</ci><ci>Km</ci><ci>S</ci></apply></apply>
+          </math>
+        </kineticLaw>
+      </reaction>
+      <reaction id="r2" name="transport step" reversible="true">
+        <listOfReactants><speciesReference species="X" stoichiometry="1" constant="true"/></listOfReactants>
+        <listOfProducts><speciesReference species="Y" stoichiometry="1" constant="true"/></listOfProducts>
+        <kineticLaw><math xmlns="http://www.w3.org/1998/Math/MathML"><apply><times/><ci>k1</ci><ci>X</ci></apply></math></kineticLaw>
+      </reaction>
+      <reaction id="r3" name="combine" reversible="false">
+        <listOfReactants>
+          <speciesReference species="X" stoichiometry="1" constant="true"/>
+          <speciesReference species="Y" stoichiometry="1" constant="true"/>
+        </listOfReactants>
+        <listOfProducts><speciesReference species="Q" stoichiometry="1" constant="true"/></listOfProducts>
+        <kineticLaw><math xmlns="http://www.w3.org/1998/Math/MathML"><apply><times/><cn>2</cn><ci>k1</ci><ci>k2</ci><ci>X</ci><ci>Y</ci></apply></math></kineticLaw>
+      </reaction>
+      <reaction id="r4" reversible="false">
+        <listOfReactants><speciesReference species="Q" constant="true"/></listOfReactants>
+        <kineticLaw><math xmlns="http://www.w3.org/1998/Math/MathML"><apply><times/><ci>k1</ci><ci>Q</ci></apply></math></kineticLaw>
+      </reaction>
+      <reaction id="r5" reversible="false">
+        <listOfReactants><speciesReference species="P" stoichiometry="1" constant="true"/></listOfReactants>
+      </reaction>
+    </listOfReactions>
+  </model>
+</sbml>`;
+
+  // S is named by its id, since a custom law uses it and "glucose 6-phosphate" is no identifier;
+  // the two species named ATP keep their ids; "transport step" is no label, so r2 stays.
+  it("translates every step and says what it changed", async () => {
+    expect(checkSbml(model)).toEqual([]);
+    const back = imported(model);
+    expect(back.title).toBe("elsewhere");
+    expect(back.source).toBe(`# Imported from SBML Level 3 Version 2: elsewhere
+convert: S -> P @ { enzyme * Vmax * S / (Km + S) }
+r2: X -> Y @ k1
+combine: X + Y -> "Fe3+" @ 0.8
+r4: "Fe3+" -> 0 @ k1
+r5: P -> 0
+
+Vmax = 3
+Km = 0.5
+k1 = 0.1
+k2 = 4
+[S]0 = 4
+[X]0 = 1
+["Fe3+"]0 = 3
+fixed [enzyme] = 0.2
+`);
+    expect(back.warnings).toEqual([
+      "The file's rules are not imported: Mechweave reads species, parameters and reactions with their kinetic laws.",
+      "Mechweave models one well-mixed volume: every compartment is read with size 1, and concentrations as given.",
+      "Parameter total has no value and no law uses it; it is left out.",
+      "Species Z takes part in no reaction and is left out.",
+      "Species E appears only in rate laws, so nothing changes it: it is held at its initial concentration (fixed).",
+      "Reaction convert: its kinetic law is not mass action (it is not a product of a rate coefficient and species concentrations); it is kept as a custom rate law.",
+      "Reaction r2 is marked reversible but its kinetic law has no backward term; it is read as irreversible.",
+      "Reaction r3: its rate coefficient combines several parameters and is written as its value.",
+      "Reaction r4: a species reference gives no stoichiometry; it is read as 1.",
+      "Reaction r5 has no kinetic law, so its step has no rate coefficient.",
+    ]);
+    const report = await analyzeSource(back.source);
+    expect(report.diagnostics.filter((each) => each.severity === "error")).toEqual([]);
+  });
+});
+
 describe("SBML import refuses bad files with clear errors", () => {
   const good = fixture("brusselator");
   const cases: [string, string, RegExp][] = [
