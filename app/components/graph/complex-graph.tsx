@@ -18,11 +18,11 @@ import { type CSSProperties, useEffect, useId, useMemo, useRef, useState } from 
 import type * as Y from "yjs";
 import { ComplexNodeView, type ComplexNode } from "./complex-node";
 import { GraphLegend } from "./graph-legend";
-import { buildGraphModel, complexLabel, type ComplexGraphReport, type GraphModel } from "./graph-model";
-import { estimateNodeSize, placeComplexes, type XY } from "./layout";
+import { buildGraphModel, type ComplexGraphReport, type GraphModel } from "./graph-model";
+import type { XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
 import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
-import { useSharedLayout } from "./use-shared-layout";
+import { useComplexPositions } from "./use-complex-positions";
 
 export type { ComplexGraphReport } from "./graph-model";
 
@@ -90,7 +90,7 @@ export function ComplexGraph(props: ComplexGraphProps) {
 
 function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: ComplexGraphProps) {
   const model = useMemo(() => (report ? buildGraphModel(report) : null), [report]);
-  const positions = useComplexPositions(model, report, layout, canEdit, synced);
+  const positions = useComplexPositions(report, layout, { canEdit, synced });
   const [nodes, setNodes] = useState<ComplexNode[]>([]);
   // Held by id (complex text), not index, so the same complex stays selected while the text changes.
   const [selected, setSelected] = useState<Chosen | null>(null);
@@ -210,47 +210,6 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
 }
 
 const fitOptions = { padding: 0.2, maxZoom: 1.15 };
-
-/**
- * Positions for every complex: the shared ones, plus dagre's for the rest. An editor writes its
- * placements to the shared map once the room is synced; a viewer (or anyone before sync) keeps
- * them locally, so nothing it computes can overwrite a co-author's layout.
- */
-function useComplexPositions(
-  model: GraphModel | null,
-  report: ComplexGraphReport | null,
-  layout: Y.Map<unknown> | null,
-  canEdit: boolean,
-  synced: boolean,
-) {
-  const shared = useSharedLayout(layout);
-  const [local, setLocal] = useState<Record<string, XY>>({});
-  const sharing = canEdit && synced;
-
-  // Local placements made against an incomplete picture are dropped once the real one arrives.
-  useEffect(() => setLocal({}), [synced, layout]);
-
-  const known = useMemo(() => ({ ...local, ...shared.positions }), [local, shared.positions]);
-  const placed = useMemo(() => {
-    if (!model || !report) return {};
-    return placeComplexes({
-      keys: report.complexes,
-      reactions: report.reactions,
-      linkageClasses: report.linkageClasses,
-      known,
-      sizeOf: (key) => estimateNodeSize(complexLabel(key)),
-    });
-  }, [model, report, known]);
-
-  useEffect(() => {
-    if (Object.keys(placed).length === 0) return;
-    if (sharing) shared.write(placed);
-    else setLocal((current) => ({ ...current, ...placed }));
-  }, [placed, sharing, shared.write]);
-
-  const all = useMemo(() => ({ ...known, ...placed }), [known, placed]);
-  return { all, write: shared.write };
-}
 
 function buildNodes(model: GraphModel | null, positions: Readonly<Record<string, XY>>, previous: ComplexNode[]): ComplexNode[] {
   if (!model) return [];
