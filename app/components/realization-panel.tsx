@@ -24,7 +24,8 @@ interface RealizationPanelProps {
   variables: string[];
   busy?: boolean;
   onApply?: (choice: RealizationChoice) => void;
-  onSearchEquivalents?: () => void;
+  /** With the extra candidate complexes the user typed (as in a mechanism: `2y`, `x + y`). */
+  onSearchEquivalents?: (complexes: string[]) => void;
   onOpenMechanism?: (text: string) => void;
 }
 
@@ -38,6 +39,7 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
     result.transformations.some((t) => t.kind === "multiplication") ? "all" : "none",
   );
   const smallest = result.suggestedMultiplier;
+  const [complexes, setComplexes] = useState("");
   const given = result.original ?? { kinetic: result.kinetic, negativeCrossEffects: result.negativeCrossEffects };
   const errors = result.diagnostics.filter((d) => d.severity === "error");
 
@@ -128,10 +130,21 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
               onOpen={onOpenMechanism}
             />
           )}
-          {result.mechanism && !result.equivalents && onSearchEquivalents && (
-            <button type="button" className="btn mt-4" disabled={busy} onClick={onSearchEquivalents}>
-              Search sparse, dense and weakly reversible mechanisms with the same dynamics
-            </button>
+          {result.mechanism && onSearchEquivalents && (
+            <div className="mt-5 flex flex-wrap items-end gap-3">
+              <label className="min-w-64 flex-1 text-sm">
+                <span className="label">Extra candidate complexes (optional, comma-separated)</span>
+                <input className="field font-mono" value={complexes} placeholder="e.g. 2y, x + y" onChange={(e) => setComplexes(e.target.value)} />
+              </label>
+              <button
+                type="button"
+                className="btn"
+                disabled={busy}
+                onClick={() => onSearchEquivalents(complexes.split(",").map((c) => c.trim()).filter(Boolean))}
+              >
+                Search sparse, dense and weakly reversible mechanisms with the same dynamics
+              </button>
+            </div>
           )}
           {result.equivalents && (
             <div className="mt-5">
