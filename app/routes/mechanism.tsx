@@ -1,4 +1,7 @@
 import { useMemo, useRef, useState } from "react";
+import type * as Y from "yjs";
+import type { AnalysisReport } from "~/chem/analysis";
+import type { XY } from "~/components/graph/layout";
 import { Form, Link, redirect, useNavigation } from "react-router";
 import { deleteMechanism, renameMechanism } from "../../server/db/mechanisms";
 import { atLeast } from "../../server/db/roles";
@@ -12,6 +15,7 @@ import { FilesPanel } from "~/components/files-panel";
 import { titleField } from "~/utils/fields";
 import { httpError, requireRole, requireViewAccess } from "~/utils/permissions.server";
 import { stepRangesFor } from "~/utils/step-ranges";
+import { complexGraphSvg, currentThemeColours, downloadBlob, svgToPng } from "~/utils/graph-svg";
 import { pickColour, useRoom } from "~/utils/use-room";
 import type { Route } from "./+types/mechanism";
 
@@ -112,6 +116,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               </button>
             ))}
           </div>
+          {tab === "Graph" && report && layout && <GraphDownloads report={report} layout={layout} title={mechanism.title} />}
           {tab === "Graph" && (
             <ComplexGraph
               report={report}
@@ -130,6 +135,21 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
         </div>
       </section>
     </main>
+  );
+}
+
+function GraphDownloads({ report, layout, title }: { report: AnalysisReport; layout: Y.Map<unknown>; title: string }) {
+  const svg = () => complexGraphSvg(report, layout.toJSON() as Record<string, XY>, currentThemeColours());
+  const name = title.replace(/[^\w.-]+/g, "-") || "complex-graph";
+  return (
+    <div className="-mb-1 flex justify-end gap-2 text-xs">
+      <button type="button" className="btn px-2 py-1 text-xs" onClick={() => downloadBlob(new Blob([svg()], { type: "image/svg+xml" }), `${name}.svg`)}>
+        SVG
+      </button>
+      <button type="button" className="btn px-2 py-1 text-xs" onClick={() => void svgToPng(svg()).then((png) => downloadBlob(png, `${name}.png`))}>
+        PNG
+      </button>
+    </div>
   );
 }
 
