@@ -1,6 +1,7 @@
 import { CompletionContext } from "@codemirror/autocomplete";
 import { ensureSyntaxTree } from "@codemirror/language";
-import { EditorState } from "@codemirror/state";
+import { EditorState, type TransactionSpec } from "@codemirror/state";
+import type { EditorView } from "@codemirror/view";
 import { describe, expect, it } from "vitest";
 import { completeMechanismNames, mechanismNames } from "./complete";
 import { mechanism } from "./mechanism-language";
@@ -36,6 +37,20 @@ describe("name completion", () => {
 
   it("offers both inside a custom rate law", () => {
     expect(labelsAt(text + "Y -> X @ { |}")).toEqual(["X", '"Fe3+"', "Y", "k1"]);
+  });
+
+  it("replaces the closing quote typed ahead when a quoted name is picked", () => {
+    const doc = text + 'Y -> "Fe"';
+    const pos = doc.length - 1;
+    const state = EditorState.create({ doc, selection: { anchor: pos }, extensions: [mechanism()] });
+    ensureSyntaxTree(state, state.doc.length);
+    const result = completeMechanismNames(new CompletionContext(state, pos, true))!;
+    const option = result.options.find((candidate) => candidate.label === '"Fe3+"')!;
+    // The apply function only reads the state and dispatches, so a stand-in view will do without a DOM.
+    const view = { state, dispatch: (spec: TransactionSpec) => (view.state = view.state.update(spec).state) };
+    if (typeof option.apply !== "function") throw new Error("a quoted name applies itself");
+    option.apply(view as unknown as EditorView, option, result.from, pos);
+    expect(view.state.doc.toString()).toBe(text + 'Y -> "Fe3+"');
   });
 
   it("does not offer the half-typed word as a name of its own", () => {

@@ -1,6 +1,13 @@
 // Completion of the names a mechanism already uses: species where a complex or a declaration
 // expects one, rate coefficient names after `@`, both inside a custom rate law.
-import type { Completion, CompletionContext, CompletionResult } from "@codemirror/autocomplete";
+import {
+  type Completion,
+  type CompletionContext,
+  type CompletionResult,
+  insertCompletionText,
+  pickedCompletion,
+} from "@codemirror/autocomplete";
+import type { EditorView } from "@codemirror/view";
 import { syntaxTree } from "@codemirror/language";
 import type { SyntaxNode } from "@lezer/common";
 import { parseMechanism } from "~/chem/parse";
@@ -26,13 +33,22 @@ export function mechanismNames(source: string): MechanismNames {
 
 export function completionOptions(names: MechanismNames, kind: NameKind): Completion[] {
   // Labels are written as the text would spell them, so typing an opening quote filters too.
-  const species = (name: string, detail: string): Completion => ({ label: speciesToken(name), type: "variable", detail });
+  const species = (name: string, detail: string): Completion => {
+    const label = speciesToken(name);
+    return { label, type: "variable", detail, ...(label.startsWith('"') && { apply: replaceQuoted }) };
+  };
   const options: Completion[] = [];
   if (kind !== "parameter") {
     options.push(...names.species.map((name) => species(name, "species")), ...names.fixed.map((name) => species(name, "fixed species")));
   }
   if (kind !== "species") options.push(...names.parameters.map((name) => ({ label: name, type: "constant", detail: "rate coefficient" })));
   return options;
+}
+
+/** A quoted name also takes the place of the closing quote the editor typed ahead of the cursor. */
+function replaceQuoted(view: EditorView, completion: Completion, from: number, to: number): void {
+  const end = view.state.sliceDoc(to, to + 1) === '"' ? to + 1 : to;
+  view.dispatch({ ...insertCompletionText(view.state, completion.label, from, end), annotations: pickedCompletion.of(completion) });
 }
 
 /** Which names fit at a position, from the syntax node around it. */

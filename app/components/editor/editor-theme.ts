@@ -52,7 +52,12 @@ const editorChrome = EditorView.theme({
   ".cm-lintRange": { backgroundImage: "none", textDecorationLine: "underline", textDecorationStyle: "wavy", textUnderlineOffset: "3px" },
   ".cm-lintRange-error": { textDecorationColor: "var(--mw-danger)" },
   ".cm-lintRange-warning": { textDecorationColor: "var(--mw-signal)" },
-  ".cm-lint-marker-error, .cm-lint-marker-warning": { width: "0.8em", height: "0.8em" },
+  ".cm-lintPoint-error:after": { borderBottomColor: "var(--mw-danger)" },
+  ".cm-lintPoint-warning:after": { borderBottomColor: "var(--mw-signal)" },
+  // Gutter markers as plain dots in the theme colours; the stock icons carry fixed colours.
+  ".cm-lint-marker": { width: "0.55em", height: "0.55em", borderRadius: "50%", margin: "0.45em auto 0" },
+  ".cm-lint-marker-error": { content: "none", backgroundColor: "var(--mw-danger)" },
+  ".cm-lint-marker-warning": { content: "none", backgroundColor: "var(--mw-signal)" },
   ".cm-diagnostic": { fontFamily: sans, fontSize: "13px", padding: "4px 8px", borderLeftWidth: "3px" },
   ".cm-diagnostic-error": { borderLeftColor: "var(--mw-danger)" },
   ".cm-diagnostic-warning": { borderLeftColor: "var(--mw-signal)" },
@@ -86,6 +91,7 @@ const editorChrome = EditorView.theme({
     color: "var(--mw-ink)",
   },
   ".cm-searchMatch": { backgroundColor: "var(--mw-signal-soft)" },
+  ".cm-selectionMatch": { backgroundColor: "color-mix(in oklab, var(--mw-accent) 14%, transparent)" },
   ".cm-searchMatch.cm-searchMatch-selected": { outline: "1px solid var(--mw-signal)" },
 
   // Co-authors' name labels stay visible: in a live session, who is typing where is the point.
