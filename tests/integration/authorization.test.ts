@@ -54,6 +54,53 @@ const checks: Check[] = [
     call: (c) => c.post(`/m/${mechanismId}/members`, { intent: "add", email: "nobody@example.test", role: "viewer" }),
     expected: { owner: 400, editor: 403, viewer: 403, stranger: 404, signedOut: 302 },
   },
+  { name: "GET /m/:id/history", call: (c) => c.get(`/m/${mechanismId}/history`), expected: page },
+  { name: "GET /m/:id/projector", call: (c) => c.get(`/m/${mechanismId}/projector`), expected: page },
+  { name: "GET /api/v1/mechanisms/:id/snapshots", call: (c) => c.get(`/api/v1/mechanisms/${mechanismId}/snapshots`), expected: api },
+  {
+    name: "POST /api/v1/mechanisms/:id/snapshots",
+    call: (c) => c.json(`/api/v1/mechanisms/${mechanismId}/snapshots`, "POST", { name: "checkpoint" }),
+    expected: { owner: 201, editor: 201, viewer: 403, stranger: 404, signedOut: 401 },
+  },
+  {
+    name: "PUT /api/v1/mechanisms/:id/source",
+    call: (c) => c.json(`/api/v1/mechanisms/${mechanismId}/source`, "PUT", { source: "A + B -> C @ 1\n" }),
+    expected: { owner: 200, editor: 200, viewer: 403, stranger: 404, signedOut: 401 },
+  },
+  {
+    name: "POST /api/v1/mechanisms/:id/simulations",
+    call: (c) => c.json(`/api/v1/mechanisms/${mechanismId}/simulations`, "POST", { until: 1, samples: 3 }),
+    expected: api,
+  },
+  { name: "GET /api/v1/mechanisms/:id/export", call: (c) => c.get(`/api/v1/mechanisms/${mechanismId}/export?format=csv`), expected: api },
+  {
+    name: "POST /api/v1/mechanisms/:id/invitations",
+    call: (c) => c.json(`/api/v1/mechanisms/${mechanismId}/invitations`, "POST", { email: "walk@example.test", role: "viewer" }),
+    expected: { owner: 201, editor: 403, viewer: 403, stranger: 404, signedOut: 401 },
+  },
+  {
+    name: "POST /api/v1/mechanisms/:id/view-links",
+    call: (c) => c.json(`/api/v1/mechanisms/${mechanismId}/view-links`, "POST", {}),
+    expected: { owner: 201, editor: 403, viewer: 403, stranger: 404, signedOut: 401 },
+  },
+  {
+    name: "DELETE /api/v1/mechanisms/:id/view-links/:linkId",
+    call: (c) => c.request(`/api/v1/mechanisms/${mechanismId}/view-links/00000000-0000-0000-0000-000000000000`, { method: "DELETE" }),
+    expected: { owner: 404, editor: 403, viewer: 403, stranger: 404, signedOut: 401 },
+  },
+  {
+    name: "POST /api/v1/mechanisms/:id/dynamics",
+    call: (c) => c.json(`/api/v1/mechanisms/${mechanismId}/dynamics`, "POST", { kind: "simulate", source: "A -> B @ 1\n[A]0 = 1\n", settings: { until: 1, samples: 3 } }),
+    expected: api,
+  },
+  { name: "POST /api/v1/analyze", call: (c) => c.json("/api/v1/analyze", "POST", { source: "A -> B" }), expected: { owner: 200, editor: 200, viewer: 200, stranger: 200, signedOut: 401 } },
+  {
+    name: "POST /api/v1/realizations",
+    call: (c) => c.json("/api/v1/realizations", "POST", { ode: "x' = -x" }),
+    expected: { owner: 200, editor: 200, viewer: 200, stranger: 200, signedOut: 401 },
+  },
+  { name: "GET /realize", call: (c) => c.get("/realize"), expected: { owner: 200, editor: 200, viewer: 200, stranger: 200, signedOut: 302 } },
+  { name: "GET /settings/tokens", call: (c) => c.get("/settings/tokens"), expected: { owner: 200, editor: 200, viewer: 200, stranger: 200, signedOut: 302 } },
   { name: "GET /api/v1/mechanisms", call: (c) => c.get("/api/v1/mechanisms"), expected: { owner: 200, editor: 200, viewer: 200, stranger: 200, signedOut: 401 } },
   { name: "GET /api/v1/mechanisms/:id", call: (c) => c.get(`/api/v1/mechanisms/${mechanismId}`), expected: api },
   {
