@@ -113,6 +113,7 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
         source: edge.source,
         target: edge.target,
         selected: selected?.kind === "reaction" && selected.id === edge.id,
+        ariaLabel: edge.description,
         data: { bend: edge.bend, label: edge.label, marker },
       })),
     [model, selected, marker],
@@ -220,12 +221,13 @@ function buildNodes(model: GraphModel | null, positions: Readonly<Record<string,
       ...old,
       id: complex.key,
       type: "complex",
+      ariaLabel: complex.description,
       position: old?.dragging ? old.position : (positions[complex.key] ?? old?.position ?? { x: 0, y: 0 }),
       data: {
         label: complex.label,
         colours: linkageClassColours(complex.linkageClass),
         terminal: complex.terminal,
-        linkageClass: complex.linkageClass,
+        description: complex.description,
       },
     };
   });

@@ -7,7 +7,7 @@ export type ComplexNodeData = {
   label: string;
   colours: ClassColours;
   terminal: boolean;
-  linkageClass: number;
+  description: string;
 };
 
 export type ComplexNode = Node<ComplexNodeData, "complex">;
@@ -28,7 +28,7 @@ export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
         // A soft halo, not a second line: a crisp ring would read as the terminal double rim.
         boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : undefined,
       }}
-      title={`${data.label} · linkage class ${data.linkageClass + 1}${data.terminal ? " · terminal" : ""}`}
+      title={data.description}
     >
       <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       {data.label}

@@ -36,6 +36,12 @@ describe("graph model", () => {
     expect(model.edges[2]).toMatchObject({ source: "X + Y", target: "2Y", label: "k2", index: 2 });
     expect(model.edges[3].label).toBe("10");
   });
+
+  it("describes complexes and reactions in words for screen readers", () => {
+    expect(model.nodes[5].description).toBe("Complex ∅, linkage class 3, terminal");
+    expect(model.nodes[2].description).toBe("Complex X + Y, linkage class 2");
+    expect(model.edges[2].description).toBe("Reaction X + Y to 2Y, rate coefficient k2");
+  });
 });
 
 describe("rate labels", () => {

@@ -19,6 +19,8 @@ export interface ComplexNodeModel {
   label: string;
   linkageClass: number;
   terminal: boolean;
+  /** Said by screen readers and shown on hover. */
+  description: string;
 }
 
 export interface ReactionEdgeModel {
@@ -29,6 +31,7 @@ export interface ReactionEdgeModel {
   /** +1 when the reverse reaction is drawn too: each of the pair bows to its own left. */
   bend: 0 | 1;
   label: string | null;
+  description: string;
 }
 
 export interface GraphModel {
@@ -43,22 +46,26 @@ export const complexLabel = (text: string) => (text === "0" ? "∅" : text);
 export function buildGraphModel(report: ComplexGraphReport): GraphModel {
   const classOf = membership(report.linkageClasses);
   const terminal = new Set(report.terminalStrongLinkageClasses.flat());
-  const nodes = report.complexes.map((text, index) => ({
-    key: text,
-    index,
-    label: complexLabel(text),
-    linkageClass: classOf.get(index) ?? report.linkageClasses.length,
-    terminal: terminal.has(index),
-  }));
+  const nodes = report.complexes.map((text, index) => {
+    const linkageClass = classOf.get(index) ?? report.linkageClasses.length;
+    const isTerminal = terminal.has(index);
+    const description = `Complex ${complexLabel(text)}, linkage class ${linkageClass + 1}${isTerminal ? ", terminal" : ""}`;
+    return { key: text, index, label: complexLabel(text), linkageClass, terminal: isTerminal, description };
+  });
   const directed = new Set(report.reactions.map(({ from, to }) => `${from}>${to}`));
-  const edges = report.reactions.map(({ from, to, rate, coefficient }, index) => ({
-    id: `${report.complexes[from]} → ${report.complexes[to]}`,
-    index,
-    source: report.complexes[from],
-    target: report.complexes[to],
-    bend: directed.has(`${to}>${from}`) ? (1 as const) : (0 as const),
-    label: coefficient ?? (rate == null ? null : rateText(rate)),
-  }));
+  const edges = report.reactions.map(({ from, to, rate, coefficient }, index) => {
+    const label = coefficient ?? (rate == null ? null : rateText(rate));
+    const [source, target] = [report.complexes[from], report.complexes[to]];
+    return {
+      id: `${source} → ${target}`,
+      index,
+      source,
+      target,
+      bend: directed.has(`${to}>${from}`) ? (1 as const) : (0 as const),
+      label,
+      description: `Reaction ${complexLabel(source)} to ${complexLabel(target)}${label ? `, rate coefficient ${label}` : ""}`,
+    };
+  });
   return { nodes, edges, linkageClassCount: report.linkageClasses.length };
 }
 
