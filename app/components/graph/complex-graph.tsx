@@ -105,22 +105,27 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
     setNodes((previous) => buildNodes(model, positions.all, previous));
   }, [model, positions.all]);
 
-  const edges = useMemo<ReactionEdge[]>(
-    () =>
-      (model?.edges ?? []).map((edge) => ({
-        id: edge.id,
-        type: "reaction",
-        source: edge.source,
-        target: edge.target,
-        selected: selected?.kind === "reaction" && selected.id === edge.id,
-        ariaLabel: edge.description,
-        data: { bend: edge.bend, label: edge.label, marker },
-      })),
-    [model, selected, marker],
-  );
+  const previousEdges = useRef<ReactionEdge[]>([]);
+  const edges = useMemo(() => {
+    const built = (model?.edges ?? []).map((edge): ReactionEdge => ({
+      id: edge.id,
+      type: "reaction",
+      source: edge.source,
+      target: edge.target,
+      selected: selected?.kind === "reaction" && selected.id === edge.id,
+      ariaLabel: edge.description,
+      data: { bend: edge.bend, label: edge.label, marker },
+    }));
+    previousEdges.current = keepUnchanged(previousEdges.current, built, sameEdge);
+    return previousEdges.current;
+  }, [model, selected, marker]);
 
   const shownNodes = useMemo(
-    () => nodes.map((node) => ({ ...node, selected: selected?.kind === "complex" && selected.id === node.id })),
+    () =>
+      nodes.map((node) => {
+        const chosen = selected?.kind === "complex" && selected.id === node.id;
+        return Boolean(node.selected) === chosen ? node : { ...node, selected: chosen };
+      }),
     [nodes, selected],
   );
 
@@ -215,7 +220,7 @@ const fitOptions = { padding: 0.2, maxZoom: 1.15 };
 function buildNodes(model: GraphModel | null, positions: Readonly<Record<string, XY>>, previous: ComplexNode[]): ComplexNode[] {
   if (!model) return [];
   const before = new Map(previous.map((node) => [node.id, node]));
-  return model.nodes.map((complex) => {
+  const built = model.nodes.map((complex): ComplexNode => {
     const old = before.get(complex.key);
     return {
       ...old,
@@ -231,7 +236,38 @@ function buildNodes(model: GraphModel | null, positions: Readonly<Record<string,
       },
     };
   });
+  return keepUnchanged(previous, built, sameNode);
 }
+
+/**
+ * Hands React Flow the previous object wherever nothing it draws has changed: it re-renders only
+ * the nodes and arrows whose objects are new, which keeps a large graph responsive while co-authors
+ * type and drag.
+ */
+function keepUnchanged<T extends { id: string }>(previous: readonly T[], built: T[], same: (old: T, next: T) => boolean): T[] {
+  const before = new Map(previous.map((item) => [item.id, item]));
+  return built.map((item) => {
+    const old = before.get(item.id);
+    return old && same(old, item) ? old : item;
+  });
+}
+
+const sameNode = (old: ComplexNode, next: ComplexNode) =>
+  old.position.x === next.position.x &&
+  old.position.y === next.position.y &&
+  old.data.label === next.data.label &&
+  old.data.terminal === next.data.terminal &&
+  old.data.description === next.data.description &&
+  old.data.colours.fill === next.data.colours.fill;
+
+const sameEdge = (old: ReactionEdge, next: ReactionEdge) =>
+  old.source === next.source &&
+  old.target === next.target &&
+  old.selected === next.selected &&
+  old.ariaLabel === next.ariaLabel &&
+  old.data?.bend === next.data?.bend &&
+  old.data?.label === next.data?.label &&
+  old.data?.marker === next.data?.marker;
 
 /** Fits the whole graph again whenever its complexes change, unless the reader has taken the view. */
 function FitWhileUntouched({ touched }: { touched: boolean }) {
