@@ -2,14 +2,14 @@
 // Hárs and Tóth (1979) for the negative cross effect criterion and the canonical realization.
 import { execFile } from "node:child_process";
 import { promisify } from "node:util";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
 import * as P from "~/chem/ode/polynomial";
 import { parseMechanism } from "~/chem/parse";
 import { massActionOf } from "~/chem/realize/from-network";
 import { inducedRhs } from "~/chem/realize/mass-action";
-import { readArguments } from "./realize";
+import { readArguments, run } from "./realize";
 
 const exec = promisify(execFile);
 
@@ -87,20 +87,33 @@ describe("mechweave realize", () => {
     expect(JSON.parse(bad.stdout).diagnostics[0]).toMatchObject({ line: 2, message: expect.stringContaining("division") });
   });
 
+  it("exits 2 on bad usage, without a stack trace", async () => {
+    const usage = await realize("--json");
+    expect(usage.code).toBe(2);
+    expect(usage.stderr).toContain("usage: mechweave realize");
+    expect(usage.stderr).not.toMatch(/\n\s+at /);
+  });
+});
+
+// The same shell in-process, for the other bad usages (a process start costs seconds on a busy machine).
+describe("run", () => {
   it.each([
-    [["--json"]],
-    [[fixture("lorenz.ode"), "--shift", "w=3"]],
-    [[fixture("lorenz.ode"), "--frobnicate"]],
-    [["missing.ode"]],
-    [[fixture("lotka-volterra.ode"), "--equivalents", "--complexes", "2w"]],
-  ])(
-    "exits 2 on bad usage %j, without a stack trace",
-    async (args) => {
-      const usage = await realize(...args);
-      expect(usage.code).toBe(2);
-      expect(usage.stderr).not.toMatch(/\n\s+at /);
-    },
-  );
+    [[fixture("lorenz.ode"), "--shift", "w=3"], "which the ODE does not have"],
+    [[fixture("lorenz.ode"), "--frobnicate"], "unknown option --frobnicate"],
+    [["missing.ode"], "cannot read missing.ode"],
+    [[fixture("lotka-volterra.ode"), "--equivalents", "--complexes", "2w"], "not a variable of the ODE"],
+    [[fixture("lotka-volterra.ode"), "--complexes", "2y"], "go with --equivalents"],
+  ])("exits 2 for %j", async (args, message) => {
+    const errors: string[] = [];
+    const write = vi.spyOn(process.stderr, "write").mockImplementation((chunk) => (errors.push(String(chunk)), true));
+    try {
+      expect(await run(args)).toBe(2);
+    } finally {
+      write.mockRestore();
+    }
+    expect(errors.join("")).toContain(message);
+    expect(errors.join("")).not.toMatch(/\n\s+at /);
+  });
 });
 
 describe("readArguments", () => {
