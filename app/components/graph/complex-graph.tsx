@@ -200,7 +200,7 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
           multiSelectionKeyCode={null}
           fitView
           fitViewOptions={fitOptions}
-          minZoom={0.2}
+          minZoom={0.1}
           maxZoom={2.5}
           style={themeVariables}
           aria-label="Complex graph"

@@ -22,7 +22,7 @@ const linkageClasses = [
 ];
 
 describe("placing complexes", () => {
-  it("lays each linkage class out left to right and stacks the classes", () => {
+  it("lays each linkage class out left to right and shelves the classes in rows", () => {
     const placed = placeComplexes({ keys, reactions, linkageClasses, known: {}, sizeOf });
     expect(Object.keys(placed).sort()).toEqual([...keys].sort());
     expect(placed["X + Y"].x).toBeLessThan(placed["2Y"].x);

@@ -1,6 +1,7 @@
 // Where complexes without a shared position go: dagre lays each linkage class out left to right,
 // new complexes join their class near the complexes already placed, and new classes stack below.
 import dagre from "@dagrejs/dagre";
+import { packInRows } from "./shelf-packing";
 
 export interface XY {
   x: number;
@@ -60,16 +61,14 @@ export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf 
     occupied.push({ at: placed[key], size });
   };
 
+  const fresh: string[][] = [];
   for (const members of classes) {
     const memberKeys = members.map((index) => keys[index]);
     if (memberKeys.every((key) => key in known)) continue;
     const drawn = memberKeys.filter((key) => key in known);
 
     if (drawn.length === 0) {
-      // A class entirely new keeps dagre's shape and goes under everything drawn so far.
-      const local = layoutClass(memberKeys, edges, sizeOf);
-      const shift = belowAll(occupied, local);
-      for (const key of memberKeys) place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y }, []);
+      fresh.push(memberKeys);
       continue;
     }
 
@@ -92,14 +91,37 @@ export function placeComplexes({ keys, reactions, linkageClasses, known, sizeOf 
         place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y }, drawnArrows);
       }
     }
-    // Members no reaction reaches (a report caught mid-change) go under everything drawn.
+    // Members no reaction reaches (a report caught mid-change) are shelved like a new class.
     const stray = memberKeys.filter((key) => where(key) === undefined);
-    if (stray.length > 0) {
-      const shift = belowAll(occupied, local);
-      for (const key of stray) place(key, { x: local[key].x + shift.x, y: local[key].y + shift.y }, []);
-    }
+    if (stray.length > 0) fresh.push(stray);
+  }
+
+  // Classes entirely new keep dagre's shape each and are shelved in rows under everything drawn.
+  if (fresh.length > 0) {
+    const layouts = fresh.map((memberKeys) => normalised(layoutClass(memberKeys, edges, sizeOf), sizeOf));
+    const origin = belowDrawn(occupied);
+    const offsets = packInRows(
+      layouts.map(({ size }) => size),
+      classGap,
+    );
+    layouts.forEach(({ corners }, index) => {
+      for (const [key, at] of Object.entries(corners)) {
+        place(key, { x: origin.x + offsets[index].x + at.x, y: origin.y + offsets[index].y + at.y }, []);
+      }
+    });
   }
   return placed;
+}
+
+/** A class's corners moved to start at (0, 0), with the size of the box around it. */
+function normalised(corners: Record<string, XY>, sizeOf: (key: string) => Size): { corners: Record<string, XY>; size: Size } {
+  const entries = Object.entries(corners);
+  const left = Math.min(...entries.map(([, { x }]) => x));
+  const top = Math.min(...entries.map(([, { y }]) => y));
+  const moved = Object.fromEntries(entries.map(([key, { x, y }]) => [key, { x: x - left, y: y - top }]));
+  const width = Math.max(...entries.map(([key, { x }]) => x - left + sizeOf(key).width));
+  const height = Math.max(...entries.map(([key, { y }]) => y - top + sizeOf(key).height));
+  return { corners: moved, size: { width, height } };
 }
 
 function layoutClass(
@@ -144,13 +166,13 @@ function meanOffset(anchors: string[], where: (key: string) => XY | undefined, l
   return { x: Math.round(sum.x / anchors.length), y: Math.round(sum.y / anchors.length) };
 }
 
-function belowAll(occupied: Drawn[], local: Record<string, XY>): XY {
-  const localTop = Math.min(...Object.values(local).map(({ y }) => y));
-  const localLeft = Math.min(...Object.values(local).map(({ x }) => x));
-  if (occupied.length === 0) return { x: -localLeft, y: -localTop };
-  const bottom = Math.max(...occupied.map(({ at, size }) => at.y + size.height));
-  const left = Math.min(...occupied.map(({ at }) => at.x));
-  return { x: left - localLeft, y: bottom + classGap - localTop };
+/** Where new classes start: under everything drawn, from its left edge. */
+function belowDrawn(occupied: Drawn[]): XY {
+  if (occupied.length === 0) return { x: 0, y: 0 };
+  return {
+    x: Math.min(...occupied.map(({ at }) => at.x)),
+    y: Math.max(...occupied.map(({ at, size }) => at.y + size.height)) + classGap,
+  };
 }
 
 type Segment = readonly [XY, XY];
