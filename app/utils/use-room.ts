@@ -100,7 +100,10 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
   useEffect(() => {
     const doc = new Y.Doc();
     const scheme = location.protocol === "https:" ? "wss" : "ws";
-    const provider = new WebsocketProvider(`${scheme}://${location.host}/collab`, mechanismId, doc);
+    const provider = new WebsocketProvider(`${scheme}://${location.host}/collab`, mechanismId, doc, { connect: false });
+    // Connecting a tick later lets a mount that is undone at once (React's development double
+    // mount) end without opening, and abandoning, a socket.
+    const opening = setTimeout(() => provider.connect());
     const analysisMap = doc.getMap("analysis");
 
     const onStatus = ({ status: next }: { status: "connected" | "disconnected" | "connecting" }) =>
@@ -120,6 +123,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     setConnection({ doc, provider });
 
     return () => {
+      clearTimeout(opening);
       analysisMap.unobserve(onAnalysis);
       provider.destroy();
       doc.destroy();
