@@ -37,7 +37,7 @@ export function useSharedLayout(layout: Y.Map<unknown> | null): SharedLayout {
 }
 
 /** Entries that are not a point (written by an older or broken client) are ignored. */
-function readPositions(layout: Y.Map<unknown>): Record<string, XY> {
+export function readPositions(layout: Y.Map<unknown>): Record<string, XY> {
   const positions: Record<string, XY> = {};
   layout.forEach((value, key) => {
     const point = value as Partial<XY> | null;
