@@ -44,6 +44,8 @@ describe("presence", () => {
   });
 
   it("says so when you are alone", () => {
-    expect(render([])).toContain("only you");
+    const markup = render([]);
+    expect(markup).toContain("only you");
+    expect(markup).not.toContain("viewing");
   });
 });

@@ -40,10 +40,7 @@ export function Presence({ self, peers, max = 6 }: PresenceProps) {
           </li>
         )}
       </ul>
-      <span>
-        {people.length === 1 ? "only you" : `${people.length} here`}
-        {viewers > 0 && ` · ${viewers} viewing`}
-      </span>
+      <span>{people.length === 1 ? "only you" : `${people.length} here${viewers > 0 ? ` · ${viewers} viewing` : ""}`}</span>
     </div>
   );
 }
