@@ -16,15 +16,23 @@ export type ComplexNode = Node<ComplexNodeData, "complex">;
 // attaches edges to them; they stay invisible and cannot start a connection.
 const hiddenHandle = { opacity: 0, pointerEvents: "none", width: 1, height: 1, minWidth: 0, minHeight: 0, border: 0 } as const;
 
+const plainRim = 1.5;
+const terminalRim = 4;
+
 export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
+  const rim = data.terminal ? terminalRim : plainRim;
+  // The double rim eats into the padding, so both kinds of box are the same size and neighbours
+  // laid out in one row stay centred on one line.
+  const inset = rim - plainRim;
   return (
     <div
-      className="rounded-lg px-3.5 py-1.5 font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink"
+      className="rounded-lg font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink"
       style={{
         background: data.colours.fill,
         borderColor: data.colours.outline,
         borderStyle: data.terminal ? "double" : "solid",
-        borderWidth: data.terminal ? 4 : 1.5,
+        borderWidth: rim,
+        padding: `${6 - inset}px ${14 - inset}px`,
         // A soft halo, not a second line: a crisp ring would read as the terminal double rim.
         boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : undefined,
       }}

@@ -37,7 +37,7 @@ interface Drawn {
 
 /** Size a node will have before the browser has measured it: monospace label plus padding. */
 export function estimateNodeSize(label: string): Size {
-  return { width: Math.max(52, Math.round(label.length * 8.4 + 30)), height: 38 };
+  return { width: Math.max(52, Math.round(label.length * 8.4 + 30)), height: 39 };
 }
 
 /** Top-left positions for every key not in `known`. */
