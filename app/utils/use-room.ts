@@ -94,7 +94,11 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
   const [analysis, setAnalysis] = useState<RoomAnalysis>({});
   const [peers, setPeers] = useState<Peer[]>([]);
   const publishedRole: Role = role ?? (readOnly ? "viewer" : "editor");
-  const [self, setSelf] = useState<PeerUser>(() => ({ name: user.name, colour: user.colour ?? pickColour(user.name), role: publishedRole }));
+  const [self, setSelf] = useState<PeerUser>(() => ({
+    name: user.name,
+    colour: user.colour ?? pickColour(user.name),
+    role: publishedRole,
+  }));
 
   // Effects run only in the browser, which is what keeps the socket out of server rendering.
   useEffect(() => {
@@ -147,7 +151,8 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
 
     const onChange = () => {
       const others = peersOf(awareness);
-      setPeers(others);
+      // Awareness changes with every remote caret move; the page re-renders only when people do.
+      setPeers((current) => (samePeople(current, others) ? current : others));
       if (user.colour) return;
       // Clients that joined earlier keep their colour; a newcomer with the same one moves on.
       // The same person in a second tab is not a clash.
@@ -172,6 +177,16 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
 /** y-codemirror.next draws remote carets from `color` and selections from `colorLight`. */
 function awarenessUser(user: PeerUser) {
   return { ...user, color: user.colour, colorLight: `${user.colour}33` };
+}
+
+function samePeople(a: readonly Peer[], b: readonly Peer[]): boolean {
+  return (
+    a.length === b.length &&
+    a.every((peer, index) => {
+      const other = b[index];
+      return peer.clientId === other.clientId && peer.name === other.name && peer.colour === other.colour && peer.role === other.role;
+    })
+  );
 }
 
 function peersOf(awareness: Awareness): Peer[] {
