@@ -30,6 +30,7 @@ export default [
   route("api/v1/mechanisms/:id/view-links/:linkId", "routes/api/view-link.ts"),
   route("api/v1/analyze", "routes/api/analyze.ts"),
   route("api/v1/realizations", "routes/api/realizations.ts"),
+  route("api/v1/simulations", "routes/api/simulate-text.ts"),
   route("api/v1/tokens", "routes/api/tokens.ts"),
   route("api/v1/tokens/:id", "routes/api/token.ts"),
   route("api/dev/mail", "routes/api/dev-mail.ts"),

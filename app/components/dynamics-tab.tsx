@@ -11,7 +11,10 @@ import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { SweepResult } from "~/chem/kinetics/sweep";
 import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
-import { useDynamicsJob, type JobState } from "./dynamics/use-dynamics-job";
+import { JobStatus } from "./dynamics/job-status";
+import { useDynamicsJob } from "./dynamics/use-dynamics-job";
+
+const dynamicsUrl = (mechanismId: string) => `/api/v1/mechanisms/${mechanismId}/dynamics`;
 
 interface Props {
   mechanismId: string;
@@ -21,7 +24,7 @@ interface Props {
 
 export function DynamicsTab({ mechanismId, source, report }: Props) {
   const text = () => source?.toString() ?? "";
-  const simulation = useDynamicsJob<SimulationResult>(mechanismId);
+  const simulation = useDynamicsJob<SimulationResult>(dynamicsUrl(mechanismId));
   const [until, setUntil] = useState(50);
   const [samples, setSamples] = useState(400);
   const [method, setMethod] = useState<"auto" | "stiff" | "explicit">("auto");
@@ -149,19 +152,6 @@ function NumberField({ label, value, onChange, min, max }: { label: string; valu
   );
 }
 
-function JobStatus({ job }: { job: JobState<unknown> }) {
-  if (job.running) {
-    return (
-      <div className="mt-3" role="progressbar" aria-valuenow={Math.round(job.progress * 100)} aria-valuemin={0} aria-valuemax={100}>
-        <div className="h-1.5 overflow-hidden rounded-full bg-canvas">
-          <div className="h-full bg-accent transition-[width]" style={{ width: `${Math.max(2, job.progress * 100)}%` }} />
-        </div>
-        <p className="mt-1 text-xs text-muted">Running on the server… {Math.round(job.progress * 100)} %</p>
-      </div>
-    );
-  }
-  return job.error ? <p className="notice-error mt-3">{job.error}</p> : null;
-}
 
 function ResidualTable({ fit }: { fit: ReturnType<typeof residuals> }) {
   return (
@@ -179,7 +169,7 @@ function ResidualTable({ fit }: { fit: ReturnType<typeof residuals> }) {
 }
 
 function EquilibriumCard({ mechanismId, text, settleTime }: { mechanismId: string; text: () => string; settleTime: number }) {
-  const job = useDynamicsJob<EquilibriumResult>(mechanismId);
+  const job = useDynamicsJob<EquilibriumResult>(dynamicsUrl(mechanismId));
   const r = job.result;
   return (
     <section className="card p-4">
@@ -208,7 +198,7 @@ function EquilibriumCard({ mechanismId, text, settleTime }: { mechanismId: strin
 }
 
 function LyapunovCard({ mechanismId, text }: { mechanismId: string; text: () => string }) {
-  const job = useDynamicsJob<LyapunovResult>(mechanismId);
+  const job = useDynamicsJob<LyapunovResult>(dynamicsUrl(mechanismId));
   const [until, setUntil] = useState(500);
   const r = job.result;
   return (
@@ -243,7 +233,7 @@ function LyapunovCard({ mechanismId, text }: { mechanismId: string; text: () => 
 }
 
 function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; text: () => string; report: AnalysisReport | null; until: number }) {
-  const job = useDynamicsJob<SweepResult>(mechanismId);
+  const job = useDynamicsJob<SweepResult>(dynamicsUrl(mechanismId));
   const species = report?.species ?? [];
   const [target, setTarget] = useState("");
   const [observed, setObserved] = useState("");

@@ -4,6 +4,7 @@ import { useState } from "react";
 import { redirect, useFetcher } from "react-router";
 import { z } from "zod";
 import { createMechanism } from "../../server/db/mechanisms";
+import { RealizationCheck } from "~/components/realization-check";
 import { RealizationPanel, type RealizationChoice } from "~/components/realization-panel";
 import type { RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { parseOde } from "~/chem/ode/parse";
@@ -84,7 +85,8 @@ export default function Realize() {
         </section>
         <div>
           {check.data && "error" in check.data && <p className="notice-error mb-3">{check.data.error}</p>}
-          {result ? (
+          {!result && <p className="card p-6 text-sm text-muted">The verdict, the negative cross effects and the realization appear here.</p>}
+          {result && (
             <RealizationPanel
               ode={checked}
               result={result}
@@ -94,9 +96,8 @@ export default function Realize() {
               onSearchEquivalents={() => submit({ equivalents: true, ...lastChoice(result) })}
               onOpenMechanism={(mechanism) => open.submit({ title, mechanism, ode: checked }, { method: "post" })}
             />
-          ) : (
-            <p className="card p-6 text-sm text-muted">The verdict, the negative cross effects and the realization appear here.</p>
           )}
+          {result?.mechanism && <RealizationCheck key={result.mechanism} ode={checked} result={result} variables={variables} />}
         </div>
       </div>
     </main>

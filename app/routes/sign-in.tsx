@@ -1,16 +1,14 @@
-import { Form, Link, redirect, useNavigation } from "react-router";
+import { Form, Link, useNavigation } from "react-router";
 import { isAuthFailure, signInForm } from "../../server/auth/authenticator";
 import { clearFailedSignIns, recordFailedSignIn, signInBlocked } from "../../server/auth/sign-in-limits";
 import { AuthCard } from "~/components/auth-card";
-import { getUser, safeNext, startUserSession } from "~/utils/auth.server";
+import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/sign-in";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Mechweave" }];
 
 export async function loader(args: Route.LoaderArgs) {
-  const next = safeNext(new URL(args.request.url).searchParams.get("next"));
-  if (await getUser(args)) throw redirect(next);
-  return { next };
+  return redirectIfSignedIn(args);
 }
 
 export async function action(args: Route.ActionArgs) {

@@ -1,15 +1,13 @@
-import { Form, Link, redirect, useNavigation } from "react-router";
+import { Form, Link, useNavigation } from "react-router";
 import { isAuthFailure } from "../../server/auth/authenticator";
 import { AuthCard } from "~/components/auth-card";
-import { getUser, safeNext, startUserSession } from "~/utils/auth.server";
+import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/sign-up";
 
 export const meta: Route.MetaFunction = () => [{ title: "Create an account · Mechweave" }];
 
 export async function loader(args: Route.LoaderArgs) {
-  const next = safeNext(new URL(args.request.url).searchParams.get("next"));
-  if (await getUser(args)) throw redirect(next);
-  return { next };
+  return redirectIfSignedIn(args);
 }
 
 export async function action(args: Route.ActionArgs) {

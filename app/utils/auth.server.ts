@@ -64,6 +64,13 @@ export function safeNext(next: string | null | undefined, fallback = "/dashboard
   return next && next.startsWith("/") && !next.startsWith("//") ? next : fallback;
 }
 
+/** For the sign-in and sign-up pages: where to go afterwards, or there at once if signed in. */
+export async function redirectIfSignedIn(args: RequestArgs): Promise<{ next: string }> {
+  const next = safeNext(new URL(args.request.url).searchParams.get("next"));
+  if (await getUser(args)) throw redirect(next);
+  return { next };
+}
+
 export async function startUserSession({ request, context }: RequestArgs, user: AuthUser, redirectTo: string) {
   const session = await context.sessions.getSession(request.headers.get("Cookie"));
   session.set("userId", user.id);

@@ -4,6 +4,7 @@
 import type { AppLoadContext } from "react-router";
 import type { DynamicsJob, DynamicsModel } from "../../server/sim/job";
 import { buildNetwork } from "~/chem/network";
+import { parseOde } from "~/chem/ode/parse";
 import { parseMechanism } from "~/chem/parse";
 import { httpError } from "./http";
 
@@ -13,6 +14,14 @@ export function modelFromSource(source: string): DynamicsModel {
   const error = parsed.diagnostics.find((d) => d.severity === "error");
   if (error) throw httpError(400, `Fix the mechanism first: line ${error.line}, column ${error.column}: ${error.message}`);
   return { kind: "mechanism", mechanism: parsed.mechanism, network: buildNetwork(parsed.mechanism) };
+}
+
+/** A polynomial ODE text as a dynamics model, or a 400 naming the first error in it. */
+export function modelFromOde(text: string): DynamicsModel {
+  const parsed = parseOde(text);
+  const error = parsed.diagnostics.find((d) => d.severity === "error");
+  if (error || !parsed.ode) throw httpError(400, `Fix the ODE first: line ${error?.line ?? 1}: ${error?.message ?? "it has no equations"}`);
+  return { kind: "ode", ode: parsed.ode };
 }
 
 const statusOf: Record<string, number> = { SimulationInputError: 400, SimulationLimitError: 413, IntegrationFailure: 422, SimulationCancelled: 499 };

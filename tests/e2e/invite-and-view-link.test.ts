@@ -1,44 +1,29 @@
 // The owner invites a new address; the e-mail arrives in the mail catcher; its link signs the
 // invitee up as an editor, who then edits live. A view link opened in a fresh browser shows the
 // live graph and cannot type.
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, expect, it } from "vitest";
-import { launchBrowser } from "../support/browser";
+import { expect, it } from "vitest";
+import { signedInPage, useServerAndBrowser } from "../support/e2e";
 import { signUp } from "../support/http";
-import { startTestServer } from "../support/server";
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.dispose();
-});
+const world = useServerAndBrowser();
 
 it("invites a newcomer who edits live, and shows a class the live graph through a view link", async () => {
-  const owner = await signUp(server.url, "Owen Owner");
+  const owner = await signUp(world.server.url, "Owen Owner");
   const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Seminar scheme", source: "A -> B @ 1\n" })).json();
 
-  const ownerPage = await (await browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
-  await ownerPage.goto(`${server.url}/sign-in`);
-  await ownerPage.fill("#email", owner.email);
-  await ownerPage.fill("#password", "correct horse battery");
-  await ownerPage.click("button[type=submit]");
-  await ownerPage.waitForURL("**/dashboard");
-  await ownerPage.goto(`${server.url}/m/${id}/members`);
+  const ownerPage = await signedInPage(world, owner.email);
+  await ownerPage.goto(`${world.server.url}/m/${id}/members`);
   await ownerPage.fill("#email", "nina.newcomer@example.test");
   await ownerPage.selectOption("#role", "editor");
   await ownerPage.click("button:text-is('Send invitation')");
   await ownerPage.waitForSelector('[data-testid="invitation-nina.newcomer@example.test"]');
 
-  const { messages } = await (await fetch(`${server.url}/api/dev/mail`)).json();
+  const { messages } = await (await fetch(`${world.server.url}/api/dev/mail`)).json();
   const mail = messages.find((m: { to: string }) => m.to.includes("nina.newcomer@example.test"));
   expect(mail.subject).toContain("Seminar scheme");
   const link = mail.text.match(/https?:\/\/\S+\/invite\/\S+/)[0];
 
-  const invitee = await (await browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
+  const invitee = await (await world.browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
   await invitee.goto(link);
   await invitee.fill("#name", "Nina Newcomer");
   await invitee.fill("#password", "a fine long password");
@@ -49,14 +34,14 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   await invitee.keyboard.press("Control+End");
   await invitee.keyboard.type("B -> C @ 2\n", { delay: 10 });
 
-  await ownerPage.goto(`${server.url}/m/${id}`);
+  await ownerPage.goto(`${world.server.url}/m/${id}`);
   await expect.poll(() => ownerPage.locator(".cm-content").innerText(), { timeout: 10_000 }).toContain("B -> C @ 2");
 
   // A view link for the class, opened by a browser that never signed in.
-  await ownerPage.goto(`${server.url}/m/${id}/members`);
+  await ownerPage.goto(`${world.server.url}/m/${id}/members`);
   await ownerPage.click("button:text-is('Create view link')");
   const viewUrl = await ownerPage.locator("[data-testid=new-view-link]").innerText();
-  const guest = await (await browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
+  const guest = await (await world.browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
   await guest.goto(viewUrl);
   await guest.waitForURL(`**/m/${id}`);
   await expect.poll(() => guest.locator(".react-flow__node").count(), { timeout: 10_000 }).toBe(3);
@@ -65,7 +50,7 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   await invitee.keyboard.type("C -> D @ 3\n", { delay: 10 });
   await expect.poll(() => guest.locator(".react-flow__node").count(), { timeout: 10_000 }).toBe(4);
   // And it opens nothing else.
-  const members = await guest.goto(`${server.url}/m/${id}/members`);
+  const members = await guest.goto(`${world.server.url}/m/${id}/members`);
   expect(guest.url()).toContain("/sign-in");
   expect(members?.status()).toBe(200);
 });

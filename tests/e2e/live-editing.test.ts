@@ -1,43 +1,24 @@
 // Three people in one mechanism: owner and editor type at once and see each other's text and
 // cursor; a viewer sees the graph gain a node when a new complex is typed, and cannot type.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, expect, it } from "vitest";
-import { launchBrowser } from "../support/browser";
+import type { Page } from "playwright-core";
+import { expect, it } from "vitest";
+import { signedInPage, useServerAndBrowser } from "../support/e2e";
 import { signUp } from "../support/http";
-import { startTestServer } from "../support/server";
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.dispose();
-});
-
-async function signedInPage(email: string): Promise<Page> {
-  const page = await (await browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
-  await page.goto(`${server.url}/sign-in`);
-  await page.fill("#email", email);
-  await page.fill("#password", "correct horse battery");
-  await page.click("button[type=submit]");
-  await page.waitForURL("**/dashboard");
-  return page;
-}
+const world = useServerAndBrowser();
 
 const editorText = (page: Page) => page.locator(".cm-content").innerText();
 const nodeCount = (page: Page) => page.locator(".react-flow__node").count();
 
 it("co-edits live and shows the viewer a growing graph", async () => {
-  const [owner, editor, viewer] = await Promise.all([signUp(server.url, "Ana Owner"), signUp(server.url, "Eli Editor"), signUp(server.url, "Vic Viewer")]);
+  const [owner, editor, viewer] = await Promise.all([signUp(world.server.url, "Ana Owner"), signUp(world.server.url, "Eli Editor"), signUp(world.server.url, "Vic Viewer")]);
   const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Live scheme", source: "A + B -> C @ 1\n" })).json();
   await owner.post(`/m/${id}/members`, { intent: "add", email: editor.email, role: "editor" });
   await owner.post(`/m/${id}/members`, { intent: "add", email: viewer.email, role: "viewer" });
 
-  const pages = await Promise.all([owner, editor, viewer].map((account) => signedInPage(account.email)));
+  const pages = await Promise.all([owner, editor, viewer].map((account) => signedInPage(world, account.email)));
   const [ownerPage, editorPage, viewerPage] = pages;
-  await Promise.all(pages.map((page) => page.goto(`${server.url}/m/${id}`)));
+  await Promise.all(pages.map((page) => page.goto(`${world.server.url}/m/${id}`)));
   for (const page of pages) await page.waitForSelector('[data-testid=room-status][data-status=online]');
   await expect.poll(() => nodeCount(viewerPage), { timeout: 10_000 }).toBe(2);
 

@@ -1,26 +1,16 @@
 // A person signs up, creates a mechanism, shares it with a viewer; the viewer sees it but
 // cannot rename it — in the real browser against the real server.
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, expect, it } from "vitest";
-import { launchBrowser } from "../support/browser";
+import { expect, it } from "vitest";
+import { signedInPage, useServerAndBrowser } from "../support/e2e";
 import { signUp } from "../support/http";
-import { startTestServer } from "../support/server";
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.dispose();
-});
+const world = useServerAndBrowser();
 
 it("signs up, creates and shares a mechanism; the viewer sees it and cannot rename it", async () => {
-  const viewerAccount = await signUp(server.url, "Vera Viewer");
+  const viewerAccount = await signUp(world.server.url, "Vera Viewer");
 
-  const owner = await (await browser.newContext()).newPage();
-  await owner.goto(`${server.url}/sign-up`);
+  const owner = await (await world.browser.newContext()).newPage();
+  await owner.goto(`${world.server.url}/sign-up`);
   await owner.fill("#name", "Olu Owner");
   await owner.fill("#email", "olu.owner@example.test");
   await owner.fill("#password", "a long secret phrase");
@@ -38,12 +28,7 @@ it("signs up, creates and shares a mechanism; the viewer sees it and cannot rena
   await owner.click("text=Add member");
   await owner.waitForSelector(`[data-testid="member-${viewerAccount.email}"]`);
 
-  const viewer = await (await browser.newContext()).newPage();
-  await viewer.goto(`${server.url}/sign-in`);
-  await viewer.fill("#email", viewerAccount.email);
-  await viewer.fill("#password", "correct horse battery");
-  await viewer.click("button[type=submit]");
-  await viewer.waitForURL("**/dashboard");
+  const viewer = await signedInPage(world, viewerAccount.email);
   await viewer.click("text=Ozone cycle draft");
   await viewer.waitForURL(mechanismUrl);
   expect(await viewer.locator("input[name=title]").count()).toBe(0);

@@ -19,9 +19,11 @@ interface Props {
   height?: number;
   xLabel?: string;
   yLabel?: string;
+  /** How the overlaid points are named in the legend. */
+  overlayLabel?: string;
 }
 
-export function TimeCourseChart({ t, series, shown, logTime, measured, height = 340, xLabel = "time", yLabel = "concentration" }: Props) {
+export function TimeCourseChart({ t, series, shown, logTime, measured, height = 340, xLabel = "time", yLabel = "concentration", overlayLabel = "measured" }: Props) {
   const host = useRef<HTMLDivElement>(null);
 
   useEffect(() => {
@@ -69,7 +71,7 @@ export function TimeCourseChart({ t, series, shown, logTime, measured, height = 
             { label: "t" },
             ...visible.map((name) => ({ label: name, stroke: seriesColour(names.indexOf(name)), width: 2, spanGaps: true, points: { show: false } })),
             ...measuredNames.map((name) => ({
-              label: `${name} (measured)`,
+              label: `${name} (${overlayLabel})`,
               stroke: seriesColour(names.indexOf(name)),
               width: 0,
               paths: () => null,
@@ -88,7 +90,7 @@ export function TimeCourseChart({ t, series, shown, logTime, measured, height = 
       resize.disconnect();
       chart?.destroy();
     };
-  }, [t, series, shown, logTime, measured, height, xLabel, yLabel]);
+  }, [t, series, shown, logTime, measured, height, xLabel, yLabel, overlayLabel]);
 
   return <div ref={host} className="mw-chart w-full" data-testid="time-course-chart" />;
 }

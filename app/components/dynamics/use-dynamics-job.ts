@@ -9,7 +9,8 @@ export interface JobState<T> {
   error: string | null;
 }
 
-export function useDynamicsJob<T>(mechanismId: string) {
+/** `url` is the endpoint that runs the job (a mechanism's dynamics, or free-standing text). */
+export function useDynamicsJob<T>(url: string) {
   const [state, setState] = useState<JobState<T>>({ running: false, progress: 0, result: null, error: null });
   const controller = useRef<AbortController | null>(null);
 
@@ -19,7 +20,7 @@ export function useDynamicsJob<T>(mechanismId: string) {
       const abort = (controller.current = new AbortController());
       setState((s) => ({ ...s, running: true, progress: 0, error: null }));
       try {
-        const response = await fetch(`/api/v1/mechanisms/${mechanismId}/dynamics`, {
+        const response = await fetch(url, {
           method: "POST",
           headers: { "Content-Type": "application/json", Accept: "application/x-ndjson" },
           body: JSON.stringify(body),
@@ -50,7 +51,7 @@ export function useDynamicsJob<T>(mechanismId: string) {
         else setState((s) => ({ ...s, running: false, error: "The connection to the server was lost." }));
       }
     },
-    [mechanismId],
+    [url],
   );
 
   const cancel = useCallback(() => controller.current?.abort(), []);
