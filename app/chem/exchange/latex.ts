@@ -134,7 +134,7 @@ const textEscapes: Record<string, string> = {
 };
 
 /** Text-mode escaping for titles and labels: every character LaTeX treats specially. */
-export function escapeText(text: string): string {
+function escapeText(text: string): string {
   return text.replace(/[\\{}$&#^_%~<>|"]/g, (char) => textEscapes[char]).replace(/\s+/g, " ");
 }
 

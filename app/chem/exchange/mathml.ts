@@ -16,7 +16,7 @@ import {
 import { lawFunctions } from "~/chem/law";
 import type { XmlElement, XmlOut } from "./xml";
 
-export const mathmlNamespace = "http://www.w3.org/1998/Math/MathML";
+const mathmlNamespace = "http://www.w3.org/1998/Math/MathML";
 
 // ---- mathjs → MathML
 

@@ -7,7 +7,7 @@ import { readMathml, type Lambda } from "./mathml";
 import { isSId } from "./names";
 import { child, listed, readXml, type XmlElement } from "./xml";
 
-export const sbmlNamespaces: Record<string, { level: number; version: number }> = {
+const sbmlNamespaces: Record<string, { level: number; version: number }> = {
   "http://www.sbml.org/sbml/level3/version1/core": { level: 3, version: 1 },
   "http://www.sbml.org/sbml/level3/version2/core": { level: 3, version: 2 },
 };
@@ -128,6 +128,10 @@ class SbmlReader {
   read(root: XmlElement): SbmlReading {
     this.matches(root, "level", String(this.level));
     this.matches(root, "version", String(this.version));
+    // A package the file marks as required changes the meaning of the core model.
+    const packages = Object.entries(root.attributes)
+      .filter(([name, value]) => name.endsWith(":required") && value === "true")
+      .map(([name]) => `required SBML package ${name.slice(0, -":required".length)}`);
     const models = root.children.filter((each) => each.name === "model");
     if (models.length !== 1) {
       return { ok: false, errors: [...this.errors, models.length === 0 ? "The <sbml> element holds no <model>." : "The <sbml> element holds more than one <model>."] };
@@ -142,9 +146,12 @@ class SbmlReader {
     this.checkSpeciesReferences(species, compartments, reactions);
     for (const pending of this.pendingMath) this.resolveMath(pending);
     if (this.errors.length > 0) return { ok: false, errors: this.errors };
-    const unread = Object.entries(unreadLists)
-      .filter(([list]) => (child(element, list)?.children.length ?? 0) > 0)
-      .map(([, what]) => what);
+    const unread = [
+      ...Object.entries(unreadLists)
+        .filter(([list]) => (child(element, list)?.children.length ?? 0) > 0)
+        .map(([, what]) => what),
+      ...packages,
+    ];
     return {
       ok: true,
       model: { level: this.level, version: this.version, id, name: element.attributes.name ?? null, compartments, species, parameters, reactions, unread },

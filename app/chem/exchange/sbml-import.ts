@@ -77,7 +77,7 @@ class Translation {
 
   private noteUnreadParts(): void {
     if (this.model.unread.length > 0) {
-      this.warnings.push(`The file's ${this.model.unread.join(", ")} are not imported: Mechweave reads species, parameters and reactions with their kinetic laws.`);
+      this.warnings.push(`Not imported: the file's ${this.model.unread.join(", ")}. Mechweave reads species, parameters and reactions with their kinetic laws.`);
     }
     const sizes = this.model.compartments.map((each) => each.size);
     if (sizes.length > 1 || sizes.some((size) => size !== null && size !== 1)) {
@@ -153,8 +153,7 @@ class Translation {
     const reactants = this.terms(reaction, "reactants");
     const products = this.terms(reaction, "products");
     if (!reactants || !products) return null;
-    const nonzero = (terms: Term[]) => terms.length > 0;
-    if (!nonzero(reactants) && !nonzero(products)) {
+    if (reactants.length === 0 && products.length === 0) {
       this.warnings.push(`Reaction ${reaction.id} has neither reactants nor products and is left out.`);
       return null;
     }
@@ -219,9 +218,11 @@ class Translation {
   private customLaw(reaction: SbmlReaction, label: string): string {
     const locals = new Map<string, string>();
     for (const [id, value] of reaction.law!.localParameters) {
+      // A local parameter without a value cannot be in use: the law would not have evaluated.
+      if (value === null) continue;
       const name = this.names.take(toWeaveIdentifier(`${label}_${id}`));
       locals.set(id, name);
-      this.parameters[name] = value!;
+      this.parameters[name] = value;
     }
     const isCompartment = (name: string) => this.compartments.has(name) && !locals.has(name);
     const renamed = withoutCompartmentFactors(reaction.law!.math!, isCompartment).transform((node, path) => {

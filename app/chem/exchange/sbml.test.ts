@@ -199,7 +199,7 @@ describe("SBML import of hand-written textbook models", () => {
 
 describe("SBML import of features that files written elsewhere use", () => {
   const model = `<?xml version="1.0" encoding="UTF-8"?>
-<sbml xmlns="http://www.sbml.org/sbml/level3/version2/core" level="3" version="2">
+<sbml xmlns="http://www.sbml.org/sbml/level3/version2/core" xmlns:fbc="http://www.sbml.org/sbml/level3/version1/fbc/version2" level="3" version="2" fbc:required="false" other:required="true" xmlns:other="urn:example:other">
   <model id="elsewhere">
     <listOfFunctionDefinitions>
       <functionDefinition id="saturating">
@@ -291,7 +291,7 @@ k2 = 4
 fixed [enzyme] = 0.2
 `);
     expect(back.warnings).toEqual([
-      "The file's rules are not imported: Mechweave reads species, parameters and reactions with their kinetic laws.",
+      "Not imported: the file's rules, required SBML package other. Mechweave reads species, parameters and reactions with their kinetic laws.",
       "Mechweave models one well-mixed volume: every compartment is read with size 1, and concentrations as given.",
       "Parameter total has no value and no law uses it; it is left out.",
       "Species Z takes part in no reaction and is left out.",
