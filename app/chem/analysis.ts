@@ -61,7 +61,9 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
   const stoichiometricRank = species.length - conservationLaws.length;
   const vectorsByClass = linkage.linkageClasses.map((): SparseVector[] => []);
   for (const { vector, linkageClass } of forest) vectorsByClass[linkageClass].push(vector);
-  const linkageClassDeficiencies = linkage.linkageClasses.map((members, index) => members.length - 1 - rank(vectorsByClass[index]));
+  // A class holding every forest vector has the network's rank: no second elimination for it.
+  const classRank = (vectors: SparseVector[]) => (vectors.length === forest.length ? stoichiometricRank : rank(vectors));
+  const linkageClassDeficiencies = linkage.linkageClasses.map((members, index) => members.length - 1 - classRank(vectorsByClass[index]));
   const deficiency = complexes.length - linkage.linkageClasses.length - stoichiometricRank;
 
   const reactionKeys = new Set(reactions.map(({ from, to }) => `${from}>${to}`));
