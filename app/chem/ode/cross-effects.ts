@@ -3,11 +3,10 @@
 // x_i' whose monomial does not contain x_i (such a term could drive x_i below zero at x_i = 0).
 import type { ExactOde } from "./exact";
 import { formatTerm } from "./format";
-import type { EquationSource } from "./parse";
+import type { EquationSource, SourceSpan } from "./parse";
 import type { ExactTerm } from "./polynomial";
 import { exponentKey, sortedTerms } from "./polynomial";
 import { sign } from "./rational";
-import type { Span } from "./summands";
 
 export interface NegativeCrossEffect {
   /** The variable whose equation holds the term. */
@@ -15,7 +14,7 @@ export interface NegativeCrossEffect {
   /** The expanded term as text, e.g. `-x*z`. */
   term: string;
   /** The written summands that produce the term (empty when the ODE has no source text). */
-  spans: Span[];
+  spans: SourceSpan[];
   exact: ExactTerm;
 }
 

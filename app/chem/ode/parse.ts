@@ -14,6 +14,12 @@ import * as Q from "./rational";
 import { splitSummands } from "./summands";
 import type { Span } from "./summands";
 
+/** A written stretch of the ODE text with the 1-based line and column where it starts. */
+export interface SourceSpan extends Span {
+  line: number;
+  column: number;
+}
+
 /** Where an equation and each of its expanded terms were written, for editor highlighting. */
 export interface EquationSource {
   variable: string;
@@ -22,7 +28,7 @@ export interface EquationSource {
   from: number;
   to: number;
   /** Exponent key → the written summands that contribute to that term. */
-  terms: ReadonlyMap<string, Span[]>;
+  terms: ReadonlyMap<string, SourceSpan[]>;
 }
 
 export interface OdeParseResult {
@@ -52,10 +58,14 @@ export function parseOde(text: string): OdeParseResult {
   const diagnostics: Diagnostic[] = [];
   const lineStarts = [0];
   for (let i = 0; i < text.length; i++) if (text[i] === "\n") lineStarts.push(i + 1);
-  const report = (span: Span, message: string, severity: Diagnostic["severity"] = "error") => {
+  const locate = (span: Span): SourceSpan => {
     let line = lineStarts.length - 1;
     while (lineStarts[line] > span.from) line--;
-    diagnostics.push({ severity, line: line + 1, column: span.from - lineStarts[line] + 1, message, from: span.from, to: span.to });
+    return { ...span, line: line + 1, column: span.from - lineStarts[line] + 1 };
+  };
+  const report = (span: Span, message: string, severity: Diagnostic["severity"] = "error") => {
+    const { line, column } = locate(span);
+    diagnostics.push({ severity, line, column, message, from: span.from, to: span.to });
   };
 
   const statements = readStatements(text, lineStarts, report);
@@ -112,7 +122,8 @@ export function parseOde(text: string): OdeParseResult {
   for (const s of equations) {
     const terms = new Map<string, Span[]>();
     rhs.push(expandEquation(text, s.rhs, fullScope, terms, report) ?? P.zero());
-    sources.push({ variable: s.name, line: s.line, from: s.rhs.from, to: s.rhs.to, terms });
+    const located = new Map([...terms].map(([key, spans]) => [key, spans.map(locate)]));
+    sources.push({ variable: s.name, line: s.line, from: s.rhs.from, to: s.rhs.to, terms: located });
   }
   if (equations.length === 0 && !diagnostics.some((d) => d.severity === "error")) {
     report({ from: 0, to: 0 }, "no equations: write one a line, as x' = 10*(y - x) or dx/dt = 10*(y - x)");

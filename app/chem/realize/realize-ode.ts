@@ -8,6 +8,7 @@ import type { ExactOde } from "../ode/exact";
 import { toPolynomialOde } from "../ode/exact";
 import { formatMonomial, formatOde } from "../ode/format";
 import { parseOde } from "../ode/parse";
+import type { SourceSpan } from "../ode/parse";
 import * as P from "../ode/polynomial";
 import * as Q from "../ode/rational";
 import { boundingBox, DEFAULT_HORIZON, suggestShift } from "../ode/suggest-shift";
@@ -38,7 +39,7 @@ export interface CrossEffectReport {
   equation: string;
   term: string;
   /** Where the term was written (the summands that produce it); empty after a transformation. */
-  spans: { from: number; to: number; line: number; column: number }[];
+  spans: SourceSpan[];
 }
 
 export interface RealizeOdeResult {
@@ -85,8 +86,7 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
   };
   if (!parsed.exact) return result;
   const given = parsed.exact;
-  const locate = locator(request.ode);
-  const givenEffects = negativeCrossEffects(given, parsed.sources).map((e) => report(e, locate));
+  const givenEffects = negativeCrossEffects(given, parsed.sources).map(report);
   const horizon = { ...DEFAULT_HORIZON, until: request.until ?? DEFAULT_HORIZON.until };
 
   const suggestion = givenEffects.length > 0 || request.shift === "suggested" ? offerShift(given, horizon, request, result) : null;
@@ -98,7 +98,7 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
     result.original = { kinetic: givenEffects.length === 0, negativeCrossEffects: givenEffects, degree: degree(given) };
     result.transformedOde = formatOde(ode);
   }
-  result.negativeCrossEffects = transformed ? negativeCrossEffects(ode).map((e) => report(e, locate)) : givenEffects;
+  result.negativeCrossEffects = transformed ? negativeCrossEffects(ode).map(report) : givenEffects;
   result.kinetic = result.negativeCrossEffects.length === 0;
   if (!result.kinetic) {
     result.notes.push(
@@ -226,14 +226,6 @@ function heading(result: RealizeOdeResult): string {
 
 const degree = (ode: ExactOde) => Math.max(0, ...ode.rhs.flatMap((p) => [...p.values()].map((t) => P.totalDegree(t.exponents))));
 
-function report(effect: NegativeCrossEffect, locate: (offset: number) => { line: number; column: number }): CrossEffectReport {
-  return { equation: effect.equation, term: effect.term, spans: effect.spans.map((s) => ({ ...s, ...locate(s.from) })) };
-}
-
-function locator(text: string) {
-  return (offset: number) => {
-    const before = text.slice(0, offset);
-    const line = before.split("\n").length;
-    return { line, column: offset - before.lastIndexOf("\n") };
-  };
+function report({ equation, term, spans }: NegativeCrossEffect): CrossEffectReport {
+  return { equation, term, spans };
 }
