@@ -84,6 +84,17 @@ describe("null space", () => {
     );
   });
 
+  it("falls back to bigint when the kernel holds fractions too large to lift from one prime", () => {
+    expect(nullSpace(sparse([[1, -10007]]), 2)).toEqual([[10007, 1]]);
+    expect(nullSpace(sparse([[3, 0, -7_000_001], [0, 5, -7_000_001]]), 3)).toEqual([[35_000_005, 21_000_003, 15]]);
+  });
+
+  it("does not stop early on many repeated rows when a later row is independent", () => {
+    const rows = [...Array.from({ length: 200 }, () => [1, -1, 0]), [0, 1, -1]];
+    expect(nullSpace(sparse(rows), 3)).toEqual([[1, 1, 1]]);
+    expect(rank(sparse(rows))).toBe(2);
+  });
+
   it("gives the textbook conservation laws of Michaelis–Menten (E + C and S + C + P)", () => {
     // Species E, S, C, P; reaction vectors of E + S → C and C → E + P.
     expect(nullSpace(sparse([[-1, -1, 1, 0], [1, 0, -1, 1]]), 4)).toEqual([
