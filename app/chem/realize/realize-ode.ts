@@ -226,6 +226,7 @@ function heading(result: RealizeOdeResult): string {
 
 const degree = (ode: ExactOde) => Math.max(0, ...ode.rhs.flatMap((p) => [...p.values()].map((t) => P.totalDegree(t.exponents))));
 
+/** The JSON-safe part of a cross effect (its exact coefficient is a bigint rational). */
 function report({ equation, term, spans }: NegativeCrossEffect): CrossEffectReport {
   return { equation, term, spans };
 }
