@@ -338,6 +338,24 @@ describe("SBML import refuses bad files with clear errors", () => {
     });
   }
 
+  it("never throws and never returns a partial translation, whatever the bytes", () => {
+    const mutation = fc.tuple(fc.nat(good.length), fc.nat(40), fc.constantFrom("", "<", ">", '"', "&", "/", "x", "<apply>", "</ci>", "-1", "1e999"));
+    fc.assert(
+      fc.property(fc.array(mutation, { minLength: 1, maxLength: 4 }), (mutations) => {
+        const xml = mutations.reduce((text, [at, length, insert]) => text.slice(0, at) + insert + text.slice(at + length), good);
+        expect(() => checkSbml(xml)).not.toThrow();
+        const result = importSbml(xml);
+        if ("errors" in result) {
+          expect(result.errors.length).toBeGreaterThan(0);
+          expect(result).not.toHaveProperty("source");
+        } else {
+          expect(parseMechanism(result.source).diagnostics.filter((each) => each.severity === "error")).toEqual([]);
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+
   it("reports every problem of a file at once", () => {
     const broken = good.replace('<species id="X" compartment="reactor"', '<species id="X"').replace('<parameter id="k4"', '<parameter id="k3"');
     expect(errorsOf(broken)).toEqual([
