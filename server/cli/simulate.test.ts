@@ -33,7 +33,10 @@ describe("mechweave simulate", () => {
     const missing = mechweave("simulate", `${fixtures}/missing-rate.weave`, "--until", "1", "--json");
     expect(missing.code).toBe(1);
     expect(JSON.parse(missing.stdout).error).toMatch(/no rate coefficient for C -> E \+ P \(line 2\)/);
-    expect(broken.stderr + missing.stderr).not.toMatch(/\n\s+at /);
+    const ode = mechweave("simulate", `${fixtures}/broken.ode`, "--until", "1");
+    expect(ode.code).toBe(1);
+    expect(ode.stderr).toMatch(/broken\.ode:1:\d+: error/);
+    expect(broken.stderr + missing.stderr + ode.stderr).not.toMatch(/\n\s+at /);
   });
 
   it("exits 2 on bad usage", () => {

@@ -4,6 +4,7 @@
 // run at once; the rest wait in order.
 
 import { createRequire } from "node:module";
+import { availableParallelism } from "node:os";
 import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
@@ -14,7 +15,10 @@ import type { WorkerMessage } from "./worker";
 export interface RunLimits {
   /** Wall-clock limit per job, queueing excluded. */
   timeMs: number;
-  /** Dense linear algebra is O(n³) per step: beyond a few hundred species a run cannot finish in time. */
+  /**
+   * The Jacobian is held dense (n² numbers); networks with local structure factor sparsely, but
+   * one without it costs O(n³) per stiff step — the time limit then stops it.
+   */
   maxVariables: number;
   maxReactions: number;
   maxSamples: number;
@@ -24,16 +28,22 @@ export interface RunLimits {
 
 export const DEFAULT_LIMITS: RunLimits = {
   timeMs: 60_000,
-  maxVariables: 500,
-  maxReactions: 5_000,
+  maxVariables: 2_000,
+  maxReactions: 10_000,
   maxSamples: 20_000,
   maxSweepPoints: 200,
   heapMb: 512,
 };
 
-/** A job is bigger or longer than this server runs (HTTP 413 for size, 422 or 503 for time is the caller's choice). */
+/** A job is bigger, longer or hungrier than this server runs; `limit` says which. */
 export class SimulationLimitError extends Error {
   override name = "SimulationLimitError";
+  constructor(
+    message: string,
+    readonly limit: "size" | "time" | "memory",
+  ) {
+    super(message);
+  }
 }
 
 export interface RunOptions {
@@ -55,14 +65,10 @@ const workerBootstrap = [
   `require(${JSON.stringify(fileURLToPath(new URL("./worker.ts", import.meta.url)))});`,
 ].join("\n");
 
-let concurrency = 2;
+/** Jobs running at once: one core stays with the server, but never fewer than two, so one long run cannot hold up everybody. */
+const CONCURRENCY = Math.max(2, availableParallelism() - 1);
 let running = 0;
 const waiting: (() => void)[] = [];
-
-/** How many jobs may run at the same time (the machine's cores are shared with requests). */
-export function setWorkerConcurrency(count: number): void {
-  concurrency = Math.max(1, Math.floor(count));
-}
 
 export async function runInWorker<J extends DynamicsJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
   const limits = { ...DEFAULT_LIMITS, ...options.limits };
@@ -77,17 +83,17 @@ export async function runInWorker<J extends DynamicsJob>(job: J, options: RunOpt
 
 function checkSize(job: DynamicsJob, limits: RunLimits): void {
   const { variables, reactions } = modelSize(job.model);
-  if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`);
-  if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`);
+  if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`, "size");
+  if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`, "size");
   const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" ? job.options.samples : 0;
-  if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`);
+  if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`, "size");
   const points = job.kind === "sweep" ? job.options.points : 0;
-  if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`);
+  if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`, "size");
 }
 
 function acquireSlot(signal?: AbortSignal): Promise<void> {
   if (signal?.aborted) return Promise.reject(new SimulationCancelled());
-  if (running < concurrency) {
+  if (running < CONCURRENCY) {
     running++;
     return Promise.resolve();
   }
@@ -129,7 +135,7 @@ function runWorker<J extends DynamicsJob>(job: J, limits: RunLimits, { onProgres
       outcome();
     };
     const timer = setTimeout(
-      () => finish(() => reject(new SimulationLimitError(`the run took longer than ${limits.timeMs / 1000} s and was stopped`))),
+      () => finish(() => reject(new SimulationLimitError(`the run took longer than ${limits.timeMs / 1000} s and was stopped`, "time"))),
       limits.timeMs,
     );
     const cancel = () => finish(() => reject(new SimulationCancelled()));
@@ -142,7 +148,7 @@ function runWorker<J extends DynamicsJob>(job: J, limits: RunLimits, { onProgres
     });
     worker.on("error", (error) => {
       const outOfMemory = (error as NodeJS.ErrnoException).code === "ERR_WORKER_OUT_OF_MEMORY";
-      finish(() => reject(outOfMemory ? new SimulationLimitError(`the run needed more than ${limits.heapMb} MB and was stopped`) : error));
+      finish(() => reject(outOfMemory ? new SimulationLimitError(`the run needed more than ${limits.heapMb} MB and was stopped`, "memory") : error));
     });
     worker.on("exit", (code) => finish(() => reject(new Error(`the simulation worker stopped unexpectedly (exit code ${code})`))));
   });

@@ -115,3 +115,12 @@ describe("Michaelis–Menten mass action", () => {
     expect(() => simulateNetwork(mechanism, network, { until: 1, samples: 2, signal: controller.signal })).toThrow(/cancelled/);
   });
 });
+
+describe("the automatic choice on a non-stiff problem", () => {
+  it("stays with the explicit method", () => {
+    const run = simulatePolynomialOde(lotkaVolterra(), { until: 50, samples: 2 });
+    expect(run.method).toBe("explicit");
+    expect(run.switchedAt).toBeNull();
+    expect(run.stats.jacobians).toBe(0);
+  });
+});
