@@ -60,6 +60,7 @@ export default function Dashboard({ loaderData, actionData }: Route.ComponentPro
           <h1>Mechanisms</h1>
           <p className="mt-1 text-sm text-muted">Everything you own or were invited to, newest change first.</p>
         </div>
+        <div className="flex flex-wrap items-start gap-2">
         <Form method="post" className="flex items-start gap-2">
           <div>
             <input className="field w-72" name="title" placeholder="Title of a new mechanism" aria-label="Title of a new mechanism" required maxLength={200} />
@@ -74,6 +75,7 @@ export default function Dashboard({ loaderData, actionData }: Route.ComponentPro
             <input type="file" name="file" accept=".xml,.sbml" className="sr-only" onChange={(e) => e.currentTarget.form?.requestSubmit()} />
           </label>
         </Form>
+        </div>
       </div>
 
       <div className="card mt-8 overflow-hidden">
