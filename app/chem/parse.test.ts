@@ -69,6 +69,9 @@ describe("errors, each with line and column", () => {
   it("unknown character", () => {
     expect(where("X -> Y @ 1\nA % B -> C @ 1")).toEqual(["error 2:3"]);
     expect(messages("A % B -> C @ 1")[0]).toContain('Unknown character "%"');
+    // A no-break space pasted from a document is named, since it cannot be seen.
+    expect(where("X\u00a0-> Y @ 1")).toEqual(["error 1:2"]);
+    expect(messages("X\u00a0-> Y @ 1")[0]).toContain("U+00A0");
   });
 
   it("unterminated quoted name", () => {

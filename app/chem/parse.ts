@@ -13,7 +13,7 @@ export function parseMechanism(source: string): ParseResult {
 }
 
 /** Characters that can begin some token of the language; anything else is an unknown character. */
-const tokenStart = /[A-Za-z0-9\s"#+@,=:[\]{}<\-→⇌⇄∅]/;
+const tokenStart = /[A-Za-z0-9 \t\r\n"#+@,=:[\]{}<\-→⇌⇄∅]/;
 
 const statementHint =
   "write a step (X + Y -> 2Y @ k), a parameter (k = 1.0), an initial concentration ([X]0 = 1.5) or a fixed species (fixed [A] = 2.0)";
@@ -173,7 +173,7 @@ class MechanismReader {
           from: i,
           to: i + 1,
           priority: 0,
-          message: `Unknown character "${char}": species names use letters, digits and _, or double quotes ("Fe3+").`,
+          message: `Unknown character ${describeCharacter(char)}: species names use letters, digits and _, or double quotes ("Fe3+").`,
         };
       }
     }
@@ -513,6 +513,12 @@ class MechanismReader {
       }
     });
   }
+}
+
+/** A character as a reader can recognise it: invisible ones (a no-break space) by code point. */
+function describeCharacter(char: string): string {
+  const visible = /\S/.test(char) && !/\p{C}/u.test(char);
+  return visible ? `"${char}"` : `U+${char.codePointAt(0)!.toString(16).toUpperCase().padStart(4, "0")} (invisible)`;
 }
 
 /** A complex's identity independent of term order and repetition, e.g. `2X + Y`. */
