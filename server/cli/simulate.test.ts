@@ -8,8 +8,10 @@ function mechweave(...args: string[]) {
 }
 
 const fixtures = "tests/fixtures/dynamics";
+// Each call starts node and tsx afresh: seconds apiece on a busy machine.
+const slow = { timeout: 120_000 };
 
-describe("mechweave simulate", () => {
+describe("mechweave simulate", slow, () => {
   it("prints the time course of a mechanism as JSON", () => {
     const { code, stdout } = mechweave("simulate", `${fixtures}/robertson.weave`, "--until", "40", "--samples", "5", "--rtol", "1e-8", "--atol", "1e-14", "--json");
     expect(code).toBe(0);
@@ -46,7 +48,7 @@ describe("mechweave simulate", () => {
   });
 });
 
-describe("mechweave lyapunov", () => {
+describe("mechweave lyapunov", slow, () => {
   it("estimates the largest exponent of the Lorenz system", () => {
     const { code, stdout } = mechweave("lyapunov", `${fixtures}/lorenz.ode`, "--until", "300", "--json");
     expect(code).toBe(0);

@@ -6,7 +6,7 @@ import { runInWorker, SimulationLimitError } from "./run-in-worker";
 
 const longLyapunov: DynamicsJob = { kind: "lyapunov", model: { kind: "ode", ode: lorenz() }, options: { until: 1e7 } };
 
-describe("dynamics in a worker thread", () => {
+describe("dynamics in a worker thread", { timeout: 60_000 }, () => {
   it("returns what an in-process run returns, with progress, while the event loop stays free", async () => {
     const job: DynamicsJob = { kind: "simulate", model: { kind: "mechanism", ...robertson() }, settings: { until: 1e5, samples: 400 } };
     const progress: number[] = [];
