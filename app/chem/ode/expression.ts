@@ -11,7 +11,7 @@ export interface Scope {
   unavailable: ReadonlyMap<string, string>;
 }
 
-/** Why an expression is not a polynomial; `name` lets the caller point at the offending word. */
+/** Why an expression is not a polynomial; `word` (a name, `call` if a function) lets the caller point at it. */
 export class NotPolynomial extends Error {
   constructor(
     message: string,
@@ -38,7 +38,6 @@ export function toPolynomial(node: MathNode, scope: Scope): Polynomial {
 function expand(node: MathNode, scope: Scope): Polynomial {
   const n = scope.variables.size;
   const recurse = (child: MathNode) => toPolynomial(child, scope);
-  const constantOf = (p: Polynomial) => P.constantValue(p);
 
   switch (node.type) {
     case "ConstantNode": {
@@ -52,7 +51,7 @@ function expand(node: MathNode, scope: Scope): Polynomial {
       if (index !== undefined) return P.variable(n, index);
       const value = scope.parameters.get(name);
       if (value) return P.constant(n, value);
-      if (name in CONSTANTS) return P.constant(n, Q.fromNumber(CONSTANTS[name]));
+      if (Object.hasOwn(CONSTANTS, name)) return P.constant(n, Q.fromNumber(CONSTANTS[name]));
       if (name === "t") throw new NotPolynomial("time t may not appear: the ODE must be autonomous", name);
       const reason = scope.unavailable.get(name);
       if (reason) throw new NotPolynomial(reason, name);
@@ -76,7 +75,7 @@ function expand(node: MathNode, scope: Scope): Polynomial {
         case "*":
           return P.mul(left, right);
         case "/": {
-          const divisor = constantOf(right);
+          const divisor = P.constantValue(right);
           if (!divisor) throw new NotPolynomial(`division by an expression in the variables (${args[1].toString()}) is not polynomial`);
           if (Q.isZero(divisor)) throw new NotPolynomial("division by zero");
           return P.scale(left, Q.div(Q.ONE, divisor));
@@ -89,7 +88,7 @@ function expand(node: MathNode, scope: Scope): Polynomial {
     }
     case "FunctionNode": {
       const { fn, args } = node as unknown as { fn: { name: string }; args: MathNode[] };
-      const values = args.map((arg) => constantOf(recurse(arg)));
+      const values = args.map((arg) => P.constantValue(recurse(arg)));
       if (values.some((v) => v === null)) {
         throw new NotPolynomial(`${fn.name}(…) of a variable is not polynomial`, fn.name, true);
       }

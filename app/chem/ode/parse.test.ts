@@ -52,6 +52,7 @@ describe("parseOde", () => {
     ["x' = 2*y\ny(0) = 2", 1, 8, "initial value but no equation"],
     ["x' = (1 +", 1, 10, "cannot read the expression"],
     ["x' = x*t", 1, 8, "autonomous"],
+    ["x' = toString*x", 1, 6, "unknown name toString"],
     ["x' = 1\nx(0) = 2*x", 2, 10, "x is a variable"],
     ["k = 1\nk = 2\nx' = k", 2, 1, "second value of k"],
     ["x' = 1\nx = 3", 2, 1, "cannot also be a parameter"],

@@ -14,7 +14,7 @@ export interface ShiftSuggestion {
   until: number;
 }
 
-/** The margin is a tenth of the observed range (1 when the variable did not move). */
+/** The margin is a tenth of the observed range (when the variable did not move: 1, or a tenth of its value if larger). */
 const MARGIN_FRACTION = 0.1;
 
 export function shiftFromBox(box: Record<string, { min: number; max: number }>, variables: readonly string[]): Rational[] {

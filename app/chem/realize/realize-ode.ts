@@ -173,7 +173,7 @@ function shiftVector(ode: ExactOde, shift: Record<string, number>) {
   const unknown = Object.keys(shift).filter((name) => !ode.variables.includes(name));
   if (unknown.length > 0) throw new RealizeRequestError(`the shift names ${unknown.join(", ")}, which the ODE does not have`);
   return ode.variables.map((v) => {
-    const value = shift[v] ?? 0;
+    const value = Object.hasOwn(shift, v) ? shift[v] : 0;
     if (!Number.isFinite(value)) throw new RealizeRequestError(`the shift of ${v} is not a number`);
     return Q.fromNumber(value);
   });
@@ -190,7 +190,7 @@ function candidateComplexes(texts: string[], variables: string[]) {
 function exponentVector(ode: ExactOde, exponents: Record<string, number>) {
   const unknown = Object.keys(exponents).filter((name) => !ode.variables.includes(name));
   if (unknown.length > 0) throw new RealizeRequestError(`the multiplier names ${unknown.join(", ")}, which the ODE does not have`);
-  const vector = ode.variables.map((v) => exponents[v] ?? 0);
+  const vector = ode.variables.map((v) => (Object.hasOwn(exponents, v) ? exponents[v] : 0));
   if (!vector.every((e) => Number.isInteger(e) && e >= 0)) throw new RealizeRequestError("the multiplier's exponents must be non-negative integers");
   if (vector.every((e) => e === 0)) throw new RealizeRequestError("the multiplier must contain a variable");
   return vector;
