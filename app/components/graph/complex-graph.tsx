@@ -15,6 +15,7 @@ import {
   useStore,
 } from "@xyflow/react";
 import { type CSSProperties, useEffect, useId, useMemo, useRef, useState } from "react";
+import type { Awareness } from "y-protocols/awareness";
 import type * as Y from "yjs";
 import { ComplexNodeView, type ComplexNode } from "./complex-node";
 import { GraphLegend } from "./graph-legend";
@@ -23,6 +24,7 @@ import type { XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
 import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
 import { useComplexPositions } from "./use-complex-positions";
+import { useHeldComplexes } from "./use-held-complexes";
 
 export type { ComplexGraphReport } from "./graph-model";
 
@@ -41,6 +43,8 @@ export interface ComplexGraphProps {
   canEdit: boolean;
   /** Whether the room holds the server's state; nothing is written before, so no stored layout is overwritten. */
   synced: boolean;
+  /** The room's awareness: with it, a box a co-author is dragging shows who holds it. */
+  awareness?: Awareness | null;
   onSelect?: (selection: GraphSelection | null) => void;
   className?: string;
 }
@@ -88,9 +92,10 @@ export function ComplexGraph(props: ComplexGraphProps) {
   );
 }
 
-function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: ComplexGraphProps) {
+function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null, onSelect }: ComplexGraphProps) {
   const model = useMemo(() => (report ? buildGraphModel(report) : null), [report]);
   const positions = useComplexPositions(report, layout, { canEdit, synced });
+  const { held, hold } = useHeldComplexes(awareness);
   const [nodes, setNodes] = useState<ComplexNode[]>([]);
   // Held by id (complex text), not index, so the same complex stays selected while the text changes.
   const [selected, setSelected] = useState<Chosen | null>(null);
@@ -120,13 +125,17 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
     return previousEdges.current;
   }, [model, selected, marker]);
 
+  // Selection and co-authors' holds are laid over the nodes last; a node keeps its object when
+  // neither changed, so React Flow does not redraw it.
   const shownNodes = useMemo(
     () =>
       nodes.map((node) => {
         const chosen = selected?.kind === "complex" && selected.id === node.id;
-        return Boolean(node.selected) === chosen ? node : { ...node, selected: chosen };
+        const heldBy = held.get(node.id);
+        if (Boolean(node.selected) === chosen && node.data.heldBy === heldBy) return node;
+        return { ...node, selected: chosen, data: { ...node.data, heldBy } };
       }),
-    [nodes, selected],
+    [nodes, selected, held],
   );
 
   // Clicks and the keyboard (Enter on a focused node or arrow) both arrive as React Flow's select
@@ -188,6 +197,8 @@ function SharedComplexGraph({ report, layout, canEdit, synced, onSelect }: Compl
           onNodesChange={onNodesChange}
           onEdgesChange={(changes) => pickFrom("reaction", changes)}
           onPaneClick={() => select(null)}
+          onNodeDragStart={(_, node) => hold(node.id)}
+          onNodeDragStop={() => hold(null)}
           // Only the reader's own pans and zooms carry an input event; fitting reports none.
           onMoveStart={(event) => event && setViewTouched(true)}
           nodesDraggable={canEdit}

@@ -2,12 +2,15 @@
 // terminal strong linkage class.
 import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
 import type { ClassColours } from "./linkage-colours";
+import type { Holder } from "./use-held-complexes";
 
 export type ComplexNodeData = {
   label: string;
   colours: ClassColours;
   terminal: boolean;
   description: string;
+  /** The co-author dragging this complex right now, if any. */
+  heldBy?: Holder;
 };
 
 export type ComplexNode = Node<ComplexNodeData, "complex">;
@@ -26,7 +29,7 @@ export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
   const inset = rim - plainRim;
   return (
     <div
-      className="rounded-lg font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink"
+      className="relative rounded-lg font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink"
       style={{
         background: data.colours.fill,
         borderColor: data.colours.outline,
@@ -35,9 +38,19 @@ export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
         padding: `${6 - inset}px ${14 - inset}px`,
         // A soft halo, not a second line: a crisp ring would read as the terminal double rim.
         boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : undefined,
+        outline: data.heldBy ? `2px dashed ${data.heldBy.colour}` : undefined,
+        outlineOffset: 3,
       }}
-      title={data.description}
+      title={data.heldBy ? `${data.description}, moved by ${data.heldBy.name}` : data.description}
     >
+      {data.heldBy && (
+        <span
+          className="absolute -top-6 left-0 rounded px-1.5 font-sans text-[11px] leading-4 font-medium whitespace-nowrap text-white"
+          style={{ background: data.heldBy.colour }}
+        >
+          {data.heldBy.name}
+        </span>
+      )}
       <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       {data.label}
       <Handle type="source" position={Position.Right} isConnectable={false} style={hiddenHandle} />
