@@ -26,7 +26,7 @@ export interface StepStatistics {
 const DEFAULT_MAX_STEPS = 2_000_000;
 
 export class Integrator {
-  t = 0;
+  t: number;
   readonly y: Float64Array;
   steps = 0;
   rejected = 0;
@@ -42,8 +42,10 @@ export class Integrator {
     private readonly system: OdeSystem,
     private readonly options: IntegratorOptions,
     initial: Float64Array = system.initial,
+    start = 0,
   ) {
     this.y = Float64Array.from(initial);
+    this.t = start;
     this.maxSteps = options.maxSteps ?? DEFAULT_MAX_STEPS;
     this.explicit = options.method === "stiff" ? null : new DormandPrince(system, options);
     this.stepper = this.explicit ?? new Rodas4(system, options);

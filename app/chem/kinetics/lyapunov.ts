@@ -41,6 +41,7 @@ export interface LyapunovResult {
 }
 
 const HISTORY_POINTS = 500;
+const MAX_RENORMALISATIONS = 1_000_000;
 
 export function networkLyapunov(mechanism: Mechanism, network: Network, options: LyapunovOptions): LyapunovResult {
   return specLyapunov(networkSpec(mechanism, network), options);
@@ -64,9 +65,12 @@ export function largestLyapunovExponent(system: OdeSystem, options: LyapunovOpti
   if (!(transient >= 0 && transient < until)) throw new SimulationInputError("the transient must lie in [0, end time)");
   const interval = options.interval ?? (until - transient) / 1000;
   if (!(interval > 0 && interval <= until - transient)) throw new SimulationInputError("the renormalisation interval must be positive and within the run");
-  const tolerances = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-10, method: options.method ?? "auto", signal: options.signal };
+  if ((until - transient) / interval > MAX_RENORMALISATIONS) {
+    throw new SimulationInputError(`the renormalisation interval is too short: at most ${MAX_RENORMALISATIONS} renormalisations per run`);
+  }
+  const integration = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-10, method: options.method ?? "auto", signal: options.signal };
 
-  const settling = new Integrator(system, tolerances);
+  const settling = new Integrator(system, integration);
   settling.advance(transient);
 
   const n = system.names.length;
@@ -80,8 +84,7 @@ export function largestLyapunovExponent(system: OdeSystem, options: LyapunovOpti
   const length = Math.hypot(...direction);
   if (length === 0) throw new SimulationInputError("the state cannot move: there is no exponent to estimate");
   for (let i = 0; i < n; i++) direction[i] /= length;
-  const integrator = new Integrator(tangent, tolerances, start);
-  integrator.t = transient;
+  const integrator = new Integrator(tangent, integration, start, transient);
 
   const estimates: { t: number; estimate: number }[] = [];
   let logSum = 0;
