@@ -74,6 +74,12 @@ export interface SbmlModel {
 
 export type SbmlReading = { ok: true; model: SbmlModel } | { ok: false; errors: string[] };
 
+/** The units SBML Level 3 defines; unit attributes name one of these or a unit definition. */
+const baseUnits = new Set(
+  ("ampere avogadro becquerel candela coulomb dimensionless farad gram gray henry hertz item joule katal kelvin " +
+    "kilogram litre lumen lux metre mole newton ohm pascal radian second siemens sievert steradian tesla volt watt weber").split(" "),
+);
+
 /** Lists a model may hold that carry meaning Mechweave cannot represent. */
 const unreadLists: Record<string, string> = {
   listOfInitialAssignments: "initial assignments",
@@ -117,6 +123,8 @@ class SbmlReader {
   private readonly errors: string[] = [];
   /** The model-wide SId namespace. */
   private readonly ids = new Map<string, IdKind>();
+  /** Unit definitions have their own namespace (UnitSId). */
+  private readonly unitIds = new Set<string>();
   private readonly functions = new Map<string, Lambda>();
   private readonly pendingMath: PendingMath[] = [];
 
@@ -138,12 +146,15 @@ class SbmlReader {
     }
     const element = models[0];
     const id = this.optionalId(element, "model");
+    for (const each of listed(element, "listOfUnitDefinitions", "unitDefinition")) this.unitDefinition(each);
+    this.units(element, "substanceUnits", "timeUnits", "volumeUnits", "areaUnits", "lengthUnits", "extentUnits");
     for (const each of listed(element, "listOfFunctionDefinitions", "functionDefinition")) this.functionDefinition(each);
     const compartments = listed(element, "listOfCompartments", "compartment").map((each) => this.compartment(each));
     const species = listed(element, "listOfSpecies", "species").map((each) => this.species(each));
     const parameters = listed(element, "listOfParameters", "parameter").map((each) => this.parameter(each));
     const reactions = listed(element, "listOfReactions", "reaction").map((each) => this.reaction(each));
     this.checkSpeciesReferences(species, compartments, reactions);
+    for (const each of [element, ...listed(element, "listOfSpecies", "species")]) this.conversionFactor(each);
     for (const pending of this.pendingMath) this.resolveMath(pending);
     if (this.errors.length > 0) return { ok: false, errors: this.errors };
     const unread = [
@@ -176,14 +187,48 @@ class SbmlReader {
     if (id) this.functions.set(id, { parameters, body: body[0] });
   }
 
+  private unitDefinition(element: XmlElement): void {
+    const id = this.required(element, "id");
+    if (id && !isSId(id)) this.errors.push(`${describe(element)}: "${id}" is not a valid unit id.`);
+    else if (baseUnits.has(id)) this.errors.push(`${describe(element)}: ${id} is a base unit and cannot be redefined.`);
+    else if (this.unitIds.has(id)) this.errors.push(`The unit id ${id} is defined twice.`);
+    this.unitIds.add(id);
+    for (const unit of listed(element, "listOfUnits", "unit")) {
+      const kind = this.required(unit, "kind");
+      if (kind && !baseUnits.has(kind)) this.errors.push(`A <unit> of unit definition ${id}: kind="${kind}" is not an SBML base unit.`);
+      for (const attribute of ["exponent", "scale", "multiplier"]) {
+        if (this.required(unit, attribute)) this.number(unit, attribute);
+      }
+    }
+  }
+
+  /** Unit attributes must name a base unit or a unit definition. */
+  private units(element: XmlElement, ...attributes: string[]): void {
+    for (const attribute of attributes) {
+      const unit = element.attributes[attribute];
+      if (unit !== undefined && !baseUnits.has(unit) && !this.unitIds.has(unit)) {
+        this.errors.push(`${describe(element)}: ${attribute}="${unit}" is neither an SBML base unit nor a unit definition in the file.`);
+      }
+    }
+  }
+
+  private conversionFactor(element: XmlElement): void {
+    const factor = element.attributes.conversionFactor;
+    if (factor !== undefined && this.ids.get(factor) !== "parameter") {
+      this.errors.push(`${describe(element)}: its conversionFactor ${factor} is not a parameter of the model.`);
+    }
+  }
+
   private compartment(element: XmlElement): SbmlCompartment {
     const id = this.id(element, "compartment");
+    this.units(element, "units");
     this.boolean(element, "constant", true);
     return { id, size: this.number(element, "size") };
   }
 
   private species(element: XmlElement): SbmlSpecies {
     const id = this.id(element, "species");
+    this.units(element, "substanceUnits");
     const compartment = this.required(element, "compartment");
     this.boolean(element, "hasOnlySubstanceUnits", true);
     const initialConcentration = this.number(element, "initialConcentration");
@@ -207,6 +252,7 @@ class SbmlReader {
 
   private parameter(element: XmlElement): SbmlParameter {
     const id = this.id(element, "parameter");
+    this.units(element, "units");
     this.boolean(element, "constant", true);
     return { id, value: this.number(element, "value") };
   }
@@ -237,6 +283,7 @@ class SbmlReader {
     const localParameters = new Map<string, number | null>();
     for (const each of listed(element, "listOfLocalParameters", "localParameter")) {
       const id = this.required(each, "id");
+      this.units(each, "units");
       if (id && !isSId(id)) this.errors.push(`${describe(each)} in reaction ${reaction}: "${id}" is not a valid SId.`);
       if (localParameters.has(id)) this.errors.push(`Reaction ${reaction}: the local parameter id ${id} is used twice in its kinetic law.`);
       localParameters.set(id, this.number(each, "value"));

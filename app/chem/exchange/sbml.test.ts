@@ -324,6 +324,8 @@ describe("SBML import refuses bad files with clear errors", () => {
     ["invalid SId", good.replace('<parameter id="k4"', '<parameter id="4k"'), /"4k" is not a valid SId/],
     ["bad boolean", good.replace('<reaction id="feed" reversible="false">', '<reaction id="feed" reversible="no">'), /reversible="no" must be true or false/],
     ["bad number", good.replace('<parameter id="k1" value="1"', '<parameter id="k1" value="one"'), /value="one" is not a number/],
+    ["unknown unit", good.replace('<parameter id="k1" value="1"', '<parameter id="k1" units="per_second" value="1"'), /<parameter id="k1">: units="per_second" is neither an SBML base unit nor a unit definition in the file/],
+    ["bad unit definition", good.replace("<listOfCompartments>", '<listOfUnitDefinitions><unitDefinition id="second"><listOfUnits><unit kind="fortnight" exponent="1" scale="0" multiplier="1"/></listOfUnits></unitDefinition></listOfUnitDefinitions><listOfCompartments>'), /second is a base unit and cannot be redefined[\s\S]*kind="fortnight" is not an SBML base unit/],
     ["unknown name in a law", good.replace("<ci>k1</ci>", "<ci>k9</ci>"), /uses k9, which is neither a local parameter nor defined in the model/],
     ["fractional stoichiometry", good.replace('species="X" stoichiometry="2"', 'species="X" stoichiometry="1.5"').replace("<ci>X</ci><ci>X</ci><ci>Y</ci>", "<ci>X</ci><ci>Y</ci>"), /stoichiometry 1.5 of X is not a whole number/],
     ["unsupported MathML", good.replace("<apply><times/><ci>k1</ci><ci>A</ci></apply>", "<piecewise><piece><ci>k1</ci><true/></piece></piecewise>"), /<piecewise> is not something a Mechweave rate law can express/],
@@ -383,7 +385,7 @@ describe("checkSbml", () => {
   it("accepts a mass-action law however it is written, and a reversible law's two coefficients", () => {
     const reversible = fixture("michaelis-menten").replace("<kineticLaw>", '<kineticLaw sboTerm="SBO:0000012">');
     expect(checkSbml(reversible)).toEqual([]);
-    const negative = reversible.replace('value="1000" constant="true"', 'value="-1000" constant="true"');
+    const negative = reversible.replace('value="1000"', 'value="-1000"');
     expect(checkSbml(negative)[0]).toMatch(/fitted rate coefficients are negative/);
   });
 
