@@ -25,6 +25,12 @@ describe("Robertson's stiff problem", () => {
     expect(run.series.C.at(-1)).toBeGreaterThan(0.9999999);
   });
 
+  it("never reports a negative concentration, even at coarse tolerances", () => {
+    const run = simulateNetwork(mechanism, network, { until: 1e11, samples: 500, rtol: 1e-3, atol: 1e-6 });
+    for (const name of ["A", "B", "C"]) expect(Math.min(...run.series[name])).toBeGreaterThanOrEqual(0);
+    for (let i = 0; i < run.t.length; i++) expect(Math.abs(run.series.A[i] + run.series.B[i] + run.series.C[i] - 1)).toBeLessThan(1e-12);
+  });
+
   it("takes far fewer steps than the explicit method, and the automatic choice goes stiff", () => {
     const options = { until: 40, samples: 2, rtol: 1e-6, atol: 1e-12 };
     const stiff = simulateNetwork(mechanism, network, { ...options, method: "stiff" });
