@@ -1,5 +1,6 @@
 // Turns one mathjs expression tree into an exact polynomial, or says why it is not one.
 import type { MathNode } from "mathjs";
+import { lawFunctions } from "../law";
 import * as P from "./polynomial";
 import type { Polynomial } from "./polynomial";
 import * as Q from "./rational";
@@ -87,14 +88,21 @@ function expand(node: MathNode, scope: Scope): Polynomial {
       }
     }
     case "FunctionNode": {
-      const { fn, args } = node as unknown as { fn: { name: string }; args: MathNode[] };
-      const values = args.map((arg) => P.constantValue(recurse(arg)));
-      if (values.some((v) => v === null)) {
-        throw new NotPolynomial(`${fn.name}(…) of a variable is not polynomial`, fn.name, true);
+      const { fn, args } = node as unknown as { fn: { name?: string }; args: MathNode[] };
+      const name = fn.name ?? node.toString();
+      // The same small vocabulary as custom rate laws; never mathjs's own import, evaluate and such.
+      if (!lawFunctions.has(name)) throw new NotPolynomial(`unknown function ${name}; of numbers, ${[...lawFunctions].join(", ")} may be used`, name, true);
+      if (args.some((arg) => !P.constantValue(recurse(arg)))) {
+        throw new NotPolynomial(`${name}(…) of a variable is not polynomial`, name, true);
       }
-      // A function of constants only (sqrt(2), exp(1)) is a number; it is taken as the decimal it prints as.
-      const value = node.evaluate(Object.fromEntries([...scope.parameters].map(([k, v]) => [k, Q.toNumber(v)])));
-      if (typeof value !== "number" || !Number.isFinite(value)) throw new NotPolynomial(`${node.toString()} is not a finite number`, fn.name, true);
+      // A function of numbers (sqrt(2), exp(1)) is a number; it is taken as the decimal it prints as.
+      let value: unknown;
+      try {
+        value = node.evaluate(Object.fromEntries([...scope.parameters].map(([k, v]) => [k, Q.toNumber(v)])));
+      } catch (error) {
+        throw new NotPolynomial(`${node.toString()}: ${(error as Error).message}`, name, true);
+      }
+      if (typeof value !== "number" || !Number.isFinite(value)) throw new NotPolynomial(`${node.toString()} is not a finite number`, name, true);
       return P.constant(n, Q.fromNumber(value));
     }
     default:

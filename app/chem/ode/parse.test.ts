@@ -23,6 +23,13 @@ describe("parseOde", () => {
     );
   });
 
+  it("evaluates functions of numbers", () => {
+    expect(parseOde("x' = sqrt(4)*x + exp(0)\n").ode!.rhs[0]).toEqual([
+      { coefficient: 2, exponents: [1] },
+      { coefficient: 1, exponents: [0] },
+    ]);
+  });
+
   it("knows pi and e unless they are taken, and accepts a typographic prime", () => {
     expect(parseOde("x′ = pi*x\n").ode!.rhs[0][0].coefficient).toBe(Math.PI);
     expect(parseOde("e' = -e\n").ode!.rhs[0]).toEqual([{ coefficient: -1, exponents: [1] }]);
@@ -53,6 +60,9 @@ describe("parseOde", () => {
     ["x' = (1 +", 1, 10, "cannot read the expression"],
     ["x' = x*t", 1, 8, "autonomous"],
     ["x' = toString*x", 1, 6, "unknown name toString"],
+    ["x' = import(1)*x", 1, 6, "unknown function import"],
+    ["x' = sqrt(1, 2)*x", 1, 6, "sqrt(1, 2)"],
+    ["x' = sqrt(-1)*x", 1, 6, "not a finite number"],
     ["x' = 1\nx(0) = 2*x", 2, 10, "x is a variable"],
     ["k = 1\nk = 2\nx' = k", 2, 1, "second value of k"],
     ["x' = 1\nx = 3", 2, 1, "cannot also be a parameter"],
