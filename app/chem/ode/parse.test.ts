@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import { parseOde } from "./parse";
@@ -75,5 +76,17 @@ describe("parseOde", () => {
     const { ode, diagnostics } = parseOde(text);
     expect(ode).toBeNull();
     expect(diagnostics[0]).toMatchObject({ severity: "error", line, column, message: expect.stringContaining(message) });
+  });
+
+  it("never throws, whatever the text: every problem is a diagnostic (fast-check)", () => {
+    const token = fc.constantFrom("x", "y", "k", "'", "d", "/dt", "=", "(0)", "+", "-", "*", "/", "^", "(", ")", "2", "0.5", "1e400", "#", "\n", " ", "sin", "t", ",", "[", "!");
+    fc.assert(
+      fc.property(fc.oneof(fc.string(), fc.array(token, { maxLength: 40 }).map((t) => t.join(""))), (text) => {
+        const { ode, diagnostics } = parseOde(text);
+        expect(ode === null).toBe(diagnostics.some((d) => d.severity === "error"));
+        for (const d of diagnostics) expect(d.from).toBeLessThanOrEqual(d.to);
+      }),
+      { numRuns: 500 },
+    );
   });
 });
