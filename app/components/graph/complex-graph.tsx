@@ -244,6 +244,7 @@ function buildNodes(model: GraphModel | null, positions: Readonly<Record<string,
         colours: linkageClassColours(complex.linkageClass),
         terminal: complex.terminal,
         description: complex.description,
+        appeared: previous.length > 0 && !old,
       },
     };
   });

@@ -1,6 +1,7 @@
 // One complex as a box: tinted by its linkage class, with a double rim when it belongs to a
 // terminal strong linkage class.
 import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
+import { useEffect, useRef } from "react";
 import type { ClassColours } from "./linkage-colours";
 import type { Holder } from "./use-held-complexes";
 
@@ -9,6 +10,8 @@ export type ComplexNodeData = {
   colours: ClassColours;
   terminal: boolean;
   description: string;
+  /** New since the graph was first drawn: it glows once, so a room watching someone type sees what the text added. */
+  appeared?: boolean;
   /** The co-author dragging this complex right now, if any. */
   heldBy?: Holder;
 };
@@ -23,12 +26,22 @@ const plainRim = 1.5;
 const terminalRim = 4;
 
 export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
+  const box = useRef<HTMLDivElement>(null);
+  const appeared = data.appeared;
+  useEffect(() => {
+    if (!appeared || matchMedia("(prefers-reduced-motion: reduce)").matches) return;
+    box.current?.animate(
+      [{ boxShadow: "0 0 0 10px color-mix(in oklab, var(--mw-signal) 45%, transparent)" }, { boxShadow: "0 0 0 0 transparent" }],
+      { duration: 1600, easing: "ease-out" },
+    );
+  }, [appeared]);
   const rim = data.terminal ? terminalRim : plainRim;
   // The double rim eats into the padding, so both kinds of box are the same size and neighbours
   // laid out in one row stay centred on one line.
   const inset = rim - plainRim;
   return (
     <div
+      ref={box}
       className="relative rounded-lg font-mono text-[13.5px] leading-6 whitespace-nowrap text-ink"
       style={{
         background: data.colours.fill,
