@@ -1,5 +1,5 @@
 // One complex as a box: tinted by its linkage class, with a double rim when it belongs to a
-// terminal strong linkage class.
+// terminal strong linkage class, and a dashed ring with a name while a co-author drags it.
 import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
 import { useEffect, useRef } from "react";
 import type { ClassColours } from "./linkage-colours";
