@@ -59,8 +59,13 @@ const TOLERANCE = 1e-9;
  */
 const TIDY_FLOOR = 1e-2;
 
+/** Loaded once (the WebAssembly module is large); a failed load is retried on the next search. */
 let solver: ReturnType<typeof highsLoader> | null = null;
-const loadSolver = () => (solver ??= highsLoader());
+const loadSolver = () =>
+  (solver ??= highsLoader().catch((error: unknown) => {
+    solver = null;
+    throw error;
+  }));
 
 export async function searchRealization(problem: RealizationProblem, objective: Objective, options: SearchOptions): Promise<SearchOutcome> {
   const highs = await loadSolver();
