@@ -90,6 +90,7 @@ describe("MathML", () => {
     expect(problem(math("<apply><ci>f</ci><ci>A</ci></apply>"))).toMatch(/no function definition has that id/);
     expect(problem(math("<apply><divide/><ci>A</ci></apply>"))).toMatch(/<divide> takes 2 arguments, not 1/);
     expect(problem(math("<cn>1<sep/>2</cn>"))).toMatch(/cannot be read/);
+    expect(problem(math('<cn base="16">ff</cn>'))).toMatch(/not in base 10/);
     const loop = new Map([["f", { parameters: ["x"], body: element(math("<apply><ci>f</ci><ci>x</ci></apply>")).children[0] }]]);
     expect(problem(math("<apply><ci>f</ci><ci>A</ci></apply>"), loop)).toMatch(/calls itself/);
   });

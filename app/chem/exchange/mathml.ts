@@ -156,6 +156,7 @@ class MathmlReader {
 
   private number(element: XmlElement): MathNode {
     const type = element.attributes.type ?? "real";
+    if ((element.attributes.base ?? "10") !== "10") throw new UnreadableMath(`the number <cn base="${element.attributes.base}"> is not in base 10`);
     const parts = element.texts.map(Number);
     let value: number;
     if ((type === "real" || type === "integer") && parts.length === 1) value = parts[0];
