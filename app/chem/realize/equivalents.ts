@@ -7,9 +7,11 @@ import { buildNetwork } from "../network";
 import { parseMechanism } from "../parse";
 import { complexesOf, massActionOf } from "./from-network";
 import { inducedRhs, maxOrder } from "./mass-action";
+import type { MassActionMechanism } from "./mass-action";
 import type { SearchProgress } from "./milp";
 import { searchRealization } from "./milp";
 import { realizationProblem } from "./problem";
+import { RealizeRequestError } from "./request-error";
 import { searchWeaklyReversible } from "./weakly-reversible";
 import type { WeakReversibilityOutcome } from "./weakly-reversible";
 import { mechanismText } from "./weave-text";
@@ -69,13 +71,21 @@ export async function equivalentRealizations(
   };
 }
 
-/** The same search for a `.weave` mechanism's induced ODE, with its own complexes as candidates. */
+/**
+ * The same search for a `.weave` mechanism's induced ODE, with its own complexes as candidates.
+ * Throws RealizeRequestError for a mechanism with errors, custom rate laws or missing rates.
+ */
 export async function equivalentRealizationsOfMechanism(source: string, options: EquivalentOptions = {}): Promise<EquivalentRealizations> {
   const { mechanism, diagnostics } = parseMechanism(source);
   const error = diagnostics.find((d) => d.severity === "error");
-  if (error) throw new RangeError(`line ${error.line}: ${error.message}`);
+  if (error) throw new RealizeRequestError(`line ${error.line}: ${error.message}`);
   const network = buildNetwork(mechanism);
-  const massAction = massActionOf(network);
+  let massAction: MassActionMechanism;
+  try {
+    massAction = massActionOf(network);
+  } catch (cause) {
+    throw new RealizeRequestError((cause as Error).message);
+  }
   return equivalentRealizations(
     { variables: massAction.species, rhs: inducedRhs(massAction) },
     { ...options, extraComplexes: [...complexesOf(network), ...(options.extraComplexes ?? [])] },

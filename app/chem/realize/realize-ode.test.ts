@@ -67,4 +67,10 @@ describe("equivalent realizations of a mechanism", () => {
     expect(text).toContain("\n0 -> X @ 2\n");
     expect(text).toContain("\nX -> 0 @ 2\n");
   });
+
+  it("refuses mechanisms it cannot take the mass-action ODE of", async () => {
+    for (const source of ["S -> P @ { 2*S/(1 + S) }\n", "X -> 0\n", "X -> \n"]) {
+      await expect(equivalentRealizationsOfMechanism(source)).rejects.toBeInstanceOf(RealizeRequestError);
+    }
+  });
 });

@@ -19,6 +19,7 @@ import { canonicalRealization } from "./canonical";
 import type { EquivalentOptions, EquivalentRealizations } from "./equivalents";
 import { equivalentRealizations } from "./equivalents";
 import { maxOrder } from "./mass-action";
+import { RealizeRequestError } from "./request-error";
 import { mechanismText } from "./weave-text";
 
 export interface RealizeOdeRequest {
@@ -69,8 +70,7 @@ export interface RealizeOdeResult {
   equivalents?: EquivalentRealizations;
 }
 
-/** A request that cannot be carried out whatever the file says (bad shift, say). */
-export class RealizeRequestError extends Error {}
+export { RealizeRequestError };
 
 export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOdeResult> {
   const parsed = parseOde(request.ode);
@@ -116,7 +116,7 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
   }
   if (request.equivalents) {
     const options = request.equivalents === true ? {} : request.equivalents;
-    const extra = candidateComplexes(request.complexes ?? [], ode.variables);
+    const extra = readComplexes(request.complexes ?? [], ode.variables);
     result.equivalents = await equivalentRealizations(ode, { ...options, extraComplexes: [...(options.extraComplexes ?? []), ...extra] });
   }
   return result;
@@ -177,14 +177,6 @@ function shiftVector(ode: ExactOde, shift: Record<string, number>) {
     if (!Number.isFinite(value)) throw new RealizeRequestError(`the shift of ${v} is not a number`);
     return Q.fromNumber(value);
   });
-}
-
-function candidateComplexes(texts: string[], variables: string[]) {
-  try {
-    return readComplexes(texts, variables);
-  } catch (error) {
-    throw new RealizeRequestError((error as Error).message);
-  }
 }
 
 function exponentVector(ode: ExactOde, exponents: Record<string, number>) {
