@@ -281,14 +281,34 @@ const sameEdge = (old: ReactionEdge, next: ReactionEdge) =>
   old.data?.label === next.data?.label &&
   old.data?.marker === next.data?.marker;
 
-/** Fits the whole graph again whenever its complexes change, unless the reader has taken the view. */
+/**
+ * Fits the graph when it is first drawn, and again (gliding) whenever a complex lands outside the
+ * view, unless the reader has taken the view. Complexes that come and go inside it leave the zoom
+ * alone, so a room watching someone type is not shaken at every keystroke.
+ */
 function FitWhileUntouched({ touched }: { touched: boolean }) {
   const initialized = useNodesInitialized();
-  const { fitView } = useReactFlow();
+  const { fitView, getNodes, getNodesBounds, getViewport } = useReactFlow();
   const nodeIds = useStore((state) => [...state.nodeLookup.keys()].join("\n"));
+  const width = useStore((state) => state.width);
+  const height = useStore((state) => state.height);
+  const fitted = useRef(false);
   useEffect(() => {
-    if (initialized && !touched) void fitView(fitOptions);
-  }, [initialized, touched, nodeIds, fitView]);
+    if (!initialized || touched) return;
+    if (!fitted.current) {
+      fitted.current = true;
+      void fitView(fitOptions);
+      return;
+    }
+    const bounds = getNodesBounds(getNodes());
+    const { x, y, zoom } = getViewport();
+    const inside =
+      bounds.x * zoom + x >= 0 &&
+      bounds.y * zoom + y >= 0 &&
+      (bounds.x + bounds.width) * zoom + x <= width &&
+      (bounds.y + bounds.height) * zoom + y <= height;
+    if (!inside) void fitView({ ...fitOptions, duration: 250 });
+  }, [initialized, touched, nodeIds, width, height, fitView, getNodes, getNodesBounds, getViewport]);
   return null;
 }
 
