@@ -1,5 +1,6 @@
 // Where complexes without a shared position go: dagre lays each linkage class out left to right,
-// new complexes join their class near the complexes already placed, and new classes stack below.
+// new complexes join their class beside their placed neighbours, off the arrows already drawn, and
+// classes new as a whole are shelved in rows below everything drawn.
 import dagre from "@dagrejs/dagre";
 import { packInRows } from "./shelf-packing";
 
