@@ -1,4 +1,4 @@
-// The SBML Level 3 Core rules Mechweave can check offline (see sbml-document.ts), plus that every
+// The SBML Core rules Mechweave can check offline (see sbml-document.ts), plus that every
 // kinetic law evaluates at positive concentrations and that a law declared as mass action
 // (sboTerm SBO:0000012) really is one. Laws the file may define through rules or initial
 // assignments cannot be evaluated here, and are reported as such.

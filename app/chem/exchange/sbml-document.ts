@@ -1,13 +1,19 @@
 // Reads SBML Level 3 Core text into typed records, checking the rules that need no outside data:
 // well-formed XML, the sbml root and namespace, required attributes and their types, unique SIds,
-// and that every reference (compartment, species, MathML name) resolves. Every problem is
-// collected, so one pass tells the author everything that is wrong.
+// and that every reference (compartment, species, unit, MathML name) resolves. Every problem is
+// collected, so one pass tells the author everything that is wrong. Level 2 files, which many
+// published models still are, are read too: there the attributes Level 3 requires have defaults.
 import { isSymbolNode, type MathNode } from "mathjs";
 import { readMathml, type Lambda } from "./mathml";
 import { isSId } from "./names";
 import { child, listed, readXml, type XmlElement } from "./xml";
 
 const sbmlNamespaces: Record<string, { level: number; version: number }> = {
+  "http://www.sbml.org/sbml/level2": { level: 2, version: 1 },
+  "http://www.sbml.org/sbml/level2/version2": { level: 2, version: 2 },
+  "http://www.sbml.org/sbml/level2/version3": { level: 2, version: 3 },
+  "http://www.sbml.org/sbml/level2/version4": { level: 2, version: 4 },
+  "http://www.sbml.org/sbml/level2/version5": { level: 2, version: 5 },
   "http://www.sbml.org/sbml/level3/version1/core": { level: 3, version: 1 },
   "http://www.sbml.org/sbml/level3/version2/core": { level: 3, version: 2 },
 };
@@ -74,11 +80,19 @@ export interface SbmlModel {
 
 export type SbmlReading = { ok: true; model: SbmlModel } | { ok: false; errors: string[] };
 
-/** The units SBML Level 3 defines; unit attributes name one of these or a unit definition. */
-const baseUnits = new Set(
-  ("ampere avogadro becquerel candela coulomb dimensionless farad gram gray henry hertz item joule katal kelvin " +
-    "kilogram litre lumen lux metre mole newton ohm pascal radian second siemens sievert steradian tesla volt watt weber").split(" "),
-);
+/** The base units of SBML Level 3; Level 2 lacks avogadro and (Version 1 only) has Celsius. */
+const level3BaseUnits = (
+  "ampere avogadro becquerel candela coulomb dimensionless farad gram gray henry hertz item joule katal kelvin " +
+  "kilogram litre lumen lux metre mole newton ohm pascal radian second siemens sievert steradian tesla volt watt weber"
+).split(" ");
+
+function baseUnitsOf(level: number, version: number): Set<string> {
+  if (level === 3) return new Set(level3BaseUnits);
+  return new Set([...level3BaseUnits.filter((unit) => unit !== "avogadro"), ...(version === 1 ? ["Celsius"] : [])]);
+}
+
+/** Level 2's predefined units, which unit attributes may name without defining them. */
+const level2DefaultUnits = ["substance", "volume", "area", "length", "time"];
 
 /** Lists a model may hold that carry meaning Mechweave cannot represent. */
 const unreadLists: Record<string, string> = {
@@ -100,8 +114,8 @@ export function readSbml(text: string): SbmlReading {
     return {
       ok: false,
       errors: [
-        /level[12]/.test(root.namespace)
-          ? `This is SBML Level ${level} Version ${version}; Mechweave reads SBML Level 3 (Version 1 or 2). Convert the file to Level 3 first.`
+        /level1/.test(root.namespace) || level === "1"
+          ? `This is SBML Level ${level} Version ${version}; Mechweave reads SBML Levels 2 and 3. Convert the file to Level 3 first.`
           : `The <sbml> element must declare the SBML Level 3 Core namespace (xmlns="http://www.sbml.org/sbml/level3/version2/core"); found "${root.namespace || "none"}".`,
       ],
     };
@@ -125,13 +139,16 @@ class SbmlReader {
   private readonly ids = new Map<string, IdKind>();
   /** Unit definitions have their own namespace (UnitSId). */
   private readonly unitIds = new Set<string>();
+  private readonly baseUnits: Set<string>;
   private readonly functions = new Map<string, Lambda>();
   private readonly pendingMath: PendingMath[] = [];
 
   constructor(
     private readonly level: number,
     private readonly version: number,
-  ) {}
+  ) {
+    this.baseUnits = baseUnitsOf(level, version);
+  }
 
   read(root: XmlElement): SbmlReading {
     this.matches(root, "level", String(this.level));
@@ -190,14 +207,14 @@ class SbmlReader {
   private unitDefinition(element: XmlElement): void {
     const id = this.required(element, "id");
     if (id && !isSId(id)) this.errors.push(`${describe(element)}: "${id}" is not a valid unit id.`);
-    else if (baseUnits.has(id)) this.errors.push(`${describe(element)}: ${id} is a base unit and cannot be redefined.`);
+    else if (this.baseUnits.has(id)) this.errors.push(`${describe(element)}: ${id} is a base unit and cannot be redefined.`);
     else if (this.unitIds.has(id)) this.errors.push(`The unit id ${id} is defined twice.`);
     this.unitIds.add(id);
     for (const unit of listed(element, "listOfUnits", "unit")) {
       const kind = this.required(unit, "kind");
-      if (kind && !baseUnits.has(kind)) this.errors.push(`A <unit> of unit definition ${id}: kind="${kind}" is not an SBML base unit.`);
+      if (kind && !this.baseUnits.has(kind)) this.errors.push(`A <unit> of unit definition ${id}: kind="${kind}" is not an SBML base unit.`);
       for (const attribute of ["exponent", "scale", "multiplier"]) {
-        if (this.required(unit, attribute)) this.number(unit, attribute);
+        if (this.level === 2 || this.required(unit, attribute)) this.number(unit, attribute);
       }
     }
   }
@@ -206,7 +223,9 @@ class SbmlReader {
   private units(element: XmlElement, ...attributes: string[]): void {
     for (const attribute of attributes) {
       const unit = element.attributes[attribute];
-      if (unit !== undefined && !baseUnits.has(unit) && !this.unitIds.has(unit)) {
+      if (unit === undefined) continue;
+      const predefined = this.baseUnits.has(unit) || (this.level === 2 && level2DefaultUnits.includes(unit));
+      if (!predefined && !this.unitIds.has(unit)) {
         this.errors.push(`${describe(element)}: ${attribute}="${unit}" is neither an SBML base unit nor a unit definition in the file.`);
       }
     }
@@ -222,7 +241,7 @@ class SbmlReader {
   private compartment(element: XmlElement): SbmlCompartment {
     const id = this.id(element, "compartment");
     this.units(element, "units");
-    this.boolean(element, "constant", true);
+    this.flag(element, "constant", true);
     return { id, size: this.number(element, "size") };
   }
 
@@ -230,7 +249,7 @@ class SbmlReader {
     const id = this.id(element, "species");
     this.units(element, "substanceUnits");
     const compartment = this.required(element, "compartment");
-    this.boolean(element, "hasOnlySubstanceUnits", true);
+    this.flag(element, "hasOnlySubstanceUnits", false);
     const initialConcentration = this.number(element, "initialConcentration");
     const initialAmount = this.number(element, "initialAmount");
     if (initialConcentration !== null && initialAmount !== null) {
@@ -245,27 +264,29 @@ class SbmlReader {
       compartment,
       initialConcentration,
       initialAmount,
-      boundaryCondition: this.boolean(element, "boundaryCondition", true),
-      constant: this.boolean(element, "constant", true),
+      boundaryCondition: this.flag(element, "boundaryCondition", false),
+      constant: this.flag(element, "constant", false),
     };
   }
 
   private parameter(element: XmlElement): SbmlParameter {
     const id = this.id(element, "parameter");
     this.units(element, "units");
-    this.boolean(element, "constant", true);
+    this.flag(element, "constant", true);
     return { id, value: this.number(element, "value") };
   }
 
   private reaction(element: XmlElement): SbmlReaction {
     const id = this.id(element, "reaction");
-    const reversible = this.boolean(element, "reversible", true);
-    // `fast` is required in Level 3 Version 1 and was removed in Version 2.
-    if (this.version === 1) this.boolean(element, "fast", true);
+    const reversible = this.flag(element, "reversible", true);
+    // `fast` is required in Level 3 Version 1, optional before and removed in Version 2.
+    if (this.level === 2 || this.version === 1) this.flag(element, "fast", false);
     const reference = (each: XmlElement): SbmlSpeciesReference => {
       this.optionalId(each, "species reference");
-      this.boolean(each, "constant", true);
-      const stoichiometry = this.number(each, "stoichiometry");
+      if (this.level === 3) this.flag(each, "constant", true);
+      if (child(each, "stoichiometryMath")) this.errors.push(`${describe(each)} in reaction ${id}: stoichiometryMath is not supported; give a number.`);
+      // Level 2 defaults a missing stoichiometry to 1; Level 3 leaves it undefined.
+      const stoichiometry = this.number(each, "stoichiometry") ?? (this.level === 2 ? 1 : null);
       if (stoichiometry !== null && stoichiometry <= 0) this.errors.push(`${describe(each)} in reaction ${id}: stoichiometry must be positive (${stoichiometry}).`);
       return { species: this.required(each, "species"), stoichiometry };
     };
@@ -281,7 +302,8 @@ class SbmlReader {
 
   private kineticLaw(element: XmlElement, reaction: string): SbmlKineticLaw {
     const localParameters = new Map<string, number | null>();
-    for (const each of listed(element, "listOfLocalParameters", "localParameter")) {
+    const [list, item] = this.level === 3 ? ["listOfLocalParameters", "localParameter"] : ["listOfParameters", "parameter"];
+    for (const each of listed(element, list, item)) {
       const id = this.required(each, "id");
       this.units(each, "units");
       if (id && !isSId(id)) this.errors.push(`${describe(each)} in reaction ${reaction}: "${id}" is not a valid SId.`);
@@ -385,10 +407,12 @@ class SbmlReader {
     if (value && value !== expected) this.errors.push(`${describe(element)}: ${attribute}="${value}" does not match the namespace, which says ${expected}.`);
   }
 
-  private boolean(element: XmlElement, attribute: string, required: boolean): boolean {
+  /** A boolean attribute: required in Level 3, `level2Default` when a Level 2 file leaves it out. */
+  private flag(element: XmlElement, attribute: string, level2Default: boolean): boolean {
     const value = element.attributes[attribute]?.trim();
     if (value === undefined) {
-      if (required) this.errors.push(`${describe(element)}: the required attribute ${attribute} is missing.`);
+      if (this.level === 2) return level2Default;
+      this.errors.push(`${describe(element)}: the required attribute ${attribute} is missing.`);
       return false;
     }
     if (value === "true" || value === "1") return true;

@@ -1,4 +1,4 @@
-// SBML Level 3 Core to `.weave` text. Mass-action kinetic laws become rate coefficients (a model
+// SBML (Level 3 Core, or Level 2) to `.weave` text. Mass-action kinetic laws become rate coefficients (a model
 // parameter by name, a literal or local parameter as its number); any other law is kept as a custom
 // law with a warning. Either the whole file is translated or nothing is: the result is parsed back
 // and any error refuses the import.

@@ -156,6 +156,19 @@ describe("SBML import of hand-written textbook models", () => {
     expect(report.odes.product).toBe('k2*"enzyme–substrate complex"');
   });
 
+  it("Michaelis–Menten elementary steps in SBML Level 2 Version 4 (defaults, kinetic-law parameters)", async () => {
+    const xml = fixture("michaelis-menten-level2");
+    expect(checkSbml(xml)).toEqual([]);
+    const back = imported(xml);
+    expect(back.warnings).toEqual([]);
+    expect(back.source).toContain("binding: E + S <=> ES @ 1000000, 1000\ncatalysis: ES -> E + P @ 100\n");
+    const report = await analyzeSource(back.source);
+    expect(report.diagnostics).toEqual([]);
+    expect(report.complexes).toEqual(["E + S", "ES", "E + P"]);
+    expect(report.deficiency).toBe(0);
+    expect(report.conservationLaws).toHaveLength(2);
+  });
+
   it("Lotka's scheme (local parameters, literal numbers, boundary species)", async () => {
     const back = imported(fixture("lotka-volterra"));
     const report = await analyzeSource(back.source);
@@ -313,7 +326,8 @@ describe("SBML import refuses bad files with clear errors", () => {
     ["not XML", "species A, B and C", /not well-formed XML/],
     ["unclosed XML", good.replace("</model>", ""), /not well-formed XML \(line \d+/],
     ["not SBML", "<html><body>hello</body></html>", /not an SBML file: its root element is <html>/],
-    ["SBML Level 2", good.replace("level3/version2/core", "level2/version4").replace('level="3" version="2"', 'level="2" version="4"'), /SBML Level 2 Version 4; Mechweave reads SBML Level 3/],
+    ["SBML Level 1", '<sbml xmlns="http://www.sbml.org/sbml/level1" level="1" version="2"><model/></sbml>', /SBML Level 1 Version 2; Mechweave reads SBML Levels 2 and 3/],
+    ["unknown namespace", good.replace("level3/version2/core", "level4/version1/core"), /must declare the SBML Level 3 Core namespace/],
     ["no model", good.replace(/<model[\s\S]*<\/model>/, ""), /holds no <model>/],
     ["missing species attribute", good.replace('<species id="X" compartment="reactor"', '<species id="X"'), /<species id="X">: the required attribute compartment is missing/],
     ["missing reaction attribute", good.replace('<reaction id="feed" reversible="false">', '<reaction id="feed">'), /<reaction id="feed">: the required attribute reversible is missing/],
@@ -370,7 +384,9 @@ describe("SBML import refuses bad files with clear errors", () => {
 
 describe("checkSbml", () => {
   it("accepts the hand-written models", () => {
-    for (const name of ["michaelis-menten", "lotka-volterra", "brusselator", "michaelis-menten-rate-law"]) expect(checkSbml(fixture(name))).toEqual([]);
+    for (const name of ["michaelis-menten", "michaelis-menten-level2", "lotka-volterra", "brusselator", "michaelis-menten-rate-law"]) {
+      expect(checkSbml(fixture(name))).toEqual([]);
+    }
   });
 
   it("verifies a law declared as mass action numerically", () => {
