@@ -209,6 +209,8 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
           deleteKeyCode={null}
           selectionKeyCode={null}
           multiSelectionKeyCode={null}
+          // Past a few hundred complexes, drawing only what is on screen keeps pan and zoom smooth.
+          onlyRenderVisibleElements={model.nodes.length > 250}
           fitView
           fitViewOptions={fitOptions}
           minZoom={0.1}
