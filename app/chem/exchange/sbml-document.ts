@@ -153,6 +153,7 @@ class SbmlReader {
   read(root: XmlElement): SbmlReading {
     this.matches(root, "level", String(this.level));
     this.matches(root, "version", String(this.version));
+    this.checkCommonAttributes(root, new Set());
     // A package the file marks as required changes the meaning of the core model.
     const packages = Object.entries(root.attributes)
       .filter(([name, value]) => name.endsWith(":required") && value === "true")
@@ -311,11 +312,23 @@ class SbmlReader {
       localParameters.set(id, this.number(each, "value"));
     }
     const sboTerm = element.attributes.sboTerm ?? null;
-    if (sboTerm !== null && !/^SBO:\d{7}$/.test(sboTerm)) this.errors.push(`The kinetic law of reaction ${reaction}: sboTerm "${sboTerm}" is not of the form SBO:0000012.`);
     const law: SbmlKineticLaw = { math: null, sboTerm, localParameters };
     const math = child(element, "math");
     if (math) this.pendingMath.push({ reaction, element: math, locals: new Set(localParameters.keys()), assign: (node) => (law.math = node) });
     return law;
+  }
+
+  /** sboTerm and metaid, which any SBML element may carry; annotations, notes and math are not SBML. */
+  private checkCommonAttributes(element: XmlElement, metaids: Set<string>): void {
+    const { sboTerm, metaid } = element.attributes;
+    if (sboTerm !== undefined && !/^SBO:\d{7}$/.test(sboTerm)) this.errors.push(`${describe(element)}: sboTerm "${sboTerm}" is not of the form SBO:0000012.`);
+    if (metaid !== undefined) {
+      if (metaids.has(metaid)) this.errors.push(`The metaid ${metaid} is used twice; metaids must be unique in a document.`);
+      metaids.add(metaid);
+    }
+    for (const each of element.children) {
+      if (each.name !== "annotation" && each.name !== "notes" && each.name !== "math") this.checkCommonAttributes(each, metaids);
+    }
   }
 
   // ---- cross-references

@@ -405,9 +405,11 @@ describe("checkSbml", () => {
     expect(checkSbml(negative)[0]).toMatch(/fitted rate coefficients are negative/);
   });
 
-  it("reports a law that cannot be evaluated and a malformed sboTerm", () => {
+  it("reports a law that cannot be evaluated, a malformed sboTerm and a repeated metaid", () => {
     const unevaluable = fixture("brusselator").replace('<parameter id="k1" value="1" constant="true"/>', '<parameter id="k1" constant="true"/>');
     expect(checkSbml(unevaluable)[0]).toMatch(/reaction feed cannot be evaluated: it uses k1 without a value/);
-    expect(checkSbml(fixture("brusselator").replace("<kineticLaw>", '<kineticLaw sboTerm="12">'))[0]).toMatch(/sboTerm "12" is not of the form/);
+    expect(checkSbml(fixture("brusselator").replace("<kineticLaw>", '<kineticLaw sboTerm="12">'))[0]).toMatch(/<kineticLaw>: sboTerm "12" is not of the form/);
+    const metaids = fixture("brusselator").replace('<species id="A"', '<species metaid="m1" id="A"').replace('<species id="B"', '<species metaid="m1" id="B"');
+    expect(checkSbml(metaids)).toEqual(["The metaid m1 is used twice; metaids must be unique in a document."]);
   });
 });
