@@ -1,59 +1,11 @@
-import { CompletionContext } from "@codemirror/autocomplete";
-import { ensureSyntaxTree } from "@codemirror/language";
-import { EditorState, type TransactionSpec } from "@codemirror/state";
-import type { EditorView } from "@codemirror/view";
 import { describe, expect, it } from "vitest";
-import { completeMechanismNames, mechanismNames } from "./complete";
-import { mechanism } from "./mechanism-language";
-
-/** Completion labels offered at the `|` in the text. */
-function labelsAt(marked: string): string[] {
-  const pos = marked.indexOf("|");
-  const state = EditorState.create({ doc: marked.replace("|", ""), extensions: [mechanism()] });
-  ensureSyntaxTree(state, state.doc.length);
-  const result = completeMechanismNames(new CompletionContext(state, pos, true));
-  return (result?.options ?? []).map((option) => option.label);
-}
-
-describe("mechanism names", () => {
-  it("lists species, fixed species and parameters declared or only used", () => {
-    const names = mechanismNames('X + "Fe3+" -> 2Y @ k1\nY -> 0 @ k2\nk1 = 1\nfixed [A] = 2\nA + X -> Y @ 3\n');
-    expect(names.species).toEqual(["X", "Fe3+", "Y"]);
-    expect(names.fixed).toEqual(["A"]);
-    expect(names.parameters.sort()).toEqual(["k1", "k2"]);
-  });
-});
+import { completionOptions, mechanismNames } from "./complete";
 
 describe("name completion", () => {
-  const text = 'X + "Fe3+" -> 2Y @ k1\nk1 = 1\n';
-
-  it("offers species inside a complex, quoted as they must be written", () => {
-    expect(labelsAt(text + "Y -> |")).toEqual(["X", '"Fe3+"', "Y"]);
-  });
-
-  it("offers rate coefficient names after @", () => {
-    expect(labelsAt(text + "Y -> X @ |")).toEqual(["k1"]);
-  });
-
-  it("offers both inside a custom rate law", () => {
-    expect(labelsAt(text + "Y -> X @ { |}")).toEqual(["X", '"Fe3+"', "Y", "k1"]);
-  });
-
-  it("replaces the closing quote typed ahead when a quoted name is picked", () => {
-    const doc = text + 'Y -> "Fe"';
-    const pos = doc.length - 1;
-    const state = EditorState.create({ doc, selection: { anchor: pos }, extensions: [mechanism()] });
-    ensureSyntaxTree(state, state.doc.length);
-    const result = completeMechanismNames(new CompletionContext(state, pos, true))!;
-    const option = result.options.find((candidate) => candidate.label === '"Fe3+"')!;
-    // The apply function only reads the state and dispatches, so a stand-in view will do without a DOM.
-    const view = { state, dispatch: (spec: TransactionSpec) => (view.state = view.state.update(spec).state) };
-    if (typeof option.apply !== "function") throw new Error("a quoted name applies itself");
-    option.apply(view as unknown as EditorView, option, result.from, pos);
-    expect(view.state.doc.toString()).toBe(text + 'Y -> "Fe3+"');
-  });
-
-  it("does not offer the half-typed word as a name of its own", () => {
-    expect(labelsAt(text + "Y -> Zq|")).not.toContain("Zq");
+  it("offers species, fixed species and rate coefficient names from the text", () => {
+    const names = mechanismNames('E + S <=> C @ kon, koff\nC -> E + "P+" @ kcat = 2\nfixed [A] = 1\nkon = 1\nkoff = 2');
+    expect(names).toEqual({ species: ["E", "S", "C", "P+"], fixed: ["A"], parameters: ["kcat", "kon", "koff"] });
+    expect(completionOptions(names, "species").map((option) => option.label)).toEqual(["E", "S", "C", '"P+"', "A"]);
+    expect(completionOptions(names, "parameter").map((option) => option.label)).toEqual(["kcat", "kon", "koff"]);
   });
 });
