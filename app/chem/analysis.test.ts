@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { analyzeSource } from "./analysis";
+import { rank, type SparseVector } from "./exact";
 
 const fixture = (name: string) => readFileSync(new URL(`../../tests/fixtures/${name}`, import.meta.url), "utf8");
 
@@ -172,8 +173,20 @@ describe("invariants on random mechanisms", () => {
         expect(report.linkageClassDeficiencies.every((d) => d >= 0)).toBe(true);
         expect(report.linkageClasses.flat().sort((a, b) => a - b)).toEqual(report.complexes.map((_, i) => i));
         expect(report.conservationLaws).toHaveLength(report.species.length - report.rank);
+        // The spanning-forest shortcut loses nothing: every reaction vector counts the same rank,
+        // and each conservation law is orthogonal to every column of the stoichiometric matrix.
+        const columns = report.reactions.map((_, j) => report.stoichiometricMatrix.map((row) => row[j]));
+        expect(rank(columns.map(sparse))).toBe(report.rank);
+        for (const law of report.conservationLaws) {
+          for (const column of columns) expect(column.reduce((sum, value, i) => sum + value * law[i], 0)).toBe(0);
+        }
       }),
       { numRuns: 200 },
     );
   });
 });
+
+function sparse(dense: number[]): SparseVector {
+  const indices = dense.flatMap((value, index) => (value === 0 ? [] : [index]));
+  return { indices, values: indices.map((index) => dense[index]) };
+}
