@@ -13,6 +13,8 @@ const bootstrap = [
   `require(${JSON.stringify(fileURLToPath(new URL("./analysis-worker.ts", import.meta.url)))});`,
 ].join("\n");
 
+const WARM_UP_SOURCE = "A + B <=> C @ 1, 2\nC -> D + B @ 3\n";
+
 /** A text that takes longer than this is given up on (the worker is replaced). */
 const ANALYSIS_TIMEOUT_MS = 60_000;
 
@@ -42,6 +44,11 @@ class AnalysisThread {
       this.pending.set(id, { resolve, reject, timer });
       worker.postMessage({ id, source });
     });
+  }
+
+  /** Boots the thread and runs a small analysis, so the first room's first edit is not the one that pays for loading. */
+  warm() {
+    this.ensure().postMessage({ id: 0, source: WARM_UP_SOURCE });
   }
 
   stop() {
@@ -81,11 +88,13 @@ class AnalysisThread {
 
 export class AnalysisPool {
   private readonly threads: AnalysisThread[];
+  /** Request ids start at 1; 0 is the warm-up, whose answer nobody waits for. */
   private nextId = 0;
 
   /** One thread fewer than the cores (at least one): the event loop keeps a core. */
   constructor(size = Math.max(1, Math.min(4, availableParallelism() - 1))) {
     this.threads = Array.from({ length: size }, () => new AnalysisThread());
+    for (const thread of this.threads) thread.warm();
   }
 
   analyze(source: string): Promise<AnalysisOutcome> {
