@@ -119,7 +119,7 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
       target: edge.target,
       selected: selected?.kind === "reaction" && selected.id === edge.id,
       ariaLabel: edge.description,
-      data: { bend: edge.bend, label: edge.label, marker },
+      data: { bend: edge.bend, label: edge.label, description: edge.description, marker },
     }));
     previousEdges.current = keepUnchanged(previousEdges.current, built, sameEdge);
     return previousEdges.current;
@@ -281,6 +281,7 @@ const sameEdge = (old: ReactionEdge, next: ReactionEdge) =>
   old.ariaLabel === next.ariaLabel &&
   old.data?.bend === next.data?.bend &&
   old.data?.label === next.data?.label &&
+  old.data?.description === next.data?.description &&
   old.data?.marker === next.data?.marker;
 
 /**

@@ -6,6 +6,8 @@ import { type Box, edgeCurve } from "./edge-geometry";
 export type ReactionEdgeData = {
   bend: number;
   label: string | null;
+  /** Shown on hover, as the node boxes show theirs. */
+  description: string;
   /** Ids of the arrowhead markers the graph defines once for all its edges. */
   marker: { normal: string; selected: string };
 };
@@ -19,6 +21,7 @@ export function ReactionEdgeView({ id, source, target, data, selected }: EdgePro
   const curve = edgeCurve(boxOf(from), boxOf(to), data.bend);
   return (
     <>
+      <title>{data.description}</title>
       <BaseEdge
         id={id}
         path={curve.path}
