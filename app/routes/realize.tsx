@@ -51,7 +51,7 @@ export default function Realize() {
   const open = useFetcher();
   const [title, setTitle] = useState("Realization");
 
-  function submit(extra: Partial<RealizationChoice> & { equivalents?: boolean }) {
+  function submit(extra: Partial<RealizationChoice> & { equivalents?: boolean; complexes?: string[] }) {
     setChecked(ode);
     void check.submit({ ode, ...extra }, { method: "post", action: "/api/v1/realizations", encType: "application/json" });
   }
@@ -93,7 +93,7 @@ export default function Realize() {
               variables={variables}
               busy={check.state !== "idle"}
               onApply={(choice) => submit(choice)}
-              onSearchEquivalents={() => submit({ equivalents: true, ...lastChoice(result) })}
+              onSearchEquivalents={(complexes) => submit({ equivalents: true, complexes, ...lastChoice(result) })}
               onOpenMechanism={(mechanism) => open.submit({ title, mechanism, ode: checked }, { method: "post" })}
             />
           )}
@@ -107,8 +107,9 @@ export default function Realize() {
 /** Keeps the transformations of the shown result when searching for equivalents. */
 function lastChoice(result: RealizeOdeResult): RealizationChoice {
   const translation = result.transformations.find((t) => t.kind === "translation");
+  const multiplication = result.transformations.find((t) => t.kind === "multiplication");
   return {
     shift: translation?.kind === "translation" ? translation.shift : undefined,
-    multiply: result.transformations.some((t) => t.kind === "multiplication"),
+    multiply: multiplication?.kind === "multiplication" ? multiplication.exponents : false,
   };
 }

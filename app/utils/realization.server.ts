@@ -10,6 +10,7 @@ export const realizationRequest = z.object({
   shift: z.union([z.record(z.string(), z.number().finite()), z.literal("suggested")]).optional(),
   multiply: z.union([z.boolean(), z.record(z.string(), z.number().int().min(0).max(20))]).optional(),
   equivalents: z.boolean().optional(),
+  complexes: z.array(z.string().max(200)).max(200).optional(),
 });
 
 /** The MILP searches share this budget, so one request cannot hold the server for long. */
@@ -22,6 +23,7 @@ export async function runRealization(input: z.infer<typeof realizationRequest>):
       shift: input.shift,
       multiply: input.multiply,
       equivalents: input.equivalents ? { timeLimitMs: EQUIVALENTS_TIME_LIMIT_MS } : undefined,
+      complexes: input.complexes,
     });
     return Response.json(result);
   } catch (error) {

@@ -1,4 +1,3 @@
-import { z } from "zod";
 import { requireUser } from "~/utils/auth.server";
 import { httpError } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
@@ -8,6 +7,6 @@ import type { Route } from "./+types/realizations";
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return httpError(405, "Use POST with { ode, shift?, multiply? }.");
   await requireUser(args);
-  const input = await readJson(args.request, realizationRequest.extend({ equivalents: z.boolean().optional() }));
+  const input = await readJson(args.request, realizationRequest);
   return runRealization(input);
 }
