@@ -52,8 +52,4 @@ export class NameAllocator {
     this.taken.add(name);
     return name;
   }
-
-  has(name: string): boolean {
-    return this.taken.has(name);
-  }
 }

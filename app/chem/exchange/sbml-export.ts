@@ -30,8 +30,12 @@ export function exportSbml(mechanism: Mechanism, { title }: SbmlExportOptions): 
   const modelId = ids.take(title || "mechanism");
   // Labelled steps claim their ids before generated ones, so that `r2` stays the step labelled r2.
   const reactionIds = new Map<number, string>();
-  mechanism.steps.forEach((step, index) => step.label && reactionIds.set(index, ids.take(step.label)));
-  mechanism.steps.forEach((step, index) => reactionIds.has(index) || reactionIds.set(index, ids.take(`r${index + 1}`)));
+  mechanism.steps.forEach(({ label }, index) => {
+    if (label) reactionIds.set(index, ids.take(label));
+  });
+  mechanism.steps.forEach((_, index) => {
+    if (!reactionIds.has(index)) reactionIds.set(index, ids.take(`r${index + 1}`));
+  });
   const globalIds = new Set([...parameterIds.values(), ...speciesIds.values(), compartment, modelId, ...reactionIds.values()]);
 
   const lawWriter = new KineticLawWriter(speciesIds, parameterIds, globalIds);
