@@ -37,6 +37,8 @@ const samplePoints = 4;
 
 type QuantityKind = "species" | "compartment" | "parameter";
 
+const notFinite = "it is not a finite real number at every positive concentration";
+
 /** Reads the kinetic laws of one model; the model-wide names are looked up once, not per law. */
 export class KineticLawReader {
   private readonly kinds = new Map<string, QuantityKind>();
@@ -59,8 +61,10 @@ export class KineticLawReader {
     const law = reaction.law;
     if (!law?.math) return { kind: "unevaluable", reason: "it has no math" };
     const evaluation = this.evaluation(reaction);
-    const problem = evaluation.problem();
-    if (problem) return { kind: "unevaluable", reason: problem };
+    const unknown = evaluation.unknownNames();
+    if (unknown) return { kind: "unevaluable", reason: unknown };
+    // A mass-action rate is finite everywhere; a custom law may be undefined somewhere and still be the author's law.
+    if (!evaluation.finite()) return { kind: "custom", reason: notFinite };
 
     const shape = massActionShape(withoutCompartmentFactors(law.math, (name) => evaluation.kindOf(name) === "compartment"));
     if (!shape) return { kind: "custom", reason: "it is not a product of a rate coefficient and species concentrations" };
@@ -80,8 +84,9 @@ export class KineticLawReader {
   massActionMismatch(reaction: SbmlReaction): string | null {
     if (!reaction.law?.math) return null;
     const evaluation = this.evaluation(reaction);
-    const problem = evaluation.problem();
-    if (problem) return problem;
+    const unknown = evaluation.unknownNames();
+    if (unknown) return unknown;
+    if (!evaluation.finite()) return notFinite;
     const fitted = evaluation.fit();
     if (!fitted) return "its value is not proportional to the mass-action rate of the reaction's stoichiometry";
     const [kf, kb] = fitted;
@@ -134,16 +139,16 @@ class LawEvaluation {
     return this.locals.has(name) ? "local" : this.modelKind(name);
   }
 
-  /** Why the law cannot be evaluated, or null. */
-  problem(): string | null {
-    if (this.missing.length > 0) {
-      const what = [...new Set(this.missing)].map((name) => (this.locals.has(name) ? `the local parameter ${name}` : name)).join(", ");
-      return `it uses ${what} without a value Mechweave can read (a parameter without a value, or a reaction or species-reference id)`;
-    }
-    if (this.points.some((point) => this.evaluate(point) === null)) {
-      return "it does not evaluate to a finite real number at positive concentrations";
-    }
-    return null;
+  /** Why the law cannot be evaluated at all — names without values — or null. */
+  unknownNames(): string | null {
+    if (this.missing.length === 0) return null;
+    const what = [...new Set(this.missing)].map((name) => (this.locals.has(name) ? `the local parameter ${name}` : name)).join(", ");
+    return `it uses ${what} without a value Mechweave can read (a parameter without a value, or a reaction or species-reference id)`;
+  }
+
+  /** Whether the law is a finite real number at every sample point. */
+  finite(): boolean {
+    return this.points.every((point) => this.evaluate(point) !== null);
   }
 
   /** The rate coefficient of one product-shaped term, when its species powers are the stoichiometry. */

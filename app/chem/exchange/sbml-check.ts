@@ -1,7 +1,8 @@
-// The SBML Core rules Mechweave can check offline (see sbml-document.ts), plus that every
-// kinetic law evaluates at positive concentrations and that a law declared as mass action
-// (sboTerm SBO:0000012) really is one. Laws the file may define through rules or initial
-// assignments cannot be evaluated here, and are reported as such.
+// The SBML Core rules Mechweave can check offline (see sbml-document.ts), plus that every name a
+// kinetic law uses has a value, so that the law can be evaluated, and that a law declared as mass
+// action (sboTerm SBO:0000012) really is one: equal to kf·x^reactants (− kb·x^products) with
+// kf, kb ≥ 0 at random positive concentrations. Values the file sets through rules or initial
+// assignments are not read, so a law that depends on them is reported as not evaluable.
 import { KineticLawReader } from "./kinetic-law";
 import { massActionSboTerm, readSbml } from "./sbml-document";
 
