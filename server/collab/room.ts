@@ -187,9 +187,7 @@ export class Room {
     await this.log.flushed();
     await this.mirror.flush();
     this.mirror.dispose();
-    await this.log.exclusive(() => compactDocument(this.db, this.mechanismId)).catch((error: Error) => {
-      console.error(`[collab] compacting ${this.mechanismId} failed: ${error.message}`);
-    });
+    await this.compact();
     this.doc.destroy();
   }
 
@@ -212,9 +210,16 @@ export class Room {
     for (const connection of this.connections) if (connection !== sender) connection.send(message);
     if (this.log.appendedSinceCompaction >= this.timings.compactEvery) {
       this.log.appendedSinceCompaction = 0;
-      void this.log.exclusive(() => compactDocument(this.db, this.mechanismId)).catch((error: Error) => {
-        console.error(`[collab] compacting ${this.mechanismId} failed: ${error.message}`);
-      });
+      void this.compact();
+    }
+  }
+
+  /** Merges the log into the stored state; a failure leaves the log as it was (nothing lost). */
+  private async compact() {
+    try {
+      await this.log.exclusive(() => compactDocument(this.db, this.mechanismId));
+    } catch (error) {
+      console.error(`[collab] compacting ${this.mechanismId} failed: ${(error as Error).message}`);
     }
   }
 
