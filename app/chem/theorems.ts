@@ -29,7 +29,7 @@ export function deficiencyZeroTheorem(facts: StructureFacts): TheoremVerdict {
   }
   const conclusion = facts.weaklyReversible
     ? "Deficiency 0 and weakly reversible: whatever the rate coefficients, every compatibility class with positive concentrations has exactly one positive steady state. It is complex balanced and asymptotically stable, and no trajectory with all concentrations positive can oscillate. Multiple steady states, sustained oscillation and chaos in the positive region are ruled out."
-    : "Deficiency 0 but not weakly reversible: whatever the rate coefficients, there is no steady state with every concentration positive, and no periodic trajectory with every concentration positive. Over time some concentrations must head towards zero or keep changing.";
+    : "Deficiency 0 but not weakly reversible: whatever the rate coefficients, there is no steady state with every concentration positive, and no periodic trajectory with every concentration positive: the network cannot settle at, or cycle through, a state where every species is present.";
   return { applies: true, conclusion: withMassActionCaveat(conclusion, facts) };
 }
 
