@@ -7,7 +7,7 @@ import { speciesToken } from "./print";
 
 // ---- plain text (the `.weave` spelling of names, mathjs operators)
 
-export function factorText(factor: RateFactor): string {
+function factorText(factor: RateFactor): string {
   const base = factor.kind === "fixed" ? speciesToken(factor.symbol) : factor.symbol;
   return factor.power === 1 ? base : `${base}^${factor.power}`;
 }
