@@ -184,10 +184,11 @@ export class CollabHub {
     await closing;
   }
 
-  private async applyRoleChange({ mechanismId, userId, mechanismDeleted }: RoleChange) {
+  private async applyRoleChange({ mechanismId, userId, action }: RoleChange) {
     if (!this.rooms.has(mechanismId)) return;
-    if (mechanismDeleted) return this.forgetMechanism(mechanismId);
-    if (userId) return this.refreshRole(mechanismId, userId);
+    if (action === "delete") return this.forgetMechanism(mechanismId);
+    // A transfer also lowers the old owner, whom the audit row does not name.
+    if (userId && action !== "transfer") return this.refreshRole(mechanismId, userId);
     await this.refreshRoom(mechanismId);
   }
 

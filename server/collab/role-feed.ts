@@ -7,9 +7,9 @@ import { roleChanges } from "../db/schema";
 
 export interface RoleChange {
   mechanismId: string;
-  /** null when the account is gone (then every connection of the mechanism is re-checked). */
+  /** Whose role changed; null when the account is gone. */
   userId: string | null;
-  mechanismDeleted: boolean;
+  action: (typeof roleChanges.$inferSelect)["action"];
 }
 
 export class RoleChangeFeed {
@@ -50,7 +50,7 @@ export class RoleChangeFeed {
         .limit(1000);
       for (const row of rows) {
         this.lastSeen = row.id;
-        await this.changed({ mechanismId: row.mechanismId, userId: row.userId, mechanismDeleted: row.action === "delete" });
+        await this.changed(row);
       }
     } catch (error) {
       console.error(`[collab] reading role changes failed: ${(error as Error).message}`);
