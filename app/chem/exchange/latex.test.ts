@@ -2,6 +2,7 @@ import { execFileSync } from "node:child_process";
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { analyzeSource } from "~/chem/analysis";
 import { parseMechanism } from "~/chem/parse";
@@ -16,12 +17,14 @@ async function latexOf(source: string, title?: string): Promise<string> {
 
 /** Names and a title full of characters that LaTeX treats specially, or cannot read as they are. */
 const awkward = `bind_1: "Fe3+" + "a^b~c\\d" <=> "x_{1}" @ k_on = 2.5e-3, 0.4
-"50% $#&" -> 2 "café" @ { Vmax*Km }
+"50% $#&" -> 2 "café" @ { Vmax*Km*k*S }
 "α-glucose" + "ł⁺₂" -> 0 @ 1e-7
 "日本" -> "Fe3+" @ { Vmax * min(1, Km) / (Km + 1) }
 0 -> "α-glucose"
 Vmax = 3
 Km = 0.5
+k = 2
+S = 1
 ["Fe3+"]0 = 1
 fixed ["50% $#&"] = 2
 `;
@@ -83,13 +86,34 @@ describe("LaTeX export", () => {
     expect(latex).toContain("\\text{[U+65E5]}");
     expect(latex).toContain("{[\\mathrm{50\\% \\$\\#\\&}]} &= 2 \\quad \\text{(held constant)}");
     expect(latex).toContain("\\xrightarrow{10^{-7}} \\emptyset");
+    expect(latex).toContain("v = \\mathrm{Vmax}\\cdot\\mathrm{Km}\\cdot k\\cdot S");
     expectBalanced(latex);
+  });
+
+  it("stays balanced and ASCII whatever the names", async () => {
+    const specials = fc.constantFrom(..."\\{}$&#^_%~<>|'`@*[]-+=/.,:aZ0 \t".split(""));
+    const name = fc
+      .oneof(fc.string({ unit: "grapheme", minLength: 1, maxLength: 8 }), fc.string({ unit: specials, minLength: 1, maxLength: 8 }))
+      .filter((text) => !/["\n]/.test(text) && text.trim() !== "");
+    await fc.assert(
+      fc.asyncProperty(fc.uniqueArray(name, { minLength: 2, maxLength: 4 }), fc.string({ unit: "grapheme", maxLength: 20 }), async (names, title) => {
+        const quoted = names.map((each) => `"${each}"`);
+        const source = `${quoted[0]} + ${quoted[1]} <=> 2 ${quoted.at(-1)} @ 1, 2\n${quoted[1]} -> 0 @ 3\n`;
+        const parsed = parseMechanism(source);
+        fc.pre(parsed.diagnostics.every((each) => each.severity !== "error"));
+        const latex = exportLatex(parsed.mechanism, await analyzeSource(source), { title });
+        expect(latex).toMatch(/^[\t\n\r\x20-\x7E]*$/);
+        expectBalanced(latex);
+      }),
+      { numRuns: 100 },
+    );
   });
 
   it.skipIf(!pdflatex)("compiles with pdflatex", async () => {
     const folder = mkdtempSync(join(tmpdir(), "mechweave-latex-"));
     try {
-      const documents = [await latexOf(awkward, "Awkward & 100% {odd}"), ...(await Promise.all(demoMechanisms.map((demo) => latexOf(demo.source, demo.title))))];
+      const controls = '"a\u0001b\u007f" + "\u0301x\u200b" -> "\ud83e\uddea\u00a0\u2212" @ 1\n';
+      const documents = [await latexOf(awkward, "Awkward & 100% {odd}"), await latexOf(controls, "Controls \u0007 and emoji \ud83e\uddea"), ...(await Promise.all(demoMechanisms.map((demo) => latexOf(demo.source, demo.title))))];
       documents.forEach((latex, index) => {
         const file = join(folder, `mechanism-${index}.tex`);
         writeFileSync(file, latex);

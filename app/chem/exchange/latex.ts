@@ -101,11 +101,12 @@ function odeRow(name: string, report: LatexReport): string {
 // ---- text
 
 /**
- * The analysis escapes ^ and ~ in names as \^ and \~, which are text-mode accents and an error
- * in math mode; here they become text characters.
+ * Repairs two things in the analysis' LaTeX that TeX refuses: ^ and ~ in names escaped as \^ and
+ * \~ (text-mode accents, an error in math mode) become text characters, and a one-letter name
+ * right after \cdot (`\cdotS`, one undefined command) gets its separating space.
  */
 function mathSafe(latex: string): string {
-  return latex.replace(/(?<!\\)\\([\^~])/g, "\\text{\\$1{}}");
+  return latex.replace(/(?<!\\)\\([\^~])/g, "\\text{\\$1{}}").replace(/\\cdot(?=[A-Za-z0-9])/g, "\\cdot ");
 }
 
 function symbolLatex(name: string): string {
@@ -159,9 +160,12 @@ const symbols: Record<string, string> = {
   "“": "\\text{``}", "”": "\\text{''}", "\u00A0": "~", "⁺": "\\ensuremath{^{+}}", "⁻": "\\ensuremath{^{-}}",
 };
 
-/** Replaces every non-ASCII character by a LaTeX command that typesets it, so any engine reads the file. */
+/**
+ * Replaces every character outside printable ASCII (bar tab and line ends) by a LaTeX command
+ * that typesets it, so that any engine reads the file.
+ */
 function asciiLatex(text: string): string {
-  return text.replace(/[^\x00-\x7F]/gu, (char) => symbols[char] ?? greek(char) ?? accented(char) ?? scripted(char) ?? codePoint(char));
+  return text.replace(/[^\t\n\r\x20-\x7E]/gu, (char) => symbols[char] ?? greek(char) ?? accented(char) ?? scripted(char) ?? codePoint(char));
 }
 
 function greek(char: string): string | null {
