@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { evaluate } from "mathjs";
 import { describe, expect, it } from "vitest";
 import { analyzeSource } from "~/chem/analysis";
-import { lawFunctions } from "~/chem/law";
+import { lawConstants, lawFunctions } from "~/chem/law";
 import { parseMechanism } from "~/chem/parse";
 import { demoMechanisms } from "../../../server/seed/demo";
 import { isSId } from "./names";
@@ -53,7 +53,7 @@ function odeValues(odes: Record<string, string>): Record<string, number> {
   const scope: Record<string, number> = {};
   const symbol = (text: string) => text.replace(/"([^"]*)"/g, (_, name: string) => `q_${[...name].map((c) => c.charCodeAt(0)).join("_")}`);
   const names = new Set(Object.values(odes).flatMap((rhs) => symbol(rhs).match(/[A-Za-z_][A-Za-z0-9_]*/g) ?? []));
-  for (const name of lawFunctions) names.delete(name);
+  for (const name of [...lawFunctions, ...lawConstants]) names.delete(name);
   [...names].sort().forEach((name, index) => (scope[name] = 1.7 + 0.13 * index));
   return Object.fromEntries(Object.entries(odes).map(([species, rhs]) => [species, evaluate(symbol(rhs), { ...scope }) as number]));
 }
@@ -76,7 +76,7 @@ describe("SBML export", () => {
 k1: "Fe3+" + "e-" -> "Fe2+" @ k1 = 2.5e-3
 "Fe2+" + "a&b <c>" <=> "Fe3+" @ 4, k1
 "2-butene" -> vessel @ 1e-7
-vessel -> 0 @ { Vmax*vessel/(Km + vessel) + exp(-Km) * sqrt(vessel) }
+vessel -> 0 @ { Vmax*vessel/(Km + vessel) + exp(-Km) * sqrt(vessel) + pi * e^(-vessel) }
 0 -> ATP @ { kin * max(1, ATP) / log(1 + ATP) + cbrt(ATP) - log10(ATP + 10) + pow(ATP, 2)/(1 + ATP^3) }
 ATP -> 0 @ { kin * sqrt(ATP - 1) }
 ATP -> 2 ADP
