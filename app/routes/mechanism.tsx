@@ -16,7 +16,7 @@ import { titleField } from "~/utils/fields";
 import { httpError, requireRole, requireViewAccess } from "~/utils/permissions.server";
 import { stepRangesFor } from "~/utils/step-ranges";
 import { complexGraphSvg, currentThemeColours, downloadBlob, svgToPng } from "~/utils/graph-svg";
-import { pickColour, useRoom } from "~/utils/use-room";
+import { useRoom } from "~/utils/use-room";
 import type { Route } from "./+types/mechanism";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.mechanism.title ?? "Mechanism"} · Mechweave` }];
@@ -76,7 +76,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
         </div>
         <div className="flex flex-wrap items-center gap-3">
           <RoomStatusBadge status={room.status} revision={room.analysis.revision} />
-          <Presence self={{ name: user.name, colour: pickColour(user.name), role }} peers={room.peers} />
+          <Presence self={room.self} peers={room.peers} />
           <RolePill role={role} />
           {signedIn && (
             <nav className="flex gap-2">
@@ -123,6 +123,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               layout={layout}
               canEdit={canEdit}
               synced={room.synced}
+              awareness={room.awareness}
               className="h-[36rem]"
               onSelect={(selection) => editor.current?.highlight(source ? stepRangesFor(source.toString(), selection) : [])}
             />

@@ -32,7 +32,7 @@ export default function Projector({ loaderData }: Route.ComponentProps) {
         )}
         <Link to={`/m/${id}`} className="ml-auto text-sm">Leave projector view</Link>
       </header>
-      <ComplexGraph report={analysis.report ?? null} layout={layout} canEdit={false} synced={room.synced} className="min-h-0 flex-1" />
+      <ComplexGraph report={analysis.report ?? null} layout={layout} canEdit={false} synced={room.synced} awareness={room.awareness} fitMaxZoom={3} className="min-h-0 flex-1" />
     </div>
   );
 }

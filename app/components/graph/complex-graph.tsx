@@ -47,6 +47,8 @@ export interface ComplexGraphProps {
   awareness?: Awareness | null;
   onSelect?: (selection: GraphSelection | null) => void;
   className?: string;
+  /** How far fitting may zoom in; a projector lets the graph fill the screen. */
+  fitMaxZoom?: number;
 }
 
 /** A selected node or arrow by its React Flow id. */
@@ -92,7 +94,8 @@ export function ComplexGraph(props: ComplexGraphProps) {
   );
 }
 
-function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null, onSelect }: ComplexGraphProps) {
+function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null, onSelect, fitMaxZoom = 1.15 }: ComplexGraphProps) {
+  const fitOptions = useMemo(() => ({ padding: 0.2, maxZoom: fitMaxZoom }), [fitMaxZoom]);
   const model = useMemo(() => (report ? buildGraphModel(report) : null), [report]);
   const positions = useComplexPositions(report, layout, { canEdit, synced });
   const { held, hold } = useHeldComplexes(awareness);
@@ -214,21 +217,19 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
           fitView
           fitViewOptions={fitOptions}
           minZoom={0.1}
-          maxZoom={2.5}
+          maxZoom={Math.max(2.5, fitMaxZoom)}
           style={themeVariables}
           aria-label="Complex graph"
         >
           <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
           <Controls showInteractive={false} position="bottom-left" />
-          <FitWhileUntouched touched={viewTouched} />
+          <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
         </ReactFlow>
       </div>
       <GraphLegend linkageClassCount={model.linkageClassCount} fixedSpecies={Object.keys(report?.fixedSpecies ?? {})} />
     </>
   );
 }
-
-const fitOptions = { padding: 0.2, maxZoom: 1.15 };
 
 function buildNodes(model: GraphModel | null, positions: Readonly<Record<string, XY>>, previous: ComplexNode[]): ComplexNode[] {
   if (!model) return [];
@@ -289,7 +290,7 @@ const sameEdge = (old: ReactionEdge, next: ReactionEdge) =>
  * view, unless the reader has taken the view. Complexes that come and go inside it leave the zoom
  * alone, so a room watching someone type is not shaken at every keystroke.
  */
-function FitWhileUntouched({ touched }: { touched: boolean }) {
+function FitWhileUntouched({ touched, fitOptions }: { touched: boolean; fitOptions: { padding: number; maxZoom: number } }) {
   const initialized = useNodesInitialized();
   const { fitView, getNodes, getNodesBounds, getViewport } = useReactFlow();
   const nodeIds = useStore((state) => [...state.nodeLookup.keys()].join("\n"));
@@ -311,7 +312,7 @@ function FitWhileUntouched({ touched }: { touched: boolean }) {
       (bounds.x + bounds.width) * zoom + x <= width &&
       (bounds.y + bounds.height) * zoom + y <= height;
     if (!inside) void fitView({ ...fitOptions, duration: 250 });
-  }, [initialized, touched, nodeIds, width, height, fitView, getNodes, getNodesBounds, getViewport]);
+  }, [initialized, touched, nodeIds, width, height, fitView, getNodes, getNodesBounds, getViewport, fitOptions]);
   return null;
 }
 
