@@ -68,9 +68,26 @@ function compress(rows: SparseVector[]): Problem {
   return { rows: renumbered, width: columns.length, columns };
 }
 
+/** Sorts by index; insertion sort for the short rows stoichiometry mostly has. */
 function sortedVector(indices: number[], values: number[]): SparseVector {
-  const order = indices.map((_, k) => k).sort((a, b) => indices[a] - indices[b]);
-  return { indices: order.map((k) => indices[k]), values: order.map((k) => values[k]) };
+  if (indices.length > 16) {
+    const order = indices.map((_, k) => k).sort((a, b) => indices[a] - indices[b]);
+    return { indices: order.map((k) => indices[k]), values: order.map((k) => values[k]) };
+  }
+  const sortedIndices = indices.slice();
+  const sortedValues = values.slice();
+  for (let k = 1; k < sortedIndices.length; k++) {
+    const index = sortedIndices[k];
+    const value = sortedValues[k];
+    let at = k - 1;
+    for (; at >= 0 && sortedIndices[at] > index; at--) {
+      sortedIndices[at + 1] = sortedIndices[at];
+      sortedValues[at + 1] = sortedValues[at];
+    }
+    sortedIndices[at + 1] = index;
+    sortedValues[at + 1] = value;
+  }
+  return { indices: sortedIndices, values: sortedValues };
 }
 
 function kernelBasis(problem: Problem): SparseVector[] {
@@ -383,9 +400,14 @@ function normalise(row: Row): Row {
 /** The unique reduced echelon basis with leading entries on the lowest columns, primitive, leading entry positive. */
 function reducedFromTheLeft(basis: SparseVector[], width: number): SparseVector[] {
   // Mirroring the columns turns "lowest column" into the "highest column" pivots used above.
-  const mirrored = basis.map(({ indices, values }) => sortedVector(indices.map((index) => width - 1 - index), values));
+  // Mirroring reverses the order of sorted indices, so reversing the arrays keeps them sorted.
+  const mirror = (indices: number[], values: number[]): SparseVector => ({
+    indices: indices.map((index) => width - 1 - index).reverse(),
+    values: values.slice().reverse(),
+  });
+  const mirrored = basis.map(({ indices, values }) => mirror(indices, values));
   return [...reducedEchelon(mirrored).values()]
-    .map((row) => sortedVector(row.columns.map((column) => width - 1 - column), row.values.map(Number)))
+    .map((row) => mirror(row.columns, row.values.map(Number)))
     .sort((a, b) => a.indices[0] - b.indices[0]);
 }
 

@@ -47,13 +47,24 @@ export function buildNetwork(mechanism: Mechanism): Network {
 
 /** The reaction vector y' − y over species indices (zero entries left out). */
 export function reactionVector(network: Network, reaction: { from: number; to: number }): SparseVector {
-  const change = new Map<number, number>();
-  for (const { species, coefficient } of network.complexes[reaction.to].terms) change.set(species, coefficient);
-  for (const { species, coefficient } of network.complexes[reaction.from].terms) {
-    change.set(species, (change.get(species) ?? 0) - coefficient);
+  // Both complexes list their terms by species index, so one merge gives the sorted difference.
+  const gained = network.complexes[reaction.to].terms;
+  const lost = network.complexes[reaction.from].terms;
+  const indices: number[] = [];
+  const values: number[] = [];
+  let i = 0;
+  let j = 0;
+  while (i < gained.length || j < lost.length) {
+    const a = i < gained.length ? gained[i].species : Infinity;
+    const b = j < lost.length ? lost[j].species : Infinity;
+    const species = Math.min(a, b);
+    const value = (a === species ? gained[i++].coefficient : 0) - (b === species ? lost[j++].coefficient : 0);
+    if (value !== 0) {
+      indices.push(species);
+      values.push(value);
+    }
   }
-  const entries = [...change].filter(([, value]) => value !== 0).sort(([a], [b]) => a - b);
-  return { indices: entries.map(([index]) => index), values: entries.map(([, value]) => value) };
+  return { indices, values };
 }
 
 function toComplex(terms: Term[], speciesIndex: Map<string, number>, species: string[]): ComplexVector {
