@@ -118,18 +118,21 @@ class LawEvaluation {
     const constants: Scope = new Map();
     const species = new Set([...reaction.reactants, ...reaction.products].map((each) => each.species));
     law.math!.traverse((node, path) => {
-      if (!isSymbolNode(node) || path === "fn" || constants.has(node.name) || species.has(node.name)) return;
-      if (this.kindOf(node.name) === "species") species.add(node.name);
-      else {
-        const value = this.locals.has(node.name) ? this.locals.get(node.name) : modelValue(node.name);
-        if (value === null || value === undefined) this.missing.push(node.name);
-        else constants.set(node.name, value);
+      if (!isSymbolNode(node) || path === "fn" || constants.has(node.name)) return;
+      if (this.kindOf(node.name) === "species") {
+        species.add(node.name);
+        return;
       }
+      const value = this.locals.has(node.name) ? this.locals.get(node.name) : modelValue(node.name);
+      if (value === null || value === undefined) this.missing.push(node.name);
+      else constants.set(node.name, value);
     });
     const random = seededRandom(0x5eed);
     for (let point = 0; point < samplePoints; point++) {
-      const scope = new Map(constants);
+      const scope: Scope = new Map();
       for (const id of species) scope.set(id, 0.5 + 1.5 * random());
+      // Within its law a local parameter wins, even over a species of the same id.
+      for (const [id, value] of constants) scope.set(id, value);
       this.points.push(scope);
     }
   }
