@@ -5,6 +5,8 @@ import { build, ensureDebianPackage, ensureDependencies, projectRoot } from "./p
 ensureDependencies();
 ensureDebianPackage("postgresql", "/usr/lib/postgresql");
 ensureDebianPackage("chromium", "/usr/bin/chromium");
+// The LaTeX export is checked by compiling it.
+ensureDebianPackage("texlive-latex-base", "/usr/bin/pdflatex");
 build();
 
 const runner = spawn(process.execPath, ["--import", "tsx", "tests/support/run-tests.ts", ...process.argv.slice(2)], {

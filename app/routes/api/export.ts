@@ -22,12 +22,16 @@ export async function loader(args: Route.LoaderArgs) {
   const error = parsed.diagnostics.find((d) => d.severity === "error");
   if (error) return httpError(400, `Fix the mechanism before exporting it: line ${error.line}: ${error.message}`);
   const chosen = formats[format as keyof typeof formats];
-  const body =
-    format === "sbml"
-      ? exportSbml(parsed.mechanism, { title: mechanism.title })
-      : format === "latex"
-        ? exportLatex(parsed.mechanism, await analyzeSource(mechanism.source), { title: mechanism.title })
-        : stoichiometricMatrixCsv(await analyzeSource(mechanism.source));
+  let body: string;
+  if (format === "sbml") {
+    body = exportSbml(parsed.mechanism, { title: mechanism.title });
+  } else {
+    const report = await analyzeSource(mechanism.source);
+    if (format === "csv" && report.reactions.length > 0 && report.stoichiometricMatrix.length === 0) {
+      return httpError(413, `The stoichiometric matrix (${report.species.length} × ${report.reactions.length}) is too large to export as CSV.`);
+    }
+    body = format === "latex" ? exportLatex(parsed.mechanism, report, { title: mechanism.title }) : stoichiometricMatrixCsv(report);
+  }
   const filename = `${mechanism.title.replace(/[^\w.-]+/g, "-").replace(/^-|-$/g, "") || mechanism.id}.${chosen.extension}`;
   return new Response(body, { headers: { "Content-Type": chosen.type, "Content-Disposition": `attachment; filename="${filename}"` } });
 }
