@@ -106,6 +106,17 @@ describe("published networks", () => {
     expect(report.theorems.deficiencyOne.applies).toBe(false);
   });
 
+  it("Schlögl's model A + 2X ⇌ 3X, X ⇌ B with A, B fixed (Schlögl 1972): δ = 1, theorems silent, as its bistability requires", async () => {
+    const report = await analyzeSource("A + 2X <=> 3X @ 1, 1\nX <=> B @ 1, 1\nfixed [A] = 1\nfixed [B] = 1");
+    expect(report.species).toEqual(["X"]);
+    expect(report.complexes).toEqual(["2X", "3X", "X", "0"]);
+    expect(report.deficiency).toBe(1);
+    expect(report.linkageClassDeficiencies).toEqual([0, 0]);
+    expect(report.theorems.deficiencyZero.applies).toBe(false);
+    expect(report.theorems.deficiencyOne.applies).toBe(false);
+    expect(report.odes.X).toBe("A*X^2 - X^3 - X + B");
+  });
+
   it("2A ⇌ A + B ⇌ 2B (worked by hand): δ = 1 in one linkage class, so the Deficiency One Theorem applies", async () => {
     const report = await analyzeSource("2A <=> A + B @ 1, 1\nA + B <=> 2B @ 1, 1");
     expect(report.deficiency).toBe(1);
