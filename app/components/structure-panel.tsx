@@ -69,7 +69,8 @@ export function StructurePanel({ report }: { report: AnalysisReport }) {
       )}
 
       {reactions.length > 0 && (
-        <Section title="Stoichiometric matrix">
+        <Section title="Reactions and stoichiometric matrix">
+          <ReactionList report={report} />
           <StoichiometricMatrix report={report} />
         </Section>
       )}
@@ -219,6 +220,27 @@ function Formulas({ latex }: { latex: string[] }) {
 function reactionText(report: AnalysisReport, index: number): string {
   const { from, to } = report.reactions[index];
   return `${report.complexes[from]} → ${report.complexes[to]}`;
+}
+
+/** Folded away by default: the matrix header already names each column. */
+function ReactionList({ report }: { report: AnalysisReport }) {
+  const custom = new Set(report.customLaws.map(({ reaction }) => reaction));
+  return (
+    <details className="mb-2 text-sm">
+      <summary className="cursor-pointer text-muted">{report.reactions.length} reactions</summary>
+      <ol className="mt-1.5 grid gap-x-6 gap-y-0.5 font-mono text-xs sm:grid-cols-2">
+        {report.reactions.map((reaction, index) => (
+          <li key={index}>
+            <span className="text-muted">{`r${index + 1} `}</span>
+            {reactionText(report, index)}
+            <span className="text-muted">
+              {custom.has(index) ? "  custom law" : reaction.rate === null ? "  no value yet" : `  k = ${reaction.rate}`}
+            </span>
+          </li>
+        ))}
+      </ol>
+    </details>
+  );
 }
 
 function StoichiometricMatrix({ report }: { report: AnalysisReport }) {
