@@ -56,8 +56,11 @@ const greek = new Set([
   "xi", "rho", "sigma", "tau", "phi", "chi", "psi", "omega", "Gamma", "Delta", "Theta", "Lambda", "Phi", "Omega",
 ]);
 
+/** Special characters made safe inside math mode (\^ and \~ are text-mode accents, errors here). */
+const mathEscapes: Record<string, string> = { "\\": "\\backslash{}", "^": "\\hat{}", "~": "\\sim{}" };
+
 function escapeLatex(text: string): string {
-  return text.replace(/[\\{}$&#^_%~]/g, (char) => (char === "\\" ? "\\backslash " : `\\${char}`));
+  return text.replace(/[\\{}$&#^_%~]/g, (char) => mathEscapes[char] ?? `\\${char}`);
 }
 
 function latexBase(base: string): string {
@@ -112,7 +115,8 @@ export function lawLatex(law: string): string {
   return reading.node.toTex({
     parenthesis: "auto",
     implicit: "hide",
-    handler: (node: MathNode) => (node.type === "SymbolNode" ? symbolLatex((node as unknown as { name: string }).name) : undefined),
+    // Braced, because mathjs writes operators such as \cdot right against their operands.
+    handler: (node: MathNode) => (node.type === "SymbolNode" ? `{${symbolLatex((node as unknown as { name: string }).name)}}` : undefined),
   });
 }
 

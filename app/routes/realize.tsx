@@ -4,6 +4,8 @@ import { useState } from "react";
 import { redirect, useFetcher } from "react-router";
 import { z } from "zod";
 import { createMechanism } from "../../server/db/mechanisms";
+import { JobStatus } from "~/components/dynamics/job-status";
+import { useDynamicsJob } from "~/components/dynamics/use-dynamics-job";
 import { RealizationCheck } from "~/components/realization-check";
 import { RealizationPanel, type RealizationChoice } from "~/components/realization-panel";
 import type { RealizeOdeResult } from "~/chem/realize/realize-ode";
@@ -46,14 +48,15 @@ z(0) = 1
 export default function Realize() {
   const [ode, setOde] = useState(example);
   const [checked, setChecked] = useState(example);
-  const check = useFetcher<RealizeOdeResult | { error: string }>();
-  const result = check.data && !("error" in check.data) ? check.data : null;
+  // Streamed, so the slower searches for equivalent mechanisms show their progress.
+  const check = useDynamicsJob<RealizeOdeResult>("/api/v1/realizations");
+  const result = check.result;
   const open = useFetcher();
   const [title, setTitle] = useState("Realization");
 
   function submit(extra: Partial<RealizationChoice> & { equivalents?: boolean; complexes?: string[] }) {
     setChecked(ode);
-    void check.submit({ ode, ...extra }, { method: "post", action: "/api/v1/realizations", encType: "application/json" });
+    void check.run({ ode, ...extra });
   }
   const variables = parseOde(checked).ode?.variables ?? [];
 
@@ -75,23 +78,24 @@ export default function Realize() {
             onChange={(e) => setOde(e.target.value)}
           />
           <div className="mt-3 flex gap-2">
-            <button className="btn btn-primary" type="button" onClick={() => submit({})} disabled={check.state !== "idle"}>
-              {check.state !== "idle" ? "Working…" : "Check and realize"}
+            <button className="btn btn-primary" type="button" onClick={() => submit({})} disabled={check.running}>
+              {check.running ? "Working…" : "Check and realize"}
             </button>
+            {check.running && <button className="btn" type="button" onClick={check.cancel}>Cancel</button>}
           </div>
           {open.data && (open.data as { error?: string }).error && <p className="notice-error mt-3">{(open.data as { error: string }).error}</p>}
           <label className="label mt-4" htmlFor="new-title">Title for a mechanism opened from here</label>
           <input id="new-title" className="field" value={title} onChange={(e) => setTitle(e.target.value)} maxLength={200} />
         </section>
         <div>
-          {check.data && "error" in check.data && <p className="notice-error mb-3">{check.data.error}</p>}
+          <JobStatus job={check} />
           {!result && <p className="card p-6 text-sm text-muted">The verdict, the negative cross effects and the realization appear here.</p>}
           {result && (
             <RealizationPanel
               ode={checked}
               result={result}
               variables={variables}
-              busy={check.state !== "idle"}
+              busy={check.running}
               onApply={(choice) => submit(choice)}
               onSearchEquivalents={(complexes) => submit({ equivalents: true, complexes, ...lastChoice(result) })}
               onOpenMechanism={(mechanism) => open.submit({ title, mechanism, ode: checked }, { method: "post" })}

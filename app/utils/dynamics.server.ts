@@ -2,7 +2,7 @@
 // a caller that asks for `application/x-ndjson` gets progress lines while it runs, then the
 // result — and closing the request cancels the run.
 import type { AppLoadContext } from "react-router";
-import type { DynamicsJob, DynamicsModel } from "../../server/sim/job";
+import type { DynamicsModel, WorkerJob } from "../../server/sim/job";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
 import { parseMechanism } from "~/chem/parse";
@@ -24,17 +24,19 @@ export function modelFromOde(text: string): DynamicsModel {
   return { kind: "ode", ode: parsed.ode };
 }
 
-const statusOf: Record<string, number> = { SimulationInputError: 400, SimulationLimitError: 413, IntegrationFailure: 422, SimulationCancelled: 499 };
+const statusOf: Record<string, number> = { SimulationInputError: 400, RealizeRequestError: 400, SimulationLimitError: 413, IntegrationFailure: 422, SimulationCancelled: 499 };
 
 function failure(error: unknown): { status: number; message: string } {
   if (error instanceof Error && error.name in statusOf) {
+    // A run stopped by its time limit is the server's limit, not too large an input.
+    const status = (error as { limit?: string }).limit === "time" ? 503 : statusOf[error.name];
     const message = error.message.charAt(0).toUpperCase() + error.message.slice(1);
-    return { status: statusOf[error.name], message: message.endsWith(".") ? message : `${message}.` };
+    return { status, message: message.endsWith(".") ? message : `${message}.` };
   }
   throw error;
 }
 
-export async function respondWithJob(request: Request, context: AppLoadContext, job: DynamicsJob): Promise<Response> {
+export async function respondWithJob(request: Request, context: AppLoadContext, job: WorkerJob): Promise<Response> {
   if (!(request.headers.get("Accept") ?? "").includes("application/x-ndjson")) {
     try {
       return Response.json(await context.dynamics.run(job, { signal: request.signal }));

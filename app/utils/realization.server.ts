@@ -1,7 +1,7 @@
 // The ODE-to-mechanism request as the API and the page both accept it.
 import { z } from "zod";
-import { realizeOde, RealizeRequestError } from "~/chem/realize/realize-ode";
-import { httpError } from "./http";
+import type { AppLoadContext } from "react-router";
+import { respondWithJob } from "./dynamics.server";
 
 const MAX_ODE_BYTES = 64 * 1024;
 
@@ -13,21 +13,10 @@ export const realizationRequest = z.object({
   complexes: z.array(z.string().max(200)).max(200).optional(),
 });
 
-/** The MILP searches share this budget, so one request cannot hold the server for long. */
-const EQUIVALENTS_TIME_LIMIT_MS = 8_000;
+/** The MILP searches share this budget (in a worker thread, so the server stays responsive). */
+const EQUIVALENTS_TIME_LIMIT_MS = 20_000;
 
-export async function runRealization(input: z.infer<typeof realizationRequest>): Promise<Response> {
-  try {
-    const result = await realizeOde({
-      ode: input.ode,
-      shift: input.shift,
-      multiply: input.multiply,
-      equivalents: input.equivalents ? { timeLimitMs: EQUIVALENTS_TIME_LIMIT_MS } : undefined,
-      complexes: input.complexes,
-    });
-    return Response.json(result);
-  } catch (error) {
-    if (error instanceof RealizeRequestError) return httpError(400, error.message);
-    throw error;
-  }
+export function runRealization(request: Request, context: AppLoadContext, input: z.infer<typeof realizationRequest>): Promise<Response> {
+  const { equivalents, ...rest } = input;
+  return respondWithJob(request, context, { kind: "realize", request: { ...rest, equivalents: equivalents ? { timeLimitMs: EQUIVALENTS_TIME_LIMIT_MS } : undefined } });
 }

@@ -1,5 +1,6 @@
 // A dynamics job as plain data (it crosses into a worker thread by structured clone) and the one
 // function that carries it out. The CLI runs jobs in-process; the server runs them in a worker.
+// The realization of an ODE (its MILP searches can run for seconds) travels the same way.
 
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumOptions, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
@@ -8,6 +9,7 @@ import type { SimulationSettings } from "~/chem/kinetics/settings";
 import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
 import { sweepNetwork, type SweepOptions, type SweepResult } from "~/chem/kinetics/sweep";
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
+import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 
 export type DynamicsModel = { kind: "mechanism"; mechanism: Mechanism; network: Network } | { kind: "ode"; ode: PolynomialOde };
 
@@ -19,18 +21,44 @@ export type DynamicsJob =
   | { kind: "equilibrium"; model: DynamicsModel; options: EquilibriumOptions }
   | { kind: "sweep"; model: DynamicsModel; options: Plain<SweepOptions> };
 
+/** A realization request with a time limit for its searches instead of a progress callback. */
+export type RealizationJob = {
+  kind: "realize";
+  request: Omit<RealizeOdeRequest, "equivalents"> & { equivalents?: { timeLimitMs: number } };
+};
+
+export type WorkerJob = DynamicsJob | RealizationJob;
+
 export interface DynamicsResults {
   simulate: SimulationResult;
   lyapunov: LyapunovResult;
   equilibrium: EquilibriumResult;
   sweep: SweepResult;
+  realize: RealizeOdeResult;
 }
 
-export type JobResult<J extends DynamicsJob> = DynamicsResults[J["kind"]];
+export type JobResult<J extends WorkerJob> = DynamicsResults[J["kind"]];
 
 export interface JobHooks {
   onProgress?: (fraction: number) => void;
   signal?: AbortSignal;
+}
+
+/** Progress is the share of source complexes searched, stage by stage (sparse, dense, weakly reversible). */
+export function runRealizationJob({ request }: RealizationJob, hooks: JobHooks = {}): Promise<RealizeOdeResult> {
+  const stages = 3;
+  let stage = -1;
+  let name = "";
+  return realizeOde({
+    ...request,
+    equivalents: request.equivalents && {
+      ...request.equivalents,
+      onProgress(progress) {
+        if (progress.stage !== name) [name, stage] = [progress.stage, stage + 1];
+        hooks.onProgress?.((stage + (progress.total ? progress.done / progress.total : 0)) / stages);
+      },
+    },
+  });
 }
 
 export function runJob<J extends DynamicsJob>(job: J, hooks: JobHooks = {}): JobResult<J> {

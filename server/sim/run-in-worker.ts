@@ -9,7 +9,8 @@ import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
 import { MAX_SWEEP_POINTS } from "~/chem/kinetics/sweep";
-import { modelSize, type DynamicsJob, type JobResult } from "./job";
+import { RealizeRequestError } from "~/chem/realize/request-error";
+import { modelSize, type DynamicsJob, type JobResult, type WorkerJob } from "./job";
 import type { WorkerMessage } from "./worker";
 
 export interface RunLimits {
@@ -55,6 +56,7 @@ export interface RunOptions {
 const rebuilt: Record<string, new (message: string) => Error> = {
   SimulationInputError,
   IntegrationFailure,
+  RealizeRequestError,
 };
 
 // The server and the tests run TypeScript through tsx, and the worker needs the same. On Node 20
@@ -70,9 +72,9 @@ const CONCURRENCY = Math.max(2, availableParallelism() - 1);
 let running = 0;
 const waiting: (() => void)[] = [];
 
-export async function runInWorker<J extends DynamicsJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
+export async function runInWorker<J extends WorkerJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
   const limits = { ...DEFAULT_LIMITS, ...options.limits };
-  checkSize(job, limits);
+  if (job.kind !== "realize") checkSize(job, limits);
   await acquireSlot(options.signal);
   try {
     return await runWorker(job, limits, options);
@@ -117,7 +119,7 @@ function releaseSlot(): void {
   waiting.shift()?.();
 }
 
-function runWorker<J extends DynamicsJob>(job: J, limits: RunLimits, { onProgress, signal }: RunOptions): Promise<JobResult<J>> {
+function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, { onProgress, signal }: RunOptions): Promise<JobResult<J>> {
   return new Promise((resolve, reject) => {
     if (signal?.aborted) return reject(new SimulationCancelled());
     const worker = new Worker(workerBootstrap, {

@@ -2,7 +2,7 @@
 // the error (by name, so the parent can rebuild the error class) to the parent.
 
 import { parentPort, workerData } from "node:worker_threads";
-import { runJob, type DynamicsJob } from "./job";
+import { runJob, runRealizationJob, type WorkerJob } from "./job";
 
 export type WorkerMessage =
   | { type: "progress"; fraction: number }
@@ -11,10 +11,15 @@ export type WorkerMessage =
 
 const post = (message: WorkerMessage) => parentPort?.postMessage(message);
 
-try {
-  const result = runJob(workerData as DynamicsJob, { onProgress: (fraction) => post({ type: "progress", fraction }) });
-  post({ type: "result", result });
-} catch (error) {
-  const { name, message } = error instanceof Error ? error : new Error(String(error));
-  post({ type: "error", name, message });
-}
+// Not top-level await: the worker is loaded through tsx's CommonJS hook (see run-in-worker.ts).
+void (async () => {
+  try {
+    const job = workerData as WorkerJob;
+    const hooks = { onProgress: (fraction: number) => post({ type: "progress", fraction }) };
+    const result = job.kind === "realize" ? await runRealizationJob(job, hooks) : runJob(job, hooks);
+    post({ type: "result", result });
+  } catch (error) {
+    const { name, message } = error instanceof Error ? error : new Error(String(error));
+    post({ type: "error", name, message });
+  }
+})();

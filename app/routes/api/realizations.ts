@@ -8,5 +8,5 @@ export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return httpError(405, "Use POST with { ode, shift?, multiply? }.");
   await requireUser(args);
   const input = await readJson(args.request, realizationRequest);
-  return runRealization(input);
+  return runRealization(args.request, args.context, input);
 }
