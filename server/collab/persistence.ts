@@ -1,7 +1,9 @@
 // The shared document in PostgreSQL: an append-only log of accepted updates (doc_updates) and a
-// compacted state (doc_states). An update is *acknowledged* once its row has committed; the
-// room relays an update to the other members only after that, so anything a member has seen
-// survives a crash of the server.
+// compacted state (doc_states). An update is *acknowledged* once its row has committed (and
+// PostgreSQL has flushed it to disk); the room relays an update to the other members only after
+// that, so anything a member received as an edit survives a crash of the server. (A member joining
+// meanwhile gets the room's state, which may be a few milliseconds ahead of the log; the author's
+// client still holds those edits and sends them again when it reconnects.)
 import { and, asc, eq, inArray } from "drizzle-orm";
 import * as Y from "yjs";
 import type { Db } from "../db/client";
