@@ -1,6 +1,7 @@
-// kill -9 in the middle of a session: every update the server acknowledged (relayed to another
+// kill -9 in the middle of a session (and a clean shutdown): every update the server acknowledged (relayed to another
 // member, which it does only after the insert commits) is in the database afterwards, and
 // what a client still holds re-syncs when the server is back.
+import pg from "pg";
 import * as Y from "yjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, joinRoom, storedDocument } from "../support/collab-client";
@@ -28,7 +29,7 @@ function typeAtRandom(text: Y.Text, running: () => boolean): Promise<number> {
   })();
 }
 
-describe("crash safety", () => {
+describe("durability", () => {
   it("keeps every acknowledged update through kill -9, and takes back what clients still hold", async () => {
     const owner = await signUp(server.url, "Crash Owner");
     const viewer = await signUp(server.url, "Crash Witness");
@@ -80,4 +81,33 @@ describe("crash safety", () => {
     }, 15_000);
     editor.close();
   }, 120_000);
+
+  it("flushes and compacts on a clean shutdown, and reloads from the compacted state", async () => {
+    const owner = await signUp(server.url, "Tidy Owner");
+    const { id } = (await (await owner.json("/api/v1/mechanisms", "POST", { title: "Tidy", source: "A -> B @ 1\n" })).json()) as { id: string };
+    const editor = joinRoom(server.url, id, owner.cookieHeader);
+    await editor.synced;
+    for (const line of ["B -> C @ 2\n", "C -> A @ 3\n", "# a closed cycle\n"]) editor.text.insert(editor.text.length, line);
+    await eventually("the analysis of the cycle", () => editor.analysis.get("reactions") === 3);
+    const text = editor.text.toString();
+    const revision = editor.analysis.get("revision") as number;
+    editor.close();
+    await server.stop();
+
+    const db = new pg.Client(server.databaseUrl);
+    await db.connect();
+    const rows = async (sql: string) => (await db.query(sql, [id])).rows;
+    expect(await rows("select id from doc_updates where mechanism_id = $1")).toHaveLength(0);
+    expect(await rows("select through_update from doc_states where mechanism_id = $1")).toHaveLength(1);
+    expect((await rows("select source from mechanisms where id = $1"))[0].source).toBe(text);
+    await db.end();
+
+    await server.restart();
+    const again = joinRoom(server.url, id, owner.cookieHeader);
+    await again.synced;
+    expect(again.text.toString()).toBe(text);
+    again.text.insert(0, "D -> A @ 4\n");
+    await eventually("a newer analysis", () => (again.analysis.get("revision") as number) > revision && again.analysis.get("reactions") === 4);
+    again.close();
+  });
 });
