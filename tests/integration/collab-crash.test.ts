@@ -1,6 +1,7 @@
-// kill -9 in the middle of a session (and a clean shutdown): every update the server acknowledged (relayed to another
-// member, which it does only after the insert commits) is in the database afterwards, and
-// what a client still holds re-syncs when the server is back.
+// Durability. kill -9 in the middle of a session: every update the server acknowledged (relayed
+// to another member, which it does only after the insert commits) is in the database afterwards,
+// and what a client still holds re-syncs when the server is back. A clean shutdown flushes and
+// compacts the log.
 import pg from "pg";
 import * as Y from "yjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
