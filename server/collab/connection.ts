@@ -10,6 +10,11 @@ export interface CollabIdentity {
   userId: string | null;
   name: string;
   role: Role;
+  /**
+   * Re-reads this caller's access, the way it was first decided (a view link can be revoked).
+   * Without it the role is re-read from the memberships by userId.
+   */
+  recheck?: () => Promise<Role | null>;
 }
 
 /** Close codes: 4400–4499 tell the y-websocket client not to reconnect. */

@@ -56,18 +56,7 @@ export class CollabHub {
    * revoked → closed for good (4403); changed → closed to reconnect under the new role (4001).
    */
   async refreshRole(mechanismId: string, userId: string): Promise<void> {
-    const room = await this.rooms.get(mechanismId);
-    if (!room) return;
-    const mine = [...room.connections].filter((c) => c.identity.userId === userId);
-    if (mine.length === 0) return;
-    const role = await roleOf(this.db, mechanismId, userId);
-    for (const connection of mine) {
-      if (role === connection.role) continue;
-      console.log(`[collab] ${connection.describe()}: role ${connection.role} → ${role ?? "none"}`);
-      // The role is lowered before the close completes, so nothing more is accepted meanwhile.
-      connection.role = role ?? "viewer";
-      connection.close(role ? closeCodes.roleChanged : closeCodes.accessRevoked, role ? "role changed" : "access revoked");
-    }
+    await this.recheck(mechanismId, (connection) => connection.identity.userId === userId);
   }
 
   /** The whole text, written as one edit by `userId` into the live document. False if no such mechanism. */
@@ -187,16 +176,35 @@ export class CollabHub {
   private async applyRoleChange({ mechanismId, userId, action }: RoleChange) {
     if (!this.rooms.has(mechanismId)) return;
     if (action === "delete") return this.forgetMechanism(mechanismId);
+    // Invitations and new view links change the access of nobody in the room.
+    if (action === "invite" || action === "uninvite" || action === "link") return;
     // A transfer also lowers the old owner, whom the audit row does not name.
     if (userId && action !== "transfer") return this.refreshRole(mechanismId, userId);
     await this.refreshRoom(mechanismId);
   }
 
-  private async refreshRoom(mechanismId: string) {
+  private refreshRoom(mechanismId: string) {
+    return this.recheck(mechanismId, () => true);
+  }
+
+  private async recheck(mechanismId: string, which: (connection: Connection) => boolean) {
     const room = await this.rooms.get(mechanismId)?.catch(() => null);
     if (!room) return;
-    const users = new Set([...room.connections].map((c) => c.identity.userId).filter((id): id is string => id !== null));
-    for (const userId of users) await this.refreshRole(mechanismId, userId).catch(() => undefined);
+    for (const connection of [...room.connections].filter(which)) {
+      const { identity } = connection;
+      let role;
+      try {
+        role = identity.recheck ? await identity.recheck() : identity.userId ? await roleOf(this.db, mechanismId, identity.userId) : connection.role;
+      } catch (error) {
+        console.error(`[collab] re-checking ${connection.describe()} failed: ${(error as Error).message}`);
+        continue;
+      }
+      if (role === connection.role) continue;
+      console.log(`[collab] ${connection.describe()}: role ${connection.role} → ${role ?? "none"}`);
+      // The new role applies before the close completes, so nothing more is accepted meanwhile.
+      connection.role = role ?? "viewer";
+      connection.close(role ? closeCodes.roleChanged : closeCodes.accessRevoked, role ? "role changed" : "access revoked");
+    }
   }
 
   private async sweepRoles() {

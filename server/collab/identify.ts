@@ -13,6 +13,11 @@ export function identifyCaller(db: Db, sessions: SessionStore): Identify {
     if (!caller.user && caller.viewTokens.length === 0) throw new UpgradeRefusal(401, "Sign in first.");
     const role = await accessTo(db, caller, mechanismId, true);
     if (!role) return null;
-    return { userId: caller.user?.id ?? null, name: caller.user?.name ?? "Guest with a view link", role };
+    return {
+      userId: caller.user?.id ?? null,
+      name: caller.user?.name ?? "Guest with a view link",
+      role,
+      recheck: () => accessTo(db, caller, mechanismId, true),
+    };
   };
 }

@@ -1,13 +1,14 @@
-// Role changes reach live connections from the audit trail: every grant, change, revoke,
-// transfer and delete writes a role_changes row in the same transaction, so reading new rows
-// every second applies a change even when the route that made it did not call refreshRole.
+// Access changes reach live connections from the audit trail: every grant, change, revoke,
+// transfer, delete and view-link revocation writes a role_changes row in the same transaction, so
+// reading new rows every second applies a change even when the route that made it did not call
+// refreshRole.
 import { asc, gt, max } from "drizzle-orm";
 import type { Db } from "../db/client";
 import { roleChanges } from "../db/schema";
 
 export interface RoleChange {
   mechanismId: string;
-  /** Whose role changed; null when the account is gone. */
+  /** Whose role changed; null for a view link or an account that is gone. */
   userId: string | null;
   action: (typeof roleChanges.$inferSelect)["action"];
 }

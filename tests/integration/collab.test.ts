@@ -6,7 +6,7 @@ import * as encoding from "lib0/encoding";
 import * as Y from "yjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, joinRoom, rawSocket, storedDocument, type RoomClient } from "../support/collab-client";
-import { signUp, type Client } from "../support/http";
+import { Client, signUp } from "../support/http";
 import { startTestServer } from "../support/server";
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
@@ -165,6 +165,30 @@ describe("live co-editing", () => {
     await sleep(500);
     expect(ownerRoom.text.toString()).toBe("A -> B\nB -> C\n");
     expect((await storedDocument(server.databaseUrl, id)).getText("source").toString()).toBe("A -> B\nB -> C\n");
+  });
+
+  it("lets a view-link visitor watch, and closes the socket when the link is revoked", async () => {
+    const owner = await signUp(server.url, "Lecturer");
+    const id = await mechanism(owner, "A <=> B @ 1, 2\n");
+    const created = await owner.json(`/api/v1/mechanisms/${id}/view-links`, "POST", {});
+    expect(created.status).toBe(201);
+    const link = (await created.json()) as { id: string; url: string };
+    const visitor = new Client(server.url);
+    expect((await visitor.get(new URL(link.url).pathname)).status).toBe(302);
+
+    const ownerRoom = join(owner, id);
+    const visitorRoom = join(visitor, id);
+    await Promise.all([ownerRoom.synced, visitorRoom.synced]);
+    ownerRoom.text.insert(ownerRoom.text.length, "B -> C @ 3\n");
+    await eventually("the visitor to see the edit", () => visitorRoom.text.toString().includes("B -> C"));
+    visitorRoom.text.insert(0, "# guest scribble\n");
+    await sleep(300);
+    expect(ownerRoom.text.toString()).not.toContain("guest");
+
+    const closed = new Promise<number>((resolve) => visitorRoom.provider.on("closed", (event: { code: number }) => resolve(event.code)));
+    expect((await owner.request(`/api/v1/mechanisms/${id}/view-links/${link.id}`, { method: "DELETE" })).status).toBeLessThan(300);
+    expect(await closed).toBe(4403);
+    expect(await rawSocket(server.url, id, visitor.cookieHeader)).toEqual({ refused: 404 });
   });
 
   it("recomputes the structure into the analysis map with a growing revision", async () => {
