@@ -3,6 +3,7 @@
 import fc from "fast-check";
 import * as decoding from "lib0/decoding";
 import * as encoding from "lib0/encoding";
+import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, joinRoom, rawSocket, storedDocument, type RoomClient } from "../support/collab-client";
@@ -42,6 +43,14 @@ async function userIdOf(owner: Client, id: string, email: string) {
   const page = await (await owner.get(`/m/${id}/members`)).text();
   const row = page.slice(page.indexOf(`member-${email}`));
   return row.match(/name="userId" value="([0-9a-f-]{36})"/)![1];
+}
+
+/** An outer awareness message (type 1) from `client` for one awareness client id, with `states`. */
+function encodeAwareness(client: RoomClient, clientId: number, states: Map<number, Record<string, unknown>>): Uint8Array {
+  const message = encoding.createEncoder();
+  encoding.writeVarUint(message, 1);
+  encoding.writeVarUint8Array(message, awarenessProtocol.encodeAwarenessUpdate(client.provider.awareness, [clientId], states));
+  return encoding.toUint8Array(message);
 }
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
@@ -165,6 +174,32 @@ describe("live co-editing", () => {
     await sleep(500);
     expect(ownerRoom.text.toString()).toBe("A -> B\nB -> C\n");
     expect((await storedDocument(server.databaseUrl, id)).getText("source").toString()).toBe("A -> B\nB -> C\n");
+  });
+
+  it("shares presence under the name and role the server knows, never another client's", async () => {
+    const owner = await signUp(server.url, "Real Owner");
+    const id = await mechanism(owner, "A -> B\n");
+    const viewer = await member(owner, id, "viewer", "Real Viewer");
+    const ownerRoom = join(owner, id);
+    const viewerRoom = join(viewer, id);
+    await Promise.all([ownerRoom.synced, viewerRoom.synced]);
+    viewerRoom.provider.awareness.setLocalStateField("user", { name: "Real Owner", colour: "#236cc1", role: "owner" });
+    viewerRoom.provider.awareness.setLocalStateField("cursor", { anchor: 1, head: 1 });
+    const seen = () => ownerRoom.provider.awareness.getStates().get(viewerRoom.doc.clientID) as { user?: { name: string; role: string; colour: string }; cursor?: unknown } | undefined;
+    await eventually("the viewer's presence", () => seen()?.cursor !== undefined);
+    expect(seen()!.user).toEqual({ name: "Real Viewer", colour: "#236cc1", role: "viewer" });
+
+    // A second socket claiming the owner's awareness client is not heard.
+    const impostor = joinRoom(server.url, id, viewer.cookieHeader);
+    open.push(impostor);
+    await impostor.synced;
+    const ownerClock = ownerRoom.provider.awareness.meta.get(ownerRoom.doc.clientID)!.clock;
+    const forged = new Map([[ownerRoom.doc.clientID, { cursor: "forged" }]]);
+    impostor.provider.awareness.meta.set(ownerRoom.doc.clientID, { clock: ownerClock + 10, lastUpdated: Date.now() });
+    impostor.provider.ws!.send(new Uint8Array(encodeAwareness(impostor, ownerRoom.doc.clientID, forged)));
+    await sleep(400);
+    const ownerAsSeenByViewer = viewerRoom.provider.awareness.getStates().get(ownerRoom.doc.clientID) as { cursor?: unknown } | undefined;
+    expect(ownerAsSeenByViewer?.cursor).not.toBe("forged");
   });
 
   it("lets a view-link visitor watch, and closes the socket when the link is revoked", async () => {
