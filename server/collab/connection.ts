@@ -17,7 +17,7 @@ export interface CollabIdentity {
   recheck?: () => Promise<Role | null>;
 }
 
-/** Close codes: 4400–4499 tell the y-websocket client not to reconnect. */
+/** Close codes: 4400–4499 tell the y-websocket client not to reconnect; 4500–4599 to retry later. */
 export const closeCodes = {
   /** The role changed: reconnect to sync again under the new role. */
   roleChanged: 4001,
@@ -26,7 +26,9 @@ export const closeCodes = {
   protocolError: 1002,
   accessRevoked: 4403,
   mechanismGone: 4404,
-  tooSlow: 4408,
+  tooSlow: 4508,
+  /** The edit would make the text larger than the API allows; resending it cannot help. */
+  tooLarge: 4413,
 } as const;
 
 /** A client that cannot keep up is dropped rather than buffered without limit. */
@@ -78,7 +80,12 @@ export class Connection {
           this.dropUpdate(message.syncType);
           return;
         }
-        if (!this.room.applyClientUpdate(this, message.update)) this.close(closeCodes.protocolError, "bad update");
+        switch (this.room.applyClientUpdate(this, message.update)) {
+          case "unreadable":
+            return this.close(closeCodes.protocolError, "bad update");
+          case "too-large":
+            return this.close(closeCodes.tooLarge, "the text would be over 1 MiB");
+        }
         return;
       case "awareness":
         this.room.applyClientAwareness(this, message.update);

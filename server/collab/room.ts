@@ -2,6 +2,7 @@
 // connections and presence, and the services that keep it durable and analysed.
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
+import { MAX_SOURCE_BYTES } from "../../app/utils/fields";
 import type { Db } from "../db/client";
 import { findMechanism } from "../db/mechanisms";
 import { closeCodes, type Connection } from "./connection";
@@ -116,14 +117,34 @@ export class Room {
     awarenessProtocol.removeAwarenessStates(this.awareness, [...connection.awarenessClients], null);
   }
 
-  /** False when the update cannot be read (the caller drops the connection). */
-  applyClientUpdate(connection: Connection, update: Uint8Array): boolean {
+  /** "unreadable" and "too-large" updates are not applied (the caller drops the connection). */
+  applyClientUpdate(connection: Connection, update: Uint8Array): "applied" | "unreadable" | "too-large" {
     try {
+      if (this.wouldOutgrowLimit(update)) {
+        console.warn(`[collab] refused an update from ${connection.describe()}: the text would be over ${MAX_SOURCE_BYTES} bytes`);
+        return "too-large";
+      }
       Y.applyUpdate(this.doc, update, connection);
-      return true;
+      return "applied";
     } catch (error) {
       console.warn(`[collab] unreadable update from ${connection.describe()}: ${(error as Error).message}`);
-      return false;
+      return "unreadable";
+    }
+  }
+
+  /**
+   * The text's size rule of the API holds for socket edits too. An update inserts at most as many
+   * bytes as it holds, so only an update that could cross the limit is tried on a copy first.
+   */
+  private wouldOutgrowLimit(update: Uint8Array): boolean {
+    if (Buffer.byteLength(this.text.toString()) + update.byteLength <= MAX_SOURCE_BYTES) return false;
+    const trial = new Y.Doc();
+    try {
+      Y.applyUpdate(trial, Y.encodeStateAsUpdate(this.doc));
+      Y.applyUpdate(trial, update);
+      return Buffer.byteLength(trial.getText("source").toString()) > MAX_SOURCE_BYTES;
+    } finally {
+      trial.destroy();
     }
   }
 

@@ -226,6 +226,20 @@ describe("live co-editing", () => {
     expect(await rawSocket(server.url, id, visitor.cookieHeader)).toEqual({ refused: 404 });
   });
 
+  it("refuses a socket edit that would make the text larger than 1 MiB", async () => {
+    const owner = await signUp(server.url, "Paster");
+    const id = await mechanism(owner, "A -> B\n");
+    const editor = await member(owner, id, "editor", "Big Paster");
+    const ownerRoom = join(owner, id);
+    const pasterRoom = join(editor, id);
+    await Promise.all([ownerRoom.synced, pasterRoom.synced]);
+    const closed = new Promise<number>((resolve) => pasterRoom.provider.on("closed", (event: { code: number }) => resolve(event.code)));
+    pasterRoom.text.insert(0, `# ${"x".repeat(1024 * 1024)}\n`);
+    expect(await closed).toBe(4413);
+    ownerRoom.text.insert(ownerRoom.text.length, "B -> C\n");
+    await eventually("the owner's edit stored", async () => (await storedDocument(server.databaseUrl, id)).getText("source").toString() === "A -> B\nB -> C\n");
+  });
+
   it("recomputes the structure into the analysis map with a growing revision", async () => {
     const owner = await signUp(server.url, "Analyst");
     const id = await mechanism(owner, "X + Y -> 2Y @ 1\n");
