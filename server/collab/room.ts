@@ -134,9 +134,11 @@ export class Room {
 
   /**
    * The text's size rule of the API holds for socket edits too. An update inserts at most as many
-   * bytes as it holds, so only an update that could cross the limit is tried on a copy first.
+   * bytes as it holds and a UTF-16 unit is at most 3 bytes of UTF-8, so a keystroke into a text of
+   * ordinary size costs nothing here; only an update that could cross the limit is tried on a copy.
    */
   private wouldOutgrowLimit(update: Uint8Array): boolean {
+    if (this.text.length * 3 + update.byteLength <= MAX_SOURCE_BYTES) return false;
     if (Buffer.byteLength(this.text.toString()) + update.byteLength <= MAX_SOURCE_BYTES) return false;
     const trial = new Y.Doc();
     try {
