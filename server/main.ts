@@ -67,8 +67,9 @@ let stopping = false;
 async function shutdown() {
   if (stopping) return;
   stopping = true;
-  // Rooms flush their updates, text and last analysis before the database goes away.
-  await services.collab.close();
+  // Rooms flush their updates, text and last analysis before the database goes away; a database
+  // that is already gone must not hold the shutdown (clients keep unsent edits and resend them).
+  await Promise.race([services.collab.close(), new Promise((resolve) => setTimeout(resolve, 10_000))]);
   server.closeAllConnections();
   await new Promise((resolve) => server.close(resolve));
   await vite?.close();
