@@ -86,6 +86,9 @@ export async function action(args: Route.ActionArgs) {
     if (input.intent === "change") await changeRole(db, user.id, mechanism.id, input.userId, input.role);
     if (input.intent === "remove") await removeMember(db, user.id, mechanism.id, input.userId);
     if (input.intent === "transfer") await transferOwnership(db, user.id, mechanism.id, input.userId);
+    // Open sockets take the new role at once (the audit-trail feed would within a second).
+    await args.context.collab.refreshRole(mechanism.id, input.userId);
+    if (input.intent === "transfer") await args.context.collab.refreshRole(mechanism.id, user.id);
     if (member) {
       const newRole = input.intent === "change" ? input.role : input.intent === "transfer" ? "owner" : null;
       if (newRole !== member.role) await notifyRoleChange(args.context, args.request, { to: member.email, actor: user.name, mechanism, role: newRole });
