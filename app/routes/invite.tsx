@@ -4,6 +4,7 @@ import { z } from "zod";
 import { createUser, isAuthFailure, signUpForm } from "../../server/auth/authenticator";
 import { acceptInvitation, lookUpInvitation } from "../../server/db/invitations";
 import { AuthCard } from "~/components/auth-card";
+import { Field } from "~/components/field";
 import { getUser, startUserSession } from "~/utils/auth.server";
 import { httpError } from "~/utils/http";
 import type { Route } from "./+types/invite";
@@ -73,18 +74,9 @@ export default function Invite({ loaderData, actionData, params }: Route.Compone
         <Form method="post" className="space-y-4">
           <input type="hidden" name="intent" value="sign-up" />
           <input type="hidden" name="email" value={email} />
-          <div>
-            <label className="label" htmlFor="name">Your name</label>
-            <input className="field" id="name" name="name" required autoComplete="name" />
-          </div>
-          <div>
-            <label className="label" htmlFor="invite-email">E-mail</label>
-            <input className="field" id="invite-email" value={email} readOnly disabled />
-          </div>
-          <div>
-            <label className="label" htmlFor="password">Choose a password</label>
-            <input className="field" id="password" name="password" type="password" minLength={10} required autoComplete="new-password" />
-          </div>
+          <Field id="name" label="Your name" name="name" required autoComplete="name" />
+          <Field id="invite-email" label="E-mail" value={email} readOnly disabled />
+          <Field id="password" label="Choose a password" name="password" type="password" minLength={10} required autoComplete="new-password" />
           <button className="btn btn-primary w-full" type="submit">Create account and join</button>
         </Form>
       )}

@@ -2,6 +2,7 @@ import { Form, Link, useNavigation } from "react-router";
 import { isAuthFailure, signInForm } from "../../server/auth/authenticator";
 import { clearFailedSignIns, recordFailedSignIn, signInBlocked } from "../../server/auth/sign-in-limits";
 import { AuthCard } from "~/components/auth-card";
+import { Field } from "~/components/field";
 import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/sign-in";
 
@@ -44,14 +45,8 @@ export default function SignIn({ loaderData, actionData }: Route.ComponentProps)
     >
       <Form method="post" className="space-y-4">
         <input type="hidden" name="next" value={loaderData.next} />
-        <div>
-          <label className="label" htmlFor="email">E-mail</label>
-          <input className="field" id="email" name="email" type="email" autoComplete="email" required defaultValue={failed?.email} />
-        </div>
-        <div>
-          <label className="label" htmlFor="password">Password</label>
-          <input className="field" id="password" name="password" type="password" autoComplete="current-password" required />
-        </div>
+        <Field id="email" label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={failed?.email} />
+        <Field id="password" label="Password" name="password" type="password" autoComplete="current-password" required />
         {failed?.error && <p className="notice-error" role="alert">{failed.error}</p>}
         <button className="btn btn-primary w-full" type="submit" disabled={busy}>{busy ? "Signing in…" : "Sign in"}</button>
       </Form>

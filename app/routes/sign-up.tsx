@@ -1,6 +1,7 @@
 import { Form, Link, useNavigation } from "react-router";
 import { isAuthFailure } from "../../server/auth/authenticator";
 import { AuthCard } from "~/components/auth-card";
+import { Field } from "~/components/field";
 import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/sign-up";
 
@@ -34,19 +35,9 @@ export default function SignUp({ loaderData, actionData }: Route.ComponentProps)
     >
       <Form method="post" className="space-y-4">
         <input type="hidden" name="next" value={loaderData.next} />
-        <div>
-          <label className="label" htmlFor="name">Name</label>
-          <input className="field" id="name" name="name" autoComplete="name" required defaultValue={failed?.name} />
-        </div>
-        <div>
-          <label className="label" htmlFor="email">E-mail</label>
-          <input className="field" id="email" name="email" type="email" autoComplete="email" required defaultValue={failed?.email} />
-        </div>
-        <div>
-          <label className="label" htmlFor="password">Password</label>
-          <input className="field" id="password" name="password" type="password" autoComplete="new-password" minLength={10} required />
-          <p className="mt-1 text-xs text-muted">At least 10 characters.</p>
-        </div>
+        <Field id="name" label="Name" name="name" autoComplete="name" required defaultValue={failed?.name} />
+        <Field id="email" label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={failed?.email} />
+        <Field id="password" label="Password" name="password" type="password" autoComplete="new-password" minLength={10} required hint="At least 10 characters." />
         {failed?.error && <p className="notice-error" role="alert">{failed.error}</p>}
         <button className="btn btn-primary w-full" type="submit" disabled={busy}>{busy ? "Creating…" : "Create account"}</button>
       </Form>
