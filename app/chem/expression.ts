@@ -56,8 +56,8 @@ const greek = new Set([
   "xi", "rho", "sigma", "tau", "phi", "chi", "psi", "omega", "Gamma", "Delta", "Theta", "Lambda", "Phi", "Omega",
 ]);
 
-/** Special characters made safe inside math mode (\^ and \~ are text-mode accents, errors here). */
-const mathEscapes: Record<string, string> = { "\\": "\\backslash{}", "^": "\\hat{}", "~": "\\sim{}" };
+/** Special characters made safe inside math mode (\^ and \~ alone are text-mode accents, errors here). */
+const mathEscapes: Record<string, string> = { "\\": "\\backslash ", "^": "\\text{\\^{}}", "~": "\\text{\\~{}}" };
 
 function escapeLatex(text: string): string {
   return text.replace(/[\\{}$&#^_%~]/g, (char) => mathEscapes[char] ?? `\\${char}`);
@@ -112,12 +112,13 @@ export function massActionLatex(sum: RateFactor[][], monomial: string): string {
 export function lawLatex(law: string): string {
   const reading = readLaw(law);
   if (!reading.ok) return `\\text{${escapeLatex(law)}}`;
-  return reading.node.toTex({
+  const latex = reading.node.toTex({
     parenthesis: "auto",
     implicit: "hide",
-    // Braced, because mathjs writes operators such as \cdot right against their operands.
-    handler: (node: MathNode) => (node.type === "SymbolNode" ? `{${symbolLatex((node as unknown as { name: string }).name)}}` : undefined),
+    handler: (node: MathNode) => (node.type === "SymbolNode" ? symbolLatex((node as unknown as { name: string }).name) : undefined),
   });
+  // mathjs writes \cdot right against its operand: `\cdotS` would be one undefined command.
+  return latex.replace(/\\cdot(?=[A-Za-z0-9])/g, "\\cdot ");
 }
 
 // ---- linear combinations of species (conservation laws)

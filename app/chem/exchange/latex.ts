@@ -3,7 +3,7 @@
 // writes them (expression.ts); what this module adds is the document around them, text escaping
 // and an ASCII-only result (non-ASCII letters and symbols become LaTeX commands).
 import type { AnalysisReport } from "~/chem/analysis";
-import { lawLatex as analysisLawLatex, numberLatex, symbolLatex as analysisSymbolLatex } from "~/chem/expression";
+import { lawLatex, numberLatex, symbolLatex } from "~/chem/expression";
 import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
 
 /** What the document shows from the structure report. */
@@ -93,29 +93,12 @@ function structureSentence(report: LatexReport): string {
 }
 
 function odeRow(name: string, report: LatexReport): string {
-  const equation = mathSafe(report.odesLatex[name]);
+  const equation = report.odesLatex[name];
   const left = `\\frac{d${symbolLatex(name)}}{dt} = `;
   return equation.startsWith(left) ? `${left.slice(0, -3)} &= ${equation.slice(left.length)}` : `& ${equation}`;
 }
 
 // ---- text
-
-/**
- * Repairs two things in the analysis' LaTeX that TeX refuses: ^ and ~ in names escaped as \^ and
- * \~ (text-mode accents, an error in math mode) become text characters, and a one-letter name
- * right after \cdot (`\cdotS`, one undefined command) gets its separating space.
- */
-function mathSafe(latex: string): string {
-  return latex.replace(/(?<!\\)\\([\^~])/g, "\\text{\\$1{}}").replace(/\\cdot(?=[A-Za-z0-9])/g, "\\cdot ");
-}
-
-function symbolLatex(name: string): string {
-  return mathSafe(analysisSymbolLatex(name));
-}
-
-function lawLatex(law: string): string {
-  return mathSafe(analysisLawLatex(law));
-}
 
 const textEscapes: Record<string, string> = {
   "\\": "\\textbackslash{}",
