@@ -1,6 +1,7 @@
 // A dynamics job as plain data (it crosses into a worker thread by structured clone) and the one
 // function that carries it out. The CLI runs jobs in-process; the server runs them in a worker.
-// The realization of an ODE (its MILP searches can run for seconds) travels the same way.
+// The realization of an ODE (its MILP searches can run for seconds) and the structure analysis of
+// a large text travel the same way.
 
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumOptions, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
@@ -8,6 +9,7 @@ import { networkLyapunov, polynomialLyapunov, type LyapunovOptions, type Lyapuno
 import type { SimulationSettings } from "~/chem/kinetics/settings";
 import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
 import { sweepNetwork, type SweepOptions, type SweepResult } from "~/chem/kinetics/sweep";
+import { analyzeSource, type AnalysisReport } from "~/chem/analysis";
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
 import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 
@@ -27,7 +29,9 @@ export type RealizationJob = {
   request: Omit<RealizeOdeRequest, "equivalents"> & { equivalents?: { timeLimitMs: number } };
 };
 
-export type WorkerJob = DynamicsJob | RealizationJob;
+export type AnalysisJob = { kind: "analyze"; source: string };
+
+export type WorkerJob = DynamicsJob | RealizationJob | AnalysisJob;
 
 export interface DynamicsResults {
   simulate: SimulationResult;
@@ -35,6 +39,7 @@ export interface DynamicsResults {
   equilibrium: EquilibriumResult;
   sweep: SweepResult;
   realize: RealizeOdeResult;
+  analyze: AnalysisReport;
 }
 
 export type JobResult<J extends WorkerJob> = DynamicsResults[J["kind"]];
@@ -59,6 +64,10 @@ export function runRealizationJob({ request }: RealizationJob, hooks: JobHooks =
       },
     },
   });
+}
+
+export function runAnalysisJob({ source }: AnalysisJob): Promise<AnalysisReport> {
+  return analyzeSource(source);
 }
 
 export function runJob<J extends DynamicsJob>(job: J, hooks: JobHooks = {}): JobResult<J> {

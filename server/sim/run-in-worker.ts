@@ -74,7 +74,7 @@ const waiting: (() => void)[] = [];
 
 export async function runInWorker<J extends WorkerJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
   const limits = { ...DEFAULT_LIMITS, ...options.limits };
-  if (job.kind !== "realize") checkSize(job, limits);
+  if (job.kind !== "realize" && job.kind !== "analyze") checkSize(job, limits);
   await acquireSlot(options.signal);
   try {
     return await runWorker(job, limits, options);

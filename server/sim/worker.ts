@@ -2,7 +2,7 @@
 // the error (by name, so the parent can rebuild the error class) to the parent.
 
 import { parentPort, workerData } from "node:worker_threads";
-import { runJob, runRealizationJob, type WorkerJob } from "./job";
+import { runAnalysisJob, runJob, runRealizationJob, type WorkerJob } from "./job";
 
 export type WorkerMessage =
   | { type: "progress"; fraction: number }
@@ -16,7 +16,8 @@ void (async () => {
   try {
     const job = workerData as WorkerJob;
     const hooks = { onProgress: (fraction: number) => post({ type: "progress", fraction }) };
-    const result = job.kind === "realize" ? await runRealizationJob(job, hooks) : runJob(job, hooks);
+    const result =
+      job.kind === "realize" ? await runRealizationJob(job, hooks) : job.kind === "analyze" ? await runAnalysisJob(job) : runJob(job, hooks);
     post({ type: "result", result });
   } catch (error) {
     const { name, message } = error instanceof Error ? error : new Error(String(error));

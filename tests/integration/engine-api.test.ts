@@ -41,6 +41,16 @@ describe("POST /api/v1/analyze", () => {
     expect((await new Client(server.url).json("/api/v1/analyze", "POST", { source: "A -> B" })).status).toBe(401);
   });
 
+  it("analyses a large text in a worker thread with the same result", async () => {
+    // A chain S1 -> S2 -> … of 1,500 steps: one linkage class, deficiency 0.
+    const source = Array.from({ length: 1500 }, (_, i) => `S${i + 1} -> S${i + 2} @ 1`).join("\n") + "\n";
+    const report = await (await owner.json("/api/v1/analyze", "POST", { source })).json();
+    expect(report.complexes).toHaveLength(1501);
+    expect(report.linkageClasses).toHaveLength(1);
+    expect(report.rank).toBe(1500);
+    expect(report.deficiency).toBe(0);
+  });
+
   it("GET /api/v1/mechanisms/:id includes the analysis", async () => {
     const body = await (await viewer.get(`/api/v1/mechanisms/${mechanismId}`)).json();
     expect(body.analysis.deficiency).toBe(0);

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { analyzeSource } from "~/chem/analysis";
+import { analysisFor } from "~/utils/analysis.server";
 import { checkSourceLimits } from "~/chem/limits";
 import { requireUser } from "~/utils/auth.server";
 import { httpError } from "~/utils/http";
@@ -12,5 +12,5 @@ export async function action(args: Route.ActionArgs) {
   const { source } = await readJson(args.request, z.object({ source: z.string({ message: "source must be the mechanism text." }) }));
   const refusal = checkSourceLimits(source);
   if (refusal) return httpError(413, refusal);
-  return Response.json(await analyzeSource(source));
+  return Response.json(await analysisFor(args.context, source));
 }

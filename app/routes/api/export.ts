@@ -1,9 +1,9 @@
 // A mechanism as a file: SBML Level 3 Core, a LaTeX document, or its stoichiometric matrix as CSV.
-import { analyzeSource } from "~/chem/analysis";
 import { stoichiometricMatrixCsv } from "~/chem/exchange/csv";
 import { exportLatex } from "~/chem/exchange/latex";
 import { exportSbml } from "~/chem/exchange/sbml-export";
 import { parseMechanism } from "~/chem/parse";
+import { analysisFor } from "~/utils/analysis.server";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/export";
@@ -26,7 +26,7 @@ export async function loader(args: Route.LoaderArgs) {
   if (format === "sbml") {
     body = exportSbml(parsed.mechanism, { title: mechanism.title });
   } else {
-    const report = await analyzeSource(mechanism.source);
+    const report = await analysisFor(args.context, mechanism.source);
     if (format === "csv" && report.reactions.length > 0 && report.stoichiometricMatrix.length === 0) {
       return httpError(413, `The stoichiometric matrix (${report.species.length} × ${report.reactions.length}) is too large to export as CSV.`);
     }

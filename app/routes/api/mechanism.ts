@@ -1,4 +1,4 @@
-import { analyzeSource } from "~/chem/analysis";
+import { analysisFor } from "~/utils/analysis.server";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/mechanism";
 
@@ -11,6 +11,6 @@ export async function loader(args: Route.LoaderArgs) {
     source: mechanism.source,
     role,
     updatedAt: mechanism.updatedAt,
-    analysis: await analyzeSource(mechanism.source),
+    analysis: await analysisFor(args.context, mechanism.source),
   });
 }
