@@ -14,7 +14,7 @@ import { startMailCatcher } from "./mail/catcher";
 import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
 import { sessionSecret } from "./secret";
-import { runInWorker } from "./sim/run-in-worker";
+import { prewarmWorkers, runInWorker } from "./sim/run-in-worker";
 import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
 
 const projectRoot = path.resolve(import.meta.dirname, "..");
@@ -58,6 +58,8 @@ server.listen(env.PORT, env.HOST, () => {
   const address = server.address();
   const port = typeof address === "object" && address ? address.port : env.PORT;
   console.log(`Mechweave listening on http://${env.HOST}:${port}`);
+  // Warm workers make the first simulation as quick as the rest; tests start many servers and skip it.
+  if (env.NODE_ENV === "production") prewarmWorkers();
   if (embedded) {
     console.log(`Demo accounts (password ${DEMO_PASSWORD}): ${demoAccounts.map((a) => a.email).join(", ")}`);
   }

@@ -119,39 +119,73 @@ function releaseSlot(): void {
   waiting.shift()?.();
 }
 
+// Booting a worker (tsx, then the chemistry modules and mathjs) takes a second or two, so workers
+// that finish a job cleanly wait for the next one. A cancelled, timed-out or failed worker is
+// terminated and never reused. Idle workers do not keep the process alive.
+const idle = new Map<number, Worker[]>();
+
+function takeWorker(heapMb: number): Worker {
+  const reused = idle.get(heapMb)?.pop();
+  if (reused) {
+    reused.ref();
+    return reused;
+  }
+  const worker = new Worker(workerBootstrap, { eval: true, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
+  // While idle nobody else listens: an idle worker that dies just leaves the pool.
+  worker.on("error", () => undefined);
+  worker.on("exit", () => {
+    const pool = idle.get(heapMb);
+    if (pool?.includes(worker)) pool.splice(pool.indexOf(worker), 1);
+  });
+  return worker;
+}
+
+function returnWorker(worker: Worker, heapMb: number) {
+  const pool = idle.get(heapMb) ?? [];
+  if (pool.length >= CONCURRENCY) return void worker.terminate();
+  worker.unref();
+  pool.push(worker);
+  idle.set(heapMb, pool);
+}
+
+/** Boots the workers a busy server will want, so the first run does not wait for them. */
+export function prewarmWorkers(heapMb = DEFAULT_LIMITS.heapMb): void {
+  for (let i = (idle.get(heapMb)?.length ?? 0); i < CONCURRENCY; i++) returnWorker(takeWorker(heapMb), heapMb);
+}
+
 function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, { onProgress, signal }: RunOptions): Promise<JobResult<J>> {
   return new Promise((resolve, reject) => {
     if (signal?.aborted) return reject(new SimulationCancelled());
-    const worker = new Worker(workerBootstrap, {
-      eval: true,
-      workerData: job,
-      resourceLimits: { maxOldGenerationSizeMb: limits.heapMb },
-    });
+    const worker = takeWorker(limits.heapMb);
     let settled = false;
-    const finish = (outcome: () => void) => {
+    const finish = (reusable: boolean, outcome: () => void) => {
       if (settled) return;
       settled = true;
       clearTimeout(timer);
       signal?.removeEventListener("abort", cancel);
-      void worker.terminate();
+      worker.off("message", onMessage).off("error", onError).off("exit", onExit);
+      if (reusable) returnWorker(worker, limits.heapMb);
+      else void worker.terminate();
       outcome();
     };
     const timer = setTimeout(
-      () => finish(() => reject(new SimulationLimitError(`the run took longer than ${limits.timeMs / 1000} s and was stopped`, "time"))),
+      () => finish(false, () => reject(new SimulationLimitError(`the run took longer than ${limits.timeMs / 1000} s and was stopped`, "time"))),
       limits.timeMs,
     );
-    const cancel = () => finish(() => reject(new SimulationCancelled()));
+    const cancel = () => finish(false, () => reject(new SimulationCancelled()));
     signal?.addEventListener("abort", cancel, { once: true });
 
-    worker.on("message", (message: WorkerMessage) => {
+    const onMessage = (message: WorkerMessage) => {
       if (message.type === "progress") onProgress?.(message.fraction);
-      else if (message.type === "result") finish(() => resolve(message.result as JobResult<J>));
-      else finish(() => reject(new (rebuilt[message.name] ?? Error)(message.message)));
-    });
-    worker.on("error", (error) => {
+      else if (message.type === "result") finish(true, () => resolve(message.result as JobResult<J>));
+      else finish(true, () => reject(new (rebuilt[message.name] ?? Error)(message.message)));
+    };
+    const onError = (error: Error) => {
       const outOfMemory = (error as NodeJS.ErrnoException).code === "ERR_WORKER_OUT_OF_MEMORY";
-      finish(() => reject(outOfMemory ? new SimulationLimitError(`the run needed more than ${limits.heapMb} MB and was stopped`, "memory") : error));
-    });
-    worker.on("exit", (code) => finish(() => reject(new Error(`the simulation worker stopped unexpectedly (exit code ${code})`))));
+      finish(false, () => reject(outOfMemory ? new SimulationLimitError(`the run needed more than ${limits.heapMb} MB and was stopped`, "memory") : error));
+    };
+    const onExit = (code: number) => finish(false, () => reject(new Error(`the simulation worker stopped unexpectedly (exit code ${code})`)));
+    worker.on("message", onMessage).on("error", onError).on("exit", onExit);
+    worker.postMessage(job);
   });
 }

@@ -1,7 +1,7 @@
-// Worker-thread entry: runs one dynamics job from workerData and reports progress, the result or
-// the error (by name, so the parent can rebuild the error class) to the parent.
+// Worker-thread entry: runs the jobs the parent sends and reports progress, the result or the
+// error (by name, so the parent can rebuild the error class) for each.
 
-import { parentPort, workerData } from "node:worker_threads";
+import { parentPort } from "node:worker_threads";
 import { runAnalysisJob, runJob, runRealizationJob, type WorkerJob } from "./job";
 
 export type WorkerMessage =
@@ -11,10 +11,11 @@ export type WorkerMessage =
 
 const post = (message: WorkerMessage) => parentPort?.postMessage(message);
 
-// Not top-level await: the worker is loaded through tsx's CommonJS hook (see run-in-worker.ts).
-void (async () => {
+// One job at a time, as the parent sends them; the worker then waits for the next.
+parentPort?.on("message", (job: WorkerJob) => void run(job));
+
+async function run(job: WorkerJob) {
   try {
-    const job = workerData as WorkerJob;
     const hooks = { onProgress: (fraction: number) => post({ type: "progress", fraction }) };
     const result =
       job.kind === "realize" ? await runRealizationJob(job, hooks) : job.kind === "analyze" ? await runAnalysisJob(job) : runJob(job, hooks);
@@ -23,4 +24,4 @@ void (async () => {
     const { name, message } = error instanceof Error ? error : new Error(String(error));
     post({ type: "error", name, message });
   }
-})();
+}
