@@ -13,7 +13,8 @@ import { simulateSystem } from "~/chem/kinetics/simulate";
 import { brusselator, generatedNetwork, lorenz, robertson } from "../fixtures/dynamics/models";
 
 // odex is CommonJS marked __esModule: tsx's ESM interop hides its named exports, require does not.
-const { Solver } = createRequire(import.meta.url)("odex") as typeof import("odex");
+// The package file itself: tsconfig maps the bare name "odex" to our declaration for type checks.
+const { Solver } = createRequire(import.meta.url)("odex/src/odex.js") as typeof import("odex");
 
 interface Problem {
   name: string;
