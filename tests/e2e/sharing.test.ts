@@ -31,6 +31,10 @@ it("signs up, creates and shares a mechanism; the viewer sees it and cannot rena
   const viewer = await signedInPage(world, viewerAccount.email);
   await viewer.click("text=Ozone cycle draft");
   await viewer.waitForURL(mechanismUrl);
+  // The dashboard's own title field must be gone before the check means anything.
+  await viewer.waitForSelector("[data-testid=mechanism-title]");
+  await viewer.click('role=tab[name="Files & settings"]');
+  await viewer.waitForSelector("text=Download");
   expect(await viewer.locator("input[name=title]").count()).toBe(0);
 
   // Even a hand-made request from the viewer's browser is refused by the server.
