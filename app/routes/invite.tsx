@@ -3,6 +3,7 @@ import { Form, Link, redirect } from "react-router";
 import { z } from "zod";
 import { createUser, isAuthFailure, signUpForm } from "../../server/auth/authenticator";
 import { acceptInvitation, lookUpInvitation } from "../../server/db/invitations";
+import { isMembershipError } from "../../server/db/mechanisms";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { getUser, startUserSession } from "~/utils/auth.server";
@@ -47,7 +48,7 @@ export async function action(args: Route.ActionArgs) {
     const mechanismId = await acceptInvitation(context.db, params.token, user);
     throw redirect(`/m/${mechanismId}`);
   } catch (error) {
-    if (isAuthFailure(error) || (error instanceof Error && error.name === "MembershipError")) {
+    if (isAuthFailure(error) || isMembershipError(error)) {
       return Response.json({ error: (error as Error).message }, { status: 400 });
     }
     throw error;

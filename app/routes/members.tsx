@@ -1,14 +1,15 @@
 import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import { findPendingInvitation, pendingInvitations, revokeInvitation } from "../../server/db/invitations";
-import { addMember, changeRole, listMembers, removeMember, roleHistory, transferOwnership } from "../../server/db/mechanisms";
+import { addMember, changeRole, isMembershipError, listMembers, removeMember, roleHistory, transferOwnership } from "../../server/db/mechanisms";
 import { listViewLinks, revokeViewLink } from "../../server/db/view-links";
 import { InvitationsPanel } from "~/components/invitations-panel";
 import { ViewLinksPanel } from "~/components/view-links-panel";
 import { RolePill } from "~/components/role-pill";
 import { memberRoleField } from "~/utils/fields";
 import { timeAgo } from "~/utils/format";
-import { httpError, requireRole } from "~/utils/permissions.server";
+import { httpError } from "~/utils/http";
+import { requireRole } from "~/utils/permissions.server";
 import { inviteByEmail, makeViewLink, notifyRoleChange } from "~/utils/sharing.server";
 import type { Route } from "./+types/members";
 
@@ -95,7 +96,7 @@ export async function action(args: Route.ActionArgs) {
     }
     return { ok: input.intent === "transfer" ? "Ownership transferred. You stay on as an editor." : "Saved." };
   } catch (error) {
-    if (error instanceof Error && error.name === "MembershipError") return Response.json({ error: error.message }, { status: 400 });
+    if (isMembershipError(error)) return Response.json({ error: error.message }, { status: 400 });
     throw error;
   }
 }

@@ -1,5 +1,5 @@
 import type { z } from "zod";
-import { httpError } from "./permissions.server";
+import { httpError } from "./http";
 
 const MAX_BODY_BYTES = 2 * 1024 * 1024;
 

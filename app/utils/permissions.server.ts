@@ -6,8 +6,6 @@ import { atLeast, type Role } from "../../server/db/roles";
 import { getCaller, signInRequired, type RequestArgs } from "./auth.server";
 import { httpError } from "./http";
 
-export { httpError };
-
 type Mechanism = NonNullable<Awaited<ReturnType<typeof findMechanism>>>;
 
 interface Access {

@@ -1,17 +1,12 @@
 // The worker threads that analyse texts for every room of the process. A long analysis (a
 // network of thousands of reactions) then never delays keystrokes relayed by the event loop.
 import { availableParallelism } from "node:os";
-import { createRequire } from "node:module";
-import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
+import { typescriptWorkerSource } from "../typescript-worker";
 import type { StructureSummary } from "../../app/utils/version-diff";
 import type { AnalysisResponse } from "./analysis-entries";
 
-// As in server/sim/run-in-worker.ts: tsx's CommonJS hook is the one that reaches a worker on Node 20.
-const bootstrap = [
-  `require(${JSON.stringify(createRequire(import.meta.url).resolve("tsx/cjs/api"))}).register();`,
-  `require(${JSON.stringify(fileURLToPath(new URL("./analysis-worker.ts", import.meta.url)))});`,
-].join("\n");
+const bootstrap = typescriptWorkerSource(new URL("./analysis-worker.ts", import.meta.url));
 
 const WARM_UP_SOURCE = "A + B <=> C @ 1, 2\nC -> D + B @ 3\n";
 

@@ -105,9 +105,13 @@ export async function listMembers(db: Db, mechanismId: string): Promise<Member[]
   return [{ userId: owner!.id, name: owner!.name, email: owner!.email, role: "owner" }, ...rows];
 }
 
-/** A member change the owner should read about, not a server fault (matched by name). */
+/** A member change the owner should read about, not a server fault. */
 export class MembershipError extends Error {
   override name = "MembershipError";
+}
+
+export function isMembershipError(error: unknown): error is MembershipError {
+  return error instanceof MembershipError;
 }
 
 export async function addMember(db: Db, actorId: string, mechanismId: string, email: string, role: MemberRole) {

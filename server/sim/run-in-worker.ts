@@ -3,13 +3,12 @@
 // worker is terminated, so even a step that never returns is stopped). At most `concurrency` jobs
 // run at once; the rest wait in order.
 
-import { createRequire } from "node:module";
 import { availableParallelism } from "node:os";
-import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
 import { MAX_SWEEP_POINTS } from "~/chem/kinetics/sweep";
 import { RealizeRequestError } from "~/chem/realize/request-error";
+import { typescriptWorkerSource } from "../typescript-worker";
 import { modelSize, type DynamicsJob, type JobResult, type WorkerJob } from "./job";
 import type { WorkerMessage } from "./worker";
 
@@ -59,13 +58,7 @@ const rebuilt: Record<string, new (message: string) => Error> = {
   RealizeRequestError,
 };
 
-// The server and the tests run TypeScript through tsx, and the worker needs the same. On Node 20
-// `execArgv: ["--import", "tsx"]` does not reach a worker's entry file and ESM loader hooks do not
-// apply inside workers, but tsx's CommonJS require hook does: the worker boots through it.
-const workerBootstrap = [
-  `require(${JSON.stringify(createRequire(import.meta.url).resolve("tsx/cjs/api"))}).register();`,
-  `require(${JSON.stringify(fileURLToPath(new URL("./worker.ts", import.meta.url)))});`,
-].join("\n");
+const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.meta.url));
 
 /** Jobs running at once: one core stays with the server, but never fewer than two, so one long run cannot hold up everybody. */
 const CONCURRENCY = Math.max(2, availableParallelism() - 1);

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { isMembershipError } from "../../../server/db/mechanisms";
 import { memberRoleField } from "~/utils/fields";
 import { httpError } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
@@ -16,7 +17,7 @@ export async function action(args: Route.ActionArgs) {
     const invitation = await inviteByEmail(args.context, args.request, user, mechanism, input.email, input.role);
     return Response.json({ id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt }, { status: 201 });
   } catch (error) {
-    if (error instanceof Error && error.name === "MembershipError") return httpError(400, error.message);
+    if (isMembershipError(error)) return httpError(400, error.message);
     throw error;
   }
 }

@@ -1,4 +1,4 @@
-import { httpError } from "~/utils/permissions.server";
+import { httpError } from "~/utils/http";
 
 export async function loader() {
   return httpError(404, "No such API endpoint. See /api for the list.");

@@ -1,3 +1,4 @@
+import { isMembershipError } from "../../../server/db/mechanisms";
 import { revokeViewLink } from "../../../server/db/view-links";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
@@ -9,7 +10,7 @@ export async function action(args: Route.ActionArgs) {
   try {
     await revokeViewLink(args.context.db, user.id, mechanism.id, args.params.linkId);
   } catch (error) {
-    if (error instanceof Error && error.name === "MembershipError") return httpError(404, error.message);
+    if (isMembershipError(error)) return httpError(404, error.message);
     throw error;
   }
   return new Response(null, { status: 204 });
