@@ -83,7 +83,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
             <nav className="flex gap-2">
               <Link to={`/m/${mechanism.id}/history`} className="btn">History</Link>
               <Link to={`/m/${mechanism.id}/members`} className="btn">Members</Link>
-              <Link to={`/m/${mechanism.id}/projector`} className="btn" title="A full-screen graph for a projector">Project</Link>
+              <Link to={`/m/${mechanism.id}/projector`} className="btn" title="A full-screen graph for a projector">Projector</Link>
             </nav>
           )}
         </div>
