@@ -96,7 +96,8 @@ describe("equivalent realizations by MILP", () => {
       }),
       { numRuns: 20 },
     );
-  });
+    // Twenty pairs of MILP searches: seconds on a quiet machine, far more on a loaded CI runner.
+  }, 120_000);
 
   it("gives up at the time limit", async () => {
     expect(await searchRealization(feinbergProblem(), "dense", { deadline: Date.now() - 1 })).toEqual({ status: "time-limit" });
