@@ -29,15 +29,16 @@ export interface AnalysisReport {
   odes: Record<string, string>;
   // ---- extras for the web UI
   odesLatex: Record<string, string>;
-  /** Rows species, columns reactions; empty when larger than `matrixEntryLimit` (see below). */
-  stoichiometricMatrix: number[][];
+  /**
+   * The stoichiometric matrix by columns: for each reaction its nonzero entries as
+   * [species index, coefficient]. Sparse, because every client of a room receives it on each
+   * structural change (see stoichiometry.ts for the dense table).
+   */
+  stoichiometry: [number, number][][];
   detailedBalance: DetailedBalance;
   customLaws: { reaction: number; law: string; lines: number[] }[];
   fixedSpecies: Record<string, number>;
 }
-
-/** A dense matrix beyond this many entries is useless on screen and heavy to send to every client. */
-export const matrixEntryLimit = 250_000;
 
 export async function analyzeSource(source: string): Promise<AnalysisReport> {
   const refusal = checkSourceLimits(source);
@@ -103,7 +104,10 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     theorems: { deficiencyZero: deficiencyZeroTheorem(facts), deficiencyOne: deficiencyOneTheorem(facts) },
     odes: odes.text,
     odesLatex: odes.latex,
-    stoichiometricMatrix: species.length * reactions.length <= matrixEntryLimit ? stoichiometricMatrix(network) : [],
+    stoichiometry: reactions.map((reaction) => {
+      const { indices, values } = reactionVector(network, reaction);
+      return indices.map((index, k): [number, number] => [index, values[k]]);
+    }),
     detailedBalance: detailedBalance(network, reversible),
     customLaws,
     fixedSpecies: mechanism.fixed,
@@ -130,13 +134,4 @@ function spanningForestVectors(network: Network, linkageClassOf: number[]): { ve
     forest.push({ vector: reactionVector(network, { from, to }), linkageClass: linkageClassOf[from] });
   }
   return forest;
-}
-
-function stoichiometricMatrix(network: Network): number[][] {
-  const matrix = network.species.map(() => new Array<number>(network.reactions.length).fill(0));
-  network.reactions.forEach((reaction, column) => {
-    const { indices, values } = reactionVector(network, reaction);
-    indices.forEach((species, k) => (matrix[species][column] = values[k]));
-  });
-  return matrix;
 }

@@ -5,6 +5,7 @@ import katex from "katex";
 import "katex/dist/katex.min.css";
 import { useMemo, type ReactNode } from "react";
 import type { AnalysisReport } from "~/chem/analysis";
+import { denseStoichiometricMatrix } from "~/chem/stoichiometry";
 import { combinationLatex } from "~/chem/expression";
 import type { TheoremVerdict } from "~/chem/theorems";
 
@@ -243,12 +244,20 @@ function ReactionList({ report }: { report: AnalysisReport }) {
   );
 }
 
+/** A bigger table is more scrolling than reading; the CSV export holds every entry. */
+const matrixTableEntryLimit = 20_000;
+
 function StoichiometricMatrix({ report }: { report: AnalysisReport }) {
-  const { stoichiometricMatrix: matrix, species, reactions } = report;
-  if (matrix.length === 0) {
+  const { species, reactions } = report;
+  const matrix = useMemo(
+    () => (species.length * reactions.length <= matrixTableEntryLimit ? denseStoichiometricMatrix(report) : null),
+    [report, species.length, reactions.length],
+  );
+  if (!matrix) {
     return (
       <p className="text-sm text-muted">
-        {species.length} × {reactions.length} is too large to show as a table; the rank and conservation laws above come from it.
+        {species.length} × {reactions.length} is too large to show as a table; download it as CSV under Files &amp; settings. The rank and
+        conservation laws above come from it.
       </p>
     );
   }

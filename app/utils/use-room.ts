@@ -4,7 +4,7 @@ import { useEffect, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
-import type { AnalysisReport } from "~/chem/analysis";
+import { roomAnalysisReader, type RoomAnalysis } from "~/utils/analysis-map";
 import type { Role } from "../../server/db/roles";
 
 export type RoomStatus = "connecting" | "online" | "offline";
@@ -18,18 +18,6 @@ export interface PeerUser {
 
 export interface Peer extends PeerUser {
   clientId: number;
-}
-
-/** The server-written `analysis` map (empty until its first recompute arrives). */
-export interface RoomAnalysis {
-  deficiency?: number;
-  rank?: number;
-  /** Counts; the lists themselves are in `report`. */
-  linkageClasses?: number;
-  species?: number;
-  errors?: number;
-  revision?: number;
-  report?: AnalysisReport;
 }
 
 export interface Room {
@@ -117,7 +105,8 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
       );
     const onClosed = () => setStatus("offline");
     const onSync = (state: boolean) => setSynced(state);
-    const onAnalysis = () => setAnalysis(analysisMap.toJSON() as RoomAnalysis);
+    const readAnalysis = roomAnalysisReader();
+    const onAnalysis = () => setAnalysis(readAnalysis(analysisMap));
 
     provider.on("status", onStatus);
     provider.on("closed", onClosed);

@@ -22,7 +22,8 @@ export function analysisEntries(report: AnalysisReport): { entries: Record<strin
     reactions: summary.reactions,
     weaklyReversible: report.weaklyReversible,
     errors: summary.errors,
-    report,
+    // As JSON text: see app/utils/analysis-map.ts.
+    report: JSON.stringify(report),
   };
   const entries = Object.fromEntries(Object.entries(values).map(([key, value]) => [key, JSON.stringify(value)]));
   return { entries, summary };

@@ -4,7 +4,7 @@
 // reload shows the last analysis; a restore puts back only the text, so they never get in its way.
 import { createHash } from "node:crypto";
 import * as Y from "yjs";
-import type { AnalysisReport } from "../../app/chem/analysis";
+import { roomAnalysisReader } from "../../app/utils/analysis-map";
 import { summarizeStructure, type StructureSummary } from "../../app/utils/version-diff";
 import type { AnalysisPool } from "./analysis-pool";
 
@@ -40,7 +40,7 @@ export class StructureRecompute {
     this.text = doc.getText("source");
     this.analysis = doc.getMap("analysis");
     for (const [key, value] of this.analysis.entries()) this.written.set(key, JSON.stringify(value));
-    const stored = this.analysis.get("report") as AnalysisReport | undefined;
+    const stored = roomAnalysisReader()(this.analysis).report;
     if (stored && !this.stale) {
       this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), revision: Number(this.analysis.get("revision")) || 0 };
     }
@@ -49,9 +49,9 @@ export class StructureRecompute {
     });
   }
 
-  /** True when the stored analysis belongs to a different text (or there is none). */
+  /** True when the stored analysis belongs to a different text, or there is none in today's form. */
   get stale(): boolean {
-    return this.analysis.get("digest") !== sourceDigest(this.text.toString());
+    return this.analysis.get("digest") !== sourceDigest(this.text.toString()) || typeof this.analysis.get("report") !== "string";
   }
 
   /**

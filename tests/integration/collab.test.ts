@@ -257,7 +257,8 @@ describe("live co-editing", () => {
     expect(viewerRoom.analysis.get("revision") as number).toBeGreaterThan(first);
     expect(viewerRoom.analysis.get("errors")).toBe(0);
     expect(viewerRoom.analysis.get("rank")).toBe(2);
-    const report = viewerRoom.analysis.get("report") as { complexes: string[] };
+    // The full report travels as JSON text (app/utils/analysis-map.ts).
+    const report = JSON.parse(viewerRoom.analysis.get("report") as string) as { complexes: string[] };
     expect(report.complexes).toContain("X + Y");
 
     // Only the server writes the analysis: an editor's write to it is put back.

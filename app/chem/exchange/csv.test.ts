@@ -19,8 +19,9 @@ describe("stoichiometric matrix CSV", () => {
     expect(csv.endsWith("\r\n")).toBe(true);
   });
 
-  it("refuses a report whose matrix was left out for size", async () => {
+  it("refuses a matrix too large for a spreadsheet", async () => {
     const report = await analyzeSource("A -> B @ 1\n");
-    expect(() => stoichiometricMatrixCsv({ ...report, stoichiometricMatrix: [] })).toThrow(/too large/);
+    const huge = { ...report, species: Array.from({ length: 2000 }, (_, i) => `S${i}`), reactions: Array(1001).fill(report.reactions[0]) };
+    expect(() => stoichiometricMatrixCsv(huge)).toThrow(/too large/);
   });
 });

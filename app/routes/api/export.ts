@@ -1,5 +1,5 @@
 // A mechanism as a file: SBML Level 3 Core, a LaTeX document, or its stoichiometric matrix as CSV.
-import { stoichiometricMatrixCsv } from "~/chem/exchange/csv";
+import { csvTooLarge, stoichiometricMatrixCsv } from "~/chem/exchange/csv";
 import { exportLatex } from "~/chem/exchange/latex";
 import { exportSbml } from "~/chem/exchange/sbml-export";
 import { parseMechanism } from "~/chem/parse";
@@ -27,9 +27,8 @@ export async function loader(args: Route.LoaderArgs) {
     body = exportSbml(parsed.mechanism, { title: mechanism.title });
   } else {
     const report = await analysisFor(args.context, mechanism.source);
-    if (format === "csv" && report.reactions.length > 0 && report.stoichiometricMatrix.length === 0) {
-      return httpError(413, `The stoichiometric matrix (${report.species.length} × ${report.reactions.length}) is too large to export as CSV.`);
-    }
+    const refusal = format === "csv" ? csvTooLarge(report) : null;
+    if (refusal) return httpError(413, refusal);
     body = format === "latex" ? exportLatex(parsed.mechanism, report, { title: mechanism.title }) : stoichiometricMatrixCsv(report);
   }
   const filename = `${mechanism.title.replace(/[^\w.-]+/g, "-").replace(/^-|-$/g, "") || mechanism.id}.${chosen.extension}`;
