@@ -41,15 +41,15 @@ export interface AnalysisReport {
 }
 
 export async function analyzeSource(source: string): Promise<AnalysisReport> {
+  return analyzeMechanism(parseForAnalysis(source));
+}
+
+/** The parse the report is computed from; a text over the size limits parses to that one error. */
+export function parseForAnalysis(source: string): ParseResult {
   const refusal = checkSourceLimits(source);
-  if (refusal) {
-    const diagnostic: Diagnostic = { severity: "error", line: 1, column: 1, message: refusal, from: 0, to: 0 };
-    return analyzeMechanism({
-      mechanism: { steps: [], species: [], fixed: {}, parameters: {}, initial: {} },
-      diagnostics: [diagnostic],
-    });
-  }
-  return analyzeMechanism(parseMechanism(source));
+  if (!refusal) return parseMechanism(source);
+  const diagnostic: Diagnostic = { severity: "error", line: 1, column: 1, message: refusal, from: 0, to: 0 };
+  return { mechanism: { steps: [], species: [], fixed: {}, parameters: {}, initial: {} }, diagnostics: [diagnostic] };
 }
 
 export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult): Promise<AnalysisReport> {

@@ -1,14 +1,31 @@
 // Worker-thread entry: analyses mechanism texts for the rooms, off the server's event loop, and
 // returns each analysis-map value already serialised (so the room compares strings, not trees).
 import { parentPort } from "node:worker_threads";
-import { analyzeSource } from "../../app/chem/analysis";
+import { analyzeMechanism, parseForAnalysis } from "../../app/chem/analysis";
 import { analysisEntries, type AnalysisRequest, type AnalysisResponse } from "./analysis-entries";
+
+/**
+ * The report depends on the parse alone, and most keystrokes (in a comment, in spacing, in a
+ * name being typed back) give a parse seen a moment ago: those are answered from this cache.
+ */
+const recent = new Map<string, ReturnType<typeof analysisEntries>>();
+const RECENT_PARSES = 8;
+
+async function entriesFor(source: string) {
+  const parsed = parseForAnalysis(source);
+  const key = JSON.stringify(parsed);
+  let entries = recent.get(key);
+  if (entries) recent.delete(key);
+  else entries = analysisEntries(await analyzeMechanism(parsed));
+  recent.set(key, entries);
+  if (recent.size > RECENT_PARSES) recent.delete(recent.keys().next().value!);
+  return entries;
+}
 
 parentPort?.on("message", async ({ id, source }: AnalysisRequest) => {
   let response: AnalysisResponse;
   try {
-    const report = await analyzeSource(source);
-    response = { id, ...analysisEntries(report) };
+    response = { id, ...(await entriesFor(source)) };
   } catch (error) {
     response = { id, failure: (error as Error).stack ?? String(error) };
   }

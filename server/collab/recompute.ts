@@ -7,6 +7,7 @@ import * as Y from "yjs";
 import { roomAnalysisReader } from "../../app/utils/analysis-map";
 import { summarizeStructure, type StructureSummary } from "../../app/utils/version-diff";
 import type { AnalysisPool } from "./analysis-pool";
+import { Pacer } from "./pacer";
 
 /** The transaction origin of the server's own writes into the document. */
 export const analysisOrigin = Symbol("mechweave-analysis");
@@ -22,7 +23,7 @@ export function sourceDigest(source: string): string {
 }
 
 export class StructureRecompute {
-  private timer: NodeJS.Timeout | null = null;
+  private readonly pacer: Pacer;
   private running: Promise<void> = Promise.resolve();
   private disposed = false;
   private readonly text: Y.Text;
@@ -35,8 +36,12 @@ export class StructureRecompute {
   constructor(
     private readonly doc: Y.Doc,
     private readonly pool: AnalysisPool,
-    private readonly options: { delayMs: number; analyzed(result: AnalysisResult): void },
+    private readonly options: { intervalMs: number; analyzed(result: AnalysisResult): void },
   ) {
+    this.pacer = new Pacer(
+      () => Math.max(options.intervalMs, 2 * this.lastDurationMs),
+      () => void this.enqueue(false),
+    );
     this.text = doc.getText("source");
     this.analysis = doc.getMap("analysis");
     for (const [key, value] of this.analysis.entries()) this.written.set(key, JSON.stringify(value));
@@ -55,28 +60,23 @@ export class StructureRecompute {
   }
 
   /**
-   * At most one recompute per window, so steady typing still sees fresh results. The window is
-   * never shorter than the last analysis took: a large network keeps a worker busy at most half
-   * the time instead of queueing analyses of texts that are already outdated.
+   * At most one recompute per interval, so steady typing still sees fresh results, and none
+   * waiting when the room was quiet. The interval is never shorter than twice the last analysis:
+   * a large network keeps a worker busy at most half the time instead of queueing analyses of
+   * texts that are already outdated.
    */
   schedule() {
-    if (this.timer || this.disposed) return;
-    this.timer = setTimeout(() => {
-      this.timer = null;
-      this.enqueue(false);
-    }, Math.max(this.options.delayMs, this.lastDurationMs));
+    if (!this.disposed) this.pacer.request();
   }
 
-  /** Runs a pending recompute now and resolves when the analysis matches the current text. */
+  /** Runs a recompute now and resolves when the analysis matches the current text. */
   async flush(): Promise<void> {
-    if (this.timer) clearTimeout(this.timer);
-    this.timer = null;
     await this.enqueue(false);
   }
 
   dispose() {
     this.disposed = true;
-    if (this.timer) clearTimeout(this.timer);
+    this.pacer.dispose();
   }
 
   /** Rewrites keys a client changed, with the server's values. */

@@ -8,6 +8,7 @@ import { findMechanism } from "../db/mechanisms";
 import { closeCodes, type Connection } from "./connection";
 import { appendUpdates, compactDocument, loadDocument, UpdateLog, type LoggedUpdate } from "./persistence";
 import { vetAwarenessUpdate } from "./presence";
+import { Pacer } from "./pacer";
 import { awarenessMessage, syncStep1Message, updateMessage } from "./protocol";
 import type { AnalysisPool } from "./analysis-pool";
 import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recompute";
@@ -16,7 +17,7 @@ import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
 
 export interface RoomTimings {
-  /** Window of the structure recompute after a change. */
+  /** Shortest interval between two structure recomputes (the first after a quiet spell runs at once). */
   recomputeMs: number;
   /** Quiet period before a changed structure becomes an automatic snapshot. */
   snapshotQuietMs: number;
@@ -34,6 +35,10 @@ export class ServiceEdit {
 /** Applying stored updates while loading: nothing to log or relay. */
 const loadOrigin = Symbol("mechweave-load");
 
+/** Shortest time between two relays of document updates, and of presence, to a room. */
+const UPDATE_RELAY_MS = 16;
+const AWARENESS_RELAY_MS = 40;
+
 type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin;
 
 export class Room {
@@ -42,6 +47,13 @@ export class Room {
   /** API calls in progress; a leased room is not unloaded. */
   leases = 0;
   private readonly awarenessOwners = new Map<number, Connection>();
+  /** Committed updates not yet relayed, and awareness clients changed since the last relay. */
+  private readonly outgoing: LoggedUpdate<UpdateOrigin>[] = [];
+  private readonly awarenessChanged = new Set<number>();
+  // A class joining (and so renewing its presence) at once, or twenty editors typing, then cost
+  // each member a message per interval instead of one per change.
+  private readonly updatePacer = new Pacer(UPDATE_RELAY_MS, () => this.relayUpdates());
+  private readonly awarenessPacer = new Pacer(AWARENESS_RELAY_MS, () => this.relayAwareness());
   private readonly text: Y.Text;
   private readonly log: UpdateLog<UpdateOrigin>;
   private readonly recompute: StructureRecompute;
@@ -78,11 +90,11 @@ export class Room {
     this.text = doc.getText("source");
     this.awareness = new awarenessProtocol.Awareness(doc);
     this.awareness.setLocalState(null);
-    this.awareness.on("update", this.relayAwareness);
+    this.awareness.on("update", this.collectAwareness);
     this.log = new UpdateLog(db, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
     this.mirror = new SourceMirror(db, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
     this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
-    this.recompute = new StructureRecompute(doc, pool, { delayMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
+    this.recompute = new StructureRecompute(doc, pool, { intervalMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
     doc.on("update", (update: Uint8Array, origin: UpdateOrigin) => {
       if (origin === loadOrigin) return;
       if (origin instanceof ServiceEdit) this.lastEditorId = origin.userId;
@@ -199,6 +211,7 @@ export class Room {
   async close() {
     if (this.closed) return;
     this.closed = true;
+    this.stopRelays();
     for (const connection of this.connections) connection.close(closeCodes.goingAway, "room closing");
     try {
       await this.recompute.flush();
@@ -218,6 +231,7 @@ export class Room {
   abandon() {
     if (this.closed) return;
     this.closed = true;
+    this.stopRelays();
     for (const connection of this.connections) connection.close(closeCodes.mechanismGone, "mechanism deleted");
     this.recompute.dispose();
     this.snapshots.dispose();
@@ -226,15 +240,23 @@ export class Room {
   }
 
   private relayCommitted(batch: LoggedUpdate<UpdateOrigin>[]) {
+    this.outgoing.push(...batch);
+    this.updatePacer.request();
+    if (this.log.appendedSinceCompaction >= this.timings.compactEvery) {
+      this.log.appendedSinceCompaction = 0;
+      void this.compact();
+    }
+  }
+
+  /** Everything committed since the last relay, as one message (not back to a lone author). */
+  private relayUpdates() {
+    const batch = this.outgoing.splice(0);
+    if (batch.length === 0) return;
     const origins = new Set(batch.map((entry) => entry.origin));
     const sender = origins.size === 1 ? batch[0].origin : null;
     const update = batch.length === 1 ? batch[0].update : Y.mergeUpdates(batch.map((entry) => entry.update));
     const message = updateMessage(update);
     for (const connection of this.connections) if (connection !== sender) connection.send(message);
-    if (this.log.appendedSinceCompaction >= this.timings.compactEvery) {
-      this.log.appendedSinceCompaction = 0;
-      void this.compact();
-    }
   }
 
   /** Merges the log into the stored state; a failure leaves the log as it was (nothing lost). */
@@ -246,12 +268,23 @@ export class Room {
     }
   }
 
-  private readonly relayAwareness = (changes: { added: number[]; updated: number[]; removed: number[] }) => {
-    const clients = [...changes.added, ...changes.updated, ...changes.removed];
+  private readonly collectAwareness = (changes: { added: number[]; updated: number[]; removed: number[] }) => {
+    for (const clientId of [...changes.added, ...changes.updated, ...changes.removed]) this.awarenessChanged.add(clientId);
+    if (this.awarenessChanged.size > 0) this.awarenessPacer.request();
+  };
+
+  private relayAwareness() {
+    const clients = [...this.awarenessChanged];
+    this.awarenessChanged.clear();
     if (clients.length === 0) return;
     const message = awarenessMessage(awarenessProtocol.encodeAwarenessUpdate(this.awareness, clients));
     for (const connection of this.connections) connection.send(message);
-  };
+  }
+
+  private stopRelays() {
+    this.updatePacer.dispose();
+    this.awarenessPacer.dispose();
+  }
 
   private analyzed(result: AnalysisResult) {
     this.snapshots.observe(result.summary);

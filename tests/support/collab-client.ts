@@ -1,13 +1,18 @@
 // Real y-websocket clients (the same provider the browser uses) against a test server, signed in
-// by cookie; plus a raw socket for messages no honest client would send.
+// by cookie; a bare protocol client that only follows the room; and a raw socket for messages no
+// honest client would send.
+import * as decoding from "lib0/decoding";
+import * as encoding from "lib0/encoding";
 import pg from "pg";
 import WebSocket from "ws";
+import * as awarenessProtocol from "y-protocols/awareness";
+import * as syncProtocol from "y-protocols/sync";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
 
-export interface RoomClient {
+/** A member's live copy of the room. */
+export interface RoomReplica {
   doc: Y.Doc;
-  provider: WebsocketProvider;
   text: Y.Text;
   analysis: Y.Map<unknown>;
   /** Resolves once the server's state has arrived. */
@@ -15,23 +20,31 @@ export interface RoomClient {
   close(): void;
 }
 
+export interface RoomClient extends RoomReplica {
+  provider: WebsocketProvider;
+}
+
 export function collabUrl(baseUrl: string): string {
   return `${baseUrl.replace(/^http/, "ws")}/collab`;
 }
 
-/** `ws` with the Cookie header the browser would send. */
-function socketWithCookie(cookie: string) {
+/**
+ * `ws` with the Cookie header the browser would send; `onMessage` sees each incoming message
+ * before the provider handles it.
+ */
+function socketWithCookie(cookie: string, onMessage?: (data: Buffer) => void) {
   return class extends WebSocket {
     constructor(url: string | URL, protocols?: string | string[]) {
       super(url, protocols, { headers: cookie ? { Cookie: cookie } : {} });
+      if (onMessage) this.on("message", (data: Buffer | ArrayBuffer) => onMessage(Buffer.isBuffer(data) ? data : Buffer.from(data)));
     }
   };
 }
 
-export function joinRoom(baseUrl: string, mechanismId: string, cookie: string): RoomClient {
+export function joinRoom(baseUrl: string, mechanismId: string, cookie: string, options: { onMessage?: (data: Buffer) => void } = {}): RoomClient {
   const doc = new Y.Doc();
   const provider = new WebsocketProvider(collabUrl(baseUrl), mechanismId, doc, {
-    WebSocketPolyfill: socketWithCookie(cookie) as unknown as typeof globalThis.WebSocket,
+    WebSocketPolyfill: socketWithCookie(cookie, options.onMessage) as unknown as typeof globalThis.WebSocket,
     disableBc: true,
     maxBackoffTime: 300,
   });
@@ -47,6 +60,63 @@ export function joinRoom(baseUrl: string, mechanismId: string, cookie: string): 
     synced,
     close() {
       provider.destroy();
+      doc.destroy();
+    },
+  };
+}
+
+const MESSAGE_SYNC = 0;
+const MESSAGE_AWARENESS = 1;
+
+/**
+ * A member who only follows the room: the Yjs sync and awareness protocols over one socket,
+ * applied to a Y.Doc, without the provider's reconnecting and change broadcasting. A benchmark
+ * hosting a hundred viewers on the server's own cores uses these, so that work which real
+ * viewers do on their own machines weighs as little as the protocol allows.
+ */
+export function followRoom(baseUrl: string, mechanismId: string, cookie: string, options: { onMessage?: (data: Buffer) => void } = {}): RoomReplica {
+  const doc = new Y.Doc();
+  const awareness = new awarenessProtocol.Awareness(doc);
+  const socket = new WebSocket(`${collabUrl(baseUrl)}/${mechanismId}`, { headers: cookie ? { Cookie: cookie } : {} });
+  socket.binaryType = "nodebuffer";
+  const send = (write: (encoder: encoding.Encoder) => void) => {
+    const encoder = encoding.createEncoder();
+    write(encoder);
+    if (socket.readyState === socket.OPEN) socket.send(encoding.toUint8Array(encoder));
+  };
+  let markSynced = () => {};
+  const synced = new Promise<void>((resolve) => (markSynced = resolve));
+  socket.on("open", () => {
+    send((encoder) => {
+      encoding.writeVarUint(encoder, MESSAGE_SYNC);
+      syncProtocol.writeSyncStep1(encoder, doc);
+    });
+    send((encoder) => {
+      encoding.writeVarUint(encoder, MESSAGE_AWARENESS);
+      encoding.writeVarUint8Array(encoder, awarenessProtocol.encodeAwarenessUpdate(awareness, [doc.clientID]));
+    });
+  });
+  socket.on("message", (data: Buffer) => {
+    options.onMessage?.(data);
+    const decoder = decoding.createDecoder(data);
+    const type = decoding.readVarUint(decoder);
+    if (type === MESSAGE_AWARENESS) {
+      awarenessProtocol.applyAwarenessUpdate(awareness, decoding.readVarUint8Array(decoder), socket);
+    } else if (type === MESSAGE_SYNC) {
+      const reply = encoding.createEncoder();
+      encoding.writeVarUint(reply, MESSAGE_SYNC);
+      if (syncProtocol.readSyncMessage(decoder, reply, doc, socket) === syncProtocol.messageYjsSyncStep2) markSynced();
+      if (encoding.length(reply) > 1 && socket.readyState === socket.OPEN) socket.send(encoding.toUint8Array(reply));
+    }
+  });
+  return {
+    doc,
+    text: doc.getText("source"),
+    analysis: doc.getMap("analysis"),
+    synced,
+    close() {
+      awareness.destroy();
+      socket.close();
       doc.destroy();
     },
   };
