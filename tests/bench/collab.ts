@@ -283,7 +283,7 @@ async function run(baseUrl: string) {
   // The room at a steady pace (each editor 2 keystrokes a second), then as a typing storm (5 a second).
   for (const [perSecond, keystrokes] of [[2, 30], [5, 60]]) {
     const title = `20 editors (all typing, ~${20 * perSecond} keystrokes/s in all) and 100 viewers`;
-    await measure(baseUrl, id, { title, editors, viewers, processes: 4, typists: 20, keystrokes, periodMs: 1000 / perSecond, structuralEdits: 15 }, editCounter);
+    await measure(baseUrl, id, { title, editors, viewers, processes: 2, typists: 20, keystrokes, periodMs: 1000 / perSecond, structuralEdits: 15 }, editCounter);
   }
   console.log(`Load average at the end: ${os.loadavg()[0].toFixed(1)}.`);
 }
