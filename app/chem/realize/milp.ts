@@ -126,7 +126,12 @@ function solveColumn(
     primal_feasibility_tolerance: TOLERANCE,
   };
   const scaled = target.map((t) => Q.toNumber(t) / scale);
-  const solution = highs.solve(columnModel(candidates, scaled, objective), options);
+  const model = columnModel(candidates, scaled, objective);
+  let solution = highs.solve(model, options);
+  // HiGHS's MIP presolve has called a feasible column infeasible (a dense search out of a complex
+  // whose target is zero, where no reaction at all is a solution): that verdict is confirmed
+  // without presolve.
+  if (solution.Status === "Infeasible") solution = highs.solve(model, { ...options, presolve: "off" });
   if (solution.Status === "Infeasible") return "infeasible";
   const values = candidates.map((_, k) => solution.Columns[`a${k}`]?.Primal);
   if (values.some((v) => typeof v !== "number")) return solution.Status === "Time limit reached" ? "time-limit" : "infeasible";
