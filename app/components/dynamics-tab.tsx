@@ -9,6 +9,7 @@ import type { EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { SweepResult } from "~/chem/kinetics/sweep";
+import { mechanismNames } from "~/editor/complete";
 import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
 import { JobStatus } from "./dynamics/job-status";
@@ -242,7 +243,9 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
   const [points, setPoints] = useState(20);
   const [scale, setScale] = useState<"linear" | "log">("log");
   const [observable, setObservable] = useState<"final" | "max" | "period">("final");
-  const targets = [...species.map((s) => `initial:${s}`)];
+  // Rate coefficient names are not in the report; they are read off the text when the picker opens.
+  const [parameters, setParameters] = useState<string[]>([]);
+  const targets = [...species.map((s) => `initial:${s}`), ...parameters.map((name) => `parameter:${name}`)];
   const chosenTarget = target || targets[0] || "";
   const chosenSpecies = observed || species[0] || "";
 
@@ -262,7 +265,7 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
       <div className="mt-2 flex flex-wrap items-end gap-3 text-sm">
         <label>
           <span className="label">Vary</span>
-          <input className="field w-44 py-1.5" list="sweep-targets" value={chosenTarget} onChange={(e) => setTarget(e.target.value)} placeholder="initial:S or parameter:k1" />
+          <input className="field w-44 py-1.5" list="sweep-targets" value={chosenTarget} onChange={(e) => setTarget(e.target.value)} onFocus={() => setParameters(mechanismNames(text()).parameters)} placeholder="initial:S or parameter:k1" />
           <datalist id="sweep-targets">{targets.map((t) => <option key={t} value={t} />)}</datalist>
         </label>
         <NumberField label="From" value={from} onChange={setFrom} />
