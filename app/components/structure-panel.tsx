@@ -249,10 +249,7 @@ const matrixTableEntryLimit = 20_000;
 
 function StoichiometricMatrix({ report }: { report: AnalysisReport }) {
   const { species, reactions } = report;
-  const matrix = useMemo(
-    () => (species.length * reactions.length <= matrixTableEntryLimit ? denseStoichiometricMatrix(report) : null),
-    [report, species.length, reactions.length],
-  );
+  const matrix = useMemo(() => (species.length * reactions.length <= matrixTableEntryLimit ? denseStoichiometricMatrix(report) : null), [report]);
   if (!matrix) {
     return (
       <p className="text-sm text-muted">

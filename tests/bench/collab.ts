@@ -196,15 +196,22 @@ interface Scenario {
   structuralEdits: number;
 }
 
+/** What the benchmark's room has been through: runs (a token prefix each), structural edits, species. */
+interface RoomProgress {
+  runs: number;
+  edits: number;
+  species: number;
+}
+
 /** Typing at the scenario's pace with structural edits between; the measured samples. */
-async function phase(hosts: ClientHost[], scenario: Scenario, keystrokes: number, structuralEdits: number, editCounter: { n: number; species: number }) {
+async function phase(hosts: ClientHost[], scenario: Scenario, keystrokes: number, structuralEdits: number, room: RoomProgress) {
   const perHost = Math.ceil(scenario.typists / hosts.length);
   hosts.forEach((host) => host.send({ type: "type", typists: perHost, count: keystrokes, periodMs: scenario.periodMs }));
   await sleep(500);
   const structure: number[] = [];
   for (let i = 0; i < structuralEdits; i++) {
-    const n = editCounter.n++;
-    const expected = ++editCounter.species;
+    const n = room.edits++;
+    const expected = ++room.species;
     for (const host of hosts) host.send({ type: "watch", n, expected });
     hosts[i % hosts.length].send({ type: "edit", n });
     const { at: editedAt } = await hosts[i % hosts.length].next("edited");
@@ -217,23 +224,23 @@ async function phase(hosts: ClientHost[], scenario: Scenario, keystrokes: number
   return { sent, structure };
 }
 
-async function measure(baseUrl: string, id: string, scenario: Scenario, editCounter: { n: number; species: number }) {
+async function measure(baseUrl: string, id: string, scenario: Scenario, room: RoomProgress) {
   const people = [...scenario.editors.map((c) => ({ cookie: c.cookieHeader, editor: true })), ...scenario.viewers.map((c) => ({ cookie: c.cookieHeader, editor: false }))];
   const hosts = Array.from({ length: scenario.processes }, () => new ClientHost());
   // Round robin: every process gets editors and viewers alike.
-  hosts.forEach((host, tag) => host.send({ type: "join", baseUrl, id, run: editCounter.n, tag, people: people.filter((_, i) => i % hosts.length === tag) }));
+  hosts.forEach((host, tag) => host.send({ type: "join", baseUrl, id, run: room.runs++, tag, people: people.filter((_, i) => i % hosts.length === tag) }));
   const joined = await Promise.all(hosts.map((h) => h.next("joined")));
   progress(`${scenario.title}: ${people.length} clients joined`);
-  editCounter.species = Math.max(...joined.map((j) => j.species));
+  room.species = Math.max(...joined.map((j) => j.species));
 
   // Warm-up (common practice, no source): the first second of a room's typing and its first
   // structural edit also pay for compiling code paths, in the server and in every client.
-  await phase(hosts, scenario, Math.ceil(1000 / scenario.periodMs), 1, editCounter);
+  await phase(hosts, scenario, Math.ceil(1000 / scenario.periodMs), 1, room);
   for (const host of hosts) host.send({ type: "reset" });
   await Promise.all(hosts.map((h) => h.next("reset")));
 
   const started = { wall: performance.now(), server: serverCpuMs() };
-  const { sent, structure } = await phase(hosts, scenario, scenario.keystrokes, scenario.structuralEdits, editCounter);
+  const { sent, structure } = await phase(hosts, scenario, scenario.keystrokes, scenario.structuralEdits, room);
   for (const host of hosts) host.send({ type: "collect" });
   const collected = await Promise.all(hosts.map((h) => h.next("received")));
   const wallMs = performance.now() - started.wall;
@@ -275,15 +282,15 @@ async function run(baseUrl: string) {
   const created = await owner.json("/api/v1/mechanisms", "POST", { title: "Bench", source: `${source}${TYPING_LINE}` });
   const { id } = (await created.json()) as { id: string };
   console.log(`Collaboration on loopback: a ${source.trim().split("\n").length}-step mechanism; ${os.cpus().length} cores, load average ${os.loadavg()[0].toFixed(1)} at the start.`);
-  const editCounter = { n: 0, species: 0 };
+  const roomProgress: RoomProgress = { runs: 0, edits: 0, species: 0 };
   const editors = [owner, ...(await people(baseUrl, owner, id, 19, "editor"))];
   const viewers = await people(baseUrl, owner, id, 100, "viewer");
   progress("accounts ready");
-  await measure(baseUrl, id, { title: "Two editors, one typing ~65 keystrokes/s", editors: editors.slice(0, 2), viewers: [], processes: 1, typists: 1, keystrokes: 400, periodMs: 15, structuralEdits: 20 }, editCounter);
+  await measure(baseUrl, id, { title: "Two editors, one typing ~65 keystrokes/s", editors: editors.slice(0, 2), viewers: [], processes: 1, typists: 1, keystrokes: 400, periodMs: 15, structuralEdits: 20 }, roomProgress);
   // The room at a steady pace (each editor 2 keystrokes a second), then as a typing storm (5 a second).
   for (const [perSecond, keystrokes] of [[2, 30], [5, 60]]) {
     const title = `20 editors (all typing, ~${20 * perSecond} keystrokes/s in all) and 100 viewers`;
-    await measure(baseUrl, id, { title, editors, viewers, processes: 2, typists: 20, keystrokes, periodMs: 1000 / perSecond, structuralEdits: 15 }, editCounter);
+    await measure(baseUrl, id, { title, editors, viewers, processes: 2, typists: 20, keystrokes, periodMs: 1000 / perSecond, structuralEdits: 15 }, roomProgress);
   }
   console.log(`Load average at the end: ${os.loadavg()[0].toFixed(1)}.`);
 }
