@@ -228,7 +228,8 @@ async function measure(baseUrl: string, id: string, scenario: Scenario, room: Ro
   const people = [...scenario.editors.map((c) => ({ cookie: c.cookieHeader, editor: true })), ...scenario.viewers.map((c) => ({ cookie: c.cookieHeader, editor: false }))];
   const hosts = Array.from({ length: scenario.processes }, () => new ClientHost());
   // Round robin: every process gets editors and viewers alike.
-  hosts.forEach((host, tag) => host.send({ type: "join", baseUrl, id, run: room.runs++, tag, people: people.filter((_, i) => i % hosts.length === tag) }));
+  const run = room.runs++;
+  hosts.forEach((host, tag) => host.send({ type: "join", baseUrl, id, run, tag, people: people.filter((_, i) => i % hosts.length === tag) }));
   const joined = await Promise.all(hosts.map((h) => h.next("joined")));
   progress(`${scenario.title}: ${people.length} clients joined`);
   room.species = Math.max(...joined.map((j) => j.species));
