@@ -35,8 +35,15 @@ export class ServiceEdit {
 /** Applying stored updates while loading: nothing to log or relay. */
 const loadOrigin = Symbol("mechweave-load");
 
-/** Shortest time between two relays of document updates, and of presence, to a room. */
-const UPDATE_RELAY_MS = 16;
+/**
+ * Relays of document updates are paced by what they cost: the interval is a few times the last
+ * relay's sending time, and at most 16 ms. Sending to a pair of editors takes microseconds, so
+ * their keystrokes go out at once; a class of 120 takes a few milliseconds a relay, so its
+ * typists share a relay every ten or so and sending keeps to a fraction of the event loop.
+ */
+const RELAY_COST_FACTOR = 4;
+const MAX_UPDATE_RELAY_MS = 16;
+/** Shortest time between two relays of presence to a room. */
 const AWARENESS_RELAY_MS = 40;
 
 type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin;
@@ -52,7 +59,11 @@ export class Room {
   private readonly awarenessChanged = new Set<number>();
   // A class joining (and so renewing its presence) at once, or twenty editors typing, then cost
   // each member a message per interval instead of one per change.
-  private readonly updatePacer = new Pacer(UPDATE_RELAY_MS, () => this.relayUpdates());
+  private readonly updatePacer = new Pacer(
+    () => Math.min(MAX_UPDATE_RELAY_MS, RELAY_COST_FACTOR * this.lastRelayMs),
+    () => this.relayUpdates(),
+  );
+  private lastRelayMs = 0;
   private readonly awarenessPacer = new Pacer(AWARENESS_RELAY_MS, () => this.relayAwareness());
   private readonly text: Y.Text;
   private readonly log: UpdateLog<UpdateOrigin>;
@@ -60,6 +71,7 @@ export class Room {
   private readonly snapshots: AutoSnapshotPolicy;
   private readonly mirror: SourceMirror;
   private lastEditorId: string | null = null;
+  private compacting: Promise<void> | null = null;
   private closed = false;
 
   static async load(db: Db, pool: AnalysisPool, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
@@ -255,17 +267,21 @@ export class Room {
     const origins = new Set(batch.map((entry) => entry.origin));
     const sender = origins.size === 1 ? batch[0].origin : null;
     const update = batch.length === 1 ? batch[0].update : Y.mergeUpdates(batch.map((entry) => entry.update));
+    const started = performance.now();
     const message = updateMessage(update);
     for (const connection of this.connections) if (connection !== sender) connection.send(message);
+    this.lastRelayMs = performance.now() - started;
   }
 
   /** Merges the log into the stored state; a failure leaves the log as it was (nothing lost). */
-  private async compact() {
-    try {
-      await this.log.exclusive(() => compactDocument(this.db, this.mechanismId));
-    } catch (error) {
-      console.error(`[collab] compacting ${this.mechanismId} failed: ${(error as Error).message}`);
-    }
+  private compact(): Promise<void> {
+    this.compacting ??= compactDocument(this.db, this.mechanismId, () => Y.encodeStateAsUpdate(this.doc))
+      .then(
+        () => undefined,
+        (error: Error) => console.error(`[collab] compacting ${this.mechanismId} failed: ${error.message}`),
+      )
+      .finally(() => (this.compacting = null));
+    return this.compacting;
   }
 
   private readonly collectAwareness = (changes: { added: number[]; updated: number[]; removed: number[] }) => {

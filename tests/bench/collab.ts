@@ -68,12 +68,15 @@ async function clientProcess() {
     if (command.type === "join") {
       // Tokens of earlier runs come with the first sync: only this run's count.
       const run = `${command.run}s`;
+      // A native search first: most messages (presence, the structure report) hold no keystroke.
+      const marker = `k${run}`;
       rooms = command.people.map((person, index) => {
         const author = `${run}${command.tag * 1000 + index}x`;
         const seen = new Set<string>();
         // Keystrokes are read off the raw message, which is far cheaper than a text delta per
         // client, and stamped in a microtask: after the provider has applied the message.
         const onMessage = (data: Buffer) => {
+          if (!data.includes(marker)) return;
           const tokens = [...data.toString("latin1").matchAll(TOKEN)].map((match) => match[1]).filter((token) => token.startsWith(run) && !token.startsWith(author) && !seen.has(token));
           if (tokens.length === 0) return;
           for (const token of tokens) seen.add(token);
@@ -189,7 +192,9 @@ interface Scenario {
   title: string;
   editors: Client[];
   viewers: Client[];
-  processes: number;
+  /** Client processes hosting the editors, and those hosting the viewers. */
+  editorProcesses: number;
+  viewerProcesses: number;
   typists: number;
   keystrokes: number;
   periodMs: number;
@@ -205,31 +210,38 @@ interface RoomProgress {
 
 /** Typing at the scenario's pace with structural edits between; the measured samples. */
 async function phase(hosts: ClientHost[], scenario: Scenario, keystrokes: number, structuralEdits: number, room: RoomProgress) {
-  const perHost = Math.ceil(scenario.typists / hosts.length);
-  hosts.forEach((host) => host.send({ type: "type", typists: perHost, count: keystrokes, periodMs: scenario.periodMs }));
+  const editorHosts = hosts.slice(0, scenario.editorProcesses);
+  const perHost = Math.ceil(scenario.typists / editorHosts.length);
+  editorHosts.forEach((host) => host.send({ type: "type", typists: perHost, count: keystrokes, periodMs: scenario.periodMs }));
   await sleep(500);
   const structure: number[] = [];
   for (let i = 0; i < structuralEdits; i++) {
     const n = room.edits++;
     const expected = ++room.species;
     for (const host of hosts) host.send({ type: "watch", n, expected });
-    hosts[i % hosts.length].send({ type: "edit", n });
-    const { at: editedAt } = await hosts[i % hosts.length].next("edited");
+    const editing = editorHosts[i % editorHosts.length];
+    editing.send({ type: "edit", n });
+    const { at: editedAt } = await editing.next("edited");
     const delays = (await Promise.all(hosts.map((h) => h.next("seen")))).flatMap((seen) => seen.at.map((at) => (at === null ? STRUCTURE_TIMEOUT_MS : at - editedAt)));
     progress(`structural edit ${n}: slowest client ${Math.max(...delays).toFixed(0)} ms`);
     structure.push(...delays);
     await sleep(300);
   }
-  const sent = new Map((await Promise.all(hosts.map((h) => h.next("typed")))).flatMap((t) => t.sent));
+  const sent = new Map((await Promise.all(editorHosts.map((h) => h.next("typed")))).flatMap((t) => t.sent));
   return { sent, structure };
 }
 
 async function measure(baseUrl: string, id: string, scenario: Scenario, room: RoomProgress) {
-  const people = [...scenario.editors.map((c) => ({ cookie: c.cookieHeader, editor: true })), ...scenario.viewers.map((c) => ({ cookie: c.cookieHeader, editor: false }))];
-  const hosts = Array.from({ length: scenario.processes }, () => new ClientHost());
-  // Round robin: every process gets editors and viewers alike.
+  const editors = scenario.editors.map((c) => ({ cookie: c.cookieHeader, editor: true }));
+  const viewers = scenario.viewers.map((c) => ({ cookie: c.cookieHeader, editor: false }));
+  const people = [...editors, ...viewers];
+  // Editors and viewers in processes of their own (as each would be on a machine of their own):
+  // a keystroke reaching an editor does not queue behind fifty viewers applying it first.
+  const spread = <T,>(members: T[], processes: number) => Array.from({ length: processes }, (_, p) => members.filter((_, i) => i % processes === p));
+  const groups = [...spread(editors, scenario.editorProcesses), ...spread(viewers, scenario.viewerProcesses)];
+  const hosts = groups.map(() => new ClientHost());
   const run = room.runs++;
-  hosts.forEach((host, tag) => host.send({ type: "join", baseUrl, id, run, tag, people: people.filter((_, i) => i % hosts.length === tag) }));
+  hosts.forEach((host, tag) => host.send({ type: "join", baseUrl, id, run, tag, people: groups[tag] }));
   const joined = await Promise.all(hosts.map((h) => h.next("joined")));
   progress(`${scenario.title}: ${people.length} clients joined`);
   room.species = Math.max(...joined.map((j) => j.species));
@@ -287,11 +299,11 @@ async function run(baseUrl: string) {
   const editors = [owner, ...(await people(baseUrl, owner, id, 19, "editor"))];
   const viewers = await people(baseUrl, owner, id, 100, "viewer");
   progress("accounts ready");
-  await measure(baseUrl, id, { title: "Two editors, one typing ~65 keystrokes/s", editors: editors.slice(0, 2), viewers: [], processes: 1, typists: 1, keystrokes: 400, periodMs: 15, structuralEdits: 20 }, roomProgress);
+  await measure(baseUrl, id, { title: "Two editors, one typing ~65 keystrokes/s", editors: editors.slice(0, 2), viewers: [], editorProcesses: 1, viewerProcesses: 0, typists: 1, keystrokes: 400, periodMs: 15, structuralEdits: 20 }, roomProgress);
   // The room at a steady pace (each editor 2 keystrokes a second), then as a typing storm (5 a second).
   for (const [perSecond, keystrokes] of [[2, 30], [5, 60]]) {
     const title = `20 editors (all typing, ~${20 * perSecond} keystrokes/s in all) and 100 viewers`;
-    await measure(baseUrl, id, { title, editors, viewers, processes: 2, typists: 20, keystrokes, periodMs: 1000 / perSecond, structuralEdits: 15 }, roomProgress);
+    await measure(baseUrl, id, { title, editors, viewers, editorProcesses: 1, viewerProcesses: 2, typists: 20, keystrokes, periodMs: 1000 / perSecond, structuralEdits: 15 }, roomProgress);
   }
   console.log(`Load average at the end: ${os.loadavg()[0].toFixed(1)}.`);
 }
