@@ -2,9 +2,9 @@
 // PostgreSQL cluster, own database). Targets from PRODUCT.md: keystroke to another editor
 // p95 < 50 ms; edit to recomputed structure at every client p95 < 400 ms for a 200-step
 // mechanism; both in a room of 20 editors and 100 viewers.
-// The clients are real y-websocket providers spread over a few child processes (as separate
-// browsers would be), so one busy client does not hold up the others. Times are compared across
-// processes on the shared wall clock (performance.timeOrigin + now).
+// The members live in a few child processes (collab-members.ts), editors apart from viewers, as
+// separate browsers would be, so one busy member does not hold up the others. Times are compared
+// across processes on the shared wall clock (performance.timeOrigin + now).
 // Run after a build (npm run build): npx tsx tests/bench/collab.ts
 import { fork, type ChildProcess } from "node:child_process";
 import { readdirSync, readFileSync, rmSync } from "node:fs";
@@ -13,126 +13,19 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { applyMigrations, connect, ensureDatabase } from "../../server/db/client";
 import { clusterDir, startEmbeddedPostgres } from "../../server/postgres/embedded";
-import { followRoom, joinRoom, type RoomReplica } from "../support/collab-client";
 import { TEMPLATE_DATABASE } from "../support/database";
 import { signUp, type Client } from "../support/http";
 import { startTestServer } from "../support/server";
+import type { Command, Report } from "./collab-members";
 import { generatedMechanism } from "./structure";
 
 const projectRoot = path.resolve(import.meta.dirname, "../..");
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-const now = () => performance.timeOrigin + performance.now();
 /** Keystrokes land in a trailing comment: each costs a recompute but keeps the structure. */
 const TYPING_LINE = "# notes: ";
-/** A keystroke's token: run, author and count, unique over the whole benchmark. */
-const TOKEN = /k(\d+s\d+x\d+);/g;
 const STRUCTURE_TIMEOUT_MS = 5000;
 /** Scheduling priority of the client processes (nice), below the server's. */
 const CLIENT_NICENESS = 10;
-
-type Command =
-  | { type: "join"; baseUrl: string; id: string; run: number; tag: number; people: { cookie: string; editor: boolean }[] }
-  | { type: "type"; typists: number; count: number; periodMs: number }
-  | { type: "watch"; n: number; expected: number }
-  | { type: "edit"; n: number }
-  | { type: "reset" }
-  | { type: "collect" };
-
-type Report =
-  | { type: "joined"; species: number }
-  | { type: "typed"; sent: [string, number][] }
-  | { type: "seen"; n: number; at: (number | null)[] }
-  | { type: "edited"; n: number; at: number }
-  | { type: "reset" }
-  | { type: "received"; keystrokes: [string, number, boolean][]; cpuMs: number };
-
-// ---- the client side: one child process hosting some of the room's members
-
-async function clientProcess() {
-  // Every provider adds an exit listener to the process; thirty of them are expected here.
-  process.setMaxListeners(0);
-  let rooms: { client: RoomReplica; editor: boolean; author: string; typed: number }[] = [];
-  const received: [string, number, boolean][] = [];
-  let watching: { expected: number; at: (number | null)[]; allSeen: () => void } | null = null;
-  let cpuAtStart = process.cpuUsage();
-  const report = (message: Report) => process.send!(message);
-
-  const structureSeen = (index: number) => {
-    if (!watching || watching.at[index] !== null) return;
-    if ((rooms[index].client.analysis.get("species") as number) < watching.expected) return;
-    watching.at[index] = now();
-    if (watching.at.every((t) => t !== null)) watching.allSeen();
-  };
-
-  process.on("message", async (command: Command) => {
-    if (command.type === "join") {
-      // Tokens of earlier runs come with the first sync: only this run's count.
-      const run = `${command.run}s`;
-      // A native search first: most messages (presence, the structure report) hold no keystroke.
-      const marker = `k${run}`;
-      rooms = command.people.map((person, index) => {
-        const author = `${run}${command.tag * 1000 + index}x`;
-        const seen = new Set<string>();
-        // Keystrokes are read off the raw message, which is far cheaper than a text delta per
-        // client, and stamped in a microtask: after the provider has applied the message.
-        const onMessage = (data: Buffer) => {
-          if (!data.includes(marker)) return;
-          const tokens = [...data.toString("latin1").matchAll(TOKEN)].map((match) => match[1]).filter((token) => token.startsWith(run) && !token.startsWith(author) && !seen.has(token));
-          if (tokens.length === 0) return;
-          for (const token of tokens) seen.add(token);
-          queueMicrotask(() => {
-            const at = now();
-            for (const token of tokens) received.push([token, at, person.editor]);
-          });
-        };
-        const client = (person.editor ? joinRoom : followRoom)(command.baseUrl, command.id, person.cookie, { onMessage });
-        client.analysis.observe(() => structureSeen(index));
-        return { client, editor: person.editor, author, typed: 0 };
-      });
-      await Promise.all(rooms.map((r) => r.client.synced));
-      while (rooms.some((r) => r.client.analysis.get("species") === undefined)) await sleep(20);
-      report({ type: "joined", species: rooms[0].client.analysis.get("species") as number });
-    } else if (command.type === "type") {
-      const sent: [string, number][] = [];
-      const typists = rooms.filter((r) => r.editor).slice(0, command.typists);
-      await Promise.all(
-        typists.map(async (typist) => {
-          await sleep(Math.random() * command.periodMs);
-          for (let i = 0; i < command.count; i++) {
-            const token = `${typist.author}${typist.typed++}`;
-            sent.push([token, now()]);
-            typist.client.text.insert(typist.client.text.length, `k${token};`);
-            await sleep(command.periodMs * (0.75 + Math.random() / 2));
-          }
-        }),
-      );
-      report({ type: "typed", sent });
-    } else if (command.type === "watch") {
-      const allSeen = new Promise<void>((resolve) => {
-        watching = { expected: command.expected, at: rooms.map(() => null), allSeen: resolve };
-      });
-      rooms.forEach((_, index) => structureSeen(index));
-      await Promise.race([allSeen, sleep(STRUCTURE_TIMEOUT_MS)]);
-      report({ type: "seen", n: command.n, at: watching!.at });
-      watching = null;
-    } else if (command.type === "edit") {
-      const editor = rooms.find((r) => r.editor)!.client;
-      const at = now();
-      editor.text.insert(0, `Z${command.n} -> S1 @ 1\n`);
-      report({ type: "edited", n: command.n, at });
-    } else if (command.type === "reset") {
-      received.length = 0;
-      cpuAtStart = process.cpuUsage();
-      report({ type: "reset" });
-    } else if (command.type === "collect") {
-      for (const { client } of rooms) client.close();
-      const { user, system } = process.cpuUsage(cpuAtStart);
-      process.send!({ type: "received", keystrokes: received, cpuMs: (user + system) / 1000 } satisfies Report, () => process.exit(0));
-    }
-  });
-}
-
-// ---- the driver
 
 class ClientHost {
   private readonly child: ChildProcess;
@@ -140,7 +33,7 @@ class ClientHost {
   private waiter: (() => void) | null = null;
 
   constructor() {
-    this.child = fork(fileURLToPath(import.meta.url), ["--client-process"], { execArgv: ["--import", "tsx"], stdio: "inherit" });
+    this.child = fork(fileURLToPath(new URL("./collab-members.ts", import.meta.url)), [], { execArgv: ["--import", "tsx"], stdio: "inherit" });
     // The members' own work would run on their own machines: here it yields to the server.
     os.setPriority(this.child.pid!, CLIENT_NICENESS);
     this.child.on("message", (message: Report) => {
@@ -218,7 +111,7 @@ async function phase(hosts: ClientHost[], scenario: Scenario, keystrokes: number
   for (let i = 0; i < structuralEdits; i++) {
     const n = room.edits++;
     const expected = ++room.species;
-    for (const host of hosts) host.send({ type: "watch", n, expected });
+    for (const host of hosts) host.send({ type: "watch", n, expected, timeoutMs: STRUCTURE_TIMEOUT_MS });
     const editing = editorHosts[i % editorHosts.length];
     editing.send({ type: "edit", n });
     const { at: editedAt } = await editing.next("edited");
@@ -340,5 +233,4 @@ async function main() {
   }
 }
 
-if (process.argv.includes("--client-process")) await clientProcess();
-else await main();
+await main();
