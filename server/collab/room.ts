@@ -21,7 +21,7 @@ export interface RoomTimings {
   recomputeMs: number;
   /** Quiet period before a changed structure becomes an automatic snapshot. */
   snapshotQuietMs: number;
-  /** Debounce of the mechanisms.source write. */
+  /** Shortest interval between two writes of mechanisms.source while the text changes. */
   sourceMirrorMs: number;
   /** Logged updates between compactions. */
   compactEvery: number;

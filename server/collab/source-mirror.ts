@@ -1,10 +1,12 @@
-// mechanisms.source follows the shared text (debounced, and on demand), so the JSON API, the CLI
-// and pages that do not join the room always read the latest text.
+// mechanisms.source follows the shared text (at most once per interval while it changes, and on
+// demand), so the JSON API, the CLI and pages that do not join the room always read a recent text,
+// even while co-authors type without a pause.
 import type { Db } from "../db/client";
 import { saveSource } from "../db/mechanisms";
+import { Pacer } from "./pacer";
 
 export class SourceMirror {
-  private timer: NodeJS.Timeout | null = null;
+  private readonly pacer: Pacer;
   private writing: Promise<void> = Promise.resolve();
 
   constructor(
@@ -12,17 +14,16 @@ export class SourceMirror {
     private readonly mechanismId: string,
     private saved: string,
     private readonly read: () => string,
-    private readonly delayMs: number,
-  ) {}
+    intervalMs: number,
+  ) {
+    this.pacer = new Pacer(intervalMs, () => void this.flush());
+  }
 
   changed() {
-    if (this.timer) clearTimeout(this.timer);
-    this.timer = setTimeout(() => void this.flush(), this.delayMs);
+    this.pacer.request();
   }
 
   flush(): Promise<void> {
-    if (this.timer) clearTimeout(this.timer);
-    this.timer = null;
     this.writing = this.writing.then(async () => {
       const text = this.read();
       if (text === this.saved) return;
@@ -37,7 +38,6 @@ export class SourceMirror {
   }
 
   dispose() {
-    if (this.timer) clearTimeout(this.timer);
-    this.timer = null;
+    this.pacer.dispose();
   }
 }

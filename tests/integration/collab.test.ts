@@ -1,6 +1,7 @@
 // The collaboration server end to end: real server process, real PostgreSQL, real y-websocket
 // clients signed in by cookie.
 import fc from "fast-check";
+import pg from "pg";
 import * as decoding from "lib0/decoding";
 import * as encoding from "lib0/encoding";
 import * as awarenessProtocol from "y-protocols/awareness";
@@ -295,6 +296,30 @@ describe("live co-editing", () => {
     expect(tooLarge.status).toBe(413);
     expect(await tooLarge.json()).toHaveProperty("error");
     expect(room.text.toString()).toBe("A -> B\nB -> C @ 3\n");
+  });
+
+  it("keeps the stored text within a second or so of co-authors who type without a pause", async () => {
+    const owner = await signUp(server.url, "Steady Typist");
+    const id = await mechanism(owner, "A -> B\n");
+    const room = join(owner, id);
+    await room.synced;
+    const stored = async () => {
+      const db = new pg.Client(server.databaseUrl);
+      await db.connect();
+      try {
+        return (await db.query("select source from mechanisms where id = $1", [id])).rows[0].source as string;
+      } finally {
+        await db.end();
+      }
+    };
+    let typedBySecond = "";
+    for (let i = 0; i < 30; i++) {
+      room.text.insert(room.text.length, "#");
+      if (i === 9) typedBySecond = room.text.toString();
+      await new Promise((resolve) => setTimeout(resolve, 100));
+    }
+    // Two seconds after the first second's typing, with keystrokes every 100 ms all along.
+    expect((await stored()).length).toBeGreaterThanOrEqual(typedBySecond.length);
   });
 
   it("keeps versions on structural change, names them, and restores one as a new change", async () => {
