@@ -6,6 +6,7 @@ import * as encoding from "lib0/encoding";
 import type { Role } from "../db/roles";
 
 const MAX_STATE_CHARS = 16 * 1024;
+const utf8 = new TextDecoder("utf-8", { fatal: true });
 
 interface AwarenessEntry {
   clientId: number;
@@ -13,14 +14,21 @@ interface AwarenessEntry {
   state: Record<string, unknown> | null;
 }
 
-function decodeEntries(update: Uint8Array): AwarenessEntry[] {
+/**
+ * The entries for the clients `keep` accepts. Others are skipped unread: a browser's provider
+ * sends back every presence change it receives, so a class joining would otherwise have each
+ * editor's echo of the whole class decoded and parsed only to be dropped.
+ */
+function decodeEntries(update: Uint8Array, keep: (clientId: number) => boolean): AwarenessEntry[] {
   const decoder = decoding.createDecoder(update);
   const entries: AwarenessEntry[] = [];
   const count = decoding.readVarUint(decoder);
   for (let i = 0; i < count; i++) {
     const clientId = decoding.readVarUint(decoder);
     const clock = decoding.readVarUint(decoder);
-    const json = decoding.readVarString(decoder);
+    const bytes = decoding.readVarUint8Array(decoder);
+    if (!keep(clientId)) continue;
+    const json = utf8.decode(bytes);
     if (json.length > MAX_STATE_CHARS) throw new Error("awareness state too large");
     const state: unknown = JSON.parse(json);
     if (state !== null && (typeof state !== "object" || Array.isArray(state))) throw new Error("awareness state is not an object");
@@ -54,17 +62,15 @@ export interface PresenceSpeaker {
 export function vetAwarenessUpdate(update: Uint8Array, speaker: PresenceSpeaker): { update: Uint8Array; clientIds: number[] } | null {
   let entries: AwarenessEntry[];
   try {
-    entries = decodeEntries(update);
+    entries = decodeEntries(update, (clientId) => speaker.mayControl(clientId));
   } catch {
     return null;
   }
-  const allowed = entries
-    .filter((entry) => speaker.mayControl(entry.clientId))
-    .map((entry) => {
-      if (entry.state === null) return entry;
-      const user = typeof entry.state.user === "object" && entry.state.user !== null ? entry.state.user : {};
-      return { ...entry, state: { ...entry.state, user: { ...user, name: speaker.name, role: speaker.role } } };
-    });
+  const allowed = entries.map((entry) => {
+    if (entry.state === null) return entry;
+    const user = typeof entry.state.user === "object" && entry.state.user !== null ? entry.state.user : {};
+    return { ...entry, state: { ...entry.state, user: { ...user, name: speaker.name, role: speaker.role } } };
+  });
   if (allowed.length === 0) return null;
   return { update: encodeEntries(allowed), clientIds: allowed.map((e) => e.clientId) };
 }
