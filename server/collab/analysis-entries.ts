@@ -1,6 +1,7 @@
 // What the server writes into the room's `analysis` map for one report: the contract keys of
 // PRODUCT.md (counts), a few more counts, and the full report for the Structure panel and graph.
 import type { AnalysisReport } from "../../app/chem/analysis";
+import { packReport } from "../../app/utils/analysis-map";
 import { summarizeStructure, type StructureSummary } from "../../app/utils/version-diff";
 
 export interface AnalysisRequest {
@@ -8,10 +9,17 @@ export interface AnalysisRequest {
   source: string;
 }
 
-export type AnalysisResponse = { id: number } & ({ entries: Record<string, string>; summary: StructureSummary } | { failure: string });
+export interface AnalysisEntries {
+  /** The counts, each as JSON text: cheap to compare with what the map holds, parsed only when it changed. */
+  entries: Record<string, string>;
+  /** The full report, packed (app/utils/analysis-map.ts). */
+  report: Uint8Array;
+  summary: StructureSummary;
+}
 
-/** Each value as JSON text: cheap to compare with what the map holds, parsed only when it changed. */
-export function analysisEntries(report: AnalysisReport): { entries: Record<string, string>; summary: StructureSummary } {
+export type AnalysisResponse = { id: number } & (AnalysisEntries | { failure: string });
+
+export function analysisEntries(report: AnalysisReport): AnalysisEntries {
   const summary = summarizeStructure(report);
   const values: Record<string, unknown> = {
     deficiency: report.deficiency,
@@ -22,9 +30,7 @@ export function analysisEntries(report: AnalysisReport): { entries: Record<strin
     reactions: summary.reactions,
     weaklyReversible: report.weaklyReversible,
     errors: summary.errors,
-    // As JSON text: see app/utils/analysis-map.ts.
-    report: JSON.stringify(report),
   };
   const entries = Object.fromEntries(Object.entries(values).map(([key, value]) => [key, JSON.stringify(value)]));
-  return { entries, summary };
+  return { entries, report: packReport(report), summary };
 }

@@ -3,8 +3,7 @@
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import { typescriptWorkerSource } from "../typescript-worker";
-import type { StructureSummary } from "../../app/utils/version-diff";
-import type { AnalysisResponse } from "./analysis-entries";
+import type { AnalysisEntries, AnalysisResponse } from "./analysis-entries";
 
 const bootstrap = typescriptWorkerSource(new URL("./analysis-worker.ts", import.meta.url));
 
@@ -13,13 +12,8 @@ const WARM_UP_SOURCE = "A + B <=> C @ 1, 2\nC -> D + B @ 3\n";
 /** A text that takes longer than this is given up on (the worker is replaced). */
 const ANALYSIS_TIMEOUT_MS = 60_000;
 
-export interface AnalysisOutcome {
-  entries: Record<string, string>;
-  summary: StructureSummary;
-}
-
 interface Pending {
-  resolve(outcome: AnalysisOutcome): void;
+  resolve(outcome: AnalysisEntries): void;
   reject(error: Error): void;
   timer: NodeJS.Timeout;
 }
@@ -32,7 +26,7 @@ class AnalysisThread {
     return this.pending.size;
   }
 
-  run(id: number, source: string): Promise<AnalysisOutcome> {
+  run(id: number, source: string): Promise<AnalysisEntries> {
     const worker = this.ensure();
     return new Promise((resolve, reject) => {
       const timer = setTimeout(() => this.fail(new Error(`the analysis took longer than ${ANALYSIS_TIMEOUT_MS / 1000} s`)), ANALYSIS_TIMEOUT_MS);
@@ -92,7 +86,7 @@ export class AnalysisPool {
     for (const thread of this.threads) thread.warm();
   }
 
-  analyze(source: string): Promise<AnalysisOutcome> {
+  analyze(source: string): Promise<AnalysisEntries> {
     const thread = this.threads.reduce((idlest, t) => (t.load < idlest.load ? t : idlest));
     return thread.run(++this.nextId, source);
   }

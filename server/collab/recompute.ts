@@ -28,8 +28,9 @@ export class StructureRecompute {
   private disposed = false;
   private readonly text: Y.Text;
   private readonly analysis: Y.Map<unknown>;
-  /** Serialised values last written, so an unchanged report is not re-sent to every client. */
+  /** Values last written (counts as JSON text, the packed report), so unchanged ones are not re-sent to every client. */
   private readonly written = new Map<string, string>();
+  private writtenReport: Uint8Array | null = null;
   latest: AnalysisResult | null = null;
   private lastDurationMs = 0;
 
@@ -44,7 +45,10 @@ export class StructureRecompute {
     );
     this.text = doc.getText("source");
     this.analysis = doc.getMap("analysis");
-    for (const [key, value] of this.analysis.entries()) this.written.set(key, JSON.stringify(value));
+    for (const [key, value] of this.analysis.entries()) {
+      if (value instanceof Uint8Array) this.writtenReport = value;
+      else this.written.set(key, JSON.stringify(value));
+    }
     const stored = roomAnalysisReader()(this.analysis).report;
     if (stored && !this.stale) {
       this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), revision: Number(this.analysis.get("revision")) || 0 };
@@ -56,7 +60,7 @@ export class StructureRecompute {
 
   /** True when the stored analysis belongs to a different text, or there is none in today's form. */
   get stale(): boolean {
-    return this.analysis.get("digest") !== sourceDigest(this.text.toString()) || typeof this.analysis.get("report") !== "string";
+    return this.analysis.get("digest") !== sourceDigest(this.text.toString()) || !(this.analysis.get("report") instanceof Uint8Array);
   }
 
   /**
@@ -82,6 +86,7 @@ export class StructureRecompute {
   /** Rewrites keys a client changed, with the server's values. */
   private repair(keys: string[]) {
     for (const key of keys) this.written.delete(key);
+    if (keys.includes("report")) this.writtenReport = null;
     void this.enqueue(true);
   }
 
@@ -114,6 +119,10 @@ export class StructureRecompute {
         if (this.written.get(key) === serialised) continue;
         this.analysis.set(key, JSON.parse(serialised));
         this.written.set(key, serialised);
+      }
+      if (!this.writtenReport || !Buffer.from(outcome.report).equals(this.writtenReport)) {
+        this.analysis.set("report", outcome.report);
+        this.writtenReport = outcome.report;
       }
     }, analysisOrigin);
     this.latest = { source, summary: outcome.summary, revision };

@@ -7,6 +7,7 @@ import * as encoding from "lib0/encoding";
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { roomAnalysisReader } from "../../app/utils/analysis-map";
 import { eventually, joinRoom, rawSocket, storedDocument, type RoomClient } from "../support/collab-client";
 import { Client, signUp } from "../support/http";
 import { startTestServer } from "../support/server";
@@ -258,9 +259,9 @@ describe("live co-editing", () => {
     expect(viewerRoom.analysis.get("revision") as number).toBeGreaterThan(first);
     expect(viewerRoom.analysis.get("errors")).toBe(0);
     expect(viewerRoom.analysis.get("rank")).toBe(2);
-    // The full report travels as JSON text (app/utils/analysis-map.ts).
-    const report = JSON.parse(viewerRoom.analysis.get("report") as string) as { complexes: string[] };
-    expect(report.complexes).toContain("X + Y");
+    // The full report travels packed (app/utils/analysis-map.ts).
+    const { report } = roomAnalysisReader()(viewerRoom.analysis);
+    expect(report?.complexes).toContain("X + Y");
 
     // Only the server writes the analysis: an editor's write to it is put back.
     const deficiency = viewerRoom.analysis.get("deficiency");
