@@ -5,7 +5,20 @@
 import { followRoom, joinRoom, type RoomReplica } from "../support/collab-client";
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-const now = () => performance.timeOrigin + performance.now();
+/**
+ * Milliseconds on the system clock, to compare stamps across processes. A process's
+ * performance.timeOrigin is fixed when it starts, and member processes were seen to disagree by
+ * tens of milliseconds that way; so the offset to the live clock is measured when a phase starts.
+ * Date.now() truncates to the millisecond: averaged over many reads that is half a millisecond
+ * in every process alike.
+ */
+let clockOffset = 0;
+function calibrateClock() {
+  let sum = 0;
+  for (let i = 0; i < 1000; i++) sum += Date.now() - performance.now();
+  clockOffset = sum / 1000 + 0.5;
+}
+const now = () => performance.now() + clockOffset;
 /** A keystroke's token: run, author and count, unique over the whole benchmark. */
 const TOKEN = /k(\d+s\d+x\d+);/g;
 
@@ -43,6 +56,7 @@ async function clientProcess() {
 
   process.on("message", async (command: Command) => {
     if (command.type === "join") {
+      calibrateClock();
       // Tokens of earlier runs come with the first sync: only this run's count.
       const run = `${command.run}s`;
       // A native search first: most messages (presence, the structure report) hold no keystroke.
@@ -98,6 +112,7 @@ async function clientProcess() {
       editor.text.insert(0, `Z${command.n} -> S1 @ 1\n`);
       report({ type: "edited", n: command.n, at });
     } else if (command.type === "reset") {
+      calibrateClock();
       received.length = 0;
       cpuAtStart = process.cpuUsage();
       report({ type: "reset" });

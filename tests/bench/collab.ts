@@ -4,7 +4,7 @@
 // mechanism; both in a room of 20 editors and 100 viewers.
 // The members live in a few child processes (collab-members.ts), editors apart from viewers, as
 // separate browsers would be, so one busy member does not hold up the others. Times are compared
-// across processes on the shared wall clock (performance.timeOrigin + now).
+// across processes on the system clock (see collab-members.ts).
 // Run after a build (npm run build): npx tsx tests/bench/collab.ts
 import { fork, type ChildProcess } from "node:child_process";
 import { readdirSync, readFileSync, rmSync } from "node:fs";
@@ -162,6 +162,8 @@ async function measure(baseUrl: string, id: string, scenario: Scenario, room: Ro
   }
 
   console.log(`${scenario.title}:`);
+  const impossible = toEveryone.filter((ms) => ms < -1).length;
+  if (impossible > 0) console.log(`  WARNING: ${impossible} deliveries stamped before they were sent; the processes' clocks disagree.`);
   summary("keystroke → every other editor", toEditors, 50);
   if (scenario.viewers.length > 0) summary("keystroke → every other client (editors and viewers)", toEveryone, 50);
   summary(`edit → recomputed structure at all ${people.length} clients`, structure, 400);
