@@ -30,5 +30,8 @@ describe("the room's analysis map", () => {
 
     map.set("report", packReport(await reportOf("A -> B @ 1\nB -> A @ 2\n")));
     expect(read(map).report?.reversible).toBe(true);
+
+    map.set("report", new Uint8Array([1, 2, 3]));
+    expect(read(map).report).toBeUndefined();
   });
 });

@@ -38,7 +38,13 @@ export function roomAnalysisReader(): (map: Y.Map<unknown>) => RoomAnalysis {
       lastReport = undefined;
     } else if (packed !== lastPacked) {
       lastPacked = packed;
-      lastReport = unpackReport(packed);
+      // Only the server writes the map; an editor's crafted value is put back within moments,
+      // and until then the reader shows no report rather than failing.
+      try {
+        lastReport = unpackReport(packed);
+      } catch {
+        lastReport = undefined;
+      }
     }
     return { ...(counts as Omit<RoomAnalysis, "report">), report: lastReport };
   };
