@@ -15,6 +15,8 @@ export interface AnalysisEntries {
   /** The full report, packed (app/utils/analysis-map.ts). */
   report: Uint8Array;
   summary: StructureSummary;
+  /** The complexes' canonical texts: the keys of the shared `layout` map. */
+  complexes: string[];
 }
 
 export type AnalysisResponse = { id: number } & (AnalysisEntries | { failure: string });
@@ -32,5 +34,5 @@ export function analysisEntries(report: AnalysisReport): AnalysisEntries {
     errors: summary.errors,
   };
   const entries = Object.fromEntries(Object.entries(values).map(([key, value]) => [key, JSON.stringify(value)]));
-  return { entries, report: packReport(report), summary };
+  return { entries, report: packReport(report), summary, complexes: report.complexes };
 }

@@ -15,6 +15,7 @@ export const analysisOrigin = Symbol("mechweave-analysis");
 export interface AnalysisResult {
   source: string;
   summary: StructureSummary;
+  complexes: string[];
   revision: number;
 }
 
@@ -51,7 +52,8 @@ export class StructureRecompute {
     }
     const stored = roomAnalysisReader()(this.analysis).report;
     if (stored && !this.stale) {
-      this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), revision: Number(this.analysis.get("revision")) || 0 };
+      const revision = Number(this.analysis.get("revision")) || 0;
+      this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), complexes: stored.complexes, revision };
     }
     this.analysis.observe((event) => {
       if (event.transaction.origin !== analysisOrigin) this.repair([...event.keysChanged]);
@@ -125,7 +127,7 @@ export class StructureRecompute {
         this.writtenReport = outcome.report;
       }
     }, analysisOrigin);
-    this.latest = { source, summary: outcome.summary, revision };
+    this.latest = { source, summary: outcome.summary, complexes: outcome.complexes, revision };
     this.options.analyzed(this.latest);
   }
 }

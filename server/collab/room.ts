@@ -12,6 +12,7 @@ import { Pacer } from "./pacer";
 import { awarenessMessage, syncStep1Message, updateMessage } from "./protocol";
 import type { AnalysisPool } from "./analysis-pool";
 import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recompute";
+import { stalePositions } from "./layout-pruning";
 import { AutoSnapshotPolicy, insertSnapshot, latestSummary, type SnapshotKind } from "./snapshots";
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
@@ -304,6 +305,14 @@ export class Room {
 
   private analyzed(result: AnalysisResult) {
     this.snapshots.observe(result.summary);
+    // A text with errors may hide complexes of a line being typed: their positions stay.
+    if (result.summary.errors === 0) this.pruneLayout(result.complexes);
+  }
+
+  private pruneLayout(complexes: string[]) {
+    const layout = this.doc.getMap("layout");
+    const stale = stalePositions(layout, complexes);
+    if (stale.length > 0) this.doc.transact(() => stale.forEach((key) => layout.delete(key)), analysisOrigin);
   }
 
   private async autoSnapshot() {

@@ -299,6 +299,21 @@ describe("live co-editing", () => {
     expect(room.text.toString()).toBe("A -> B\nB -> C @ 3\n");
   });
 
+  it("drops the layout positions of complexes long gone from the text, keeping those in it", async () => {
+    const owner = await signUp(server.url, "Tidy Layout");
+    const id = await mechanism(owner, "A + B -> C @ 1\n");
+    const room = join(owner, id);
+    await room.synced;
+    const layout = room.doc.getMap("layout");
+    room.doc.transact(() => {
+      layout.set("A + B", { x: 10, y: 20 });
+      for (let i = 0; i < 250; i++) layout.set(`Gone${i}`, { x: i, y: 0 });
+    });
+    room.text.insert(room.text.length, "C -> D @ 2\n");
+    await eventually("the gone complexes' positions to be dropped", () => ![...layout.keys()].some((key) => key.startsWith("Gone")));
+    expect(layout.get("A + B")).toEqual({ x: 10, y: 20 });
+  });
+
   it("keeps the stored text within a second or so of co-authors who type without a pause", async () => {
     const owner = await signUp(server.url, "Steady Typist");
     const id = await mechanism(owner, "A -> B\n");
