@@ -45,9 +45,10 @@ export async function analyzeSource(source: string): Promise<AnalysisReport> {
 }
 
 /** The parse the report is computed from; a text over the size limits parses to that one error. */
-export function parseForAnalysis(source: string): ParseResult {
+/** `parse` may be an IncrementalMechanismParser's, for a caller that sees one text change often. */
+export function parseForAnalysis(source: string, parse: (source: string) => ParseResult = parseMechanism): ParseResult {
   const refusal = checkSourceLimits(source);
-  if (!refusal) return parseMechanism(source);
+  if (!refusal) return parse(source);
   const diagnostic: Diagnostic = { severity: "error", line: 1, column: 1, message: refusal, from: 0, to: 0 };
   return { mechanism: { steps: [], species: [], fixed: {}, parameters: {}, initial: {} }, diagnostics: [diagnostic] };
 }

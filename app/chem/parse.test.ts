@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { buildNetwork } from "./network";
-import { checkSourceLimits, parseMechanism, printMechanism } from "./parse";
+import { checkSourceLimits, IncrementalMechanismParser, parseMechanism, printMechanism } from "./parse";
 
 /** The diagnostics of a text as "severity line:column", for compact expectations. */
 function where(source: string): string[] {
@@ -240,5 +240,33 @@ describe("properties", () => {
       }),
       { numRuns: 300 },
     );
+  });
+});
+
+describe("IncrementalMechanismParser", () => {
+  const pieces = ["A", "B2", " + ", "2", " -> ", " <=> ", " @ ", "k1", "1.5e-3", ", ", "\n", "# note ", "k1 = 2\n", "[A]0 = 1\n", '"Fe3+"', "{ k1*A }", "fixed [C] = 1\n", "0", "?", ":", "r1: "];
+  const edit = fc.record({ at: fc.nat(), cut: fc.nat({ max: 6 }), insert: fc.array(fc.constantFrom(...pieces), { maxLength: 4 }).map((parts) => parts.join("")) });
+
+  it("gives what a full parse gives, edit after edit", () => {
+    fc.assert(
+      fc.property(fc.array(edit, { minLength: 1, maxLength: 25 }), (edits) => {
+        const incremental = new IncrementalMechanismParser();
+        let text = "r1: A + B -> 2B @ k1\nB -> 0 @ 0.5\nk1 = 2\n[A]0 = 1\n";
+        expect(incremental.parse(text)).toEqual(parseMechanism(text));
+        for (const { at, cut, insert } of edits) {
+          const from = at % (text.length + 1);
+          text = text.slice(0, from) + insert + text.slice(Math.min(text.length, from + cut));
+          expect(incremental.parse(text)).toEqual(parseMechanism(text));
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it("follows a text typed one character at a time, and a different text after it", () => {
+    const incremental = new IncrementalMechanismParser();
+    const target = 'cap: M + Q <=> MQ @ 1.1, 0.3\n"Fe3+" + X -> 2X @ kf\nkf = 0.2\n';
+    for (let i = 1; i <= target.length; i++) expect(incremental.parse(target.slice(0, i))).toEqual(parseMechanism(target.slice(0, i)));
+    expect(incremental.parse("X -> Y @ 3\n")).toEqual(parseMechanism("X -> Y @ 3\n"));
   });
 });

@@ -2,6 +2,7 @@
 // returns each analysis-map value already serialised (so the room compares strings, not trees).
 import { parentPort } from "node:worker_threads";
 import { analyzeMechanism, parseForAnalysis } from "../../app/chem/analysis";
+import { IncrementalMechanismParser } from "../../app/chem/parse";
 import { analysisEntries, type AnalysisRequest, type AnalysisResponse } from "./analysis-entries";
 
 /**
@@ -11,8 +12,11 @@ import { analysisEntries, type AnalysisRequest, type AnalysisResponse } from "./
 const recent = new Map<string, ReturnType<typeof analysisEntries>>();
 const RECENT_PARSES = 8;
 
+/** Most requests are the last text with a keystroke more: its unchanged parts are not parsed again. */
+const parser = new IncrementalMechanismParser();
+
 async function entriesFor(source: string) {
-  const parsed = parseForAnalysis(source);
+  const parsed = parseForAnalysis(source, (text) => parser.parse(text));
   const key = JSON.stringify(parsed);
   let entries = recent.get(key);
   if (entries) recent.delete(key);
