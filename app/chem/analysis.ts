@@ -44,8 +44,10 @@ export async function analyzeSource(source: string): Promise<AnalysisReport> {
   return analyzeMechanism(parseForAnalysis(source));
 }
 
-/** The parse the report is computed from; a text over the size limits parses to that one error. */
-/** `parse` may be an IncrementalMechanismParser's, for a caller that sees one text change often. */
+/**
+ * The parse the report is computed from; a text over the size limits parses to that one error.
+ * `parse` may be an IncrementalMechanismParser's, for a caller that sees one text change often.
+ */
 export function parseForAnalysis(source: string, parse: (source: string) => ParseResult = parseMechanism): ParseResult {
   const refusal = checkSourceLimits(source);
   if (!refusal) return parse(source);

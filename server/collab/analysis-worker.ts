@@ -1,5 +1,6 @@
 // Worker-thread entry: analyses mechanism texts for the rooms, off the server's event loop, and
-// returns each analysis-map value already serialised (so the room compares strings, not trees).
+// returns the analysis-map values ready to compare with what the map holds: the counts as JSON
+// text, the report packed.
 import { parentPort } from "node:worker_threads";
 import { analyzeMechanism, parseForAnalysis } from "../../app/chem/analysis";
 import { IncrementalMechanismParser } from "../../app/chem/parse";

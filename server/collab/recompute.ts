@@ -29,7 +29,7 @@ export class StructureRecompute {
   private disposed = false;
   private readonly text: Y.Text;
   private readonly analysis: Y.Map<unknown>;
-  /** Values last written (counts as JSON text, the packed report), so unchanged ones are not re-sent to every client. */
+  /** Values last written, so unchanged ones are not re-sent to every client: counts as JSON text, and the packed report. */
   private readonly written = new Map<string, string>();
   private writtenReport: Uint8Array | null = null;
   latest: AnalysisResult | null = null;
