@@ -2,7 +2,9 @@
 // connection's current role: viewers may sync *from* the server and share presence, never edit.
 import type { WebSocket } from "ws";
 import { atLeast, type Role } from "../db/roles";
+import { encodeRefusal } from "../../app/utils/room-refusal";
 import { readClientMessage, syncStep2Message } from "./protocol";
+import { PresenceBudget } from "./presence";
 import type { Room } from "./room";
 
 export interface CollabIdentity {
@@ -27,8 +29,6 @@ export const closeCodes = {
   accessRevoked: 4403,
   mechanismGone: 4404,
   tooSlow: 4508,
-  /** The edit would make the text larger than the API allows; resending it cannot help. */
-  tooLarge: 4413,
 } as const;
 
 /** A client that cannot keep up is dropped rather than buffered without limit. */
@@ -39,7 +39,9 @@ export class Connection {
   /** Awareness client ids this socket speaks for (removed from the room when it closes). */
   readonly awarenessClients = new Set<number>();
   alive = true;
+  readonly presenceBudget = new PresenceBudget();
   private droppedUpdates = 0;
+  private droppedPresence = 0;
 
   constructor(
     readonly socket: WebSocket,
@@ -80,11 +82,11 @@ export class Connection {
           this.dropUpdate(message.syncType);
           return;
         }
-        switch (this.room.applyClientUpdate(this, message.update)) {
-          case "unreadable":
-            return this.close(closeCodes.protocolError, "bad update");
-          case "too-large":
-            return this.close(closeCodes.tooLarge, "the text would be over 1 MiB");
+        {
+          const outcome = this.room.applyClientUpdate(this, message.update);
+          if (outcome === "unreadable") return this.close(closeCodes.protocolError, "bad update");
+          // The editor is told why and resyncs; the connection stays open.
+          if (outcome !== "applied") this.send(encodeRefusal(outcome));
         }
         return;
       case "awareness":
@@ -104,6 +106,14 @@ export class Connection {
     this.droppedUpdates++;
     if (this.droppedUpdates === 1 || this.droppedUpdates % 100 === 0) {
       console.warn(`[collab] dropped document update (${syncType}) #${this.droppedUpdates} from ${this.describe()}: role ${this.role} may not edit`);
+    }
+  }
+
+  /** Presence over the budget: logged once, then counted. */
+  presenceDropped() {
+    this.droppedPresence++;
+    if (this.droppedPresence === 1 || this.droppedPresence % 100 === 0) {
+      console.warn(`[collab] dropped presence #${this.droppedPresence} from ${this.describe()}: over its rate`);
     }
   }
 

@@ -1,7 +1,7 @@
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { describe, expect, it } from "vitest";
-import { vetAwarenessUpdate } from "./presence";
+import { PresenceBudget, vetAwarenessUpdate } from "./presence";
 
 /** One awareness update covering the given clients' states, as a provider would send it. */
 function presenceOf(states: Record<number, Record<string, unknown>>): Uint8Array {
@@ -38,6 +38,21 @@ describe("vetAwarenessUpdate", () => {
 
   it("refuses malformed updates and states that are not objects", () => {
     expect(vetAwarenessUpdate(new Uint8Array([1, 7]), speaker)).toBeNull();
-    expect(vetAwarenessUpdate(presenceOf({ 7: { note: "x".repeat(17 * 1024) } }), speaker)).toBeNull();
+    expect(vetAwarenessUpdate(presenceOf({ 7: { note: "x".repeat(5 * 1024) } }), speaker)).toBeNull();
+  });
+});
+
+describe("PresenceBudget", () => {
+  it("lets a burst through, then only what the rate refills", () => {
+    let now = 0;
+    const budget = new PresenceBudget(1000, 2000, () => now);
+    expect(budget.take(1500)).toBe(true);
+    expect(budget.take(1000)).toBe(false);
+    expect(budget.take(400)).toBe(true);
+    expect(budget.take(200)).toBe(false);
+    now = 250;
+    expect(budget.take(200)).toBe(true);
+    now = 60_000;
+    expect(budget.take(2001)).toBe(false);
   });
 });

@@ -5,7 +5,10 @@ import * as decoding from "lib0/decoding";
 import * as encoding from "lib0/encoding";
 import type { Role } from "../db/roles";
 
-const MAX_STATE_CHARS = 16 * 1024;
+/** A caret, a selection and the user's details take a few hundred characters. */
+export const MAX_STATE_CHARS = 4 * 1024;
+/** A browser tab speaks for one awareness client; a few more allow for a remount mid-handshake. */
+export const MAX_CLIENTS_PER_CONNECTION = 4;
 const utf8 = new TextDecoder("utf-8", { fatal: true });
 
 interface AwarenessEntry {
@@ -53,6 +56,34 @@ export interface PresenceSpeaker {
   role: Role;
   /** False when another connection in the room already speaks for this awareness client. */
   mayControl(clientId: number): boolean;
+}
+
+/**
+ * The presence a connection may send per second, in bytes of vetted updates: a caret moving with
+ * every keystroke of a fast typist (≈300 bytes each) stays far within; a stream of large states
+ * does not. Over budget, updates are dropped, not queued.
+ */
+export class PresenceBudget {
+  private available: number;
+  private refilledAt: number;
+
+  constructor(
+    private readonly bytesPerSecond = 8 * 1024,
+    private readonly burstBytes = 16 * 1024,
+    private readonly clock = () => performance.now(),
+  ) {
+    this.available = burstBytes;
+    this.refilledAt = clock();
+  }
+
+  take(bytes: number): boolean {
+    const now = this.clock();
+    this.available = Math.min(this.burstBytes, this.available + ((now - this.refilledAt) / 1000) * this.bytesPerSecond);
+    this.refilledAt = now;
+    if (bytes > this.available) return false;
+    this.available -= bytes;
+    return true;
+  }
 }
 
 /**

@@ -7,7 +7,7 @@ import type { Db } from "../db/client";
 import { findMechanism } from "../db/mechanisms";
 import { closeCodes, type Connection } from "./connection";
 import { appendUpdates, compactDocument, loadDocument, UpdateLog, type LoggedUpdate } from "./persistence";
-import { vetAwarenessUpdate } from "./presence";
+import { MAX_CLIENTS_PER_CONNECTION, vetAwarenessUpdate } from "./presence";
 import { Pacer } from "./pacer";
 import { awarenessMessage, syncStep1Message, updateMessage } from "./protocol";
 import type { AnalysisPool } from "./analysis-pool";
@@ -16,6 +16,8 @@ import { stalePositions } from "./layout-pruning";
 import { AutoSnapshotPolicy, insertSnapshot, latestSummary, type SnapshotKind } from "./snapshots";
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
+import { UpdateCheck } from "./update-check";
+import type { RefusalReason } from "../../app/utils/room-refusal";
 
 export interface RoomTimings {
   /** Shortest interval between two structure recomputes (the first after a quiet spell runs at once). */
@@ -44,6 +46,12 @@ const loadOrigin = Symbol("mechweave-load");
  */
 const RELAY_COST_FACTOR = 4;
 const MAX_UPDATE_RELAY_MS = 16;
+/**
+ * The whole document, history included, stays small enough to send in one message (see
+ * endpoint.ts). The room keeps a running estimate (the stored size plus every update since) and
+ * encodes the document only when an update could cross the bound.
+ */
+export const MAX_DOCUMENT_BYTES = 8 * 1024 * 1024;
 /** Shortest time between two relays of presence to a room. */
 const AWARENESS_RELAY_MS = 40;
 
@@ -71,6 +79,11 @@ export class Room {
   private readonly recompute: StructureRecompute;
   private readonly snapshots: AutoSnapshotPolicy;
   private readonly mirror: SourceMirror;
+  private readonly check: UpdateCheck;
+  /** An upper estimate of the encoded document, exact after each count. */
+  private documentBytes: number;
+  /** Logged since the last compaction: refused edits are not logged, but replaced text is. */
+  private loggedBytes = 0;
   private lastEditorId: string | null = null;
   private compacting: Promise<void> | null = null;
   private closed = false;
@@ -101,6 +114,8 @@ export class Room {
     private readonly timings: RoomTimings,
   ) {
     this.text = doc.getText("source");
+    this.check = new UpdateCheck(doc);
+    this.documentBytes = Y.encodeStateAsUpdate(doc).byteLength;
     this.awareness = new awarenessProtocol.Awareness(doc);
     this.awareness.setLocalState(null);
     this.awareness.on("update", this.collectAwareness);
@@ -110,6 +125,7 @@ export class Room {
     this.recompute = new StructureRecompute(doc, pool, { intervalMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
     doc.on("update", (update: Uint8Array, origin: UpdateOrigin) => {
       if (origin === loadOrigin) return;
+      this.documentBytes += update.byteLength;
       if (origin instanceof ServiceEdit) this.lastEditorId = origin.userId;
       else if (origin !== analysisOrigin) this.lastEditorId = origin.identity.userId ?? this.lastEditorId;
       this.log.append({ update, origin });
@@ -118,6 +134,10 @@ export class Room {
       this.recompute.schedule();
       this.mirror.changed();
     });
+    // PostgreSQL's text cannot hold NUL, so the mirror and every snapshot would fail on a text
+    // stored before the room refused it; such a text loses its NULs once, as the server's edit.
+    const loaded = this.text.toString();
+    if (loaded.includes("\0")) doc.transact(() => replaceText(this.text, loaded.replaceAll("\0", "")), analysisOrigin);
     if (this.recompute.stale) this.recompute.schedule();
     if (this.text.toString() !== savedSource) void this.mirror.flush();
   }
@@ -142,12 +162,13 @@ export class Room {
     awarenessProtocol.removeAwarenessStates(this.awareness, [...connection.awarenessClients], null);
   }
 
-  /** "unreadable" and "too-large" updates are not applied (the caller drops the connection). */
-  applyClientUpdate(connection: Connection, update: Uint8Array): "applied" | "unreadable" | "too-large" {
+  /** Applies an editor's update, or says why not: unreadable (the caller drops the connection) or refused. */
+  applyClientUpdate(connection: Connection, update: Uint8Array): "applied" | "unreadable" | RefusalReason {
     try {
-      if (this.wouldOutgrowLimit(update)) {
-        console.warn(`[collab] refused an update from ${connection.describe()}: the text would be over ${MAX_SOURCE_BYTES} bytes`);
-        return "too-large";
+      const refusal = this.check.refusal(update) ?? (this.wouldOutgrowLimit(update) ? "text-too-large" : null) ?? this.wouldOutgrowDocument(update);
+      if (refusal) {
+        console.warn(`[collab] refused an update of ${update.byteLength} bytes from ${connection.describe()}: ${refusal}`);
+        return refusal;
       }
       Y.applyUpdate(this.doc, update, connection);
       return "applied";
@@ -155,6 +176,12 @@ export class Room {
       console.warn(`[collab] unreadable update from ${connection.describe()}: ${(error as Error).message}`);
       return "unreadable";
     }
+  }
+
+  private wouldOutgrowDocument(update: Uint8Array): "document-too-large" | null {
+    if (this.documentBytes + update.byteLength <= MAX_DOCUMENT_BYTES) return null;
+    this.documentBytes = Y.encodeStateAsUpdate(this.doc).byteLength;
+    return this.documentBytes + update.byteLength <= MAX_DOCUMENT_BYTES ? null : "document-too-large";
   }
 
   /**
@@ -176,12 +203,21 @@ export class Room {
   }
 
   applyClientAwareness(connection: Connection, update: Uint8Array) {
+    let claimed = connection.awarenessClients.size;
     const vetted = vetAwarenessUpdate(update, {
       name: connection.identity.name,
       role: connection.role,
-      mayControl: (clientId) => (this.awarenessOwners.get(clientId) ?? connection) === connection,
+      mayControl: (clientId) => {
+        if ((this.awarenessOwners.get(clientId) ?? connection) !== connection) return false;
+        if (connection.awarenessClients.has(clientId)) return true;
+        return ++claimed <= MAX_CLIENTS_PER_CONNECTION;
+      },
     });
     if (!vetted) return;
+    if (!connection.presenceBudget.take(vetted.update.byteLength)) {
+      connection.presenceDropped();
+      return;
+    }
     for (const clientId of vetted.clientIds) {
       this.awarenessOwners.set(clientId, connection);
       connection.awarenessClients.add(clientId);
@@ -255,8 +291,11 @@ export class Room {
   private relayCommitted(batch: LoggedUpdate<UpdateOrigin>[]) {
     this.outgoing.push(...batch);
     this.updatePacer.request();
-    if (this.log.appendedSinceCompaction >= this.timings.compactEvery) {
+    for (const { update } of batch) this.loggedBytes += update.byteLength;
+    // Text pasted and deleted again leaves the document small but its log rows large.
+    if (this.log.appendedSinceCompaction >= this.timings.compactEvery || this.loggedBytes >= MAX_DOCUMENT_BYTES) {
       this.log.appendedSinceCompaction = 0;
+      this.loggedBytes = 0;
       void this.compact();
     }
   }
@@ -276,7 +315,11 @@ export class Room {
 
   /** Merges the log into the stored state; a failure leaves the log as it was (nothing lost). */
   private compact(): Promise<void> {
-    this.compacting ??= compactDocument(this.db, this.mechanismId, () => Y.encodeStateAsUpdate(this.doc))
+    this.compacting ??= compactDocument(this.db, this.mechanismId, () => {
+      const state = Y.encodeStateAsUpdate(this.doc);
+      this.documentBytes = state.byteLength;
+      return state;
+    })
       .then(
         () => undefined,
         (error: Error) => console.error(`[collab] compacting ${this.mechanismId} failed: ${error.message}`),
