@@ -15,10 +15,12 @@ export interface Caller {
   via: "session" | "token" | "none";
   /** Id of the personal access token used, for rate limits. */
   tokenId: string | null;
+  /** Id of the session row the cookie names, so a live socket can follow it ending. */
+  sessionId: string | null;
   viewTokens: string[];
 }
 
-export const nobody: Caller = { user: null, via: "none", tokenId: null, viewTokens: [] };
+export const nobody: Caller = { user: null, via: "none", tokenId: null, sessionId: null, viewTokens: [] };
 
 export async function identifyCaller(db: Db, sessions: SessionStore, headers: { cookie?: string | null; authorization?: string | null }): Promise<Caller | "bad-token"> {
   const bearer = headers.authorization?.match(/^Bearer\s+(\S+)$/i)?.[1];
@@ -30,7 +32,7 @@ export async function identifyCaller(db: Db, sessions: SessionStore, headers: { 
       .where(and(eq(apiTokens.tokenHash, hashSecret(bearer)), isNull(apiTokens.revokedAt)));
     if (!row) return "bad-token";
     await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.tokenId));
-    return { user: { id: row.id, email: row.email, name: row.name }, via: "token", tokenId: row.tokenId, viewTokens: [] };
+    return { user: { id: row.id, email: row.email, name: row.name }, via: "token", tokenId: row.tokenId, sessionId: null, viewTokens: [] };
   }
   const session = await sessions.getSession(headers.cookie ?? null);
   const viewTokens = session.get("viewTokens") ?? [];
@@ -40,6 +42,7 @@ export async function identifyCaller(db: Db, sessions: SessionStore, headers: { 
     user: user ? { id: user.id, email: user.email, name: user.name } : null,
     via: user ? "session" : "none",
     tokenId: null,
+    sessionId: session.id || null,
     viewTokens,
   };
 }

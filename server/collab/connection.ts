@@ -4,6 +4,7 @@ import type { WebSocket } from "ws";
 import { atLeast, type Role } from "../db/roles";
 import { encodeRefusal } from "../../app/utils/room-refusal";
 import { readClientMessage, syncStep2Message } from "./protocol";
+import type { Credential } from "./credentials";
 import { PresenceBudget } from "./presence";
 import type { Room } from "./room";
 
@@ -17,6 +18,8 @@ export interface CollabIdentity {
    * Without it the role is re-read from the memberships by userId.
    */
   recheck?: () => Promise<Role | null>;
+  /** The session or API token that opened the socket; the socket closes when it ends. */
+  credential?: Credential;
 }
 
 /** Close codes: 4400–4499 tell the y-websocket client not to reconnect; 4500–4599 to retry later. */
@@ -26,6 +29,8 @@ export const closeCodes = {
   /** The server is going down or the room is unloading; reconnecting later is fine. */
   goingAway: 1001,
   protocolError: 1002,
+  /** The session or token that opened the socket ended (signed out, revoked, expired). */
+  signedOut: 4401,
   accessRevoked: 4403,
   mechanismGone: 4404,
   tooSlow: 4508,

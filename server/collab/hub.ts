@@ -5,6 +5,7 @@ import type { Db } from "../db/client";
 import { roleOf } from "../db/mechanisms";
 import { AnalysisPool } from "./analysis-pool";
 import { closeCodes, Connection, type CollabIdentity } from "./connection";
+import { endedCredentials } from "./credentials";
 import { RoleChangeFeed, type RoleChange } from "./role-feed";
 import { Room, type RoomTimings } from "./room";
 import { findSnapshot } from "./snapshots";
@@ -39,13 +40,20 @@ export class CollabHub {
   private readonly timings: HubTimings;
   private readonly roleFeed: RoleChangeFeed;
   private readonly analysis = new AnalysisPool();
+  private readonly connections = new Set<Connection>();
+  private checkingCredentials = false;
 
   constructor(
     private readonly db: Db,
     timings: Partial<HubTimings> = {},
   ) {
     this.timings = { ...defaultTimings, ...timings };
-    this.intervals = [setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs), setInterval(() => this.heartbeat(), this.timings.heartbeatMs)];
+    this.intervals = [
+      setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs),
+      setInterval(() => this.heartbeat(), this.timings.heartbeatMs),
+      // Sessions and tokens end outside the audit trail, so they are followed at its pace.
+      setInterval(() => void this.checkCredentials(), this.timings.roleFeedMs),
+    ];
     for (const interval of this.intervals) interval.unref();
     this.roleFeed = new RoleChangeFeed(db, (change) => this.applyRoleChange(change));
     this.roleFeed.start(this.timings.roleFeedMs);
@@ -98,7 +106,9 @@ export class CollabHub {
         socket.on("message", (data: Buffer) => connection.receive(new Uint8Array(data.buffer, data.byteOffset, data.byteLength)));
         socket.on("pong", () => (connection.alive = true));
         socket.on("error", (error) => console.warn(`[collab] socket error for ${connection.describe()}: ${error.message}`));
+        this.connections.add(connection);
         socket.on("close", () => {
+          this.connections.delete(connection);
           room.leave(connection);
           this.scheduleUnloadIfIdle(room);
         });
@@ -204,6 +214,23 @@ export class CollabHub {
       // The new role applies before the close completes, so nothing more is accepted meanwhile.
       connection.role = role ?? "viewer";
       connection.close(role ? closeCodes.roleChanged : closeCodes.accessRevoked, role ? "role changed" : "access revoked");
+    }
+  }
+
+  private async checkCredentials() {
+    if (this.checkingCredentials || this.connections.size === 0) return;
+    this.checkingCredentials = true;
+    try {
+      for (const connection of await endedCredentials(this.db, this.connections)) {
+        console.log(`[collab] ${connection.describe()}: credential ended; closing`);
+        // Nothing more is accepted from it while the close completes.
+        connection.role = "viewer";
+        connection.close(closeCodes.signedOut, "signed out");
+      }
+    } catch (error) {
+      console.error(`[collab] checking credentials failed: ${(error as Error).message}`);
+    } finally {
+      this.checkingCredentials = false;
     }
   }
 

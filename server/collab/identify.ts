@@ -18,6 +18,7 @@ export function identifyCaller(db: Db, sessions: SessionStore): Identify {
       name: caller.user?.name ?? "Guest with a view link",
       role,
       recheck: () => accessTo(db, caller, mechanismId, true),
+      credential: caller.tokenId ? { tokenId: caller.tokenId } : caller.sessionId ? { sessionId: caller.sessionId } : null,
     };
   };
 }
