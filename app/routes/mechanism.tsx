@@ -97,7 +97,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
           </div>
           {/* Before the room connects, the saved text stands in so the page is never blank. */}
           {source ? (
-            <CollabEditor ref={editor} source={source} awareness={room.awareness} readOnly={!canEdit} className="min-h-0 flex-1" />
+            <CollabEditor ref={editor} source={source} awareness={room.awareness} readOnly={!canEdit} notice={room.notice} className="min-h-0 flex-1" />
           ) : (
             <pre className="flex-1 overflow-auto p-4 text-sm leading-relaxed text-muted" data-testid="source">{mechanism.source}</pre>
           )}

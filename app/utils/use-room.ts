@@ -5,6 +5,7 @@ import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
 import { roomAnalysisReader, type RoomAnalysis } from "~/utils/analysis-map";
+import { MESSAGE_REFUSED, readRefusal } from "~/utils/room-refusal";
 import type { Role } from "../../server/db/roles";
 
 export type RoomStatus = "connecting" | "online" | "offline";
@@ -33,6 +34,13 @@ export interface Room {
   self: PeerUser;
   /** Everyone else in the room, one entry per connected client. */
   peers: Peer[];
+  /** Why the server last refused one of this user's edits; `id` tells a repeat apart. */
+  notice: RoomNotice | null;
+}
+
+export interface RoomNotice {
+  id: number;
+  message: string;
 }
 
 export interface RoomOptions {
@@ -81,6 +89,10 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
   const [synced, setSynced] = useState(false);
   const [analysis, setAnalysis] = useState<RoomAnalysis>({});
   const [peers, setPeers] = useState<Peer[]>([]);
+  const [notice, setNotice] = useState<RoomNotice | null>(null);
+  // A refused edit cannot be taken out of a Y.Doc, and every later edit builds on it: the room is
+  // rejoined with a fresh copy of the server's document instead.
+  const [generation, setGeneration] = useState(0);
   const publishedRole: Role = role ?? (readOnly ? "viewer" : "editor");
   const [self, setSelf] = useState<PeerUser>(() => ({
     name: user.name,
@@ -97,6 +109,11 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     // mount) end without opening, and abandoning, a socket.
     const opening = setTimeout(() => provider.connect());
     const analysisMap = doc.getMap("analysis");
+    provider.messageHandlers[MESSAGE_REFUSED] = (_reply, decoder) => {
+      const { message } = readRefusal(decoder);
+      setNotice((current) => ({ id: (current?.id ?? 0) + 1, message }));
+      setGeneration((current) => current + 1);
+    };
 
     const onStatus = ({ status: next }: { status: "connected" | "disconnected" | "connecting" }) =>
       // A reconnect attempt after a drop is still "offline" to the reader, not a fresh start.
@@ -125,7 +142,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
       setSynced(false);
       setPeers([]);
     };
-  }, [mechanismId]);
+  }, [mechanismId, generation]);
 
   const awareness = connection?.provider.awareness ?? null;
 
@@ -160,7 +177,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     return () => awareness.off("change", onChange);
   }, [awareness, user.name, user.colour, publishedRole]);
 
-  return { doc: connection?.doc ?? null, provider: connection?.provider ?? null, awareness, status, synced, analysis, self, peers };
+  return { doc: connection?.doc ?? null, provider: connection?.provider ?? null, awareness, status, synced, analysis, self, peers, notice };
 }
 
 /** y-codemirror.next draws remote carets from `color` and selections from `colorLight`. */

@@ -43,7 +43,9 @@ describe("durability", () => {
       await Promise.all([editor.synced, witness.synced]);
       let typing = true;
       const typist = typeAtRandom(editor.text, () => typing);
-      await sleep(200 + Math.random() * 600);
+      // The crash comes after a random amount of acknowledged typing, however busy the machine.
+      const grown = witness.text.length + 10 + Math.floor(Math.random() * 40);
+      await eventually("typing acknowledged to the witness", () => witness.text.length >= grown, 30_000);
       await server.crash();
       typing = false;
       expect(await typist).toBeGreaterThan(10);
@@ -70,7 +72,8 @@ describe("durability", () => {
     await editor.synced;
     let typing = true;
     const typist = typeAtRandom(editor.text, () => typing);
-    await sleep(300);
+    const grown = editor.text.length + 20;
+    await eventually("some typing", () => editor.text.length >= grown, 30_000);
     await server.crash();
     typing = false;
     await typist;

@@ -139,7 +139,8 @@ describe("live co-editing", () => {
       encoding.writeVarUint8Array(message, Y.encodeStateAsUpdate(local, before));
       raw.socket.send(encoding.toUint8Array(message));
     }
-    await sleep(500);
+    // Each connection logs its first dropped update; both have been heard once both lines are there.
+    await eventually("both viewer connections' updates dropped", () => server.logs().split("#1 from Curious Viewer").length === 3);
     raw.socket.close();
 
     expect(editorRoom.text.toString()).toBe("S -> P @ 2\n");
@@ -173,7 +174,9 @@ describe("live co-editing", () => {
     await eventually("the lowered editor to reconnect", () => editorRoom.provider.synced && editorRoom.provider.wsconnected);
     editorRoom.text.insert(0, "# after the change\n");
     leaverRoom.text.insert(0, "# after removal\n");
-    await sleep(500);
+    // The removed member's provider stays closed; the lowered one's update is heard and dropped.
+    expect(leaverRoom.provider.wsconnected).toBe(false);
+    await eventually("the lowered editor's update dropped", () => server.logs().includes("#1 from Soon Viewer"));
     expect(ownerRoom.text.toString()).toBe("A -> B\nB -> C\n");
     expect((await storedDocument(server.databaseUrl, id)).getText("source").toString()).toBe("A -> B\nB -> C\n");
   });
@@ -199,7 +202,9 @@ describe("live co-editing", () => {
     const forged = new Map([[ownerRoom.doc.clientID, { cursor: "forged" }]]);
     impostor.provider.awareness.meta.set(ownerRoom.doc.clientID, { clock: ownerClock + 10, lastUpdated: Date.now() });
     impostor.provider.ws!.send(new Uint8Array(encodeAwareness(impostor, ownerRoom.doc.clientID, forged)));
-    await sleep(400);
+    // The impostor's own presence, sent after the forgery on the same socket, arrives after it.
+    impostor.provider.awareness.setLocalStateField("cursor", "after the forgery");
+    await eventually("the impostor's own presence", () => (viewerRoom.provider.awareness.getStates().get(impostor.doc.clientID) as { cursor?: unknown } | undefined)?.cursor === "after the forgery");
     const ownerAsSeenByViewer = viewerRoom.provider.awareness.getStates().get(ownerRoom.doc.clientID) as { cursor?: unknown } | undefined;
     expect(ownerAsSeenByViewer?.cursor).not.toBe("forged");
   });
@@ -219,7 +224,7 @@ describe("live co-editing", () => {
     ownerRoom.text.insert(ownerRoom.text.length, "B -> C @ 3\n");
     await eventually("the visitor to see the edit", () => visitorRoom.text.toString().includes("B -> C"));
     visitorRoom.text.insert(0, "# guest scribble\n");
-    await sleep(300);
+    await eventually("the guest's update dropped", () => server.logs().includes("#1 from Guest with a view link"));
     expect(ownerRoom.text.toString()).not.toContain("guest");
 
     const closed = new Promise<number>((resolve) => visitorRoom.provider.on("closed", (event: { code: number }) => resolve(event.code)));
@@ -228,18 +233,140 @@ describe("live co-editing", () => {
     expect(await rawSocket(server.url, id, visitor.cookieHeader)).toEqual({ refused: 404 });
   });
 
-  it("refuses a socket edit that would make the text larger than 1 MiB", async () => {
+  it("refuses an edit over 1 MiB with a message, keeps the connection, and keeps what is typed after a resync", async () => {
     const owner = await signUp(server.url, "Paster");
     const id = await mechanism(owner, "A -> B\n");
     const editor = await member(owner, id, "editor", "Big Paster");
     const ownerRoom = join(owner, id);
     const pasterRoom = join(editor, id);
     await Promise.all([ownerRoom.synced, pasterRoom.synced]);
-    const closed = new Promise<number>((resolve) => pasterRoom.provider.on("closed", (event: { code: number }) => resolve(event.code)));
     pasterRoom.text.insert(0, `# ${"x".repeat(1024 * 1024)}\n`);
-    expect(await closed).toBe(4413);
+    await eventually("the refusal", () => pasterRoom.refusals.length > 0);
+    expect(pasterRoom.refusals).toEqual(["text-too-large"]);
+    // An edit built on the refused one is refused too, never kept waiting for it.
+    pasterRoom.text.insert(3, "typed after");
+    await eventually("the second refusal", () => pasterRoom.refusals.length > 1);
+    expect(pasterRoom.refusals[1]).toBe("out-of-step");
+    expect(pasterRoom.provider.wsconnected).toBe(true);
+
+    // The browser then drops its copy and joins again; what it types from there on is kept.
+    pasterRoom.close();
+    const again = join(editor, id);
+    await again.synced;
+    expect(again.text.toString()).toBe("A -> B\n");
+    again.text.insert(again.text.length, "C -> D\n");
+    ownerRoom.text.insert(0, "# owner\n");
+    await eventually("both edits stored", async () => (await storedDocument(server.databaseUrl, id)).getText("source").toString() === "# owner\nA -> B\nC -> D\n");
+    expect(again.refusals).toEqual([]);
+  });
+
+  it("refuses other top-level types, analysis keys, misshapen positions and NUL, saying why and keeping the connection", async () => {
+    const owner = await signUp(server.url, "Shape Keeper");
+    const id = await mechanism(owner, "A -> B\n");
+    const ownerRoom = join(owner, id);
+    await ownerRoom.synced;
+    await eventually("the first analysis", () => ownerRoom.analysis.has("deficiency"));
+    const attempts: [(doc: Y.Doc) => void, string][] = [
+      [(doc) => doc.getText("junk").insert(0, "x".repeat(1_000_000)), "shape"],
+      [(doc) => doc.getArray("list").push(["x".repeat(1000)]), "shape"],
+      [(doc) => doc.getMap("analysis").set("deficiency", 99), "shape"],
+      [(doc) => doc.getMap("analysis").set("forged", "x".repeat(1000)), "shape"],
+      [(doc) => doc.getMap("layout").set("A", { x: 1, y: "x".repeat(100_000) }), "shape"],
+      [(doc) => doc.getMap("layout").set("B", new Y.Map()), "shape"],
+      [(doc) => doc.getText("source").insert(0, "A\0B -> C\n"), "nul-character"],
+    ];
+    for (const [edit, reason] of attempts) {
+      const room = join(owner, id);
+      await room.synced;
+      edit(room.doc);
+      await eventually(`the refusal (${reason})`, () => room.refusals.length > 0);
+      expect(room.refusals).toEqual([reason]);
+      expect(room.provider.wsconnected).toBe(true);
+      room.close();
+    }
+    ownerRoom.doc.getMap("layout").set("A", { x: 10, y: 20 });
     ownerRoom.text.insert(ownerRoom.text.length, "B -> C\n");
-    await eventually("the owner's edit stored", async () => (await storedDocument(server.databaseUrl, id)).getText("source").toString() === "A -> B\nB -> C\n");
+    await eventually("the honest edits stored", async () => (await storedDocument(server.databaseUrl, id)).getText("source").toString() === "A -> B\nB -> C\n");
+    const stored = await storedDocument(server.databaseUrl, id);
+    expect([...stored.share.keys()].sort()).toEqual(["analysis", "layout", "source"]);
+    expect(stored.getMap("layout").toJSON()).toEqual({ A: { x: 10, y: 20 } });
+    expect(stored.getMap("analysis").get("deficiency")).not.toBe(99);
+    expect(stored.getMap("analysis").has("forged")).toBe(false);
+    expect(ownerRoom.refusals).toEqual([]);
+  });
+
+  it("caps a view-link guest's presence ids, state size and rate", async () => {
+    const owner = await signUp(server.url, "Presence Host");
+    const id = await mechanism(owner, "A -> B\n");
+    const link = (await (await owner.json(`/api/v1/mechanisms/${id}/view-links`, "POST", {})).json()) as { url: string };
+    const guest = new Client(server.url);
+    await guest.get(new URL(link.url).pathname);
+    const ownerRoom = join(owner, id);
+    const guestRoom = join(guest, id);
+    await Promise.all([ownerRoom.synced, guestRoom.synced]);
+    const own = guestRoom.doc.clientID;
+    const claim = (ids: number[], state: Record<string, unknown>) => {
+      const awareness = new awarenessProtocol.Awareness(new Y.Doc());
+      for (const clientId of ids) {
+        awareness.states.set(clientId, state);
+        awareness.meta.set(clientId, { clock: 50, lastUpdated: Date.now() });
+      }
+      const message = encoding.createEncoder();
+      encoding.writeVarUint(message, 1);
+      encoding.writeVarUint8Array(message, awarenessProtocol.encodeAwarenessUpdate(awareness, ids));
+      guestRoom.provider.ws!.send(encoding.toUint8Array(message));
+    };
+    const ids = Array.from({ length: 200 }, (_, i) => 1_000_000 + i);
+    claim(ids, { note: "x".repeat(15 * 1024) });
+    claim(ids, { note: "small" });
+    claim([own], { cursor: "marker" });
+    const seen = () => ownerRoom.provider.awareness.getStates();
+    await eventually("the guest's marker", () => (seen().get(own) as { cursor?: unknown } | undefined)?.cursor === "marker");
+    const claimed = ids.filter((clientId) => seen().has(clientId));
+    // The guest's own client and three more: four per connection.
+    expect(claimed.length).toBe(3);
+    expect(claimed.every((clientId) => (seen().get(clientId) as { note: string }).note === "small")).toBe(true);
+
+    for (let i = 0; i < 40; i++) claim([own], { cursor: i, note: "y".repeat(2000) });
+    await eventually("presence over the rate dropped", () => server.logs().includes("over its rate"));
+  });
+
+  it("closes a socket within seconds of its token being revoked, its session signed out or deleted", async () => {
+    const owner = await signUp(server.url, "Leaving Owner");
+    const id = await mechanism(owner, "A -> B\n");
+    const created = await owner.json("/api/v1/tokens", "POST", { name: "live script" });
+    expect(created.status).toBe(201);
+    const token = (await created.json()) as { id: string; token: string };
+    const laptop = new Client(server.url);
+    expect((await laptop.post("/sign-in", { email: owner.email, password: "correct horse battery" })).status).toBe(302);
+
+    const browserRoom = join(owner, id);
+    const laptopRoom = join(laptop, id);
+    const scriptRoom = joinRoom(server.url, id, "", { authorization: `Bearer ${token.token}` });
+    open.push(scriptRoom);
+    await Promise.all([browserRoom.synced, laptopRoom.synced, scriptRoom.synced]);
+    const closedWithin = async (room: RoomClient, act: () => Promise<unknown>) => {
+      const closed = new Promise<number>((resolve) => room.provider.on("closed", (event: { code: number }) => resolve(event.code)));
+      const started = Date.now();
+      await act();
+      expect(await closed).toBe(4401);
+      return Date.now() - started;
+    };
+
+    const timings = [
+      await closedWithin(scriptRoom, () => owner.request(`/api/v1/tokens/${token.id}`, { method: "DELETE" })),
+      await closedWithin(browserRoom, () => owner.post("/sign-out", {})),
+      // As a password reset does, whatever code deletes the rows.
+      await closedWithin(laptopRoom, async () => {
+        const client = new pg.Client(server.databaseUrl);
+        await client.connect();
+        await client.query("delete from sessions where user_id = (select id from users where email = $1)", [owner.email]);
+        await client.end();
+      }),
+    ];
+    // A second or two, with room for a loaded machine.
+    for (const ms of timings) expect(ms).toBeLessThan(5000);
+    expect(await rawSocket(server.url, id, laptop.cookieHeader)).toEqual({ refused: 401 });
   });
 
   it("recomputes the structure into the analysis map with a growing revision", async () => {

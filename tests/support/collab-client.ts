@@ -9,6 +9,7 @@ import * as awarenessProtocol from "y-protocols/awareness";
 import * as syncProtocol from "y-protocols/sync";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
+import { MESSAGE_REFUSED, readRefusal, type RefusalReason } from "../../app/utils/room-refusal";
 
 /** A member's live copy of the room. */
 export interface RoomReplica {
@@ -22,6 +23,8 @@ export interface RoomReplica {
 
 export interface RoomClient extends RoomReplica {
   provider: WebsocketProvider;
+  /** Reasons the server gave for refusing this client's edits, in order. */
+  refusals: RefusalReason[];
 }
 
 export function collabUrl(baseUrl: string): string {
@@ -29,25 +32,32 @@ export function collabUrl(baseUrl: string): string {
 }
 
 /**
- * `ws` with the Cookie header the browser would send; `onMessage` sees each incoming message
- * before the provider handles it.
+ * `ws` with the Cookie header the browser would send (or a script's Authorization header);
+ * `onMessage` sees each incoming message before the provider handles it.
  */
-function socketWithCookie(cookie: string, onMessage?: (data: Buffer) => void) {
+function socketWithCookie(cookie: string, onMessage?: (data: Buffer) => void, authorization?: string) {
   return class extends WebSocket {
     constructor(url: string | URL, protocols?: string | string[]) {
-      super(url, protocols, { headers: cookie ? { Cookie: cookie } : {} });
+      super(url, protocols, { headers: { ...(cookie ? { Cookie: cookie } : {}), ...(authorization ? { Authorization: authorization } : {}) } });
       if (onMessage) this.on("message", (data: Buffer | ArrayBuffer) => onMessage(Buffer.isBuffer(data) ? data : Buffer.from(data)));
     }
   };
 }
 
-export function joinRoom(baseUrl: string, mechanismId: string, cookie: string, options: { onMessage?: (data: Buffer) => void } = {}): RoomClient {
+export function joinRoom(
+  baseUrl: string,
+  mechanismId: string,
+  cookie: string,
+  options: { onMessage?: (data: Buffer) => void; authorization?: string } = {},
+): RoomClient {
   const doc = new Y.Doc();
   const provider = new WebsocketProvider(collabUrl(baseUrl), mechanismId, doc, {
-    WebSocketPolyfill: socketWithCookie(cookie, options.onMessage) as unknown as typeof globalThis.WebSocket,
+    WebSocketPolyfill: socketWithCookie(cookie, options.onMessage, options.authorization) as unknown as typeof globalThis.WebSocket,
     disableBc: true,
     maxBackoffTime: 300,
   });
+  const refusals: RefusalReason[] = [];
+  provider.messageHandlers[MESSAGE_REFUSED] = (_reply, decoder) => refusals.push(readRefusal(decoder).reason);
   const synced = new Promise<void>((resolve) => {
     if (provider.synced) resolve();
     provider.once("sync", (state: boolean) => state && resolve());
@@ -55,6 +65,7 @@ export function joinRoom(baseUrl: string, mechanismId: string, cookie: string, o
   return {
     doc,
     provider,
+    refusals,
     text: doc.getText("source"),
     analysis: doc.getMap("analysis"),
     synced,

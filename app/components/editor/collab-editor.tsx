@@ -15,14 +15,16 @@ import {
   keymap,
   lineNumbers,
 } from "@codemirror/view";
-import { type Ref, useEffect, useImperativeHandle, useRef } from "react";
+import { type Ref, useEffect, useImperativeHandle, useRef, useState } from "react";
 import { yCollab, yUndoManagerKeymap } from "y-codemirror.next";
 import type { Awareness } from "y-protocols/awareness";
 import * as Y from "yjs";
 import { mechanismLinter } from "~/editor/lint";
 import { mechanism } from "~/editor/mechanism-language";
 import { editorTheme } from "./editor-theme";
+import type { RoomNotice } from "~/utils/use-room";
 import { linkedRanges, showLinkedRanges, type TextRange } from "./linked-ranges";
+import { textLimits } from "./text-limits";
 
 export type { TextRange } from "./linked-ranges";
 
@@ -41,11 +43,19 @@ export interface CollabEditorProps {
   ref?: Ref<CollabEditorHandle>;
   className?: string;
   label?: string;
+  /** The room's latest refusal of an edit, shown like the editor's own. */
+  notice?: RoomNotice | null;
 }
 
-export function CollabEditor({ source, awareness, readOnly, ref, className, label = "Mechanism text" }: CollabEditorProps) {
+export function CollabEditor({ source, awareness, readOnly, ref, className, label = "Mechanism text", notice }: CollabEditorProps) {
   const host = useRef<HTMLDivElement>(null);
   const view = useRef<EditorView | null>(null);
+  // Why the last change was refused or altered, until dismissed or the next one.
+  const [message, setMessage] = useState<string | null>(null);
+
+  useEffect(() => {
+    if (notice) setMessage(notice.message);
+  }, [notice]);
 
   // Built in an effect, so the editor exists only in the browser; server rendering sends the host.
   useEffect(() => {
@@ -56,7 +66,7 @@ export function CollabEditor({ source, awareness, readOnly, ref, className, labe
       parent: host.current,
       state: EditorState.create({
         doc: source.toString(),
-        extensions: editorExtensions({ source, awareness, undoManager, readOnly, label }),
+        extensions: editorExtensions({ source, awareness, undoManager, readOnly, label, notify: setMessage }),
       }),
     });
     view.current = editor;
@@ -78,7 +88,19 @@ export function CollabEditor({ source, awareness, readOnly, ref, className, labe
     [],
   );
 
-  return <div ref={host} className={className} data-testid="collab-editor" data-readonly={readOnly || undefined} />;
+  return (
+    <>
+      {message && (
+        <p className="notice-error m-2 flex items-center justify-between gap-3" role="alert" data-testid="editor-notice">
+          <span>{message}</span>
+          <button type="button" className="btn" onClick={() => setMessage(null)}>
+            Dismiss
+          </button>
+        </p>
+      )}
+      <div ref={host} className={className} data-testid="collab-editor" data-readonly={readOnly || undefined} />
+    </>
+  );
 }
 
 interface EditorSetup {
@@ -87,9 +109,10 @@ interface EditorSetup {
   undoManager: Y.UndoManager | false;
   readOnly: boolean;
   label: string;
+  notify(message: string): void;
 }
 
-function editorExtensions({ source, awareness, undoManager, readOnly, label }: EditorSetup): Extension[] {
+function editorExtensions({ source, awareness, undoManager, readOnly, label, notify }: EditorSetup): Extension[] {
   return [
     lineNumbers(),
     foldGutter(),
@@ -108,6 +131,7 @@ function editorExtensions({ source, awareness, undoManager, readOnly, label }: E
     mechanism(),
     mechanismLinter,
     linkedRanges,
+    textLimits(notify),
     editorTheme,
     yCollab(source, awareness, { undoManager }),
     keymap.of([
