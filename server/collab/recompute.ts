@@ -1,6 +1,7 @@
 // The server's structure analysis of the shared text, recomputed shortly after every change and
-// written into the `analysis` map. Only the server may write that map: a client's change to it
-// is put back at once (see `repair`). These writes are logged like any other update, so a
+// written into the `analysis` map. Only the server may write that map: an editor's write to it is
+// refused before it is applied (update-check.ts), and a deletion, which names no map, is put back
+// at once (see `repair`). These writes are logged like any other update, so a
 // reload shows the last analysis; a restore puts back only the text, so they never get in its way.
 import { createHash } from "node:crypto";
 import * as Y from "yjs";

@@ -53,3 +53,72 @@ it("co-edits live and shows the viewer a growing graph", { timeout: 180_000 }, a
   expect(await editorText(ownerPage)).not.toContain("X -> Y");
   expect(await editorText(viewerPage)).not.toContain("X -> Y");
 });
+
+/** Pastes `text` into the focused editor as the browser's clipboard would. */
+function paste(page: Page, text: string) {
+  return page.locator(".cm-content").evaluate((content, pasted) => {
+    const data = new DataTransfer();
+    data.setData("text/plain", pasted);
+    content.dispatchEvent(new ClipboardEvent("paste", { clipboardData: data, bubbles: true, cancelable: true }));
+  }, text);
+}
+
+it("refuses a paste over 1 MiB at once with the reason, strips NUL, and keeps everything typed afterwards", { timeout: 180_000 }, async () => {
+  const owner = await signUp(world.server.url, "Paula Paster");
+  const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Big paste", source: "A -> B @ 1\n" })).json();
+  const page = await signedInPage(world, owner.email);
+  await page.goto(`${world.server.url}/m/${id}`);
+  await page.waitForSelector("[data-testid=room-status][data-status=online]", patience);
+  await page.click(".cm-content");
+  await page.keyboard.press("Control+End");
+
+  await paste(page, `# ${"x".repeat(1024 * 1024)}\n`);
+  await expect.poll(() => page.locator("[data-testid=editor-notice]").innerText(), patience).toContain("the text would be over 1 MiB");
+  expect(await editorText(page)).not.toContain("xxxx");
+  expect(await page.locator("[data-testid=room-status]").getAttribute("data-status")).toBe("online");
+
+  await page.keyboard.type("B -> C @ 2\n");
+  await paste(page, "C\u0000 -> D @ 3\n");
+  await expect.poll(() => page.locator("[data-testid=editor-notice]").innerText(), patience).toContain("NUL characters were removed");
+  await expect.poll(() => editorText(page), patience).toContain("C -> D @ 3");
+
+  // What was typed after the refusal is stored: a reload shows it.
+  const stored = async () => ((await (await owner.get(`/api/v1/mechanisms/${id}`)).json()) as { source: string }).source;
+  await expect.poll(stored, patience).toBe("A -> B @ 1\nB -> C @ 2\nC -> D @ 3\n");
+  await page.reload();
+  await page.waitForSelector("[data-testid=room-status][data-status=online]", patience);
+  await expect.poll(() => editorText(page), patience).toContain("C -> D @ 3");
+  expect(await editorText(page)).toContain("B -> C @ 2");
+});
+
+it("tells an editor whose paste the server refused, resyncs their copy, and keeps what they type next", { timeout: 180_000 }, async () => {
+  const [owner, editor] = await Promise.all([signUp(world.server.url, "Olga Owner"), signUp(world.server.url, "Ezra Editor")]);
+  const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Two pastes", source: "A -> B @ 1\n" })).json();
+  await owner.post(`/m/${id}/members`, { intent: "add", email: editor.email, role: "editor" });
+  const pages = await Promise.all([owner, editor].map((account) => signedInPage(world, account.email)));
+  for (const page of pages) {
+    await page.goto(`${world.server.url}/m/${id}`);
+    await page.waitForSelector("[data-testid=room-status][data-status=online]", patience);
+    await page.click(".cm-content");
+    await page.keyboard.press("Control+End");
+  }
+
+  // Each paste fits on its own; together they would take the text over 1 MiB. Pasted at once, each
+  // passes its own editor's check and the server refuses the second to arrive (or, if one paste
+  // reaches the other browser first, that editor refuses it locally): either way one is told why.
+  await Promise.all(pages.map((page, index) => paste(page, `# ${"ab"[index].repeat(600 * 1024)}\n`)));
+  const notices = () => Promise.all(pages.map((page) => page.locator("[data-testid=editor-notice]").count()));
+  await expect.poll(async () => (await notices()).reduce((a, b) => a + b), patience).toBe(1);
+  const refused = pages[(await notices()).indexOf(1)];
+  expect(await refused.locator("[data-testid=editor-notice]").innerText()).toContain("the text would be over 1 MiB");
+  await expect.poll(() => refused.locator("[data-testid=room-status]").getAttribute("data-status"), patience).toBe("online");
+
+  await refused.click(".cm-content");
+  await refused.keyboard.press("Control+Home");
+  await refused.keyboard.type("# typed after the refusal\n");
+  const stored = async () => ((await (await owner.get(`/api/v1/mechanisms/${id}`)).json()) as { source: string }).source;
+  await expect.poll(async () => (await stored()).startsWith("# typed after the refusal\nA -> B @ 1\n"), patience).toBe(true);
+  const source = await stored();
+  expect(source.length).toBeGreaterThan(600 * 1024);
+  expect(source.length).toBeLessThan(1024 * 1024);
+});

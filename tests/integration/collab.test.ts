@@ -390,14 +390,21 @@ describe("live co-editing", () => {
     const { report } = roomAnalysisReader()(viewerRoom.analysis);
     expect(report?.complexes).toContain("X + Y");
 
-    // Only the server writes the analysis: an editor's write to it is put back.
+    // Only the server writes the analysis: an editor's write to it is refused, a deletion put back.
     const deficiency = viewerRoom.analysis.get("deficiency");
     expect(deficiency).toBe(1);
     ownerRoom.analysis.set("deficiency", 42);
-    await eventually("the server's value back", () => ownerRoom.analysis.get("deficiency") === deficiency && viewerRoom.analysis.get("deficiency") === deficiency);
+    await eventually("the refusal", () => ownerRoom.refusals.length > 0);
+    expect(ownerRoom.refusals).toEqual(["shape"]);
+    ownerRoom.close();
+    const eraser = join(owner, id);
+    await eraser.synced;
+    expect(eraser.analysis.get("deficiency")).toBe(deficiency);
+    eraser.analysis.delete("deficiency");
+    await eventually("the server's value back", () => eraser.analysis.get("deficiency") === deficiency && viewerRoom.analysis.get("deficiency") === deficiency);
 
     const revision = viewerRoom.analysis.get("revision") as number;
-    ownerRoom.text.insert(0, "X -> @ \n");
+    eraser.text.insert(0, "X -> @ \n");
     await eventually("errors reported", () => (viewerRoom.analysis.get("errors") as number) > 0);
     expect(viewerRoom.analysis.get("revision") as number).toBeGreaterThan(revision);
   });
