@@ -55,6 +55,8 @@ export const MAX_DOCUMENT_BYTES = 8 * 1024 * 1024;
 /** Shortest time between two relays of presence to a room. */
 const AWARENESS_RELAY_MS = 40;
 
+const withoutNul = (text: string) => text.replaceAll("\0", "");
+
 type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin;
 
 export class Room {
@@ -137,7 +139,7 @@ export class Room {
     // PostgreSQL's text cannot hold NUL, so the mirror and every snapshot would fail on a text
     // stored before the room refused it; such a text loses its NULs once, as the server's edit.
     const loaded = this.text.toString();
-    if (loaded.includes("\0")) doc.transact(() => replaceText(this.text, loaded.replaceAll("\0", "")), analysisOrigin);
+    if (loaded.includes("\0")) doc.transact(() => replaceText(this.text, withoutNul(loaded)), analysisOrigin);
     if (this.recompute.stale) this.recompute.schedule();
     if (this.text.toString() !== savedSource) void this.mirror.flush();
   }
@@ -232,7 +234,8 @@ export class Room {
 
   /** Writes a whole new text as one edit by `userId`; resolves once stored and mirrored. */
   async replaceSource(source: string, userId: string) {
-    this.doc.transact(() => replaceText(this.text, source), new ServiceEdit(userId));
+    // The HTTP door refuses NUL; should a caller not, the live text still never holds one.
+    this.doc.transact(() => replaceText(this.text, withoutNul(source)), new ServiceEdit(userId));
     await this.log.flushed();
     await this.mirror.flush();
   }

@@ -295,6 +295,25 @@ describe("live co-editing", () => {
     expect(ownerRoom.refusals).toEqual([]);
   });
 
+  it("takes NUL out of a text stored before the room refused it, so the mirror and named versions save", async () => {
+    const owner = await signUp(server.url, "Old Data Owner");
+    const id = await mechanism(owner, "");
+    const old = new Y.Doc();
+    old.getText("source").insert(0, "A\0 -> B\0\n");
+    const client = new pg.Client(server.databaseUrl);
+    await client.connect();
+    await client.query("insert into doc_updates (mechanism_id, update) values ($1, $2)", [id, Buffer.from(Y.encodeStateAsUpdate(old))]);
+    await client.end();
+
+    const room = join(owner, id);
+    await room.synced;
+    await eventually("the text without NUL", () => room.text.toString() === "A -> B\n");
+    const named = await owner.json(`/api/v1/mechanisms/${id}/snapshots`, "POST", { name: "clean" });
+    expect(named.status).toBe(201);
+    expect(((await named.json()) as { snapshot: { source: string } }).snapshot.source).toBe("A -> B\n");
+    await eventually("the mirror saved", async () => ((await (await owner.get(`/api/v1/mechanisms/${id}`)).json()) as { source: string }).source === "A -> B\n");
+  });
+
   it("caps a view-link guest's presence ids, state size and rate", async () => {
     const owner = await signUp(server.url, "Presence Host");
     const id = await mechanism(owner, "A -> B\n");
