@@ -47,6 +47,8 @@ export class Connection {
   readonly presenceBudget = new PresenceBudget();
   private droppedUpdates = 0;
   private droppedPresence = 0;
+  /** Refused updates: logged once, then counted, like dropped ones. */
+  private refused = 0;
 
   constructor(
     readonly socket: WebSocket,
@@ -91,7 +93,11 @@ export class Connection {
           const outcome = this.room.applyClientUpdate(this, message.update);
           if (outcome === "unreadable") return this.close(closeCodes.protocolError, "bad update");
           // The editor is told why and resyncs; the connection stays open.
-          if (outcome !== "applied") this.send(encodeRefusal(outcome));
+          if (outcome !== "applied") {
+            this.refused++;
+            if (this.refused === 1 || this.refused % 100 === 0) console.warn(`[collab] refused update #${this.refused} (${outcome}) from ${this.describe()}`);
+            this.send(encodeRefusal(outcome));
+          }
         }
         return;
       case "awareness":

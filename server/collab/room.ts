@@ -51,7 +51,7 @@ const MAX_UPDATE_RELAY_MS = 16;
  * endpoint.ts). The room keeps a running estimate (the stored size plus every update since) and
  * encodes the document only when an update could cross the bound.
  */
-export const MAX_DOCUMENT_BYTES = 8 * 1024 * 1024;
+const MAX_DOCUMENT_BYTES = 8 * 1024 * 1024;
 /** Shortest time between two relays of presence to a room. */
 const AWARENESS_RELAY_MS = 40;
 
@@ -168,10 +168,7 @@ export class Room {
   applyClientUpdate(connection: Connection, update: Uint8Array): "applied" | "unreadable" | RefusalReason {
     try {
       const refusal = this.check.refusal(update) ?? (this.wouldOutgrowLimit(update) ? "text-too-large" : null) ?? this.wouldOutgrowDocument(update);
-      if (refusal) {
-        console.warn(`[collab] refused an update of ${update.byteLength} bytes from ${connection.describe()}: ${refusal}`);
-        return refusal;
-      }
+      if (refusal) return refusal;
       Y.applyUpdate(this.doc, update, connection);
       return "applied";
     } catch (error) {

@@ -310,7 +310,8 @@ describe("live co-editing", () => {
     await eventually("the text without NUL", () => room.text.toString() === "A -> B\n");
     const named = await owner.json(`/api/v1/mechanisms/${id}/snapshots`, "POST", { name: "clean" });
     expect(named.status).toBe(201);
-    expect(((await named.json()) as { snapshot: { source: string } }).snapshot.source).toBe("A -> B\n");
+    const { snapshots } = (await (await owner.get(`/api/v1/mechanisms/${id}/snapshots`)).json()) as { snapshots: { name: string | null; source: string }[] };
+    expect(snapshots.find((snapshot) => snapshot.name === "clean")?.source).toBe("A -> B\n");
     await eventually("the mirror saved", async () => ((await (await owner.get(`/api/v1/mechanisms/${id}`)).json()) as { source: string }).source === "A -> B\n");
   });
 
