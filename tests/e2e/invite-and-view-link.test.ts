@@ -7,7 +7,7 @@ import { signUp } from "../support/http";
 
 const world = useServerAndBrowser();
 
-it("invites a newcomer who edits live, and shows a class the live graph through a view link", async () => {
+it("invites a newcomer who edits live, and shows a class the live graph through a view link", { timeout: 180_000 }, async () => {
   const owner = await signUp(world.server.url, "Owen Owner");
   const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Seminar scheme", source: "A -> B @ 1\n" })).json();
 
@@ -35,7 +35,7 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   await invitee.keyboard.type("B -> C @ 2\n", { delay: 10 });
 
   await ownerPage.goto(`${world.server.url}/m/${id}`);
-  await expect.poll(() => ownerPage.locator(".cm-content").innerText(), { timeout: 10_000 }).toContain("B -> C @ 2");
+  await expect.poll(() => ownerPage.locator(".cm-content").innerText(), { timeout: 30_000 }).toContain("B -> C @ 2");
 
   // A view link for the class, opened by a browser that never signed in.
   await ownerPage.goto(`${world.server.url}/m/${id}/members`);
@@ -44,11 +44,11 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   const guest = await (await world.browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
   await guest.goto(viewUrl);
   await guest.waitForURL(`**/m/${id}`);
-  await expect.poll(() => guest.locator(".react-flow__node").count(), { timeout: 10_000 }).toBe(3);
+  await expect.poll(() => guest.locator(".react-flow__node").count(), { timeout: 30_000 }).toBe(3);
   expect(await guest.locator(".cm-content").getAttribute("contenteditable")).toBe("false");
   // It follows the edits live.
   await invitee.keyboard.type("C -> D @ 3\n", { delay: 10 });
-  await expect.poll(() => guest.locator(".react-flow__node").count(), { timeout: 10_000 }).toBe(4);
+  await expect.poll(() => guest.locator(".react-flow__node").count(), { timeout: 30_000 }).toBe(4);
   // And it opens nothing else.
   const members = await guest.goto(`${world.server.url}/m/${id}/members`);
   expect(guest.url()).toContain("/sign-in");

@@ -92,7 +92,7 @@ describe("durability", () => {
     const editor = joinRoom(server.url, id, owner.cookieHeader);
     await editor.synced;
     for (const line of ["B -> C @ 2\n", "C -> A @ 3\n", "# a closed cycle\n"]) editor.text.insert(editor.text.length, line);
-    await eventually("the analysis of the cycle", () => editor.analysis.get("reactions") === 3);
+    await eventually("the analysis of the cycle", () => editor.analysis.get("reactions") === 3, 30_000);
     const text = editor.text.toString();
     const revision = editor.analysis.get("revision") as number;
     editor.close();
@@ -111,7 +111,7 @@ describe("durability", () => {
     await again.synced;
     expect(again.text.toString()).toBe(text);
     again.text.insert(0, "D -> A @ 4\n");
-    await eventually("a newer analysis", () => (again.analysis.get("revision") as number) > revision && again.analysis.get("reactions") === 4);
+    await eventually("a newer analysis", () => (again.analysis.get("revision") as number) > revision && again.analysis.get("reactions") === 4, 30_000);
     again.close();
-  });
+  }, 120_000);
 });
