@@ -2,6 +2,7 @@
 // co-author reads and writes the same map, so all of them see one picture of the graph.
 import { useCallback, useEffect, useState } from "react";
 import type * as Y from "yjs";
+import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS } from "~/utils/room-refusal";
 import type { XY } from "./layout";
 
 export interface SharedLayout {
@@ -23,17 +24,26 @@ export function useSharedLayout(layout: Y.Map<unknown> | null): SharedLayout {
 
   const write = useCallback(
     (entries: Readonly<Record<string, XY>>) => {
-      if (!layout) return;
-      const apply = () => {
-        for (const [key, { x, y }] of Object.entries(entries)) layout.set(key, { x: Math.round(x), y: Math.round(y) });
-      };
-      if (layout.doc) layout.doc.transact(apply);
-      else apply();
+      if (layout) writePositions(layout, entries);
     },
     [layout],
   );
 
   return { positions, write };
+}
+
+/** Rounded positions in one transaction, skipping what the server would refuse (and the room then resync). */
+export function writePositions(layout: Y.Map<unknown>, entries: Readonly<Record<string, XY>>) {
+  const apply = () => {
+    let free = MAX_LAYOUT_KEYS - layout.size;
+    for (const [key, { x, y }] of Object.entries(entries)) {
+      if (key.length > MAX_LAYOUT_KEY_CHARS || !Number.isFinite(x) || !Number.isFinite(y)) continue;
+      if (!layout.has(key) && free-- <= 0) continue;
+      layout.set(key, { x: Math.round(x), y: Math.round(y) });
+    }
+  };
+  if (layout.doc) layout.doc.transact(apply);
+  else apply();
 }
 
 /** Entries that are not a point (written by an older or broken client) are ignored. */
