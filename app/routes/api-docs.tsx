@@ -33,7 +33,7 @@ const endpoints: Endpoint[] = [
   { method: "POST", path: "/api/v1/analyze", role: "signed in", what: "Analyse a text without saving it: { source }.", example: (o) => `curl ${auth} ${json} -d '{"source":"X + Y -> 2Y @ 1"}' ${o}/api/v1/analyze` },
   { method: "POST", path: "/api/v1/realizations", role: "signed in", what: "Kinetic check and canonical realization of a polynomial ODE: { ode, shift?, multiply? }.", example: (o) => `curl ${auth} ${json} -d '{"ode":"x\\' = x - x*y\\ny\\' = x*y - y"}' ${o}/api/v1/realizations` },
   { method: "POST", path: "/api/v1/tokens", role: "browser session", what: "Create a token: { name } → { id, token } (shown once).", example: (o) => `curl -b cookies.txt ${json} -d '{"name":"script"}' ${o}/api/v1/tokens` },
-  { method: "DELETE", path: "/api/v1/tokens/:id", role: "signed in", what: "Revoke a token.", example: (o) => `curl -X DELETE ${auth} ${o}/api/v1/tokens/TOKEN_ID` },
+  { method: "DELETE", path: "/api/v1/tokens/:id", role: "signed in", what: "Revoke a token; live-document sockets opened with it close within about a second.", example: (o) => `curl -X DELETE ${auth} ${o}/api/v1/tokens/TOKEN_ID` },
 ];
 
 export default function ApiDocs({ loaderData }: Route.ComponentProps) {
