@@ -40,6 +40,16 @@ describe("UpdateCheck", () => {
     expect(refusal((doc) => doc.getMap("analysis").set("deficiency", 99))).toBe("shape");
     expect(refusal((doc) => doc.getMap("analysis").set("new", 1))).toBe("shape");
     expect(refusal((doc) => doc.getText("source").format(0, 2, { bold: true }))).toBe("shape");
+    // Deleted at once, yet still naming a type of its own.
+    expect(
+      refusal((doc) =>
+        doc.transact(() => {
+          const junk = doc.getText("x".repeat(100_000));
+          junk.insert(0, "gone");
+          junk.delete(0, 4);
+        }),
+      ),
+    ).toBe("shape");
   });
 
   it("refuses layout values that are not positions of finite numbers, long keys and too many keys", () => {

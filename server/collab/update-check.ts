@@ -55,13 +55,17 @@ export class UpdateCheck {
       if (place === "discarded") continue;
       if (place === "missing") return "out-of-step";
       if (place === "nested") return "shape";
+      // Content deleted in the same update still names its parent and key, which are stored.
       const { content } = entry.struct as Y.Item;
-      if (content instanceof Y.ContentDeleted) continue;
+      const deleted = content instanceof Y.ContentDeleted;
       if (place.root === "source") {
-        if (place.key !== null || !(content instanceof Y.ContentString)) return "shape";
+        if (place.key !== null) return "shape";
+        if (deleted) continue;
+        if (!(content instanceof Y.ContentString)) return "shape";
         if (content.str.includes("\0")) return "nul-character";
       } else if (place.root === "layout") {
         if (place.key === null || place.key.length > MAX_LAYOUT_KEY_CHARS) return "shape";
+        if (deleted) continue;
         if (!(content instanceof Y.ContentAny) || !content.arr.every(isPosition)) return "shape";
         if (!layout.has(place.key)) newLayoutKeys.add(place.key);
       } else return "shape";
