@@ -1,11 +1,11 @@
 // Choosing a new password from a mailed link: signs in afresh and ends every other session.
-import { Form, Link, useNavigation } from "react-router";
+// A dead link is answered with data and 404, not thrown, so a failed POST still shows its reason.
+import { data, Form, Link, useNavigation } from "react-router";
 import { signUpForm } from "../../server/auth/authenticator";
 import { lookUpEmailToken, resetPassword } from "../../server/auth/email-tokens";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { startUserSession } from "~/utils/auth.server";
-import { httpError } from "~/utils/http";
 import type { Route } from "./+types/reset-password";
 
 export const meta: Route.MetaFunction = () => [{ title: "Choose a new password · Mechweave" }];
@@ -14,8 +14,8 @@ const newPassword = signUpForm.pick({ password: true });
 
 export async function loader({ context, params }: Route.LoaderArgs) {
   const found = await lookUpEmailToken(context.db, params.token, "reset");
-  if (!found.ok) throw httpError(404, found.reason);
-  return { email: found.user.email };
+  if (!found.ok) return data({ email: null, problem: found.reason }, { status: 404 });
+  return { email: found.user.email, problem: null };
 }
 
 export async function action(args: Route.ActionArgs) {
@@ -29,6 +29,13 @@ export async function action(args: Route.ActionArgs) {
 export default function ResetPassword({ loaderData, actionData }: Route.ComponentProps) {
   const busy = useNavigation().state !== "idle";
   const failed = actionData as { error?: string } | undefined;
+  if (!loaderData.email) {
+    return (
+      <AuthCard title="This link does not work" lead={failed?.error ?? loaderData.problem ?? ""} footer={<Link to="/forgot-password">Ask for a new link</Link>}>
+        <p className="text-sm text-muted">Reset links work once, for an hour; only the newest one works.</p>
+      </AuthCard>
+    );
+  }
   return (
     <AuthCard
       title="Choose a new password"

@@ -8,6 +8,9 @@ import type { Route } from "./+types/sign-in";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Mechweave" }];
 
+/** The action's Retry-After reaches the page's response (React Router drops action headers otherwise). */
+export const headers: Route.HeadersFunction = ({ actionHeaders }) => actionHeaders;
+
 export async function loader(args: Route.LoaderArgs) {
   return redirectIfSignedIn(args);
 }

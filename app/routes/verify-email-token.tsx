@@ -1,25 +1,26 @@
 // A confirmation link from the mail. Opening it only shows a button: mail scanners that fetch
-// links must not use up the single-use token; the POST confirms.
-import { Form, Link } from "react-router";
+// links must not use up the single-use token; the POST confirms. The loader answers a dead link
+// with data and 404 rather than throwing, because it runs again right after a successful POST.
+import { data, Form, Link } from "react-router";
 import { lookUpEmailToken, verifyAddress } from "../../server/auth/email-tokens";
 import { findMechanism } from "../../server/db/mechanisms";
 import { AuthCard } from "~/components/auth-card";
-import { httpError } from "~/utils/http";
 import type { Route } from "./+types/verify-email-token";
 
 export const meta: Route.MetaFunction = () => [{ title: "Confirm your e-mail · Mechweave" }];
 
 export async function loader({ context, params }: Route.LoaderArgs) {
   const found = await lookUpEmailToken(context.db, params.token, "verify");
-  if (!found.ok) throw httpError(404, found.reason);
-  return { email: found.user.email };
+  if (!found.ok) return data({ email: null, problem: found.reason }, { status: 404 });
+  return { email: found.user.email, problem: null };
 }
 
 export async function action({ context, params }: Route.ActionArgs) {
   const result = await verifyAddress(context.db, params.token);
   if (!result.ok) return Response.json({ error: result.reason }, { status: 400 });
   const joined = await Promise.all(result.joined.map(async (id) => ({ id, title: (await findMechanism(context.db, id))?.title ?? id })));
-  return { confirmed: result.user.email, joined };
+  // An explicit 200: the action's status, not the loader's 404 for the now-used link, is the page's.
+  return data({ confirmed: result.user.email, joined }, { status: 200 });
 }
 
 export default function VerifyEmailToken({ loaderData, actionData }: Route.ComponentProps) {
@@ -35,6 +36,13 @@ export default function VerifyEmailToken({ loaderData, actionData }: Route.Compo
             </ul>
           </div>
         )}
+      </AuthCard>
+    );
+  }
+  if (!loaderData.email) {
+    return (
+      <AuthCard title="This link does not work" lead={result?.error ?? loaderData.problem ?? ""} footer={<Link to="/verify-email">Ask for a new link</Link>}>
+        <p className="text-sm text-muted">Signed in, you can have a fresh link sent to your address.</p>
       </AuthCard>
     );
   }
