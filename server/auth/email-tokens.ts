@@ -85,6 +85,9 @@ export function verifyAddress(db: Db, token: string) {
 
 /** Sets the new password, ends every session of the account and clears its failed sign-ins. */
 export async function resetPassword(db: Db, token: string, password: string) {
+  // Look before hashing: a dead link should not cost an Argon2 run.
+  const found = await lookUpEmailToken(db, token, "reset");
+  if (!found.ok) return found;
   const passwordHash = await hashPassword(password);
   return redeem(db, token, "reset", async (tx, user) => {
     await tx.update(users).set({ passwordHash }).where(eq(users.id, user.id));

@@ -1,7 +1,7 @@
-import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD, demoAccounts } from "../../server/seed/demo";
 import { Client, confirmAddress, demoOwner, linkIn, mailTo, signIn, signUp, signUpUnconfirmed, VERIFY_SUBJECT, waitForMail } from "../support/http";
+import { query } from "../support/database";
 import { startTestServer } from "../support/server";
 
 type Server = Awaited<ReturnType<typeof startTestServer>>;
@@ -11,15 +11,7 @@ beforeAll(async () => {
 });
 afterAll(() => server?.dispose());
 
-async function sql(on: Server, text: string, values: unknown[] = []) {
-  const client = new pg.Client(on.databaseUrl);
-  await client.connect();
-  try {
-    return await client.query(text, values);
-  } finally {
-    await client.end();
-  }
-}
+const sql = (on: Server, text: string, values: unknown[] = []) => query(on.databaseUrl, text, values);
 
 const RESET_SUBJECT = "Choose a new Mechweave password";
 

@@ -1,22 +1,14 @@
 // Invitations, view links and access tokens: they work once, until expiry, until revoked.
-import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Client, confirmAddress, linkIn, mailTo, signUp } from "../support/http";
+import { query } from "../support/database";
 import { startTestServer } from "../support/server";
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let owner: Awaited<ReturnType<typeof signUp>>;
 let mechanismId: string;
 
-async function sql(text: string, values: unknown[] = []) {
-  const client = new pg.Client(server.databaseUrl);
-  await client.connect();
-  try {
-    return await client.query(text, values);
-  } finally {
-    await client.end();
-  }
-}
+const sql = (text: string, values: unknown[] = []) => query(server.databaseUrl, text, values);
 
 async function latestMailTo(address: string) {
   return (await mailTo(server.url, address))[0];
