@@ -35,10 +35,13 @@ export function InvitationsPanel({ invitations }: { invitations: PendingInvitati
                 </td>
                 <td className="px-4 py-3">
                   <div className="flex justify-end gap-2">
-                    <Form method="post">
-                      <input type="hidden" name="invitationId" value={i.id} />
-                      <button className="btn" name="intent" value="resend" type="submit">Resend</button>
-                    </Form>
+                    {/* Accepted already: a new link would only undo the acceptance. */}
+                    {!i.waitingForVerification && (
+                      <Form method="post">
+                        <input type="hidden" name="invitationId" value={i.id} />
+                        <button className="btn" name="intent" value="resend" type="submit">Resend</button>
+                      </Form>
+                    )}
                     <Form method="post">
                       <input type="hidden" name="invitationId" value={i.id} />
                       <button className="btn btn-danger" name="intent" value="uninvite" type="submit">Withdraw</button>
