@@ -56,4 +56,4 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   const members = await guest.goto(`${world.server.url}/m/${id}/members`);
   expect(guest.url()).toContain("/sign-in");
   expect(members?.status()).toBe(200);
-});
+}, 60_000); // two mails and a confirmation before the invitee edits

@@ -181,7 +181,7 @@ describe("e-mail verification", () => {
     expect(tooSoon.status).toBe(429);
     await sql(server, "update email_tokens set created_at = created_at - interval '2 minutes' where user_id = (select id from users where email = $1)", [account.email]);
     expect((await account.post("/verify-email", {})).status).toBe(200);
-    expect((await mailTo(server.url, account.email)).filter((m) => m.subject === VERIFY_SUBJECT)).toHaveLength(2);
+    expect((await mailTo(server.url, account.email)).filter((m) => m.subject.includes(VERIFY_SUBJECT))).toHaveLength(2);
 
     const retired = await new Client(server.url).get(first.pathname);
     expect(retired.status).toBe(404);
