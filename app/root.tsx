@@ -59,7 +59,7 @@ const navigation = [
   ["/settings/tokens", "Tokens"],
 ] as const;
 
-function Header({ user }: { user: { name: string; email: string } | null }) {
+function Header({ user }: { user: { name: string; email: string; verified: boolean } | null }) {
   return (
     <header className="border-b border-line bg-surface/80 backdrop-blur">
       <div className="mx-auto flex h-14 max-w-[96rem] items-center gap-6 px-6">
@@ -80,6 +80,7 @@ function Header({ user }: { user: { name: string; email: string } | null }) {
           <ThemeToggle />
           {user ? (
             <>
+              {!user.verified && <Link to="/verify-email" className="text-danger">Confirm your e-mail</Link>}
               <span className="text-muted" title={user.email}>{user.name}</span>
               <Form method="post" action="/sign-out">
                 <button className="btn" type="submit">Sign out</button>

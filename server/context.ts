@@ -17,6 +17,8 @@ export interface AppServices {
   /** Per-token request budget for the JSON API. */
   tokenLimiter: RateLimiter;
   mailer: Mailer;
+  /** PUBLIC_URL's origin, when set: where mailed and shared links point (see publicOrigin). */
+  publicOrigin: string | null;
   /** Dynamics jobs in worker threads (loaded by the server, not bundled with the routes). */
   dynamics: { run: typeof runInWorker };
   /** The local mail catcher, when SMTP_URL is not set. */

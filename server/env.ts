@@ -7,8 +7,20 @@ const schema = z.object({
   HOST: z.string().default("127.0.0.1"),
   DATABASE_URL: z.string().url().optional(),
   SMTP_URL: z.string().url().optional(),
-  /** Public base URL used in e-mails and view links. */
-  PUBLIC_URL: z.string().url().optional(),
+  /** Where people reach Mechweave: the origin of every mailed or shared link; https makes cookies Secure. */
+  PUBLIC_URL: z.url({ protocol: /^https?$/, message: "PUBLIC_URL must be an http or https URL." }).optional(),
+  /**
+   * Which proxies may speak for the client in X-Forwarded-For (Express's "trust proxy"): unset or
+   * "false" believes nobody, a number that many hops, else addresses, subnets or "loopback".
+   */
+  TRUST_PROXY: z
+    .string()
+    .optional()
+    .transform((value): boolean | number | string => {
+      if (value === undefined || value === "" || value === "false") return false;
+      if (value === "true") return true;
+      return /^\d+$/.test(value) ? Number(value) : value;
+    }),
   SESSION_SECRET: z.string().min(16).optional(),
   /** Seed the demo workspace even into an external database. */
   SEED_DEMO: z.enum(["0", "1"]).optional(),

@@ -37,13 +37,16 @@ const mailCatcher = env.SMTP_URL ? null : await startMailCatcher();
 const mailer = createMailer(env.SMTP_URL ?? mailCatcher!.url);
 
 const server = http.createServer();
-const sessions = createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), false);
+const publicOrigin = env.PUBLIC_URL ? new URL(env.PUBLIC_URL).origin : null;
+// Browsers send a Secure cookie only over https: set it whenever the public address is https.
+const sessions = createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), publicOrigin?.startsWith("https:") ?? false);
 const services = {
   db: database.db,
   sessions,
   authenticator: createAuthenticator(database.db),
   tokenLimiter: new RateLimiter(120, 60_000),
   mailer,
+  publicOrigin,
   mailCatcher,
   dynamics: { run: runInWorker },
   collab: attachCollaboration(server, { db: database.db, identify: identifyCaller(database.db, sessions) }),
@@ -52,7 +55,11 @@ const services = {
 const vite = dev
   ? await (await import("vite")).createServer({ root: projectRoot, server: { middlewareMode: true, hmr: { server } } })
   : undefined;
-server.on("request", await createApp({ projectRoot, services, vite }));
+const app = await createApp({ projectRoot, services, vite });
+// The client address behind sign-in limits comes from X-Forwarded-For only through proxies the
+// operator names; anyone can write that header.
+app.set("trust proxy", env.TRUST_PROXY);
+server.on("request", app);
 
 server.listen(env.PORT, env.HOST, () => {
   const address = server.address();

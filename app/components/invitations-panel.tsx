@@ -9,6 +9,7 @@ interface PendingInvitation {
   createdAt: string;
   expiresAt: string;
   expired: boolean;
+  waitingForVerification: boolean;
 }
 
 export function InvitationsPanel({ invitations }: { invitations: PendingInvitation[] }) {
@@ -24,14 +25,23 @@ export function InvitationsPanel({ invitations }: { invitations: PendingInvitati
                 <td className="px-4 py-3 font-medium">{i.email}</td>
                 <td className="px-4 py-3"><RolePill role={i.role} /></td>
                 <td className="px-4 py-3 text-muted">
-                  {i.expired ? <span className="text-danger">expired</span> : <>sent {timeAgo(i.createdAt)}</>}
+                  {i.waitingForVerification ? (
+                    <span title="The seat opens once they confirm their e-mail address">accepted, waiting for the address to be confirmed</span>
+                  ) : i.expired ? (
+                    <span className="text-danger">expired</span>
+                  ) : (
+                    <>sent {timeAgo(i.createdAt)}</>
+                  )}
                 </td>
                 <td className="px-4 py-3">
                   <div className="flex justify-end gap-2">
-                    <Form method="post">
-                      <input type="hidden" name="invitationId" value={i.id} />
-                      <button className="btn" name="intent" value="resend" type="submit">Resend</button>
-                    </Form>
+                    {/* Accepted already: a new link would only undo the acceptance. */}
+                    {!i.waitingForVerification && (
+                      <Form method="post">
+                        <input type="hidden" name="invitationId" value={i.id} />
+                        <button className="btn" name="intent" value="resend" type="submit">Resend</button>
+                      </Form>
+                    )}
                     <Form method="post">
                       <input type="hidden" name="invitationId" value={i.id} />
                       <button className="btn btn-danger" name="intent" value="uninvite" type="submit">Withdraw</button>

@@ -34,6 +34,13 @@ const endpoints: Endpoint[] = [
   { method: "POST", path: "/api/v1/realizations", role: "signed in", what: "Kinetic check and canonical realization of a polynomial ODE: { ode, shift?, multiply? }.", example: (o) => `curl ${auth} ${json} -d '{"ode":"x\\' = x - x*y\\ny\\' = x*y - y"}' ${o}/api/v1/realizations` },
   { method: "POST", path: "/api/v1/tokens", role: "browser session", what: "Create a token: { name } → { id, token } (shown once).", example: (o) => `curl -b cookies.txt ${json} -d '{"name":"script"}' ${o}/api/v1/tokens` },
   { method: "DELETE", path: "/api/v1/tokens/:id", role: "signed in", what: "Revoke a token; live-document sockets opened with it close within about a second.", example: (o) => `curl -X DELETE ${auth} ${o}/api/v1/tokens/TOKEN_ID` },
+  {
+    method: "GET",
+    path: "/api/dev/mail",
+    role: "demo owner's session",
+    what: "Development only (no SMTP_URL): the mail the local catcher kept, newest first. Only the demo owner's browser session reads it: 401 signed out, 404 to everyone else, access tokens included.",
+    example: (o) => `curl -b cookies.txt ${o}/api/dev/mail`,
+  },
 ];
 
 export default function ApiDocs({ loaderData }: Route.ComponentProps) {

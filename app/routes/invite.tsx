@@ -6,6 +6,7 @@ import { acceptInvitation, lookUpInvitation } from "../../server/db/invitations"
 import { isMembershipError } from "../../server/db/mechanisms";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
+import { sendVerification } from "~/utils/account-mail.server";
 import { getUser, startUserSession } from "~/utils/auth.server";
 import { httpError } from "~/utils/http";
 import type { Route } from "./+types/invite";
@@ -22,6 +23,7 @@ export async function loader(args: Route.LoaderArgs) {
     role: found.invitation.role,
     email: found.invitation.email,
     signedInAs: user?.email ?? null,
+    verified: user?.verified ?? false,
   };
 }
 
@@ -39,14 +41,16 @@ export async function action(args: Route.ActionArgs) {
       const found = await lookUpInvitation(context.db, params.token);
       if (!found.ok) return Response.json({ error: found.reason }, { status: 400 });
       if (parsed.data.email !== found.invitation.email) return Response.json({ error: `Use the invited address, ${found.invitation.email}.` }, { status: 400 });
+      // The new account's address is not verified yet: the invitation waits for the mailed link.
       const user = await createUser(context.db, parsed.data);
-      const mechanismId = await acceptInvitation(context.db, params.token, user);
-      return await startUserSession(args, user, `/m/${mechanismId}`);
+      await acceptInvitation(context.db, params.token, user);
+      await sendVerification(context, args.request, user);
+      return await startUserSession(args, user, "/verify-email");
     }
     const user = await getUser(args);
     if (!user) return Response.json({ error: "Sign in first." }, { status: 401 });
-    const mechanismId = await acceptInvitation(context.db, params.token, user);
-    throw redirect(`/m/${mechanismId}`);
+    const accepted = await acceptInvitation(context.db, params.token, user);
+    throw redirect(accepted.waiting ? "/verify-email" : `/m/${accepted.mechanismId}`);
   } catch (error) {
     if (isAuthFailure(error) || isMembershipError(error)) {
       return Response.json({ error: (error as Error).message }, { status: 400 });
@@ -56,7 +60,7 @@ export async function action(args: Route.ActionArgs) {
 }
 
 export default function Invite({ loaderData, actionData, params }: Route.ComponentProps) {
-  const { title, inviter, role, email, signedInAs } = loaderData;
+  const { title, inviter, role, email, signedInAs, verified } = loaderData;
   const failed = actionData as { error?: string } | undefined;
   const next = encodeURIComponent(`/invite/${params.token}`);
   return (
@@ -69,6 +73,7 @@ export default function Invite({ loaderData, actionData, params }: Route.Compone
       {signedInAs ? (
         <Form method="post" className="space-y-3">
           <p className="text-sm">Signed in as <strong>{signedInAs}</strong>.</p>
+          {!verified && <p className="text-sm text-muted">Your address is not confirmed yet: the seat waits until you open the link we e-mail you.</p>}
           <button className="btn btn-primary w-full" name="intent" value="accept" type="submit">Accept and open the mechanism</button>
         </Form>
       ) : (
@@ -78,6 +83,7 @@ export default function Invite({ loaderData, actionData, params }: Route.Compone
           <Field id="name" label="Your name" name="name" required autoComplete="name" />
           <Field id="invite-email" label="E-mail" value={email} readOnly disabled />
           <Field id="password" label="Choose a password" name="password" type="password" minLength={10} required autoComplete="new-password" />
+          <p className="text-sm text-muted">We then e-mail you a link to confirm the address; the seat opens once you do.</p>
           <button className="btn btn-primary w-full" type="submit">Create account and join</button>
         </Form>
       )}

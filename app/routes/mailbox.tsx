@@ -1,17 +1,13 @@
 // The local mail catcher's inbox, for development: only when no SMTP_URL is set, and only for
 // the demo workspace's owner account (the demo admin).
-import { demoAccounts } from "../../server/seed/demo";
-import { requireUser } from "~/utils/auth.server";
-import { httpError } from "~/utils/http";
 import { timeAgo } from "~/utils/format";
+import { requireCaughtMail } from "~/utils/mailbox.server";
 import type { Route } from "./+types/mailbox";
 
 export const meta: Route.MetaFunction = () => [{ title: "Mailbox · Mechweave" }];
 
 export async function loader(args: Route.LoaderArgs) {
-  const user = await requireUser(args);
-  if (!args.context.mailCatcher || user.email !== demoAccounts[0].email) throw httpError(404, "There is no mailbox here.");
-  return { messages: args.context.mailCatcher.messages() };
+  return { messages: await requireCaughtMail(args) };
 }
 
 export default function Mailbox({ loaderData }: Route.ComponentProps) {

@@ -1,12 +1,15 @@
 import { Form, Link, useNavigation } from "react-router";
 import { isAuthFailure, signInForm } from "../../server/auth/authenticator";
-import { clearFailedSignIns, recordFailedSignIn, signInBlocked } from "../../server/auth/sign-in-limits";
+import { clearFailedSignIns, recordFailedSignIn, signInWait } from "../../server/auth/sign-in-limits";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/sign-in";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Mechweave" }];
+
+/** The action's Retry-After reaches the page's response (React Router drops action headers otherwise). */
+export const headers: Route.HeadersFunction = ({ actionHeaders }) => actionHeaders;
 
 export async function loader(args: Route.LoaderArgs) {
   return redirectIfSignedIn(args);
@@ -19,12 +22,14 @@ export async function action(args: Route.ActionArgs) {
   const next = safeNext(new URL(request.url).searchParams.get("next") ?? String(form.get("next") ?? ""));
   const parsed = signInForm.safeParse(Object.fromEntries(form));
   if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message, email }, { status: 400 });
-  if (await signInBlocked(context.db, context.clientAddress, email)) {
-    return Response.json({ error: "Too many failed sign-ins. Wait 15 minutes and try again.", email }, { status: 429 });
+  const wait = Math.ceil((await signInWait(context.db, context.clientAddress, email)) / 1000);
+  if (wait > 0) {
+    const error = `Too many failed sign-ins from here. Wait ${wait < 120 ? `${wait} seconds` : `${Math.ceil(wait / 60)} minutes`} and try again, or reset your password.`;
+    return Response.json({ error, email }, { status: 429, headers: { "Retry-After": String(wait) } });
   }
   try {
     const user = await context.authenticator.authenticate("password", request);
-    await clearFailedSignIns(context.db, email);
+    await clearFailedSignIns(context.db, context.clientAddress, email);
     return await startUserSession(args, user, next);
   } catch (error) {
     if (error instanceof Response) throw error;
@@ -41,7 +46,7 @@ export default function SignIn({ loaderData, actionData }: Route.ComponentProps)
     <AuthCard
       title="Sign in"
       lead="Welcome back to your mechanisms."
-      footer={<>New here? <Link to="/sign-up">Create an account</Link>.</>}
+      footer={<>New here? <Link to="/sign-up">Create an account</Link>. Forgot your password? <Link to="/forgot-password">Reset it</Link>.</>}
     >
       <Form method="post" className="space-y-4">
         <input type="hidden" name="next" value={loaderData.next} />

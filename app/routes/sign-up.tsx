@@ -2,6 +2,7 @@ import { Form, Link, useNavigation } from "react-router";
 import { isAuthFailure } from "../../server/auth/authenticator";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
+import { sendVerification } from "~/utils/account-mail.server";
 import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/sign-up";
 
@@ -17,6 +18,7 @@ export async function action(args: Route.ActionArgs) {
   const echo = { name: String(form.get("name") ?? ""), email: String(form.get("email") ?? "") };
   try {
     const user = await args.context.authenticator.authenticate("sign-up", args.request);
+    await sendVerification(args.context, args.request, user);
     return await startUserSession(args, user, next);
   } catch (error) {
     if (isAuthFailure(error)) return Response.json({ error: error.message, ...echo }, { status: 400 });
@@ -30,7 +32,7 @@ export default function SignUp({ loaderData, actionData }: Route.ComponentProps)
   return (
     <AuthCard
       title="Create your account"
-      lead="Free for your own mechanisms; invite co-authors when you are ready."
+      lead="Free for your own mechanisms; invite co-authors when you are ready. We e-mail you a link to confirm your address."
       footer={<>Have an account? <Link to="/sign-in">Sign in</Link>.</>}
     >
       <Form method="post" className="space-y-4">

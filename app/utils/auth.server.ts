@@ -59,9 +59,19 @@ export async function requireSessionUser(args: RequestArgs): Promise<AuthUser> {
   return caller.user;
 }
 
-/** Only paths on this site may be followed after sign-in. */
+const SAME_SITE = "http://mechweave.invalid";
+
+/**
+ * Only paths on this site may be followed after sign-in. Browsers read a backslash as "/" and drop
+ * tabs and line breaks inside a URL, so "/<backslash>evil.example" and "/<tab>/evil.example" lead
+ * off-site: read the path the way a browser would, keep it only if it stays on this origin, and
+ * never answer a path that a browser would read as another host ("//host").
+ */
 export function safeNext(next: string | null | undefined, fallback = "/dashboard"): string {
-  return next && next.startsWith("/") && !next.startsWith("//") ? next : fallback;
+  if (!next?.startsWith("/")) return fallback;
+  const url = new URL(next.replace(/[\u0000-\u001f\u007f]/g, "").replace(/\\/g, "/"), SAME_SITE);
+  const path = url.pathname + url.search + url.hash;
+  return url.origin === SAME_SITE && !path.startsWith("//") ? path : fallback;
 }
 
 /** For the sign-in and sign-up pages: where to go afterwards, or there at once if signed in. */
@@ -71,9 +81,17 @@ export async function redirectIfSignedIn(args: RequestArgs): Promise<{ next: str
   return { next };
 }
 
+/**
+ * Signs `user` in under a new session id and ends the old session, so an id planted in the browser
+ * before sign-in (session fixation) never becomes a signed-in one. View links opened before carry over.
+ */
 export async function startUserSession({ request, context }: RequestArgs, user: AuthUser, redirectTo: string) {
-  const session = await context.sessions.getSession(request.headers.get("Cookie"));
+  const previous = await context.sessions.getSession(request.headers.get("Cookie"));
+  const viewTokens = previous.get("viewTokens");
+  if (previous.id) await context.sessions.destroySession(previous);
+  const session = await context.sessions.getSession(null);
   session.set("userId", user.id);
+  if (viewTokens) session.set("viewTokens", viewTokens);
   throw redirect(redirectTo, { headers: { "Set-Cookie": await context.sessions.commitSession(session) } });
 }
 

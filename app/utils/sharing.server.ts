@@ -5,10 +5,7 @@ import { createInvitation } from "../../server/db/invitations";
 import type { MemberRole } from "../../server/db/mechanisms";
 import { createViewLink } from "../../server/db/view-links";
 import { invitationMessage, roleChangedMessage } from "../../server/mail/messages";
-
-export function siteOrigin(request: Request): string {
-  return new URL(request.url).origin;
-}
+import { publicOrigin } from "./links.server";
 
 export async function inviteByEmail(
   context: AppLoadContext,
@@ -20,14 +17,14 @@ export async function inviteByEmail(
 ) {
   const { invitation, token } = await createInvitation(context.db, actor.id, mechanism.id, email, role);
   await context.mailer.send(
-    invitationMessage({ to: invitation.email, inviter: actor.name, title: mechanism.title, role, url: `${siteOrigin(request)}/invite/${token}`, expiresAt: invitation.expiresAt }),
+    invitationMessage({ to: invitation.email, inviter: actor.name, title: mechanism.title, role, url: `${publicOrigin(context, request)}/invite/${token}`, expiresAt: invitation.expiresAt }),
   );
   return invitation;
 }
 
 export async function makeViewLink(context: AppLoadContext, request: Request, actor: AuthUser, mechanismId: string, input: { expiresAt?: Date; label?: string }) {
   const { link, token } = await createViewLink(context.db, actor.id, mechanismId, input);
-  return { id: link.id, url: `${siteOrigin(request)}/v/${token}`, expiresAt: link.expiresAt };
+  return { id: link.id, url: `${publicOrigin(context, request)}/v/${token}`, expiresAt: link.expiresAt };
 }
 
 /** Tells a member their role changed (or that they were removed); mail trouble never undoes it. */
@@ -37,7 +34,7 @@ export async function notifyRoleChange(
   input: { to: string; actor: string; mechanism: { id: string; title: string }; role: string | null },
 ) {
   try {
-    await context.mailer.send(roleChangedMessage({ to: input.to, actor: input.actor, title: input.mechanism.title, role: input.role, url: `${siteOrigin(request)}/m/${input.mechanism.id}` }));
+    await context.mailer.send(roleChangedMessage({ to: input.to, actor: input.actor, title: input.mechanism.title, role: input.role, url: `${publicOrigin(context, request)}/m/${input.mechanism.id}` }));
   } catch (error) {
     console.error(`[mail] role-change notice to ${input.to} failed: ${(error as Error).message}`);
   }

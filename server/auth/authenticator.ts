@@ -11,6 +11,12 @@ export interface AuthUser {
   id: string;
   email: string;
   name: string;
+  /** Whether the address was confirmed through a mailed link; seats granted by address wait for it. */
+  verified: boolean;
+}
+
+export function toAuthUser(row: typeof users.$inferSelect): AuthUser {
+  return { id: row.id, email: row.email, name: row.name, verified: row.emailVerifiedAt !== null };
 }
 
 /** A failure the user should read (wrong password, address taken…), not a server fault. */
@@ -43,14 +49,15 @@ function parseForm<T>(schema: z.ZodType<T>, form: FormData): T {
   return parsed.data;
 }
 
-export async function createUser(db: Db, input: z.infer<typeof signUpForm>): Promise<AuthUser> {
+/** A new account signs in at once; its address stays unverified unless `verified` (the demo seed). */
+export async function createUser(db: Db, input: z.infer<typeof signUpForm>, options: { verified?: boolean } = {}): Promise<AuthUser> {
   const existing = await db.query.users.findFirst({ where: eq(users.email, input.email) });
   if (existing) throw new AuthFailure("An account with this e-mail address already exists. Sign in instead.");
   const [row] = await db
     .insert(users)
-    .values({ email: input.email, name: input.name, passwordHash: await hashPassword(input.password) })
-    .returning({ id: users.id, email: users.email, name: users.name });
-  return row;
+    .values({ email: input.email, name: input.name, passwordHash: await hashPassword(input.password), emailVerifiedAt: options.verified ? new Date() : null })
+    .returning();
+  return toAuthUser(row);
 }
 
 export function createAuthenticator(db: Db): Authenticator<AuthUser> {
@@ -63,7 +70,7 @@ export function createAuthenticator(db: Db): Authenticator<AuthUser> {
       if (!user || !(await verifyPassword(user.passwordHash, password))) {
         throw new AuthFailure("That e-mail address and password do not match an account.");
       }
-      return { id: user.id, email: user.email, name: user.name };
+      return toAuthUser(user);
     }),
     "password",
   );

@@ -2,7 +2,7 @@
 // token (Authorization: Bearer), and view-link tokens remembered in the (possibly signed-out)
 // session. Shared by routes and the collaboration WebSocket so both decide the same way.
 import { and, eq, gt, inArray, isNull, or } from "drizzle-orm";
-import type { AuthUser } from "./authenticator";
+import { toAuthUser, type AuthUser } from "./authenticator";
 import type { SessionStore } from "./sessions";
 import { hashSecret } from "./secrets";
 import type { Db } from "../db/client";
@@ -26,20 +26,20 @@ export async function identifyCaller(db: Db, sessions: SessionStore, headers: { 
   const bearer = headers.authorization?.match(/^Bearer\s+(\S+)$/i)?.[1];
   if (bearer) {
     const [row] = await db
-      .select({ tokenId: apiTokens.id, id: users.id, email: users.email, name: users.name })
+      .select({ tokenId: apiTokens.id, user: users })
       .from(apiTokens)
       .innerJoin(users, eq(users.id, apiTokens.userId))
       .where(and(eq(apiTokens.tokenHash, hashSecret(bearer)), isNull(apiTokens.revokedAt)));
     if (!row) return "bad-token";
     await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.tokenId));
-    return { user: { id: row.id, email: row.email, name: row.name }, via: "token", tokenId: row.tokenId, sessionId: null, viewTokens: [] };
+    return { user: toAuthUser(row.user), via: "token", tokenId: row.tokenId, sessionId: null, viewTokens: [] };
   }
   const session = await sessions.getSession(headers.cookie ?? null);
   const viewTokens = session.get("viewTokens") ?? [];
   const userId = session.get("userId");
   const user = userId ? await db.query.users.findFirst({ where: eq(users.id, userId) }) : undefined;
   return {
-    user: user ? { id: user.id, email: user.email, name: user.name } : null,
+    user: user ? toAuthUser(user) : null,
     via: user ? "session" : "none",
     tokenId: null,
     sessionId: session.id || null,

@@ -34,7 +34,16 @@ export async function pendingInvitations(db: Db, mechanismId: string) {
     .from(invitations)
     .where(and(eq(invitations.mechanismId, mechanismId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
     .orderBy(desc(invitations.createdAt));
-  return rows.map((r) => ({ id: r.id, email: r.email, role: r.role, createdAt: r.createdAt, expiresAt: r.expiresAt, expired: r.expiresAt < new Date() }));
+  return rows.map((r) => ({
+    id: r.id,
+    email: r.email,
+    role: r.role,
+    createdAt: r.createdAt,
+    expiresAt: r.expiresAt,
+    // A claimed invitation was accepted in time; it waits only for the address to be verified.
+    expired: !r.claimedBy && r.expiresAt < new Date(),
+    waitingForVerification: r.claimedBy !== null,
+  }));
 }
 
 export async function findPendingInvitation(db: Db, mechanismId: string, invitationId: string) {
@@ -73,32 +82,66 @@ export async function lookUpInvitation(db: Db, token: string): Promise<Invitatio
   return { ok: true, invitation: row.invitation, title: row.title, inviter: row.inviter ?? "The owner" };
 }
 
-/** Grants the invited role to `user` (whose address must be the invited one), once. */
-export async function acceptInvitation(db: Db, token: string, user: { id: string; email: string }) {
+/**
+ * Accepts an invitation for `user`, whose address must be the invited one. A verified account
+ * takes the role at once; an unverified one claims the invitation, which waits for the address
+ * to be verified (grantWaitingSeats) — a seat granted by address needs proof of the address.
+ */
+export async function acceptInvitation(db: Db, token: string, user: { id: string; email: string; verified: boolean }) {
   const found = await lookUpInvitation(db, token);
   if (!found.ok) throw new MembershipError(found.reason);
   const { invitation } = found;
   if (invitation.email !== user.email) {
     throw new MembershipError(`This invitation is for ${invitation.email}; you are signed in as ${user.email}.`);
   }
+  if (!user.verified) {
+    await db.update(invitations).set({ claimedBy: user.id }).where(and(eq(invitations.id, invitation.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)));
+    return { mechanismId: invitation.mechanismId, waiting: true };
+  }
   await db.transaction(async (tx) => {
-    // Single use even under a double click: only the first update finds the row still pending.
-    const claimed = await tx
-      .update(invitations)
-      .set({ acceptedAt: new Date(), acceptedBy: user.id })
-      .where(and(eq(invitations.id, invitation.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
-      .returning({ id: invitations.id });
-    if (claimed.length === 0) throw new MembershipError("This invitation was already used.");
-    const current = await roleOf(tx as unknown as Db, invitation.mechanismId, user.id);
-    if (!current) await tx.insert(memberships).values({ mechanismId: invitation.mechanismId, userId: user.id, role: invitation.role });
-    await tx.insert(roleChanges).values({
-      mechanismId: invitation.mechanismId,
-      actorId: invitation.invitedBy,
-      subjectId: user.id,
-      subjectEmail: user.email,
-      action: "accept",
-      toRole: current ?? invitation.role,
-    });
+    if (!(await grant(tx as unknown as Db, invitation, user))) throw new MembershipError("This invitation was already used.");
   });
-  return invitation.mechanismId;
+  return { mechanismId: invitation.mechanismId, waiting: false };
+}
+
+/** Grants, once its address is verified, every invitation the account claimed while it was not. */
+export async function grantWaitingSeats(db: Db, user: { id: string; email: string }): Promise<string[]> {
+  const claimed = await db
+    .select()
+    .from(invitations)
+    .where(and(eq(invitations.claimedBy, user.id), eq(invitations.email, user.email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)));
+  const joined = [];
+  for (const invitation of claimed) if (await grant(db, invitation, user)) joined.push(invitation.mechanismId);
+  return joined;
+}
+
+/** Marks the invitation accepted and gives the role; false when someone else got there first. */
+async function grant(db: Db, invitation: typeof invitations.$inferSelect, user: { id: string; email: string }): Promise<boolean> {
+  // Single use even under a double click: only the first update finds the row still pending.
+  const claimed = await db
+    .update(invitations)
+    .set({ acceptedAt: new Date(), acceptedBy: user.id })
+    .where(and(eq(invitations.id, invitation.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+    .returning({ id: invitations.id });
+  if (claimed.length === 0) return false;
+  const current = await roleOf(db, invitation.mechanismId, user.id);
+  if (!current) await db.insert(memberships).values({ mechanismId: invitation.mechanismId, userId: user.id, role: invitation.role });
+  await db.insert(roleChanges).values({
+    mechanismId: invitation.mechanismId,
+    actorId: invitation.invitedBy,
+    subjectId: user.id,
+    subjectEmail: user.email,
+    action: "accept",
+    toRole: current ?? invitation.role,
+  });
+  return true;
+}
+
+/** The seats an unverified account has claimed, for telling it what waits for verification. */
+export async function waitingSeats(db: Db, userId: string) {
+  return db
+    .select({ mechanismId: invitations.mechanismId, title: mechanisms.title, role: invitations.role })
+    .from(invitations)
+    .innerJoin(mechanisms, eq(mechanisms.id, invitations.mechanismId))
+    .where(and(eq(invitations.claimedBy, userId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)));
 }

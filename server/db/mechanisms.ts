@@ -117,6 +117,10 @@ export function isMembershipError(error: unknown): error is MembershipError {
 export async function addMember(db: Db, actorId: string, mechanismId: string, email: string, role: MemberRole) {
   const user = await db.query.users.findFirst({ where: eq(users.email, email.trim().toLowerCase()) });
   if (!user) throw new MembershipError(`No account uses ${email}. Ask them to sign up first.`);
+  // Anyone can sign up with any address; only its confirmed owner may be handed a seat by it.
+  if (!user.emailVerifiedAt) {
+    throw new MembershipError(`The account for ${user.email} has not confirmed its e-mail address yet. Send an invitation instead: it is granted once the address is confirmed.`);
+  }
   const current = await roleOf(db, mechanismId, user.id);
   if (current === "owner") throw new MembershipError("That person owns this mechanism already.");
   if (current) throw new MembershipError(`${user.name} is already a member (${current}). Change the role in the table instead.`);

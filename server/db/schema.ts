@@ -15,8 +15,27 @@ export const users = pgTable("users", {
   email: text("email").notNull().unique(),
   name: text("name").notNull(),
   passwordHash: text("password_hash").notNull(),
+  /** Set once the owner of the address followed a link mailed to it; seats granted by address wait for it. */
+  emailVerifiedAt: timestamp("email_verified_at", { withTimezone: true }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 });
+
+/** Single-use, expiring links mailed to an account's address: verification and password reset. */
+export const emailTokens = pgTable(
+  "email_tokens",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    purpose: text("purpose", { enum: ["verify", "reset"] }).notNull(),
+    tokenHash: text("token_hash").notNull().unique(),
+    /** The address the link went to: it verifies that address only. */
+    email: text("email").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    usedAt: timestamp("used_at", { withTimezone: true }),
+  },
+  (t) => [index("email_tokens_user_idx").on(t.userId, t.purpose)],
+);
 
 export const sessions = pgTable(
   "sessions",
@@ -73,7 +92,7 @@ export const roleChanges = pgTable(
   (t) => [index("role_changes_mechanism_idx").on(t.mechanismId)],
 );
 
-/** Failed sign-ins, counted per client address and per account to slow down guessing. */
+/** Failed sign-ins, counted per (account, client address) and per address to slow down guessing. */
 export const failedSignIns = pgTable(
   "failed_sign_ins",
   {
@@ -82,7 +101,7 @@ export const failedSignIns = pgTable(
     email: text("email").notNull(),
     at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("failed_sign_ins_address_idx").on(t.address, t.at), index("failed_sign_ins_email_idx").on(t.email, t.at)],
+  (t) => [index("failed_sign_ins_address_idx").on(t.address, t.at), index("failed_sign_ins_email_idx").on(t.email, t.address, t.at)],
 );
 
 /** Every accepted Yjs update of a mechanism's shared document, appended as it arrives. */
@@ -137,6 +156,8 @@ export const invitations = pgTable(
     expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
     acceptedAt: timestamp("accepted_at", { withTimezone: true }),
     acceptedBy: uuid("accepted_by").references(() => users.id, { onDelete: "set null" }),
+    /** Accepted by an account whose address is not verified yet: granted when it is. */
+    claimedBy: uuid("claimed_by").references(() => users.id, { onDelete: "set null" }),
     revokedAt: timestamp("revoked_at", { withTimezone: true }),
   },
   (t) => [index("invitations_mechanism_idx").on(t.mechanismId)],

@@ -34,3 +34,28 @@ export function roleChangedMessage(input: { to: string; actor: string; title: st
     input.role ? { url: input.url, label: "Open the mechanism" } : undefined,
   );
 }
+
+export function verificationMessage(input: { to: string; name: string; url: string; expiresAt: Date; waiting: string[] }): Message {
+  return compose(
+    input.to,
+    "Confirm your e-mail address for Mechweave",
+    [
+      `Hello ${input.name}, please confirm that ${input.to} is your address.`,
+      ...(input.waiting.length ? [`Your seat on ${input.waiting.map((t) => `“${t}”`).join(", ")} waits for this confirmation.`] : []),
+      `The link works once and until ${input.expiresAt.toUTCString()}. If you did not create a Mechweave account, ignore this message.`,
+    ],
+    { url: input.url, label: "Confirm my address" },
+  );
+}
+
+export function passwordResetMessage(input: { to: string; name: string; url: string; expiresAt: Date }): Message {
+  return compose(
+    input.to,
+    "Choose a new Mechweave password",
+    [
+      `Hello ${input.name}, someone asked to reset the password of the Mechweave account for ${input.to}.`,
+      `The link works once and until ${input.expiresAt.toUTCString()}; using it signs out every other session. If you did not ask, ignore this message: your password stays as it is.`,
+    ],
+    { url: input.url, label: "Choose a new password" },
+  );
+}

@@ -85,7 +85,7 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
   if (n > 0) return false;
   const created = [];
   for (const account of demoAccounts) {
-    created.push(await createUser(db, { email: account.email, name: account.name, password: DEMO_PASSWORD }));
+    created.push(await createUser(db, { email: account.email, name: account.name, password: DEMO_PASSWORD }, { verified: true }));
   }
   for (const mechanism of demoMechanisms) {
     const row = await createMechanism(db, created[0].id, mechanism);

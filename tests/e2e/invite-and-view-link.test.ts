@@ -1,9 +1,9 @@
 // The owner invites a new address; the e-mail arrives in the mail catcher; its link signs the
-// invitee up as an editor, who then edits live. A view link opened in a fresh browser shows the
+// invitee up, the seat waits until the mailed confirmation link is used, then they edit live. A view link opened in a fresh browser shows the
 // live graph and cannot type.
 import { expect, it } from "vitest";
 import { signedInPage, useServerAndBrowser } from "../support/e2e";
-import { signUp } from "../support/http";
+import { linkIn, signUp, VERIFY_SUBJECT, waitForMail } from "../support/http";
 
 const world = useServerAndBrowser();
 
@@ -18,16 +18,19 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   await ownerPage.click("button:text-is('Send invitation')");
   await ownerPage.waitForSelector('[data-testid="invitation-nina.newcomer@example.test"]');
 
-  const { messages } = await (await fetch(`${world.server.url}/api/dev/mail`)).json();
-  const mail = messages.find((m: { to: string }) => m.to.includes("nina.newcomer@example.test"));
-  expect(mail.subject).toContain("Seminar scheme");
-  const link = mail.text.match(/https?:\/\/\S+\/invite\/\S+/)[0];
+  const link = linkIn(await waitForMail(world.server.url, "nina.newcomer@example.test", "Seminar scheme"), "/invite/").href;
 
   const invitee = await (await world.browser.newContext({ viewport: { width: 1400, height: 900 } })).newPage();
   await invitee.goto(link);
   await invitee.fill("#name", "Nina Newcomer");
   await invitee.fill("#password", "a fine long password");
   await invitee.click("button:text-is('Create account and join')");
+  await invitee.waitForURL("**/verify-email");
+  expect(await invitee.textContent("[data-testid=waiting-seats]")).toContain("Seminar scheme");
+  const confirm = linkIn(await waitForMail(world.server.url, "nina.newcomer@example.test", VERIFY_SUBJECT), "/verify-email/").href;
+  await invitee.goto(confirm);
+  await invitee.click("button:text-is('Confirm my address')");
+  await invitee.click("text=Seminar scheme");
   await invitee.waitForURL(`**/m/${id}`);
   await invitee.waitForSelector("[data-testid=room-status][data-status=online]");
   await invitee.click(".cm-content");
@@ -53,4 +56,4 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   const members = await guest.goto(`${world.server.url}/m/${id}/members`);
   expect(guest.url()).toContain("/sign-in");
   expect(members?.status()).toBe(200);
-});
+}, 60_000); // two mails and a confirmation before the invitee edits

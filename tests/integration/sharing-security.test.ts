@@ -1,29 +1,18 @@
 // Invitations, view links and access tokens: they work once, until expiry, until revoked.
-import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { Client, signUp } from "../support/http";
+import { Client, confirmAddress, linkIn, mailTo, signUp } from "../support/http";
+import { query } from "../support/database";
 import { startTestServer } from "../support/server";
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let owner: Awaited<ReturnType<typeof signUp>>;
 let mechanismId: string;
 
-async function sql(text: string, values: unknown[] = []) {
-  const client = new pg.Client(server.databaseUrl);
-  await client.connect();
-  try {
-    return await client.query(text, values);
-  } finally {
-    await client.end();
-  }
-}
+const sql = (text: string, values: unknown[] = []) => query(server.databaseUrl, text, values);
 
 async function latestMailTo(address: string) {
-  const { messages } = await (await fetch(`${server.url}/api/dev/mail`)).json();
-  return messages.find((m: { to: string }) => m.to.includes(address)) as { subject: string; text: string } | undefined;
+  return (await mailTo(server.url, address))[0];
 }
-
-const linkIn = (text: string, path: string) => text.match(new RegExp(`https?://[^\\s]+${path}[^\\s]+`))![0];
 
 beforeAll(async () => {
   server = await startTestServer();
@@ -33,19 +22,22 @@ beforeAll(async () => {
 afterAll(() => server?.dispose());
 
 describe("invitations", () => {
-  it("e-mails a single-use link that signs the invitee up with the role", async () => {
+  it("e-mails a single-use link that signs the invitee up; the role comes once the address is confirmed", async () => {
     const response = await owner.json(`/api/v1/mechanisms/${mechanismId}/invitations`, "POST", { email: "newcomer@example.test", role: "editor" });
     expect(response.status).toBe(201);
     const mail = await latestMailTo("newcomer@example.test");
     expect(mail?.subject).toContain("Shared lecture");
-    const url = new URL(linkIn(mail!.text, "/invite/"));
+    const url = linkIn(mail!, "/invite/");
 
     const invitee = new Client(server.url);
     const page = await invitee.get(url.pathname);
     expect(page.status).toBe(200);
     const joined = await invitee.post(url.pathname, { intent: "sign-up", name: "New Comer", email: "newcomer@example.test", password: "a good long password" });
     expect(joined.status).toBe(302);
-    expect(joined.headers.get("Location")).toBe(`/m/${mechanismId}`);
+    expect(joined.headers.get("Location")).toBe("/verify-email");
+    expect((await invitee.get(`/api/v1/mechanisms/${mechanismId}`)).status).toBe(404);
+    expect(await (await invitee.get("/verify-email")).text()).toContain("Shared lecture");
+    expect((await confirmAddress(server.url, "newcomer@example.test")).status).toBe(200);
     expect((await (await invitee.get(`/api/v1/mechanisms/${mechanismId}`)).json()).role).toBe("editor");
 
     const reused = await new Client(server.url).get(url.pathname);
@@ -55,12 +47,12 @@ describe("invitations", () => {
 
   it("refuses revoked and expired invitations", async () => {
     await owner.json(`/api/v1/mechanisms/${mechanismId}/invitations`, "POST", { email: "late@example.test", role: "viewer" });
-    const expiredUrl = new URL(linkIn((await latestMailTo("late@example.test"))!.text, "/invite/"));
+    const expiredUrl = linkIn((await latestMailTo("late@example.test"))!, "/invite/");
     await sql("update invitations set expires_at = now() - interval '1 minute' where email = 'late@example.test'");
     expect(await (await new Client(server.url).get(expiredUrl.pathname)).text()).toContain("expired");
 
     await owner.json(`/api/v1/mechanisms/${mechanismId}/invitations`, "POST", { email: "withdrawn@example.test", role: "viewer" });
-    const revokedUrl = new URL(linkIn((await latestMailTo("withdrawn@example.test"))!.text, "/invite/"));
+    const revokedUrl = linkIn((await latestMailTo("withdrawn@example.test"))!, "/invite/");
     const { rows } = await sql("select id from invitations where email = 'withdrawn@example.test'");
     await owner.post(`/m/${mechanismId}/members`, { intent: "uninvite", invitationId: rows[0].id });
     const refused = await new Client(server.url).post(revokedUrl.pathname, { intent: "sign-up", name: "W", email: "withdrawn@example.test", password: "a good long password" });

@@ -28,3 +28,14 @@ export async function createTestDatabase(): Promise<{ url: string; drop(): Promi
     },
   };
 }
+
+/** One query on a test server's database, for setting up what the product has no button for (an expired link). */
+export async function query(databaseUrl: string, text: string, values: unknown[] = []) {
+  const client = new pg.Client(databaseUrl);
+  await client.connect();
+  try {
+    return await client.query(text, values);
+  } finally {
+    await client.end();
+  }
+}

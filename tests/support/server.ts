@@ -1,4 +1,5 @@
-// A real Mechweave server process on a free port, against its own database.
+// A real Mechweave server process on a free port, against its own database, seeded with the demo
+// workspace: its owner is the one account that may read the local mail catcher.
 import { spawn, type ChildProcess } from "node:child_process";
 import path from "node:path";
 import { createTestDatabase } from "./database";
@@ -20,7 +21,7 @@ export interface TestServer {
 function launch(databaseUrl: string, extraEnv: Record<string, string>, port = 0) {
   const child = spawn(process.execPath, ["--import", "tsx", "server/main.ts"], {
     cwd: projectRoot,
-    env: { ...process.env, NODE_ENV: "test", DATABASE_URL: databaseUrl, PORT: String(port), HOST: "127.0.0.1", SEED_DEMO: "0", ...extraEnv },
+    env: { ...process.env, NODE_ENV: "test", DATABASE_URL: databaseUrl, PORT: String(port), HOST: "127.0.0.1", SEED_DEMO: "1", ...extraEnv },
     stdio: ["ignore", "pipe", "pipe"],
   });
   let output = "";

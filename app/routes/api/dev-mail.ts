@@ -1,8 +1,8 @@
-import { httpError } from "~/utils/http";
+import { requireCaughtMail } from "~/utils/mailbox.server";
 import type { Route } from "./+types/dev-mail";
 
-/** Only with the local mail catcher: every caught message, newest first. */
-export async function loader({ context }: Route.LoaderArgs) {
-  if (!context.mailCatcher) return httpError(404, "No local mail catcher: this server sends mail through SMTP_URL.");
-  return Response.json({ messages: context.mailCatcher.messages().map(({ to, subject, text, html, at }) => ({ to: to.join(", "), subject, text, html, at })) });
+/** Only with the local mail catcher, and only for the demo owner: every caught message, newest first. */
+export async function loader(args: Route.LoaderArgs) {
+  const messages = await requireCaughtMail(args);
+  return Response.json({ messages: messages.map(({ to, subject, text, html, at }) => ({ to: to.join(", "), subject, text, html, at })) });
 }
