@@ -29,4 +29,14 @@ async function main(): Promise<number> {
   }
 }
 
-main().then((code) => process.exit(code));
+/** Resolves once everything written to the stream so far has been handed to the OS. */
+function flushed(stream: NodeJS.WriteStream): Promise<void> {
+  return new Promise((resolve) => stream.write("", () => resolve()));
+}
+
+// Writes to a pipe are asynchronous: exiting at once would cut the output at the pipe's buffer
+// (64 KiB), so the exit waits until both streams have drained.
+main().then(async (code) => {
+  await Promise.all([flushed(process.stdout), flushed(process.stderr)]);
+  process.exit(code);
+});
