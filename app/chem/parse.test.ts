@@ -177,6 +177,19 @@ describe("warnings", () => {
     expect(messages("X -> Y @ 1\nY + X -> X + X @ 2\nX -> Y @ 2")[0]).toContain("repeats the reaction X -> Y of line 1");
   });
 
+  it("a rate coefficient of 0, on the step's line, for each way it can be 0", () => {
+    const zero = (source: string) => parseMechanism(source).diagnostics.map(({ severity, line, message }) => ({ severity, line, message }));
+    const step = "rate coefficient 0: step left out of the network";
+    expect(zero("B -> C @ 1\nA -> B @ 0")).toEqual([{ severity: "warning", line: 2, message: step }]);
+    expect(zero("A <=> B @ k1, k2\nk1 = 0\nk2 = 1")).toEqual([
+      { severity: "warning", line: 1, message: "rate coefficient 0: forward direction left out of the network" },
+    ]);
+    expect(zero("A <=> B @ 0, 0")).toEqual([{ severity: "warning", line: 1, message: step }]);
+    expect(zero("A + F -> B @ 2\nfixed [F] = 0")).toEqual([{ severity: "warning", line: 1, message: step }]);
+    expect(zero("A -> B + F @ 2\nfixed [F] = 0")).toEqual([]); // a product held at 0 stops nothing
+    expect(zero("A -> B @ { 0 }")).toEqual([]); // a custom law is not a rate coefficient
+  });
+
   it("declarations for species that take part in no step", () => {
     expect(where("X -> Y @ 1\n[Z]0 = 1\nfixed [W] = 2")).toEqual(["warning 2:2", "warning 3:8"]);
   });

@@ -4,6 +4,7 @@ import { TreeFragment, type SyntaxNode, type Tree } from "@lezer/common";
 import { parser } from "../../grammar/parser";
 import { lawConstants, readLaw } from "./law";
 import type { Diagnostic, Mechanism, ParseResult, RateRef, Severity, Step, Term } from "./model";
+import { zeroRateDirections } from "./network";
 
 export { printMechanism } from "./print";
 export { checkSourceLimits } from "./limits";
@@ -101,6 +102,7 @@ class MechanismReader {
     const mechanism = this.mechanism();
     this.checkNames(mechanism);
     this.checkDuplicateSteps(mechanism);
+    this.checkZeroRates(mechanism);
     this.diagnostics.sort((a, b) => a.from - b.from || a.to - b.to);
     return { mechanism, diagnostics: this.diagnostics };
   }
@@ -541,6 +543,15 @@ class MechanismReader {
         this.report("warning", step, "With its fixed species held constant this step changes no concentration; the structure leaves it out.");
       }
     });
+  }
+
+  /** The network leaves out what never runs (see buildNetwork); the author is told on the step's line. */
+  private checkZeroRates(mechanism: Mechanism): void {
+    for (const step of mechanism.steps) {
+      const [forward, backward] = zeroRateDirections(mechanism, step);
+      if (forward && (backward || !step.reversible)) this.report("warning", step, "rate coefficient 0: step left out of the network");
+      else if (forward || backward) this.report("warning", step, `rate coefficient 0: ${forward ? "forward" : "backward"} direction left out of the network`);
+    }
   }
 }
 
