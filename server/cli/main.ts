@@ -12,6 +12,7 @@ commands:
   analyze FILE [--json]                                   network structure
   simulate FILE --until T --samples N [--rtol R --atol A] [--json]
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
+    (these three take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;
 
 async function main(): Promise<number> {
