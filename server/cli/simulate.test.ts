@@ -67,4 +67,10 @@ describe("mechweave lyapunov", slow, () => {
     expect(result.largest).toBeLessThan(1);
     expect(Array.isArray(result.history)).toBe(true);
   });
+
+  it("copes with a renormalisation interval over which the tangent vector would overflow", () => {
+    const { code, stdout } = mechweave("lyapunov", `${fixtures}/lorenz.ode`, "--until", "2000", "--interval", "790", "--json");
+    expect(code).toBe(0);
+    expect(Math.abs(JSON.parse(stdout).largest / 0.9056 - 1)).toBeLessThan(0.03);
+  });
 });

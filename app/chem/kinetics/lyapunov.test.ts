@@ -3,7 +3,7 @@ import { lorenz, massAction, rossler } from "../../../tests/fixtures/dynamics/mo
 import { networkLyapunov, polynomialLyapunov } from "./lyapunov";
 
 // Reference exponents: J. C. Sprott, Chaos and Time-Series Analysis, Oxford University Press 2003
-// (Lorenz σ = 10, ρ = 28, β = 8/3: 0.9056; Rössler a = b = 0.2, c = 5.7: 0.0714).
+// (Lorenz σ = 10, ρ = 28, β = 8/3: 0.9056; Rössler a = b = 0.2, c = 5.7: 0.0714; from memory).
 describe("largest Lyapunov exponent (Benettin)", () => {
   it("Lorenz: 0.9056 within 3 %", () => {
     const result = polynomialLyapunov(lorenz(), { until: 1000, transient: 50 });
