@@ -1,7 +1,7 @@
 // `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit]
-// [--set NAME=VALUE …] [--json]`. FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0 on success, 1 when the file has
-// errors or cannot be simulated, 2 on bad usage. The file loading and flag reading here are shared
-// with the `lyapunov` command.
+// [--set NAME=VALUE …] [--json]`. FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0
+// on success, 1 when the file has errors or cannot be simulated, 2 on bad usage. The file loading
+// and flag reading here are shared with the `lyapunov` and `analyze` commands.
 
 import { readFile } from "node:fs/promises";
 import { extname } from "node:path";
@@ -72,6 +72,7 @@ export function readCommandLine(args: string[], declared: Record<string, FlagKin
   return { file: files[0], flags };
 }
 
+/** The file's text; a file that cannot be read is bad usage. */
 export async function readSource(file: string): Promise<string> {
   try {
     return await readFile(file, "utf8");
