@@ -7,7 +7,8 @@ function analyze(...args: string[]) {
   return { code: result.status, stdout: result.stdout, stderr: result.stderr };
 }
 
-describe("mechweave analyze", () => {
+// Each call starts node and tsx afresh: seconds apiece on a busy machine.
+describe("mechweave analyze", { timeout: 120_000 }, () => {
   it("prints the contract JSON and exits 0 for a clean file", () => {
     const { code, stdout } = analyze("tests/fixtures/michaelis-menten.weave", "--json");
     expect(code).toBe(0);
@@ -50,7 +51,7 @@ describe("mechweave analyze", () => {
     }
   });
 
-  it("leaves a step with rate coefficient 0 out of the network, whether the file or --set makes it 0", { timeout: 120_000 }, () => {
+  it("leaves a step with rate coefficient 0 out of the network, whether the file or --set makes it 0", () => {
     const fromFile = JSON.parse(analyze("tests/fixtures/zero-rate.weave", "--json").stdout);
     expect(fromFile.diagnostics).toMatchObject([{ severity: "warning", line: 2, message: "rate coefficient 0: forward direction left out of the network" }]);
     expect(fromFile).toMatchObject({ complexes: ["A", "B"], reactions: [{ from: 1, to: 0, rate: 1 }], weaklyReversible: false, reversible: false });
@@ -65,7 +66,7 @@ describe("mechweave analyze", () => {
     expect(report.odes.P).toBe("0");
   });
 
-  it("exits 2 for a --set that names nothing in the file or has no number", { timeout: 120_000 }, () => {
+  it("exits 2 for a --set that names nothing in the file or has no number", () => {
     for (const setting of ["[Q]0=1", "kcat=-1"]) {
       const { code, stderr } = analyze("tests/fixtures/michaelis-menten.weave", "--set", setting, "--json");
       expect(code).toBe(2);
