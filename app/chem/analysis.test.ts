@@ -3,6 +3,9 @@ import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { analyzeSource } from "./analysis";
 import { rank, type SparseVector } from "./exact";
+import { simulateNetwork } from "./kinetics/simulate";
+import { buildNetwork } from "./network";
+import { parseMechanism } from "./parse";
 import { denseStoichiometricMatrix } from "./stoichiometry";
 
 const fixture = (name: string) => readFileSync(new URL(`../../tests/fixtures/${name}`, import.meta.url), "utf8");
@@ -144,6 +147,19 @@ describe("the report around errors and limits", () => {
     expect(report.diagnostics).toHaveLength(1);
     expect(report.species).toEqual([]);
     expect(report.theorems.deficiencyZero.applies).toBe(false);
+  });
+
+  it("describes the network that runs: A ⇌ B with k1 = 0 is B → A, not weakly reversible", async () => {
+    const report = await analyzeSource("A <=> B @ k1, k2\nk1 = 0\nk2 = 1");
+    expect(report.diagnostics.map((d) => [d.line, d.message])).toEqual([[1, "rate coefficient 0: forward direction left out of the network"]]);
+    expect(report.reactions).toEqual([{ from: 1, to: 0, rate: 1 }]);
+    expect(report).toMatchObject({ reversible: false, weaklyReversible: false, deficiency: 0 });
+    expect(report.theorems.deficiencyZero.conclusion).toMatch(/no steady state with every concentration positive/);
+    expect(report.odes).toEqual({ A: "k2*B", B: "-k2*B" });
+    // and the simulation agrees: B decays to 0
+    const { mechanism } = parseMechanism("A <=> B @ k1, k2\nk1 = 0\nk2 = 1\n[B]0 = 1");
+    const run = simulateNetwork(mechanism, buildNetwork(mechanism), { until: 40, samples: 2 });
+    expect(run.series.B[1]).toBeLessThan(1e-9);
   });
 
   it("flags custom rate laws and says the theorems cover mass action only", async () => {

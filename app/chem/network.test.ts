@@ -50,6 +50,27 @@ describe("buildNetwork", () => {
     expect(network("A + X -> X @ 1\nX -> Y @ 1\nfixed [A] = 1").reactions).toHaveLength(1);
   });
 
+  it("leaves out a direction whose coefficient is 0: literal, by parameter or by a fixed reactant at 0", () => {
+    const literal = network("A -> B @ 0\nB -> C @ 1");
+    expect(literal.complexes.map((c) => c.text)).toEqual(["B", "C"]);
+    expect(literal.reactions.map(({ from, to }) => [from, to])).toEqual([[0, 1]]);
+    expect(literal.species).toEqual(["A", "B", "C"]); // a species stays, constant
+    const parameter = network("A <=> B @ k1, k2\nk1 = 0\nk2 = 1");
+    expect(parameter.complexes.map((c) => c.text)).toEqual(["A", "B"]);
+    expect(parameter.reactions.map(({ from, to, rate }) => ({ from, to, rate }))).toEqual([{ from: 1, to: 0, rate: 1 }]);
+    const fixed = network("A + F -> B @ 2\nB -> A @ 1\nfixed [F] = 0");
+    expect(fixed.reactions.map(({ from, to }) => [from, to])).toEqual([[0, 1]]);
+    expect(fixed.complexes.map((c) => c.text)).toEqual(["B", "A"]);
+    // a complex another reaction uses stays; a duplicate with a coefficient keeps the reaction
+    expect(network("A -> B @ 0\nA -> C @ 1").complexes.map((c) => c.text)).toEqual(["A", "C"]);
+    const merged = network("A -> B @ 0\nA -> B @ 3").reactions;
+    expect(merged.map(({ rate, steps }) => ({ rate, steps }))).toEqual([{ rate: 3, steps: [1] }]);
+  });
+
+  it("keeps a step without a coefficient: missing is not 0", () => {
+    expect(network("A -> B").reactions).toHaveLength(1);
+  });
+
   it("keeps a custom law as the reaction's rate and names missing coefficients", () => {
     const { reactions } = network("S -> P @ { Vmax*S/(Km + S) }\nP -> Q\nlabelled: Q <=> R\nVmax = 1\nKm = 2");
     expect(reactions[0]).toMatchObject({ rate: null, law: "Vmax*S/(Km + S)", coefficient: null });

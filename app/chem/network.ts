@@ -35,10 +35,15 @@ export function buildNetwork(mechanism: Mechanism): Network {
     const reactants = toComplex(step.reactants, speciesIndex, mechanism.species);
     const products = toComplex(step.products, speciesIndex, mechanism.species);
     if (reactants.text === products.text) return; // only fixed species change: no reaction at all
+    // A direction whose coefficient is 0 never runs: the theorems must describe the system that is
+    // simulated, so it is no reaction, and its complexes count only if another reaction uses them.
+    const [forwardZero, backwardZero] = zeroRateDirections(mechanism, step);
+    const backward = step.reversible && !backwardZero;
+    if (forwardZero && !backward) return;
     const from = complexOf(reactants);
     const to = complexOf(products);
-    contributions.push(contribution(mechanism, step, stepIndex, from, to, "forward"));
-    if (step.reversible) contributions.push(contribution(mechanism, step, stepIndex, to, from, "backward"));
+    if (!forwardZero) contributions.push(contribution(mechanism, step, stepIndex, from, to, "forward"));
+    if (backward) contributions.push(contribution(mechanism, step, stepIndex, to, from, "backward"));
   });
 
   const monomials = complexes.map((complex) => monomialText(complex, mechanism.species));
@@ -81,6 +86,28 @@ function toComplex(terms: Term[], speciesIndex: Map<string, number>, species: st
   return { text, terms: sorted };
 }
 
+/**
+ * Whether the step's forward and backward directions have a mass-action coefficient of exactly 0,
+ * literal, through a parameter or through a fixed reactant held at 0. A missing coefficient or a
+ * custom law is not 0.
+ */
+export function zeroRateDirections(mechanism: Mechanism, step: Step): [boolean, boolean] {
+  return [foldedRate(mechanism, step, "forward") === 0, step.reversible && foldedRate(mechanism, step, "backward") === 0];
+}
+
+/** The direction's mass-action coefficient with fixed species folded in; null if unknown or custom. */
+function foldedRate(mechanism: Mechanism, step: Step, direction: "forward" | "backward"): number | null {
+  if (step.law !== null) return null;
+  const ref = direction === "forward" ? step.forward : step.backward;
+  let rate = ref ? rateValue(ref, mechanism) : null;
+  if (rate === null) return null;
+  const consumed = direction === "forward" ? step.reactants : step.products;
+  for (const { species, coefficient } of consumed) {
+    if (species in mechanism.fixed) rate *= mechanism.fixed[species] ** coefficient;
+  }
+  return rate;
+}
+
 function contribution(
   mechanism: Mechanism,
   step: Step,
@@ -93,10 +120,7 @@ function contribution(
   const ref = direction === "forward" ? step.forward : step.backward;
   const consumed = direction === "forward" ? step.reactants : step.products;
   const fixedTerms = consumed.filter((term) => term.species in mechanism.fixed);
-  let rate = ref ? rateValue(ref, mechanism) : null;
-  for (const { species, coefficient } of fixedTerms) {
-    if (rate !== null) rate *= mechanism.fixed[species] ** coefficient;
-  }
+  const rate = foldedRate(mechanism, step, direction);
   const factors: RateFactor[] = [
     ref ? rateFactor(ref) : { kind: "missing", symbol: placeholder(step, direction), power: 1 },
     ...fixedTerms.map(({ species, coefficient }): RateFactor => ({ kind: "fixed", symbol: species, power: coefficient })),

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { buildNetwork } from "./network";
-import { checkSourceLimits, IncrementalMechanismParser, parseMechanism, printMechanism } from "./parse";
+import { checkSourceLimits, IncrementalMechanismParser, parseMechanism, parseMechanismWithSettings, printMechanism } from "./parse";
 
 /** The diagnostics of a text as "severity line:column", for compact expectations. */
 function where(source: string): string[] {
@@ -175,6 +175,29 @@ describe("warnings", () => {
   it("duplicate steps are merged with a warning", () => {
     expect(where("X -> Y @ 1\nY <=> X @ 2, 3")).toEqual(["warning 2:1"]);
     expect(messages("X -> Y @ 1\nY + X -> X + X @ 2\nX -> Y @ 2")[0]).toContain("repeats the reaction X -> Y of line 1");
+  });
+
+  it("a rate coefficient of 0, on the step's line, for each way it can be 0", () => {
+    const zero = (source: string) => parseMechanism(source).diagnostics.map(({ severity, line, message }) => ({ severity, line, message }));
+    const step = "rate coefficient 0: step left out of the network";
+    expect(zero("B -> C @ 1\nA -> B @ 0")).toEqual([{ severity: "warning", line: 2, message: step }]);
+    expect(zero("A <=> B @ k1, k2\nk1 = 0\nk2 = 1")).toEqual([
+      { severity: "warning", line: 1, message: "rate coefficient 0: forward direction left out of the network" },
+    ]);
+    expect(zero("A <=> B @ 0, 0")).toEqual([{ severity: "warning", line: 1, message: step }]);
+    expect(zero("A + F -> B @ 2\nfixed [F] = 0")).toEqual([{ severity: "warning", line: 1, message: step }]);
+    expect(zero("A -> B + F @ 2\nfixed [F] = 0")).toEqual([]); // a product held at 0 stops nothing
+    expect(zero("A -> B @ { 0 }")).toEqual([]); // a custom law is not a rate coefficient
+  });
+
+  it("settings from outside the text replace values before any check, and unknown names are returned", () => {
+    const source = "A + F -> B @ k1\nB -> C @ k2 = 2\nfixed [F] = 1";
+    const { mechanism, diagnostics, unknown } = parseMechanismWithSettings(source, { parameters: { k1: 3, k2: 0, F: 1, k9: 1 }, initial: { A: 5, F: 1 } });
+    expect(mechanism.parameters).toEqual({ k1: 3, k2: 0 });
+    expect(mechanism.initial).toEqual({ A: 5 });
+    expect(unknown).toEqual(["F", "k9", "[F]0"]);
+    // k1 is given, so not "never given"; k2 = 0 takes its step out
+    expect(diagnostics.map((d) => [d.line, d.message])).toEqual([[2, "rate coefficient 0: step left out of the network"]]);
   });
 
   it("declarations for species that take part in no step", () => {

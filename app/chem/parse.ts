@@ -4,12 +4,29 @@ import { TreeFragment, type SyntaxNode, type Tree } from "@lezer/common";
 import { parser } from "../../grammar/parser";
 import { lawConstants, readLaw } from "./law";
 import type { Diagnostic, Mechanism, ParseResult, RateRef, Severity, Step, Term } from "./model";
+import { zeroRateDirections } from "./network";
 
 export { printMechanism } from "./print";
 export { checkSourceLimits } from "./limits";
 
 export function parseMechanism(source: string): ParseResult {
   return new MechanismReader(source, parser.parse(source)).read();
+}
+
+/** Values given from outside the text (the CLI's `--set`), as if the text declared them. */
+export interface Settings {
+  parameters: Record<string, number>;
+  initial: Record<string, number>;
+}
+
+/**
+ * Parses with some parameters and initial concentrations replaced; every diagnostic (a rate
+ * coefficient set to 0 included) sees the replaced values. `unknown` names the settings that match
+ * no parameter, or no species that is not fixed, of the text; they are not applied.
+ */
+export function parseMechanismWithSettings(source: string, settings: Settings): ParseResult & { unknown: string[] } {
+  const reader = new MechanismReader(source, parser.parse(source), settings);
+  return { ...reader.read(), unknown: reader.unknownSettings };
 }
 
 /**
@@ -81,9 +98,12 @@ class MechanismReader {
   private readonly initial = new Map<string, Declared>();
   private readonly fixed = new Map<string, Declared>();
 
+  readonly unknownSettings: string[] = [];
+
   constructor(
     private readonly source: string,
     private readonly tree: Tree,
+    private readonly settings: Settings = { parameters: {}, initial: {} },
   ) {
     for (let i = 0; i < source.length; i++) if (source.charCodeAt(i) === 10) this.lineStarts.push(i + 1);
   }
@@ -98,9 +118,11 @@ class MechanismReader {
       else if (node.name === "Initial") this.readDeclaration(node, this.initial, "an initial concentration");
       else if (node.name === "Fixed") this.readDeclaration(node, this.fixed, "a fixed concentration");
     }
+    this.applySettings();
     const mechanism = this.mechanism();
     this.checkNames(mechanism);
     this.checkDuplicateSteps(mechanism);
+    this.checkZeroRates(mechanism);
     this.diagnostics.sort((a, b) => a.from - b.from || a.to - b.to);
     return { mechanism, diagnostics: this.diagnostics };
   }
@@ -466,6 +488,26 @@ class MechanismReader {
 
   // ---- whole-text checks
 
+  private applySettings(): void {
+    for (const [name, value] of Object.entries(this.settings.parameters)) {
+      const known = this.parameters.get(name) ?? this.parameterUses.find((use) => use.name === name) ?? this.lawUses.find((use) => use.symbols.includes(name))?.span;
+      if (!known || this.speciesSeen.has(name)) {
+        this.unknownSettings.push(name);
+        continue;
+      }
+      this.attemptedParameters.add(name);
+      this.parameters.set(name, { value, from: known.from, to: known.to });
+    }
+    for (const [species, value] of Object.entries(this.settings.initial)) {
+      const seen = this.speciesSeen.get(species);
+      if (!seen || this.fixed.has(species)) {
+        this.unknownSettings.push(`[${species}]0`);
+        continue;
+      }
+      this.initial.set(species, { value, from: seen.from, to: seen.to });
+    }
+  }
+
   private mechanism(): Mechanism {
     const species: string[] = [];
     const seen = new Set<string>();
@@ -541,6 +583,15 @@ class MechanismReader {
         this.report("warning", step, "With its fixed species held constant this step changes no concentration; the structure leaves it out.");
       }
     });
+  }
+
+  /** The network leaves out what never runs (see buildNetwork); the author is told on the step's line. */
+  private checkZeroRates(mechanism: Mechanism): void {
+    for (const step of mechanism.steps) {
+      const [forward, backward] = zeroRateDirections(mechanism, step);
+      if (forward && (backward || !step.reversible)) this.report("warning", step, "rate coefficient 0: step left out of the network");
+      else if (forward || backward) this.report("warning", step, `rate coefficient 0: ${forward ? "forward" : "backward"} direction left out of the network`);
+    }
   }
 }
 

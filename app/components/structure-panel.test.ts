@@ -15,6 +15,13 @@ describe("StructurePanel", () => {
     expect(html).toContain("No rate coefficient");
   });
 
+  it("warns on the line of a step with rate coefficient 0 and gives verdicts about the network without it", async () => {
+    const report = await analyzeSource("A <=> B @ k1, k2\nk1 = 0\nk2 = 1");
+    const html = renderToString(createElement(StructurePanel, { report }));
+    expect(html).toContain("rate coefficient 0: forward direction left out of the network");
+    expect(html).not.toContain("exactly one positive steady state");
+  });
+
   it("renders an empty mechanism without failing", async () => {
     const html = renderToString(createElement(StructurePanel, { report: await analyzeSource("") }));
     expect(html).toContain("There are no reactions yet");

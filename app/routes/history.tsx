@@ -29,6 +29,9 @@ export async function loader(args: Route.LoaderArgs) {
   const [from, to] = await Promise.all([fromId ? findSnapshot(db, mechanism.id, fromId) : null, toId ? findSnapshot(db, mechanism.id, toId) : null]);
   const plain = <T extends { at: Date }>(v: T) => ({ ...v, at: v.at.toISOString() });
   return {
+    // Ages are counted from the server's clock on both sides: a reader's clock set differently
+    // would otherwise turn "just now" into another text while the page hydrates (React #418).
+    now: Date.now(),
     id: mechanism.id,
     title: mechanism.title,
     role,
@@ -69,7 +72,7 @@ const lineTone: Record<DiffLine["kind"], string> = { same: "", added: "bg-ok-sof
 const lineMark: Record<DiffLine["kind"], string> = { same: " ", added: "+", removed: "−" };
 
 export default function History({ loaderData, actionData }: Route.ComponentProps) {
-  const { id, title, role, versions, from, to } = loaderData;
+  const { now, id, title, role, versions, from, to } = loaderData;
   const canEdit = atLeast(role, "editor");
   const busy = useNavigation().state === "submitting";
   const result = actionData as { ok?: string; error?: string } | undefined;
@@ -121,7 +124,7 @@ export default function History({ loaderData, actionData }: Route.ComponentProps
               <tr key={v.id} className="border-t border-line" data-testid={`version-${v.id}`}>
                 <td className="px-3 py-2"><input type="radio" name="from" value={v.id} defaultChecked={v.id === from?.id} aria-label={`Compare from version ${v.id}`} /></td>
                 <td className="px-3 py-2"><input type="radio" name="to" value={v.id} defaultChecked={v.id === to?.id} aria-label={`Compare to version ${v.id}`} /></td>
-                <td className="px-3 py-2 whitespace-nowrap"><time dateTime={v.at} title={v.at}>{timeAgo(v.at)}</time> <span className="text-muted">#{v.id}</span></td>
+                <td className="px-3 py-2 whitespace-nowrap"><time dateTime={v.at} title={v.at}>{timeAgo(v.at, now)}</time> <span className="text-muted">#{v.id}</span></td>
                 <td className="px-3 py-2"><span className={`pill ${kindTone[v.kind]}`}>{kindLabel[v.kind]}</span></td>
                 <td className="px-3 py-2">{v.name ?? <span className="text-muted">—</span>}</td>
                 <td className="px-3 py-2">{v.author ?? <span className="text-muted">—</span>}</td>

@@ -7,7 +7,8 @@ function analyze(...args: string[]) {
   return { code: result.status, stdout: result.stdout, stderr: result.stderr };
 }
 
-describe("mechweave analyze", () => {
+// Each call starts node and tsx afresh: seconds apiece on a busy machine.
+describe("mechweave analyze", { timeout: 120_000 }, () => {
   it("prints the contract JSON and exits 0 for a clean file", () => {
     const { code, stdout } = analyze("tests/fixtures/michaelis-menten.weave", "--json");
     expect(code).toBe(0);
@@ -47,6 +48,29 @@ describe("mechweave analyze", () => {
       const { code, stderr } = analyze(...args);
       expect(code).toBe(2);
       expect(stderr).not.toMatch(/\n\s+at /);
+    }
+  });
+
+  it("leaves a step with rate coefficient 0 out of the network, whether the file or --set makes it 0", () => {
+    const fromFile = JSON.parse(analyze("tests/fixtures/zero-rate.weave", "--json").stdout);
+    expect(fromFile.diagnostics).toMatchObject([{ severity: "warning", line: 2, message: "rate coefficient 0: forward direction left out of the network" }]);
+    expect(fromFile).toMatchObject({ complexes: ["A", "B"], reactions: [{ from: 1, to: 0, rate: 1 }], weaklyReversible: false, reversible: false });
+    expect(fromFile.odes).toEqual({ A: "k2*B", B: "-k2*B" });
+
+    const set = analyze("tests/fixtures/michaelis-menten.weave", "--set", "kcat=0", "--set", "[S]0=2e-3", "--json");
+    expect(set.code).toBe(0);
+    const report = JSON.parse(set.stdout);
+    expect(report.diagnostics).toMatchObject([{ severity: "warning", line: 3, message: "rate coefficient 0: step left out of the network" }]);
+    expect(report).toMatchObject({ complexes: ["E + S", "C"], weaklyReversible: true, deficiency: 0 });
+    expect(report.species).toEqual(["E", "S", "C", "P"]);
+    expect(report.odes.P).toBe("0");
+  });
+
+  it("exits 2 for a --set that names nothing in the file or has no number", () => {
+    for (const setting of ["[Q]0=1", "kcat=-1"]) {
+      const { code, stderr } = analyze("tests/fixtures/michaelis-menten.weave", "--set", setting, "--json");
+      expect(code).toBe(2);
+      expect(stderr).toMatch(/--set/);
     }
   });
 });

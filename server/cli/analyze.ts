@@ -1,29 +1,27 @@
-// `mechweave analyze FILE [--json]`: the structure report of a `.weave` file, as the contract JSON
-// or as text. Exit 0 when the file has no errors, 1 when it has (the report still lists them),
-// 2 on bad usage.
-import { readFile } from "node:fs/promises";
-import { analyzeSource } from "~/chem/analysis";
+// `mechweave analyze FILE [--set NAME=VALUE …] [--json]`: the structure report of a `.weave` file,
+// as the contract JSON or as text. Exit 0 when the file has no errors, 1 when it has (the report
+// still lists them), 2 on bad usage.
+import { analyzeMechanism, parseForAnalysis } from "~/chem/analysis";
+import type { Settings } from "~/chem/parse";
 import { formatReport } from "~/chem/report";
+import { parseWithSettings, readCommandLine, readSource, SETTINGS_FLAG, UsageError } from "./simulate";
 
-const usage = "usage: mechweave analyze FILE [--json]";
+const usage = "usage: mechweave analyze FILE [--set NAME=VALUE …] [--json]";
 
 export async function run(args: string[]): Promise<number> {
-  const flags = args.filter((arg) => arg.startsWith("--"));
-  const files = args.filter((arg) => !arg.startsWith("--"));
-  const unknown = flags.filter((flag) => flag !== "--json");
-  if (unknown.length > 0 || files.length !== 1) {
-    const problem = unknown.length > 0 ? `unknown option ${unknown[0]}` : files.length === 0 ? "missing FILE" : "one FILE only";
-    process.stderr.write(`mechweave analyze: ${problem}\n${usage}\n`);
-    return 2;
-  }
-  let source: string;
+  let report;
+  let json: boolean;
   try {
-    source = await readFile(files[0], "utf8");
-  } catch {
-    process.stderr.write(`mechweave analyze: cannot read ${files[0]}\n`);
+    const { file, flags } = readCommandLine(args, { json: "switch", ...SETTINGS_FLAG });
+    json = flags.json === true;
+    const source = await readSource(file);
+    // A rate coefficient set to 0 leaves the network here exactly as if the file said so.
+    report = await analyzeMechanism(parseForAnalysis(source, (text) => parseWithSettings(text, file, flags.set as Settings | undefined)));
+  } catch (error) {
+    if (!(error instanceof UsageError)) throw error;
+    process.stderr.write(`mechweave analyze: ${error.message}\n${usage}\n`);
     return 2;
   }
-  const report = await analyzeSource(source);
-  process.stdout.write(flags.includes("--json") ? JSON.stringify(report, null, 2) + "\n" : formatReport(report));
+  process.stdout.write(json ? JSON.stringify(report, null, 2) + "\n" : formatReport(report));
   return report.diagnostics.some((diagnostic) => diagnostic.severity === "error") ? 1 : 0;
 }

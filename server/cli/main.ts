@@ -12,6 +12,7 @@ commands:
   analyze FILE [--json]                                   network structure
   simulate FILE --until T --samples N [--rtol R --atol A] [--json]
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
+    (these three take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;
 
 async function main(): Promise<number> {
@@ -29,4 +30,14 @@ async function main(): Promise<number> {
   }
 }
 
-main().then((code) => process.exit(code));
+/** Resolves once everything written to the stream so far has been handed to the OS. */
+function flushed(stream: NodeJS.WriteStream): Promise<void> {
+  return new Promise((resolve) => stream.write("", () => resolve()));
+}
+
+// Writes to a pipe are asynchronous: exiting at once would cut the output at the pipe's buffer
+// (64 KiB), so the exit waits until both streams have drained.
+main().then(async (code) => {
+  await Promise.all([flushed(process.stdout), flushed(process.stderr)]);
+  process.exit(code);
+});

@@ -41,6 +41,16 @@ describe("mechweave simulate", slow, () => {
     expect(broken.stderr + missing.stderr + ode.stderr).not.toMatch(/\n\s+at /);
   });
 
+  it("simulates the network the analysis describes when a rate coefficient is 0, from the file or --set", () => {
+    const fromFile = mechweave("simulate", "tests/fixtures/zero-rate.weave", "--until", "40", "--samples", "2", "--json");
+    expect(fromFile.code).toBe(0);
+    expect(fromFile.stderr).toMatch(/zero-rate\.weave:2:1: warning: rate coefficient 0: forward direction left out of the network/);
+    expect(JSON.parse(fromFile.stdout).series.B[1]).toBeLessThan(1e-9);
+    const set = mechweave("simulate", "tests/fixtures/michaelis-menten.weave", "--set", "kcat=0", "--until", "1", "--samples", "2", "--json");
+    expect(set.code).toBe(0);
+    expect(JSON.parse(set.stdout).series.P).toEqual([0, 0]);
+  });
+
   it("exits 2 on bad usage", () => {
     expect(mechweave("simulate", `${fixtures}/robertson.weave`, "--until", "soon").code).toBe(2);
     expect(mechweave("simulate", `${fixtures}/robertson.weave`, "--samples", "3").code).toBe(2);
@@ -56,5 +66,11 @@ describe("mechweave lyapunov", slow, () => {
     expect(result.largest).toBeGreaterThan(0.8);
     expect(result.largest).toBeLessThan(1);
     expect(Array.isArray(result.history)).toBe(true);
+  });
+
+  it("copes with a renormalisation interval over which the tangent vector would overflow", () => {
+    const { code, stdout } = mechweave("lyapunov", `${fixtures}/lorenz.ode`, "--until", "2000", "--interval", "790", "--json");
+    expect(code).toBe(0);
+    expect(Math.abs(JSON.parse(stdout).largest / 0.9056 - 1)).toBeLessThan(0.03);
   });
 });

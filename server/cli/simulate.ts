@@ -1,23 +1,37 @@
-// `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit] [--json]`
-// FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0 on success, 1 when the file has
-// errors or cannot be simulated, 2 on bad usage. The file loading and flag reading here are shared
-// with the `lyapunov` command.
+// `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit]
+// [--set NAME=VALUE …] [--json]`. FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0
+// on success, 1 when the file has errors or cannot be simulated, 2 on bad usage. The file loading
+// and flag reading here are shared with the `lyapunov` and `analyze` commands.
 
 import { readFile } from "node:fs/promises";
 import { extname } from "node:path";
 import { IntegrationFailure, SimulationInputError } from "~/chem/kinetics/errors";
 import { METHODS, settingsProblem } from "~/chem/kinetics/settings";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
-import type { Diagnostic } from "~/chem/model";
+import type { Diagnostic, ParseResult } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
-import { parseMechanism } from "~/chem/parse";
+import { parseMechanismWithSettings, type Settings } from "~/chem/parse";
 import { runJob, type DynamicsModel } from "../sim/job";
 
 export class UsageError extends Error {}
 
-type FlagKind = "number" | "integer" | "method" | "switch";
-type FlagValue = number | string | boolean;
+type FlagKind = "number" | "integer" | "method" | "switch" | "settings";
+type FlagValue = number | string | boolean | Settings;
+
+/** Every command that reads a mechanism takes `--set` (repeatable). */
+export const SETTINGS_FLAG = { set: "settings" } as const;
+
+/** `NAME=VALUE` sets a parameter, `[X]0=VALUE` an initial concentration; VALUE a number ≥ 0. */
+function addSetting(settings: Settings, text: string): void {
+  const match = /^(?:\[(?:"([^"]+)"|([A-Za-z][A-Za-z0-9_]*))\]0|([A-Za-z][A-Za-z0-9_]*))=(.*)$/.exec(text);
+  if (!match) throw new UsageError(`--set takes NAME=VALUE or [SPECIES]0=VALUE, not "${text}"`);
+  const [, quoted, species, parameter, valueText] = match;
+  const value = Number(valueText);
+  if (valueText.trim() === "" || !Number.isFinite(value) || value < 0) throw new UsageError(`--set ${text}: the value must be a number ≥ 0`);
+  if (parameter) settings.parameters[parameter] = value;
+  else settings.initial[quoted ?? species] = value;
+}
 
 /** Reads `FILE --name value … --switch`; every flag must be declared, every value well-formed. */
 export function readCommandLine(args: string[], declared: Record<string, FlagKind>): { file: string; flags: Record<string, FlagValue> } {
@@ -38,6 +52,11 @@ export function readCommandLine(args: string[], declared: Record<string, FlagKin
     }
     const text = args[++i];
     if (text === undefined) throw new UsageError(`${arg} needs a value`);
+    if (kind === "settings") {
+      const settings = (flags[name] ??= { parameters: {}, initial: {} }) as Settings;
+      addSetting(settings, text);
+      continue;
+    }
     if (kind === "method") {
       if (!(METHODS as readonly string[]).includes(text)) throw new UsageError(`${arg} takes one of ${METHODS.join(", ")}`);
       flags[name] = text;
@@ -53,22 +72,34 @@ export function readCommandLine(args: string[], declared: Record<string, FlagKin
   return { file: files[0], flags };
 }
 
-/** Reads and parses a model file; diagnostics carry the file's errors (then `model` is null). */
-export async function loadModel(file: string): Promise<{ model: DynamicsModel | null; diagnostics: Diagnostic[] }> {
-  const extension = extname(file);
-  if (extension !== ".weave" && extension !== ".ode") throw new UsageError(`FILE must be a .weave mechanism or a .ode system, not "${file}"`);
-  let text: string;
+/** The file's text; a file that cannot be read is bad usage. */
+export async function readSource(file: string): Promise<string> {
   try {
-    text = await readFile(file, "utf8");
+    return await readFile(file, "utf8");
   } catch (error) {
     throw new UsageError(`cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
   }
+}
+
+/** Parses a mechanism with `--set` applied; a setting that names nothing in the text is bad usage. */
+export function parseWithSettings(text: string, file: string, settings: Settings | undefined): ParseResult {
+  const { unknown, ...parsed } = parseMechanismWithSettings(text, settings ?? { parameters: {}, initial: {} });
+  if (unknown.length > 0) throw new UsageError(`--set ${unknown[0]}: ${file} has no such parameter or species`);
+  return parsed;
+}
+
+/** Reads and parses a model file; diagnostics carry the file's errors (then `model` is null). */
+export async function loadModel(file: string, settings?: Settings): Promise<{ model: DynamicsModel | null; diagnostics: Diagnostic[] }> {
+  const extension = extname(file);
+  if (extension !== ".weave" && extension !== ".ode") throw new UsageError(`FILE must be a .weave mechanism or a .ode system, not "${file}"`);
+  const text = await readSource(file);
   if (extension === ".ode") {
+    if (settings) throw new UsageError("--set applies to .weave mechanisms; edit the .ode file's parameter lines instead");
     const { ode, diagnostics } = parseOde(text);
     const failed = ode === null || diagnostics.some((d) => d.severity === "error");
     return { model: failed ? null : { kind: "ode", ode }, diagnostics };
   }
-  const { mechanism, diagnostics } = parseMechanism(text);
+  const { mechanism, diagnostics } = parseWithSettings(text, file, settings);
   if (diagnostics.some((d) => d.severity === "error")) return { model: null, diagnostics };
   return { model: { kind: "mechanism", mechanism, network: buildNetwork(mechanism) }, diagnostics };
 }
@@ -92,8 +123,8 @@ export async function runModelCommand(
   let parsed: ReturnType<typeof readCommandLine>;
   let loaded: Awaited<ReturnType<typeof loadModel>>;
   try {
-    parsed = readCommandLine(args, { ...declared, json: "switch" });
-    loaded = await loadModel(parsed.file);
+    parsed = readCommandLine(args, { ...declared, ...SETTINGS_FLAG, json: "switch" });
+    loaded = await loadModel(parsed.file, parsed.flags.set as Settings | undefined);
   } catch (error) {
     if (error instanceof UsageError) return fail(error.message, 2, args.includes("--json"));
     throw error;

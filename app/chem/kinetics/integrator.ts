@@ -67,9 +67,15 @@ export class Integrator {
 
   /**
    * Integrates to exactly `until`. `sample(time, state)` is called for each of `times` (ascending,
-   * in (t, until]) with the dense-output state; the buffer is reused between calls.
+   * in (t, until]) with the dense-output state; the buffer is reused between calls. `afterStep(y)`
+   * sees the state after each accepted step and may change it in place (returning true when it did).
    */
-  advance(until: number, times: readonly number[] = [], sample?: (time: number, state: Float64Array) => void): void {
+  advance(
+    until: number,
+    times: readonly number[] = [],
+    sample?: (time: number, state: Float64Array) => void,
+    afterStep?: (y: Float64Array) => boolean,
+  ): void {
     const { system, options } = this;
     const state = new Float64Array(this.y.length);
     let next = 0;
@@ -106,7 +112,8 @@ export class Integrator {
       this.steps++;
       // A step shortened to land on `until` says little about the step the problem allows.
       this.h = landing ? Math.max(proposal, this.h) : proposal;
-      if (system.nonNegative && clipNegatives(this.y)) this.stepper.invalidate();
+      const clipped = system.nonNegative && clipNegatives(this.y);
+      if (afterStep?.(this.y) || clipped) this.stepper.invalidate();
       if (this.explicit?.stiff && options.method === "auto") this.switchToStiff();
     }
   }

@@ -1,7 +1,7 @@
 // The largest Lyapunov exponent, a numerical indicator of chaos: the mean exponential growth rate
 // of a tangent vector carried along a trajectory. Benettin's method: integrate the system with its
-// variational equation v' = J(y)·v, renormalise v at fixed intervals and average the logarithms of
-// the growth factors (Benettin, Galgani, Giorgilli & Strelcyn, Meccanica 15 (1980) 9–20).
+// variational equation v' = J(y)·v, renormalise v at fixed intervals (and whenever its length strays
+// far from 1) and average the logarithms of the growth factors (Benettin, Galgani, Giorgilli & Strelcyn, Meccanica 15 (1980) 9–20).
 // Conservation laws make every direction that changes a total neutral (exponent 0); the exponent
 // that matters is the one within the compatibility class, so v is kept in the stoichiometric
 // subspace (re-projected at each renormalisation, against round-off drift).
@@ -42,6 +42,7 @@ export interface LyapunovResult {
 
 const HISTORY_POINTS = 500;
 const MAX_RENORMALISATIONS = 1_000_000;
+const RESCALE_AT = 1e3;
 
 export function networkLyapunov(mechanism: Mechanism, network: Network, options: LyapunovOptions): LyapunovResult {
   return specLyapunov(networkSpec(mechanism, network), options);
@@ -88,16 +89,29 @@ export function largestLyapunovExponent(system: OdeSystem, options: LyapunovOpti
 
   const estimates: { t: number; estimate: number }[] = [];
   let logSum = 0;
-  let reported = 0;
-  const renormalisations = Math.max(1, Math.round((until - transient) / interval));
-  for (let k = 1; k <= renormalisations; k++) {
-    const t = k === renormalisations ? until : transient + k * interval;
-    integrator.advance(t);
-    const v = keepInSubspace(integrator.y.subarray(n));
+  /** Projects v back into the subspace, adds the logarithm of its length and rescales it to 1. */
+  const renormalise = (v: Float64Array, t: number) => {
+    keepInSubspace(v);
     const size = Math.hypot(...v);
     if (!(size > 0 && Number.isFinite(size))) throw new IntegrationFailure(`the tangent vector degenerated at t = ${t.toPrecision(6)}`);
     logSum += Math.log(size);
     for (let i = 0; i < n; i++) v[i] /= size;
+  };
+  // v grows like e^(λt): over a long interval it would overflow (λ·τ past ~700) or underflow, so it
+  // is also rescaled whenever its length leaves [1/RESCALE_AT, RESCALE_AT]. Rescaling is linear,
+  // so the sum of logarithms, and with it the estimate, is the same whenever it happens.
+  const rescaleWhenFar = (y: Float64Array) => {
+    const size = Math.hypot(...y.subarray(n));
+    if (size >= 1 / RESCALE_AT && size <= RESCALE_AT) return false;
+    renormalise(y.subarray(n), integrator.t);
+    return true;
+  };
+  let reported = 0;
+  const renormalisations = Math.max(1, Math.round((until - transient) / interval));
+  for (let k = 1; k <= renormalisations; k++) {
+    const t = k === renormalisations ? until : transient + k * interval;
+    integrator.advance(t, [], undefined, rescaleWhenFar);
+    renormalise(integrator.y.subarray(n), t);
     integrator.setState(integrator.y);
     estimates.push({ t, estimate: logSum / (t - transient) });
     const fraction = t / until;

@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { massAction } from "../../../tests/fixtures/dynamics/models";
+import { buildNetwork } from "../network";
+import { parseMechanism } from "../parse";
 import { oscillationPeriod } from "./oscillation";
 import { sweepNetwork, sweepValues } from "./sweep";
 
@@ -44,16 +46,23 @@ describe("parameter sweeps", () => {
 });
 
 describe("sweeping a parameter", () => {
-  it("re-folds it into every coefficient that uses it, fixed species included", () => {
-    // A → B @ k with fixed [F] = 2 folded in: effective rate 2k, and B → A @ 1, so B(∞)/A(∞) = 2k.
-    const { mechanism, network } = massAction(["A", "B"], [[{ A: 1 }, { B: 1 }, 2], [{ B: 1 }, { A: 1 }, 1]], { A: 1 });
-    mechanism.parameters.k = 1;
-    mechanism.fixed.F = 2;
-    network.reactions[0].coefficient = [[{ kind: "parameter", symbol: "k", power: 1 }, { kind: "fixed", symbol: "F", power: 1 }]];
-    const result = sweepNetwork(mechanism, network, {
+  const sweepK = (source: string) => {
+    const { mechanism } = parseMechanism(source);
+    return sweepNetwork(mechanism, buildNetwork(mechanism), {
       target: { kind: "parameter", name: "k" }, from: 0.5, to: 2, points: 2, scale: "log",
       species: "B", observable: "final", until: 30, samples: 2,
     });
+  };
+
+  it("re-folds it into every coefficient that uses it, fixed species included", () => {
+    // A → B @ k with fixed [F] = 2 folded in: effective rate 2k, and B → A @ 1, so B(∞)/A(∞) = 2k.
+    const result = sweepK("A + F -> B @ k\nB -> A @ 1\nk = 1\nfixed [F] = 2\n[A]0 = 1");
+    expect(result.observed[0]).toBeCloseTo(1 / 2, 6);
+    expect(result.observed[1]).toBeCloseTo(4 / 5, 6);
+  });
+
+  it("brings back a reaction left out of the network while the parameter was 0", () => {
+    const result = sweepK("A + F -> B @ k\nB -> A @ 1\nk = 0\nfixed [F] = 2\n[A]0 = 1");
     expect(result.observed[0]).toBeCloseTo(1 / 2, 6);
     expect(result.observed[1]).toBeCloseTo(4 / 5, 6);
   });

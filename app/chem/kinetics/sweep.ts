@@ -2,9 +2,11 @@
 // concentration over a linear or logarithmic range and record one observable of one species per
 // value — its final value, its maximum, or its period when the course settles into sustained
 // oscillation. For a reaction or an initial value the system is compiled once and each point only
-// changes a number; a parameter may enter several coefficients and laws, so each point recompiles.
+// changes a number; a parameter may enter several coefficients and laws (and a coefficient of 0
+// takes its reaction out of the network), so each point rebuilds the network and recompiles.
 
-import type { Mechanism, Network, RateFactor } from "~/chem/model";
+import type { Mechanism, Network } from "~/chem/model";
+import { buildNetwork } from "~/chem/network";
 import { SimulationCancelled, SimulationInputError } from "./errors";
 import { networkSystem } from "./from-network";
 import type { OdeSystem } from "./ode-system";
@@ -78,14 +80,11 @@ export function sweepNetwork(mechanism: Mechanism, network: Network, options: Sw
 function pointSystems(target: SweepTarget, mechanism: Mechanism, network: Network): (value: number) => OdeSystem {
   if (target.kind === "parameter") {
     if (!(target.name in mechanism.parameters)) throw new SimulationInputError(`there is no parameter ${target.name} to vary`);
+    // The network is built anew: the value folds into every coefficient that uses the parameter,
+    // and a reaction left out while its coefficient was 0 comes back (and the reverse).
     return (value) => {
-      const parameters = { ...mechanism.parameters, [target.name]: value };
-      const reactions = network.reactions.map((r) =>
-        r.coefficient?.some((product) => product.some((f) => f.kind === "parameter" && f.symbol === target.name))
-          ? { ...r, rate: coefficientValue(r.coefficient, parameters, mechanism.fixed) }
-          : r,
-      );
-      return networkSystem({ ...mechanism, parameters }, { ...network, reactions });
+      const varied = { ...mechanism, parameters: { ...mechanism.parameters, [target.name]: value } };
+      return networkSystem(varied, buildNetwork(varied));
     };
   }
   const system = networkSystem(mechanism, network);
@@ -106,19 +105,4 @@ function pointSystems(target: SweepTarget, mechanism: Mechanism, network: Networ
     system.coefficients[monomial] = value;
     return system;
   };
-}
-
-/** A coefficient as written (a sum of products of factors) evaluated; null while one is missing. */
-function coefficientValue(coefficient: RateFactor[][], parameters: Record<string, number>, fixed: Record<string, number>): number | null {
-  let sum = 0;
-  for (const product of coefficient) {
-    let term = 1;
-    for (const { kind, symbol, power } of product) {
-      if (kind === "missing") return null;
-      const value = kind === "value" ? Number(symbol) : kind === "parameter" ? parameters[symbol] : fixed[symbol];
-      term *= Math.pow(value, power);
-    }
-    sum += term;
-  }
-  return sum;
 }

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { analyzeSource } from "~/chem/analysis";
 import { buildGraphModel, rateText } from "./graph-model";
 import { edgeCurve } from "./edge-geometry";
 import { linkageClassColours } from "./linkage-colours";
@@ -84,5 +85,13 @@ describe("linkage class colours", () => {
     const { fill, outline } = linkageClassColours(0);
     expect(fill).toContain("var(--mw-raised)");
     expect(outline).toContain("var(--mw-ink)");
+  });
+});
+
+describe("graph of a mechanism with a rate coefficient of 0", () => {
+  it("draws only what runs: the step is absent, and so is a complex no other reaction uses", async () => {
+    const model = buildGraphModel(await analyzeSource("A -> B @ 0\nB <=> C @ 1, k\nk = 0"));
+    expect(model.nodes.map((node) => node.key)).toEqual(["B", "C"]);
+    expect(model.edges.map((edge) => [edge.source, edge.target])).toEqual([["B", "C"]]);
   });
 });
