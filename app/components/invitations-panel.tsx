@@ -1,6 +1,6 @@
 import { Form } from "react-router";
 import { RolePill } from "./role-pill";
-import { timeAgo } from "~/utils/format";
+import { TimeAgo } from "~/components/time-ago";
 
 interface PendingInvitation {
   id: string;
@@ -30,7 +30,7 @@ export function InvitationsPanel({ invitations }: { invitations: PendingInvitati
                   ) : i.expired ? (
                     <span className="text-danger">expired</span>
                   ) : (
-                    <>sent {timeAgo(i.createdAt)}</>
+                    <>sent <TimeAgo at={i.createdAt} /></>
                   )}
                 </td>
                 <td className="px-4 py-3">

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { Form } from "react-router";
-import { timeAgo } from "~/utils/format";
+import { TimeAgo } from "~/components/time-ago";
 
 interface ViewLinkRow {
   id: string;
@@ -50,8 +50,8 @@ export function ViewLinksPanel({ links, newLink }: { links: ViewLinkRow[]; newLi
             {links.map((l) => (
               <tr key={l.id} className="border-t border-line first:border-t-0">
                 <td className="px-4 py-3"><code className="text-xs text-muted">…{l.hint}</code> <span className="font-medium">{l.label || "Untitled link"}</span></td>
-                <td className="px-4 py-3 text-muted">created {timeAgo(l.createdAt)}</td>
-                <td className="px-4 py-3 text-muted">{l.expiresAt ? `expires ${timeAgo(l.expiresAt)}` : "no expiry"}</td>
+                <td className="px-4 py-3 text-muted">created <TimeAgo at={l.createdAt} /></td>
+                <td className="px-4 py-3 text-muted">{l.expiresAt ? <>expires <TimeAgo at={l.expiresAt} /></> : "no expiry"}</td>
                 <td className="px-4 py-3"><span className={`pill ${statusTone[l.status]}`}>{l.status}</span></td>
                 <td className="px-4 py-3 text-right">
                   {l.status === "live" && (

@@ -5,7 +5,7 @@ import { RolePill } from "~/components/role-pill";
 import { requireUser } from "~/utils/auth.server";
 import { titleField } from "~/utils/fields";
 import { importSbmlFile } from "~/utils/import.server";
-import { timeAgo } from "~/utils/format";
+import { TimeAgo } from "~/components/time-ago";
 import type { Route } from "./+types/dashboard";
 
 export const meta: Route.MetaFunction = () => [{ title: "Mechanisms · Mechweave" }];
@@ -113,7 +113,7 @@ export default function Dashboard({ loaderData, actionData }: Route.ComponentPro
                 <td className="px-4 py-3"><Link to={`/m/${m.id}`} className="font-medium">{m.title}</Link></td>
                 <td className="px-4 py-3"><RolePill role={m.role} /></td>
                 <td className="px-4 py-3 text-muted">{m.owner}</td>
-                <td className="px-4 py-3 text-muted"><time dateTime={m.updatedAt} title={new Date(m.updatedAt).toUTCString()}>{timeAgo(m.updatedAt)}</time></td>
+                <td className="px-4 py-3 text-muted"><TimeAgo at={m.updatedAt} /></td>
               </tr>
             ))}
             {rows.length === 0 && (

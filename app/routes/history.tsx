@@ -4,7 +4,7 @@ import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import { findSnapshot, listSnapshots, snapshotNameField, type SnapshotKind } from "../../server/collab/snapshots";
 import { atLeast } from "../../server/db/roles";
-import { timeAgo } from "~/utils/format";
+import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import { describeInvariantChanges, diffText, type DiffLine } from "~/utils/version-diff";
@@ -29,9 +29,6 @@ export async function loader(args: Route.LoaderArgs) {
   const [from, to] = await Promise.all([fromId ? findSnapshot(db, mechanism.id, fromId) : null, toId ? findSnapshot(db, mechanism.id, toId) : null]);
   const plain = <T extends { at: Date }>(v: T) => ({ ...v, at: v.at.toISOString() });
   return {
-    // Ages are counted from the server's clock on both sides: a reader's clock set differently
-    // would otherwise turn "just now" into another text while the page hydrates (React #418).
-    now: Date.now(),
     id: mechanism.id,
     title: mechanism.title,
     role,
@@ -72,7 +69,7 @@ const lineTone: Record<DiffLine["kind"], string> = { same: "", added: "bg-ok-sof
 const lineMark: Record<DiffLine["kind"], string> = { same: " ", added: "+", removed: "−" };
 
 export default function History({ loaderData, actionData }: Route.ComponentProps) {
-  const { now, id, title, role, versions, from, to } = loaderData;
+  const { id, title, role, versions, from, to } = loaderData;
   const canEdit = atLeast(role, "editor");
   const busy = useNavigation().state === "submitting";
   const result = actionData as { ok?: string; error?: string } | undefined;
@@ -124,7 +121,7 @@ export default function History({ loaderData, actionData }: Route.ComponentProps
               <tr key={v.id} className="border-t border-line" data-testid={`version-${v.id}`}>
                 <td className="px-3 py-2"><input type="radio" name="from" value={v.id} defaultChecked={v.id === from?.id} aria-label={`Compare from version ${v.id}`} /></td>
                 <td className="px-3 py-2"><input type="radio" name="to" value={v.id} defaultChecked={v.id === to?.id} aria-label={`Compare to version ${v.id}`} /></td>
-                <td className="px-3 py-2 whitespace-nowrap"><time dateTime={v.at} title={v.at}>{timeAgo(v.at, now)}</time> <span className="text-muted">#{v.id}</span></td>
+                <td className="px-3 py-2 whitespace-nowrap"><TimeAgo at={v.at} /> <span className="text-muted">#{v.id}</span></td>
                 <td className="px-3 py-2"><span className={`pill ${kindTone[v.kind]}`}>{kindLabel[v.kind]}</span></td>
                 <td className="px-3 py-2">{v.name ?? <span className="text-muted">—</span>}</td>
                 <td className="px-3 py-2">{v.author ?? <span className="text-muted">—</span>}</td>

@@ -1,6 +1,6 @@
 // The local mail catcher's inbox, for development: only when no SMTP_URL is set, and only for
 // the demo workspace's owner account (the demo admin).
-import { timeAgo } from "~/utils/format";
+import { TimeAgo } from "~/components/time-ago";
 import { requireCaughtMail } from "~/utils/mailbox.server";
 import type { Route } from "./+types/mailbox";
 
@@ -20,7 +20,7 @@ export default function Mailbox({ loaderData }: Route.ComponentProps) {
           <article key={i} className="card p-4">
             <header className="flex flex-wrap items-baseline justify-between gap-2">
               <h2 className="text-base">{m.subject}</h2>
-              <span className="text-xs text-muted">to {m.to.join(", ")} · {timeAgo(m.at)}</span>
+              <span className="text-xs text-muted">to {m.to.join(", ")} · <TimeAgo at={m.at} /></span>
             </header>
             <pre className="mt-2 whitespace-pre-wrap text-sm text-muted">{m.text}</pre>
           </article>

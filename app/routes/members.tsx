@@ -7,7 +7,7 @@ import { InvitationsPanel } from "~/components/invitations-panel";
 import { ViewLinksPanel } from "~/components/view-links-panel";
 import { RolePill } from "~/components/role-pill";
 import { memberRoleField } from "~/utils/fields";
-import { timeAgo } from "~/utils/format";
+import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import { inviteByEmail, makeViewLink, notifyRoleChange } from "~/utils/sharing.server";
@@ -198,7 +198,7 @@ export default function Members({ loaderData, actionData }: Route.ComponentProps
         <ol className="mt-3 space-y-1.5 text-sm">
           {history.map((h, i) => (
             <li key={i} className="flex gap-3">
-              <time className="w-28 shrink-0 text-muted" dateTime={h.at}>{timeAgo(h.at)}</time>
+              <TimeAgo className="w-28 shrink-0 text-muted" at={h.at} />
               <span>
                 {h.actor ?? "someone"} {actionWords[h.action] ?? h.action} <strong>{h.subjectEmail}</strong>
                 {h.fromRole && h.toRole ? ` (${h.fromRole} → ${h.toRole})` : h.toRole ? ` as ${h.toRole}` : ""}

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { createApiToken, listApiTokens, revokeApiToken } from "../../server/db/api-tokens";
 import { requireSessionUser } from "~/utils/auth.server";
 import { tokenNameField } from "~/utils/fields";
-import { timeAgo } from "~/utils/format";
+import { TimeAgo } from "~/components/time-ago";
 import type { Route } from "./+types/tokens";
 
 export const meta: Route.MetaFunction = () => [{ title: "Access tokens · Mechweave" }];
@@ -64,8 +64,8 @@ export default function Tokens({ loaderData, actionData }: Route.ComponentProps)
             {loaderData.tokens.map((t) => (
               <tr key={t.id} className="border-t border-line">
                 <td className="px-4 py-3"><span className="font-medium">{t.name}</span> <code className="text-xs text-muted">…{t.hint}</code></td>
-                <td className="px-4 py-3 text-muted">{timeAgo(t.createdAt)}</td>
-                <td className="px-4 py-3 text-muted">{t.lastUsedAt ? timeAgo(t.lastUsedAt) : "never"}</td>
+                <td className="px-4 py-3 text-muted"><TimeAgo at={t.createdAt} /></td>
+                <td className="px-4 py-3 text-muted">{t.lastUsedAt ? <TimeAgo at={t.lastUsedAt} /> : "never"}</td>
                 <td className="px-4 py-3 text-right">
                   <Form method="post">
                     <input type="hidden" name="intent" value="revoke" />

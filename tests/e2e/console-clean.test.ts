@@ -34,7 +34,7 @@ it("the home page hydrates without console errors and states the deficiency the 
   expect(errors).toEqual([]);
 });
 
-it("the history page hydrates without console errors", async () => {
+it("the history page and every page that shows ages hydrate without console errors", async () => {
   const owner = await signUp(world.server.url, "Hana History");
   const created = await owner.json("/api/v1/mechanisms", "POST", { title: "Versions to compare", source: "A <=> B @ 1, 2\n" });
   expect(created.status).toBe(201);
@@ -48,5 +48,12 @@ it("the history page hydrates without console errors", async () => {
   const errors = watchErrors(page);
   await loadAndHydrate(page, `${world.server.url}/m/${id}/history`);
   await page.waitForSelector("[data-testid=invariant-diff]");
+  // Every other page that shows ages: the dashboard, the members page (invitations, view links,
+  // the role history) and the tokens page.
+  const invited = await owner.json(`/api/v1/mechanisms/${id}/invitations`, "POST", { email: "later@example.test", role: "viewer" });
+  expect(invited.status).toBeLessThan(300);
+  expect((await owner.json(`/api/v1/mechanisms/${id}/view-links`, "POST", {})).status).toBeLessThan(300);
+  expect((await owner.json("/api/v1/tokens", "POST", { name: "script" })).status).toBeLessThan(300);
+  for (const path of ["/dashboard", `/m/${id}/members`, "/settings/tokens"]) await loadAndHydrate(page, `${world.server.url}${path}`);
   expect(errors).toEqual([]);
 });
