@@ -1,13 +1,13 @@
 // The owner invites a new address; the e-mail arrives in the mail catcher; its link signs the
-// invitee up, the seat waits until the mailed confirmation link is used, then they edit live. A view link opened in a fresh browser shows the
-// live graph and cannot type.
+// invitee up, the seat waits until the mailed confirmation link is used, then they edit live. A
+// view link opened in a fresh browser shows the live graph and cannot type.
 import { expect, it } from "vitest";
 import { signedInPage, useServerAndBrowser } from "../support/e2e";
 import { linkIn, signUp, VERIFY_SUBJECT, waitForMail } from "../support/http";
 
 const world = useServerAndBrowser();
 
-it("invites a newcomer who edits live, and shows a class the live graph through a view link", { timeout: 180_000 }, async () => {
+it("invites a newcomer who edits live, and shows a class the live graph through a view link", { timeout: 180_000 }, async () => { // two mails and a confirmation before the invitee edits
   const owner = await signUp(world.server.url, "Owen Owner");
   const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Seminar scheme", source: "A -> B @ 1\n" })).json();
 
@@ -56,4 +56,4 @@ it("invites a newcomer who edits live, and shows a class the live graph through 
   const members = await guest.goto(`${world.server.url}/m/${id}/members`);
   expect(guest.url()).toContain("/sign-in");
   expect(members?.status()).toBe(200);
-}, 60_000); // two mails and a confirmation before the invitee edits
+});
