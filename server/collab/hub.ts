@@ -18,6 +18,8 @@ export interface HubTimings extends RoomTimings {
   roleSweepMs: number;
   /** Sockets that miss a ping for this long are dropped. */
   heartbeatMs: number;
+  /** An analysis of a room's text running longer is stopped; the room shows why. */
+  analysisTimeoutMs: number;
 }
 
 export const defaultTimings: HubTimings = {
@@ -29,6 +31,7 @@ export const defaultTimings: HubTimings = {
   roleFeedMs: 1000,
   roleSweepMs: 30_000,
   heartbeatMs: 30_000,
+  analysisTimeoutMs: 20_000,
 };
 
 export class CollabHub {
@@ -38,13 +41,14 @@ export class CollabHub {
   private readonly intervals: NodeJS.Timeout[];
   private readonly timings: HubTimings;
   private readonly roleFeed: RoleChangeFeed;
-  private readonly analysis = new AnalysisPool();
+  private readonly analysis: AnalysisPool;
 
   constructor(
     private readonly db: Db,
     timings: Partial<HubTimings> = {},
   ) {
     this.timings = { ...defaultTimings, ...timings };
+    this.analysis = new AnalysisPool(this.timings.analysisTimeoutMs);
     this.intervals = [setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs), setInterval(() => this.heartbeat(), this.timings.heartbeatMs)];
     for (const interval of this.intervals) interval.unref();
     this.roleFeed = new RoleChangeFeed(db, (change) => this.applyRoleChange(change));
