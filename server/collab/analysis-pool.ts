@@ -26,6 +26,8 @@ class AnalysisThread {
   private readonly pending = new Map<number, Pending>();
   /** The time limit of the request now running (the first pending), not of those waiting behind it. */
   private timer: NodeJS.Timeout | null = null;
+  /** The worker has loaded its modules; before that its boot, not an analysis, takes the time. */
+  private loaded = false;
 
   constructor(private readonly timeoutMs: number) {}
 
@@ -49,6 +51,7 @@ class AnalysisThread {
   stop() {
     void this.worker?.terminate();
     this.worker = null;
+    this.loaded = false;
     this.disarmTimer();
   }
 
@@ -56,8 +59,12 @@ class AnalysisThread {
     if (this.worker) return this.worker;
     const worker = new Worker(bootstrap, { eval: true });
     worker.unref();
-    worker.on("message", (response: AnalysisResponse) => {
+    worker.on("message", (response: AnalysisResponse | "ready") => {
       if (this.worker !== worker) return;
+      if (response === "ready") {
+        this.loaded = true;
+        return this.armTimer();
+      }
       const pending = this.pending.get(response.id);
       if (!pending) return;
       this.pending.delete(response.id);
@@ -73,7 +80,7 @@ class AnalysisThread {
   }
 
   private armTimer() {
-    if (this.timer || this.pending.size === 0) return;
+    if (this.timer || !this.loaded || this.pending.size === 0) return;
     this.timer = setTimeout(() => this.timeOut(), this.timeoutMs);
   }
 

@@ -83,6 +83,8 @@ export function jobRunner(defaults: Partial<RunLimits>): typeof runInWorker {
 // that finish a job cleanly wait for the next one. A cancelled, timed-out or failed worker is
 // terminated and never reused. Idle workers do not keep the process alive.
 const idle = new Map<number, Worker[]>();
+/** Resolves once a worker has loaded its modules: time limits count from then, not from its boot. */
+const loaded = new WeakMap<Worker, Promise<void>>();
 
 function takeWorker(heapMb: number): Worker {
   const reused = idle.get(heapMb)?.pop();
@@ -91,6 +93,7 @@ function takeWorker(heapMb: number): Worker {
     return reused;
   }
   const worker = new Worker(workerBootstrap, { eval: true, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
+  loaded.set(worker, new Promise((resolve) => worker.once("message", (message: WorkerMessage) => message.type === "ready" && resolve())));
   // While idle nobody else listens: an idle worker that dies just leaves the pool.
   worker.on("error", () => undefined);
   worker.on("exit", () => {
@@ -129,14 +132,19 @@ function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, { onProgress,
       outcome();
     };
     const [what, timeMs] = isTextJob(job) ? ["analysis", limits.analysisTimeMs] : ["run", limits.timeMs];
-    const timer = setTimeout(
-      () => finish(false, () => reject(new SimulationLimitError(`the ${what} took longer than ${timeMs / 1000} s and was stopped`, "time"))),
-      timeMs,
-    );
+    let timer: NodeJS.Timeout | undefined;
+    void loaded.get(worker)!.then(() => {
+      if (settled) return;
+      timer = setTimeout(
+        () => finish(false, () => reject(new SimulationLimitError(`the ${what} took longer than ${timeMs / 1000} s and was stopped`, "time"))),
+        timeMs,
+      );
+    });
     const cancel = () => finish(false, () => reject(new SimulationCancelled()));
     signal?.addEventListener("abort", cancel, { once: true });
 
     const onMessage = (message: WorkerMessage) => {
+      if (message.type === "ready") return;
       if (message.type === "progress") onProgress?.(message.fraction);
       else if (message.type === "result") finish(true, () => resolve(message.result as JobResult<J>));
       else if (message.name === "SimulationLimitError") finish(true, () => reject(new SimulationLimitError(message.message, message.limit as "size")));

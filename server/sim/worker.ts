@@ -5,6 +5,7 @@ import { parentPort } from "node:worker_threads";
 import { isTextJob, runJob, runRealizationJob, runTextJob, type SizeLimits, type WorkerJob } from "./job";
 
 export type WorkerMessage =
+  | { type: "ready" }
   | { type: "progress"; fraction: number }
   | { type: "result"; result: unknown }
   | { type: "error"; name: string; message: string; limit?: string };
@@ -16,8 +17,10 @@ export interface WorkerRequest {
 
 const post = (message: WorkerMessage) => parentPort?.postMessage(message);
 
-// One job at a time, as the parent sends them; the worker then waits for the next.
+// One job at a time, as the parent sends them; the worker then waits for the next. Every module is
+// loaded by now: the parent starts the job's clock.
 parentPort?.on("message", (request: WorkerRequest) => void run(request));
+post({ type: "ready" });
 
 async function run({ job, limits }: WorkerRequest) {
   try {
