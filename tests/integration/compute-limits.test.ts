@@ -95,7 +95,7 @@ describe("analysis of user text under a time limit", { timeout: 120_000 }, () =>
 describe("simulation workers shared fairly", { timeout: 120_000 }, () => {
   const lorenz = readFileSync(new URL("../fixtures/ode/lorenz.ode", import.meta.url), "utf8");
   // Lotka–Volterra cycles at a tight tolerance, 200 times over: it holds a worker for a minute.
-  const oscillator = "X -> 2X @ 1\nX + Y -> 2Y @ 1\nY -> @ 1\n[X]0 = 1\n[Y]0 = 0.5\n";
+  const oscillator = "X -> 2X @ 1\nX + Y -> 2Y @ 1\nY -> 0 @ 1\n[X]0 = 1\n[Y]0 = 0.5\n";
   const options = { until: 1e4, rtol: 1e-12, samples: 100, target: { kind: "rate", reaction: 0 }, from: 0.5, to: 2, points: 200, scale: "linear", species: "X", observable: "max" };
   const sweep = { kind: "sweep", source: oscillator, options };
 
