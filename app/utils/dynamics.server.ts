@@ -3,7 +3,6 @@
 // runs, then the result — and closing the request cancels the run.
 import type { AppLoadContext } from "react-router";
 import type { DynamicsModel, WorkerJob } from "../../server/sim/job";
-import { parseOde } from "~/chem/ode/parse";
 import { httpError } from "./http";
 
 /** The mechanism text as a dynamics model; the worker parses it (a 400 names its first error). */
@@ -11,12 +10,9 @@ export function modelFromSource(source: string): DynamicsModel {
   return { kind: "text", source };
 }
 
-/** A polynomial ODE text as a dynamics model, or a 400 naming the first error in it. */
+/** A polynomial ODE text as a dynamics model; the worker parses it (a 400 names its first error). */
 export function modelFromOde(text: string): DynamicsModel {
-  const parsed = parseOde(text);
-  const error = parsed.diagnostics.find((d) => d.severity === "error");
-  if (error || !parsed.ode) throw httpError(400, `Fix the ODE first: line ${error?.line ?? 1}: ${error?.message ?? "it has no equations"}`);
-  return { kind: "ode", ode: parsed.ode };
+  return { kind: "odeText", text };
 }
 
 /** Whose job it is, for the per-user cap: the user, or a signed-out guest's address. */

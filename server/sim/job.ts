@@ -17,16 +17,21 @@ import { exportSbml } from "~/chem/exchange/sbml-export";
 import { importSbml, type SbmlImport } from "~/chem/exchange/sbml-import";
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
+import { parseOde } from "~/chem/ode/parse";
 import { parseMechanism } from "~/chem/parse";
 import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 
-/** `text` is a mechanism not yet parsed: the worker parses it, so a long text never stalls the server. */
+/**
+ * `text` and `odeText` are a mechanism and a polynomial ODE not yet parsed: the worker parses them,
+ * so no text (a long one, or powers of sums that expand to thousands of terms) stalls the server.
+ */
 export type DynamicsModel =
   | { kind: "mechanism"; mechanism: Mechanism; network: Network }
   | { kind: "ode"; ode: PolynomialOde }
-  | { kind: "text"; source: string };
+  | { kind: "text"; source: string }
+  | { kind: "odeText"; text: string };
 
-type ParsedModel = Exclude<DynamicsModel, { kind: "text" }>;
+type ParsedModel = Exclude<DynamicsModel, { kind: "text" | "odeText" }>;
 
 type Plain<T> = Omit<T, "signal" | "onProgress">;
 
@@ -135,8 +140,14 @@ export function runJob<J extends DynamicsJob>(job: J, hooks: JobHooks = {}, limi
   return dispatch(job, model, hooks) as JobResult<J>;
 }
 
-/** The mechanism text as a model, or a SimulationInputError naming the first error in it. */
+/** The text as a model, or a SimulationInputError naming the first error in it. */
 function parsedModel(model: DynamicsModel): ParsedModel {
+  if (model.kind === "odeText") {
+    const parsed = parseOde(model.text);
+    const error = parsed.diagnostics.find((d) => d.severity === "error");
+    if (error || !parsed.ode) throw new SimulationInputError(`Fix the ODE first: line ${error?.line ?? 1}: ${error?.message ?? "it has no equations"}`);
+    return { kind: "ode", ode: parsed.ode };
+  }
   if (model.kind !== "text") return model;
   const parsed = parseMechanism(model.source);
   const error = parsed.diagnostics.find((d) => d.severity === "error");
