@@ -24,6 +24,8 @@ const schema = z.object({
   SESSION_SECRET: z.string().min(16).optional(),
   /** Seed the demo workspace even into an external database. */
   SEED_DEMO: z.enum(["0", "1"]).optional(),
+  /** Time limit for analysing one text (HTTP and live rooms alike), in milliseconds. */
+  ANALYSIS_TIME_LIMIT_MS: z.coerce.number().int().min(100).default(20_000),
 });
 
 export type Env = z.infer<typeof schema>;

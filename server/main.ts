@@ -14,7 +14,7 @@ import { startMailCatcher } from "./mail/catcher";
 import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
 import { sessionSecret } from "./secret";
-import { prewarmWorkers, runInWorker } from "./sim/run-in-worker";
+import { jobRunner, prewarmWorkers } from "./sim/run-in-worker";
 import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
 
 const projectRoot = path.resolve(import.meta.dirname, "..");
@@ -48,8 +48,12 @@ const services = {
   mailer,
   publicOrigin,
   mailCatcher,
-  dynamics: { run: runInWorker },
-  collab: attachCollaboration(server, { db: database.db, identify: identifyCaller(database.db, sessions) }),
+  dynamics: { run: jobRunner({ analysisTimeMs: env.ANALYSIS_TIME_LIMIT_MS }) },
+  collab: attachCollaboration(server, {
+    db: database.db,
+    identify: identifyCaller(database.db, sessions),
+    timings: { analysisTimeoutMs: env.ANALYSIS_TIME_LIMIT_MS },
+  }),
 };
 
 const vite = dev

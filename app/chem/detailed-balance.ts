@@ -2,7 +2,7 @@
 // (Feinberg 1989): one circuit condition for each independent cycle of the undirected complex
 // graph (the Wegscheider-type conditions), and one spanning-forest condition for each linear
 // dependency among the reaction vectors of a spanning forest. Together r/2 − s conditions.
-import { sparseNullSpace, type SparseVector } from "./exact";
+import { ExactSizeLimitError, sparseNullSpace, type SparseVector } from "./exact";
 import { coefficientLatex, coefficientText } from "./expression";
 import type { Network } from "./model";
 import { reactionVector } from "./network";
@@ -54,9 +54,21 @@ export function detailedBalance(network: Network, reversible: boolean): Detailed
   const pairs = reactionPairs(network);
   const { treePairs, cycles } = spanningForest(network.complexes.length, pairs);
   const circuitConditions = cycles.map((cycle) => condition(network, cycle.left, cycle.right));
-  const spanningForestConditions = forestDependencies(network, treePairs.map((index) => pairs[index])).map(({ left, right }) =>
-    condition(network, left, right),
-  );
+  let dependencies: { left: Power[]; right: Power[] }[];
+  try {
+    dependencies = forestDependencies(network, treePairs.map((index) => pairs[index]));
+  } catch (error) {
+    // Exponents of hundreds of digits state nothing a reader could check: say so, keep the rest.
+    if (!(error instanceof ExactSizeLimitError)) throw error;
+    return {
+      applicable: true,
+      note: "The dependencies among the reaction vectors have exponents too large to state exactly, so the spanning-forest conditions are not listed.",
+      circuitConditions,
+      spanningForestConditions: [],
+      satisfied: null,
+    };
+  }
+  const spanningForestConditions = dependencies.map(({ left, right }) => condition(network, left, right));
   const all = [...circuitConditions, ...spanningForestConditions];
   const satisfied = all.some((entry) => entry.satisfied === null) ? null : all.every((entry) => entry.satisfied);
   const count = all.length;

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { eigs, multiply, transpose } from "mathjs";
 import { describe, expect, it } from "vitest";
-import { nullSpace, rank, type SparseVector } from "./exact";
+import { ExactSizeLimitError, nullSpace, rank, type SparseVector } from "./exact";
 
 function sparse(rows: number[][]): SparseVector[] {
   return rows.map((row) => {
@@ -101,6 +101,17 @@ describe("null space", () => {
       [1, 0, 1, 0],
       [0, 1, 1, 1],
     ]);
+  });
+});
+
+describe("exact elimination on a dense random matrix", () => {
+  it("stops once entries pass 256 bits instead of growing them for minutes", () => {
+    // 60 × 120 with entries in [−3, 3]: a 60-dimensional kernel whose integer basis has entries
+    // near the 60 × 60 minors, about 2^270; those were converted to doubles, silently inexact.
+    let seed = 3;
+    const random = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) >>> 8) / 2 ** 24;
+    const rows = Array.from({ length: 60 }, () => Array.from({ length: 120 }, () => Math.floor(random() * 7) - 3));
+    expect(() => nullSpace(sparse(rows), 120)).toThrow(ExactSizeLimitError);
   });
 });
 

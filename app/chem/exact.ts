@@ -9,6 +9,18 @@
 // a verified kernel of dimension width − rank mod p proves both rank and kernel. When lifting or
 // verification fails (large entries), the same elimination runs fraction-free in bigint.
 
+/**
+ * The fraction-free elimination met an entry beyond `entryBitLimit` bits. Results are returned as
+ * doubles, exact only below 2^53, and entries this large come from dense random-like matrices
+ * whose bigint elimination runs for minutes: stopping says so at once instead.
+ */
+export class ExactSizeLimitError extends Error {
+  override name = "ExactSizeLimitError";
+}
+
+const entryBitLimit = 256;
+const entryLimit = 1n << BigInt(entryBitLimit);
+
 /** A sparse integer vector: strictly increasing indices and their non-zero values. */
 export interface SparseVector {
   indices: number[];
@@ -393,8 +405,13 @@ function normalise(row: Row): Row {
     if (divisor === 1n) break;
   }
   if (row.values[row.values.length - 1] < 0n) divisor = -divisor;
-  if (divisor === 1n) return row;
-  return { columns: row.columns, values: row.values.map((value) => value / divisor) };
+  const values = divisor === 1n ? row.values : row.values.map((value) => value / divisor);
+  for (const value of values) {
+    if (value >= entryLimit || value <= -entryLimit) {
+      throw new ExactSizeLimitError(`exact elimination met numbers of more than ${entryBitLimit} bits; this network is too large and unstructured to analyse exactly`);
+    }
+  }
+  return divisor === 1n ? row : { columns: row.columns, values };
 }
 
 /** The unique reduced echelon basis with leading entries on the lowest columns, primitive, leading entry positive. */

@@ -51,7 +51,15 @@ export default function ApiDocs({ loaderData }: Route.ComponentProps) {
         Every endpoint lives under <code>/api/v1/</code> and accepts your browser session or a personal access token
         (<a href="/settings/tokens">create one</a>) as <code>Authorization: Bearer TOKEN</code>. A token acts with your roles and has a budget of
         120 requests a minute. Errors are <code>{`{ "error": "message" }`}</code> with status 400 (bad input), 401 (not signed in), 403 (role too
-        low), 404 (not found or not visible to you), 413 (too large) or 429 (rate limited).
+        low), 404 (not found or not visible to you), 413 (too large), 422 (a text that cannot be analysed), 429 (rate limited, or too many
+        of your jobs waiting: see <code>Retry-After</code>) or 503 (over the server's time limit).
+      </p>
+      <p className="mt-2 max-w-3xl text-sm text-muted">
+        Every analysis of a text (analyze, a mechanism's <code>analysis</code>, exports, imports) runs off the server's event loop under a time
+        limit, 20 s unless the operator sets <code>ANALYSIS_TIME_LIMIT_MS</code>. Simulations, sweeps and realizations run one per user at a
+        time with up to three more waiting; asked with <code>Accept: application/x-ndjson</code>, they answer <code>{`{ "queued": n }`}</code>{" "}
+        lines while waiting, then <code>{`{ "progress": f }`}</code> lines, then <code>{`{ "result": … }`}</code> or{" "}
+        <code>{`{ "error": "…" }`}</code>.
       </p>
       <div className="mt-6 space-y-3">
         {endpoints.map((e) => (

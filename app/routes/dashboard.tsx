@@ -23,7 +23,7 @@ export async function action(args: Route.ActionArgs) {
     const file = form.get("file");
     if (!(file instanceof File) || file.size === 0) return Response.json({ error: "Choose an SBML file to import." }, { status: 400 });
     try {
-      const { row } = await importSbmlFile(args.context, user, await file.text(), file.name);
+      const { row } = await importSbmlFile(args, user, await file.text(), file.name);
       throw redirect(`/m/${row.id}`);
     } catch (error) {
       if (error instanceof Response && error.status >= 400) return Response.json(await error.json(), { status: error.status });

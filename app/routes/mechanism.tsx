@@ -93,7 +93,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
         <div className="card flex min-h-[32rem] flex-col overflow-hidden">
           <div className="flex items-center justify-between border-b border-line px-4 py-2 text-xs text-muted">
             <span>Mechanism text{canEdit ? "" : " · read-only"}</span>
-            <Summary errors={room.analysis.errors} deficiency={room.analysis.deficiency} />
+            <Summary errors={room.analysis.errors} deficiency={room.analysis.deficiency} failed={Boolean(room.analysis.failure)} />
           </div>
           {/* Before the room connects, the saved text stands in so the page is never blank. */}
           {source ? (
@@ -117,6 +117,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               </button>
             ))}
           </div>
+          {room.analysis.failure && <AnalysisFailure message={room.analysis.failure} stale={Boolean(report)} />}
           {tab === "Graph" && report && layout && <GraphDownloads report={report} layout={layout} title={mechanism.title} />}
           {tab === "Graph" && (
             <ComplexGraph
@@ -129,7 +130,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               onSelect={(selection) => editor.current?.highlight(source ? stepRangesFor(source.toString(), selection) : [])}
             />
           )}
-          {tab === "Structure" && (report ? <StructurePanel report={report} /> : <Waiting />)}
+          {tab === "Structure" && (report ? <StructurePanel report={report} /> : !room.analysis.failure && <Waiting />)}
           {tab === "Dynamics" && <DynamicsTab mechanismId={mechanism.id} source={source} report={report} />}
           {tab === "Files & settings" && (
             <FilesPanel mechanismId={mechanism.id} title={mechanism.title} role={role} actionData={actionData as { ok?: string; error?: string } | undefined} />
@@ -159,7 +160,18 @@ function Waiting() {
   return <p className="card p-6 text-sm text-muted">Waiting for the server's analysis…</p>;
 }
 
-function Summary({ errors, deficiency }: { errors?: number; deficiency?: number }) {
+/** The server gave up on this text (over the time limit, say); what is shown, if anything, is from an earlier text. */
+function AnalysisFailure({ message, stale }: { message: string; stale: boolean }) {
+  return (
+    <p className="notice-error" role="status" data-testid="analysis-failure">
+      {message}
+      {stale && " The analysis shown is of an earlier version of the text."}
+    </p>
+  );
+}
+
+function Summary({ errors, deficiency, failed }: { errors?: number; deficiency?: number; failed: boolean }) {
+  if (failed) return <span className="text-danger" data-testid="live-summary">no analysis</span>;
   if (errors === undefined) return null;
   return (
     <span data-testid="live-summary">

@@ -30,6 +30,7 @@ export default function Projector({ loaderData }: Route.ComponentProps) {
             <strong className="text-ink">{analysis.deficiency}</strong>
           </p>
         )}
+        {analysis.failure && <p className="text-xl text-danger" data-testid="analysis-failure">{analysis.failure}</p>}
         <Link to={`/m/${id}`} className="ml-auto text-sm">Leave projector view</Link>
       </header>
       <ComplexGraph report={analysis.report ?? null} layout={layout} canEdit={false} synced={room.synced} awareness={room.awareness} fitMaxZoom={3} className="min-h-0 flex-1" />

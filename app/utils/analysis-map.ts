@@ -16,6 +16,8 @@ export interface RoomAnalysis {
   errors?: number;
   revision?: number;
   report?: AnalysisReport;
+  /** Why the current text has no analysis (it ran over the time limit, say); absent once one succeeds. */
+  failure?: string;
 }
 
 /** The map's `report` value for a report; the same report always packs to the same bytes. */

@@ -1,14 +1,39 @@
-// The structure report for HTTP callers. Typical mechanisms take milliseconds and are analysed
-// in-process; a large text goes to a worker thread, since exact elimination on thousands of
-// loosely structured species can take seconds and would stall every other request.
+// Every reading of user text for an HTTP caller — the structure report, exports, SBML import —
+// runs here: in a worker thread of the job runner (server/sim), under the analysis time limit, so
+// no text can stall the event loop. Exact elimination on a large, loosely structured network can
+// take minutes; such a text answers 503 (over the time limit) or 422 (it cannot be analysed).
 import type { AppLoadContext } from "react-router";
-import { analyzeSource, type AnalysisReport } from "~/chem/analysis";
+import type { AnalysisReport } from "~/chem/analysis";
+import type { ExportFormat, JobResult, TextJob } from "../../server/sim/job";
+import { failureResponse, jobFailure } from "./dynamics.server";
 
-const IN_PROCESS_MAX_LINES = 1_000;
+interface Caller {
+  request: Request;
+  context: AppLoadContext;
+  /** `jobOwner(…)`: whose job it is, for the per-user cap. */
+  owner: string;
+}
 
-export async function analysisFor(context: AppLoadContext, source: string): Promise<AnalysisReport> {
-  let lines = 1;
-  for (let i = source.indexOf("\n"); i >= 0 && lines <= IN_PROCESS_MAX_LINES; i = source.indexOf("\n", i + 1)) lines++;
-  if (lines <= IN_PROCESS_MAX_LINES) return analyzeSource(source);
-  return context.dynamics.run({ kind: "analyze", source });
+async function runTextJob<J extends TextJob>({ request, context, owner }: Caller, job: J): Promise<JobResult<J>> {
+  try {
+    return await context.dynamics.run(job, { signal: request.signal, owner });
+  } catch (error) {
+    const failure = jobFailure(error);
+    if (failure) throw failureResponse(failure);
+    // Anything else went wrong inside the analysis of this text (an exact result too large to
+    // represent, a solver that refused the problem): the text's doing, not a server fault.
+    throw failureResponse({ status: 422, message: `This text could not be analysed: ${(error as Error).message}` });
+  }
+}
+
+export function analysisFor(caller: Caller, source: string): Promise<AnalysisReport> {
+  return runTextJob(caller, { kind: "analyze", source });
+}
+
+export function exportFor(caller: Caller, source: string, format: ExportFormat, title: string) {
+  return runTextJob(caller, { kind: "export", source, format, title });
+}
+
+export function sbmlImportFor(caller: Caller, xml: string) {
+  return runTextJob(caller, { kind: "import", xml });
 }

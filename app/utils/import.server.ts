@@ -3,15 +3,17 @@
 import type { AppLoadContext } from "react-router";
 import type { AuthUser } from "../../server/auth/authenticator";
 import { createMechanism } from "../../server/db/mechanisms";
-import { importSbml } from "~/chem/exchange/sbml-import";
+import { sbmlImportFor } from "./analysis.server";
+import { jobOwner } from "./dynamics.server";
 import { httpError } from "./http";
 
 export const MAX_SBML_BYTES = 4 * 1024 * 1024;
 
-export async function importSbmlFile(context: AppLoadContext, user: AuthUser, xml: string, filename: string | null) {
+export async function importSbmlFile({ request, context }: { request: Request; context: AppLoadContext }, user: AuthUser, xml: string, filename: string | null) {
   if (Buffer.byteLength(xml) > MAX_SBML_BYTES) throw httpError(413, "The file is over 4 MiB.");
   if (!xml.trim()) throw httpError(400, "The file is empty.");
-  const imported = importSbml(xml);
+  // Reading XML and translating it is heavy for a large file: a worker does it.
+  const imported = await sbmlImportFor({ request, context, owner: jobOwner(context, user) }, xml);
   if ("errors" in imported) throw httpError(400, `This is not an SBML file Mechweave can read: ${imported.errors.join(" ")}`);
   const title = (imported.title || filename?.replace(/\.(xml|sbml)$/i, "") || "Imported model").slice(0, 200);
   const summary = imported.warnings.length ? `Imported from SBML with notes: ${imported.warnings.join(" ")}` : "Imported from SBML.";

@@ -1,7 +1,7 @@
 // The ODE-to-mechanism request as the API and the page both accept it.
 import { z } from "zod";
 import type { AppLoadContext } from "react-router";
-import { respondWithJob } from "./dynamics.server";
+import { jobOwner, respondWithJob } from "./dynamics.server";
 
 const MAX_ODE_BYTES = 64 * 1024;
 
@@ -16,7 +16,7 @@ export const realizationRequest = z.object({
 /** The MILP searches share this budget (in a worker thread, so the server stays responsive). */
 const EQUIVALENTS_TIME_LIMIT_MS = 20_000;
 
-export function runRealization(request: Request, context: AppLoadContext, input: z.infer<typeof realizationRequest>): Promise<Response> {
+export function runRealization(request: Request, context: AppLoadContext, user: { id: string }, input: z.infer<typeof realizationRequest>): Promise<Response> {
   const { equivalents, ...rest } = input;
-  return respondWithJob(request, context, { kind: "realize", request: { ...rest, equivalents: equivalents ? { timeLimitMs: EQUIVALENTS_TIME_LIMIT_MS } : undefined } });
+  return respondWithJob(request, context, jobOwner(context, user), { kind: "realize", request: { ...rest, equivalents: equivalents ? { timeLimitMs: EQUIVALENTS_TIME_LIMIT_MS } : undefined } });
 }

@@ -9,29 +9,37 @@ const bootstrap = typescriptWorkerSource(new URL("./analysis-worker.ts", import.
 
 const WARM_UP_SOURCE = "A + B <=> C @ 1, 2\nC -> D + B @ 3\n";
 
-/** A text that takes longer than this is given up on (the worker is replaced). */
-const ANALYSIS_TIMEOUT_MS = 60_000;
+/** An analysis stopped by the time limit; the room shows its message instead of a report. */
+export class AnalysisTimeout extends Error {
+  override name = "AnalysisTimeout";
+}
 
 interface Pending {
+  source: string;
   resolve(outcome: AnalysisEntries): void;
   reject(error: Error): void;
-  timer: NodeJS.Timeout;
 }
 
 class AnalysisThread {
   private worker: Worker | null = null;
+  /** In the order sent: the worker answers one at a time, so the first is the one running. */
   private readonly pending = new Map<number, Pending>();
+  /** The time limit of the request now running (the first pending), not of those waiting behind it. */
+  private timer: NodeJS.Timeout | null = null;
+  /** The worker has loaded its modules; before that its boot, not an analysis, takes the time. */
+  private loaded = false;
+
+  constructor(private readonly timeoutMs: number) {}
 
   get load(): number {
     return this.pending.size;
   }
 
   run(id: number, source: string): Promise<AnalysisEntries> {
-    const worker = this.ensure();
     return new Promise((resolve, reject) => {
-      const timer = setTimeout(() => this.fail(new Error(`the analysis took longer than ${ANALYSIS_TIMEOUT_MS / 1000} s`)), ANALYSIS_TIMEOUT_MS);
-      this.pending.set(id, { resolve, reject, timer });
-      worker.postMessage({ id, source });
+      this.pending.set(id, { source, resolve, reject });
+      this.ensure().postMessage({ id, source });
+      this.armTimer();
     });
   }
 
@@ -43,18 +51,25 @@ class AnalysisThread {
   stop() {
     void this.worker?.terminate();
     this.worker = null;
+    this.loaded = false;
+    this.disarmTimer();
   }
 
   private ensure(): Worker {
     if (this.worker) return this.worker;
     const worker = new Worker(bootstrap, { eval: true });
     worker.unref();
-    worker.on("message", (response: AnalysisResponse) => {
+    worker.on("message", (response: AnalysisResponse | "ready") => {
       if (this.worker !== worker) return;
+      if (response === "ready") {
+        this.loaded = true;
+        return this.armTimer();
+      }
       const pending = this.pending.get(response.id);
       if (!pending) return;
       this.pending.delete(response.id);
-      clearTimeout(pending.timer);
+      this.disarmTimer();
+      this.armTimer();
       if ("failure" in response) pending.reject(new Error(response.failure));
       else pending.resolve(response);
     });
@@ -64,13 +79,32 @@ class AnalysisThread {
     return worker;
   }
 
+  private armTimer() {
+    if (this.timer || !this.loaded || this.pending.size === 0) return;
+    this.timer = setTimeout(() => this.timeOut(), this.timeoutMs);
+  }
+
+  private disarmTimer() {
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = null;
+  }
+
+  /** Stops the worker on the running text; the texts waiting behind it go to a fresh worker. */
+  private timeOut() {
+    this.timer = null;
+    const [id, running] = this.pending.entries().next().value!;
+    this.pending.delete(id);
+    const waiting = [...this.pending.entries()];
+    this.pending.clear();
+    this.stop();
+    running.reject(new AnalysisTimeout(`The analysis of this text took longer than ${this.timeoutMs / 1000} s and was stopped.`));
+    for (const [waitingId, { source, resolve, reject }] of waiting) this.run(waitingId, source).then(resolve, reject);
+  }
+
   /** Rejects everything in flight and starts afresh on the next request. */
   private fail(error: Error) {
     this.stop();
-    for (const pending of this.pending.values()) {
-      clearTimeout(pending.timer);
-      pending.reject(error);
-    }
+    for (const pending of this.pending.values()) pending.reject(error);
     this.pending.clear();
   }
 }
@@ -81,8 +115,8 @@ export class AnalysisPool {
   private nextId = 0;
 
   /** One thread fewer than the cores (at least one): the event loop keeps a core. */
-  constructor(size = Math.max(1, Math.min(4, availableParallelism() - 1))) {
-    this.threads = Array.from({ length: size }, () => new AnalysisThread());
+  constructor(timeoutMs: number, size = Math.max(1, Math.min(4, availableParallelism() - 1))) {
+    this.threads = Array.from({ length: size }, () => new AnalysisThread(timeoutMs));
     for (const thread of this.threads) thread.warm();
   }
 

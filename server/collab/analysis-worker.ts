@@ -27,6 +27,9 @@ async function entriesFor(source: string) {
   return entries;
 }
 
+// Every module is loaded by now: the pool starts the clock of the first analysis.
+parentPort?.postMessage("ready");
+
 parentPort?.on("message", async ({ id, source }: AnalysisRequest) => {
   let response: AnalysisResponse;
   try {

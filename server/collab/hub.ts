@@ -19,6 +19,8 @@ export interface HubTimings extends RoomTimings {
   roleSweepMs: number;
   /** Sockets that miss a ping for this long are dropped. */
   heartbeatMs: number;
+  /** An analysis of a room's text running longer is stopped; the room shows why. */
+  analysisTimeoutMs: number;
 }
 
 export const defaultTimings: HubTimings = {
@@ -30,6 +32,7 @@ export const defaultTimings: HubTimings = {
   roleFeedMs: 1000,
   roleSweepMs: 30_000,
   heartbeatMs: 30_000,
+  analysisTimeoutMs: 20_000,
 };
 
 export class CollabHub {
@@ -39,7 +42,7 @@ export class CollabHub {
   private readonly intervals: NodeJS.Timeout[];
   private readonly timings: HubTimings;
   private readonly roleFeed: RoleChangeFeed;
-  private readonly analysis = new AnalysisPool();
+  private readonly analysis: AnalysisPool;
   private readonly connections = new Set<Connection>();
   private checkingCredentials = false;
 
@@ -48,6 +51,7 @@ export class CollabHub {
     timings: Partial<HubTimings> = {},
   ) {
     this.timings = { ...defaultTimings, ...timings };
+    this.analysis = new AnalysisPool(this.timings.analysisTimeoutMs);
     this.intervals = [
       setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs),
       setInterval(() => this.heartbeat(), this.timings.heartbeatMs),

@@ -109,6 +109,7 @@ export class StructureRecompute {
       outcome = await this.pool.analyze(source);
     } catch (error) {
       console.error(`[collab] analysis failed: ${(error as Error).message}`);
+      if (!this.disposed) this.showFailure(error as Error);
       return;
     } finally {
       this.lastDurationMs = performance.now() - started;
@@ -118,6 +119,8 @@ export class StructureRecompute {
     const revision = Math.max(Number(this.analysis.get("revision")) || 0, this.latest?.revision ?? 0) + 1;
     const entries = { ...outcome.entries, digest: JSON.stringify(digest), revision: JSON.stringify(revision) };
     this.doc.transact(() => {
+      if (this.analysis.has("failure")) this.analysis.delete("failure");
+      this.written.delete("failure");
       for (const [key, serialised] of Object.entries(entries)) {
         if (this.written.get(key) === serialised) continue;
         this.analysis.set(key, JSON.parse(serialised));
@@ -130,5 +133,17 @@ export class StructureRecompute {
     }, analysisOrigin);
     this.latest = { source, summary: outcome.summary, complexes: outcome.complexes, revision };
     this.options.analyzed(this.latest);
+  }
+
+  /**
+   * Tells the room why the analysis of this text is missing (over the time limit, say), so the
+   * panels show a message instead of waiting; the last good report stays until one replaces it.
+   */
+  private showFailure(error: Error) {
+    const message = error.name === "AnalysisTimeout" ? error.message : `The analysis of this text failed: ${error.message.split("\n")[0]}`;
+    const serialised = JSON.stringify(message);
+    if (this.written.get("failure") === serialised) return;
+    this.doc.transact(() => this.analysis.set("failure", message), analysisOrigin);
+    this.written.set("failure", serialised);
   }
 }

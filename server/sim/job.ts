@@ -1,19 +1,37 @@
 // A dynamics job as plain data (it crosses into a worker thread by structured clone) and the one
 // function that carries it out. The CLI runs jobs in-process; the server runs them in a worker.
-// The realization of an ODE (its MILP searches can run for seconds) and the structure analysis of
-// a large text travel the same way.
+// The realization of an ODE (its MILP searches can run for seconds) and every analysis of user
+// text (the structure report, exports, SBML import, parsing a text for a run) travel the same way:
+// none of them may stall the server's event loop.
 
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumOptions, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
 import { networkLyapunov, polynomialLyapunov, type LyapunovOptions, type LyapunovResult } from "~/chem/kinetics/lyapunov";
 import type { SimulationSettings } from "~/chem/kinetics/settings";
 import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
-import { sweepNetwork, type SweepOptions, type SweepResult } from "~/chem/kinetics/sweep";
+import { MAX_SWEEP_POINTS, sweepNetwork, type SweepOptions, type SweepResult } from "~/chem/kinetics/sweep";
 import { analyzeSource, type AnalysisReport } from "~/chem/analysis";
+import { csvTooLarge, stoichiometricMatrixCsv } from "~/chem/exchange/csv";
+import { exportLatex } from "~/chem/exchange/latex";
+import { exportSbml } from "~/chem/exchange/sbml-export";
+import { importSbml, type SbmlImport } from "~/chem/exchange/sbml-import";
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
+import { buildNetwork } from "~/chem/network";
+import { parseOde } from "~/chem/ode/parse";
+import { parseMechanism } from "~/chem/parse";
 import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 
-export type DynamicsModel = { kind: "mechanism"; mechanism: Mechanism; network: Network } | { kind: "ode"; ode: PolynomialOde };
+/**
+ * `text` and `odeText` are a mechanism and a polynomial ODE not yet parsed: the worker parses them,
+ * so no text (a long one, or powers of sums that expand to thousands of terms) stalls the server.
+ */
+export type DynamicsModel =
+  | { kind: "mechanism"; mechanism: Mechanism; network: Network }
+  | { kind: "ode"; ode: PolynomialOde }
+  | { kind: "text"; source: string }
+  | { kind: "odeText"; text: string };
+
+type ParsedModel = Exclude<DynamicsModel, { kind: "text" | "odeText" }>;
 
 type Plain<T> = Omit<T, "signal" | "onProgress">;
 
@@ -31,7 +49,19 @@ export type RealizationJob = {
 
 export type AnalysisJob = { kind: "analyze"; source: string };
 
-export type WorkerJob = DynamicsJob | RealizationJob | AnalysisJob;
+export type ExportFormat = "sbml" | "latex" | "csv";
+export type ExportJob = { kind: "export"; source: string; format: ExportFormat; title: string };
+/** The file's text, or why it cannot be written (`tooLarge`: the input is fine but the file would be huge). */
+export type ExportResult = { body: string } | { refusal: string; tooLarge: boolean };
+
+export type ImportJob = { kind: "import"; xml: string };
+
+/** Jobs that read user text and answer within the analysis time limit. */
+export type TextJob = AnalysisJob | ExportJob | ImportJob;
+
+export type WorkerJob = DynamicsJob | RealizationJob | TextJob;
+
+export const isTextJob = (job: WorkerJob): job is TextJob => job.kind === "analyze" || job.kind === "export" || job.kind === "import";
 
 export interface DynamicsResults {
   simulate: SimulationResult;
@@ -40,6 +70,8 @@ export interface DynamicsResults {
   sweep: SweepResult;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
+  export: ExportResult;
+  import: SbmlImport;
 }
 
 export type JobResult<J extends WorkerJob> = DynamicsResults[J["kind"]];
@@ -66,16 +98,74 @@ export function runRealizationJob({ request }: RealizationJob, hooks: JobHooks =
   });
 }
 
-export function runAnalysisJob({ source }: AnalysisJob): Promise<AnalysisReport> {
-  return analyzeSource(source);
+export async function runTextJob(job: TextJob): Promise<AnalysisReport | ExportResult | SbmlImport> {
+  if (job.kind === "analyze") return analyzeSource(job.source);
+  if (job.kind === "import") return importSbml(job.xml);
+  return exportText(job);
 }
 
-export function runJob<J extends DynamicsJob>(job: J, hooks: JobHooks = {}): JobResult<J> {
-  return dispatch(job, hooks) as JobResult<J>;
+async function exportText({ source, format, title }: ExportJob): Promise<ExportResult> {
+  const parsed = parseMechanism(source);
+  const error = parsed.diagnostics.find((d) => d.severity === "error");
+  if (error) return { refusal: `Fix the mechanism before exporting it: line ${error.line}: ${error.message}`, tooLarge: false };
+  if (format === "sbml") return { body: exportSbml(parsed.mechanism, { title }) };
+  const report = await analyzeSource(source);
+  if (format === "latex") return { body: exportLatex(parsed.mechanism, report, { title }) };
+  const refusal = csvTooLarge(report);
+  return refusal ? { refusal, tooLarge: true } : { body: stoichiometricMatrixCsv(report) };
 }
 
-function dispatch(job: DynamicsJob, hooks: JobHooks): DynamicsResults[keyof DynamicsResults] {
-  const { model } = job;
+/** The limits a dynamics job is checked against before it runs. */
+export interface SizeLimits {
+  maxVariables: number;
+  maxReactions: number;
+  maxSamples: number;
+  maxSweepPoints: number;
+}
+
+/** A job is bigger, longer or hungrier than this server runs; `limit` says which. */
+export class SimulationLimitError extends Error {
+  override name = "SimulationLimitError";
+  constructor(
+    message: string,
+    readonly limit: "size" | "time" | "memory",
+  ) {
+    super(message);
+  }
+}
+
+export function runJob<J extends DynamicsJob>(job: J, hooks: JobHooks = {}, limits?: SizeLimits): JobResult<J> {
+  const model = parsedModel(job.model);
+  if (limits) checkSize(job, model, limits);
+  return dispatch(job, model, hooks) as JobResult<J>;
+}
+
+/** The text as a model, or a SimulationInputError naming the first error in it. */
+function parsedModel(model: DynamicsModel): ParsedModel {
+  if (model.kind === "odeText") {
+    const parsed = parseOde(model.text);
+    const error = parsed.diagnostics.find((d) => d.severity === "error");
+    if (error || !parsed.ode) throw new SimulationInputError(`Fix the ODE first: line ${error?.line ?? 1}: ${error?.message ?? "it has no equations"}`);
+    return { kind: "ode", ode: parsed.ode };
+  }
+  if (model.kind !== "text") return model;
+  const parsed = parseMechanism(model.source);
+  const error = parsed.diagnostics.find((d) => d.severity === "error");
+  if (error) throw new SimulationInputError(`Fix the mechanism first: line ${error.line}, column ${error.column}: ${error.message}`);
+  return { kind: "mechanism", mechanism: parsed.mechanism, network: buildNetwork(parsed.mechanism) };
+}
+
+function checkSize(job: DynamicsJob, model: ParsedModel, limits: SizeLimits): void {
+  const { variables, reactions } = modelSize(model);
+  if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`, "size");
+  if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`, "size");
+  const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" ? job.options.samples : 0;
+  if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`, "size");
+  const points = job.kind === "sweep" ? job.options.points : 0;
+  if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`, "size");
+}
+
+function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): DynamicsResults[keyof DynamicsResults] {
   switch (job.kind) {
     case "simulate": {
       const options = { ...job.settings, ...hooks };
@@ -94,7 +184,7 @@ function dispatch(job: DynamicsJob, hooks: JobHooks): DynamicsResults[keyof Dyna
 }
 
 /** Variables and reactions of a model: what its cost grows with. */
-export function modelSize(model: DynamicsModel): { variables: number; reactions: number } {
+function modelSize(model: ParsedModel): { variables: number; reactions: number } {
   return model.kind === "ode"
     ? { variables: model.ode.variables.length, reactions: model.ode.rhs.reduce((sum, terms) => sum + terms.length, 0) }
     : { variables: model.network.species.length, reactions: model.network.reactions.length };

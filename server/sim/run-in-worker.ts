@@ -1,33 +1,34 @@
-// Runs dynamics jobs off the event loop: each job in its own worker thread, with limits on model
-// size, samples, wall time and heap, progress callbacks, and cancellation by AbortSignal (the
-// worker is terminated, so even a step that never returns is stopped). At most `concurrency` jobs
-// run at once; the rest wait in order.
+// Runs jobs off the event loop: each job in its own worker thread, with limits on model size,
+// samples, wall time and heap, progress callbacks, and cancellation by AbortSignal (the worker is
+// terminated, so even a step that never returns is stopped). Which job may start is decided by
+// `admission.ts`: a few at once, one per user and kind at a time, a short queue per user.
 
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
-import { MAX_SWEEP_POINTS } from "~/chem/kinetics/sweep";
 import { RealizeRequestError } from "~/chem/realize/request-error";
 import { typescriptWorkerSource } from "../typescript-worker";
-import { modelSize, type DynamicsJob, type JobResult, type WorkerJob } from "./job";
-import type { WorkerMessage } from "./worker";
+import { Admission } from "./admission";
+import { isTextJob, SimulationLimitError, type JobResult, type SizeLimits, type WorkerJob } from "./job";
+import type { WorkerMessage, WorkerRequest } from "./worker";
 
-export interface RunLimits {
-  /** Wall-clock limit per job, queueing excluded. */
+export { SimulationLimitError };
+
+export interface RunLimits extends SizeLimits {
+  /** Wall-clock limit per dynamics or realization job, queueing excluded. */
   timeMs: number;
-  /**
-   * The Jacobian is held dense (n² numbers); networks with local structure factor sparsely, but
-   * one without it costs O(n³) per stiff step — the time limit then stops it.
-   */
-  maxVariables: number;
-  maxReactions: number;
-  maxSamples: number;
-  maxSweepPoints: number;
+  /** Wall-clock limit for reading user text: analysis, export, import. */
+  analysisTimeMs: number;
   heapMb: number;
 }
 
 export const DEFAULT_LIMITS: RunLimits = {
   timeMs: 60_000,
+  analysisTimeMs: 20_000,
+  /**
+   * The Jacobian is held dense (n² numbers); networks with local structure factor sparsely, but
+   * one without it costs O(n³) per stiff step — the time limit then stops it.
+   */
   maxVariables: 2_000,
   maxReactions: 10_000,
   maxSamples: 20_000,
@@ -35,21 +36,16 @@ export const DEFAULT_LIMITS: RunLimits = {
   heapMb: 512,
 };
 
-/** A job is bigger, longer or hungrier than this server runs; `limit` says which. */
-export class SimulationLimitError extends Error {
-  override name = "SimulationLimitError";
-  constructor(
-    message: string,
-    readonly limit: "size" | "time" | "memory",
-  ) {
-    super(message);
-  }
-}
-
 export interface RunOptions {
   limits?: Partial<RunLimits>;
   onProgress?: (fraction: number) => void;
+  /** Called once the job has a worker. */
+  onStart?: () => void;
+  /** Called with the job's place in the queue while it waits for a worker. */
+  onQueued?: (position: number) => void;
   signal?: AbortSignal;
+  /** Whose job this is (a user id, or a guest's address): the per-user cap counts by it. */
+  owner?: string;
 }
 
 const rebuilt: Record<string, new (message: string) => Error> = {
@@ -62,60 +58,33 @@ const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.met
 
 /** Jobs running at once: one core stays with the server, but never fewer than two, so one long run cannot hold up everybody. */
 const CONCURRENCY = Math.max(2, availableParallelism() - 1);
-let running = 0;
-const waiting: (() => void)[] = [];
+/** One running job per user and kind (text or dynamics) and three waiting; a fourth waiting is refused. */
+const admission = new Admission({ concurrency: CONCURRENCY, running: 1, queued: 3 }, 10);
 
 export async function runInWorker<J extends WorkerJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
   const limits = { ...DEFAULT_LIMITS, ...options.limits };
-  if (job.kind !== "realize" && job.kind !== "analyze") checkSize(job, limits);
-  await acquireSlot(options.signal);
+  // Reading text is quick and shows on every page: a user's simulation must not hold up their exports.
+  const lane = isTextJob(job) ? "text" : "dynamics";
+  const release = await admission.admit(`${options.owner ?? ""}\u0000${lane}`, options, () => new SimulationCancelled());
+  options.onStart?.();
   try {
     return await runWorker(job, limits, options);
   } finally {
-    releaseSlot();
+    release();
   }
 }
 
-function checkSize(job: DynamicsJob, limits: RunLimits): void {
-  const { variables, reactions } = modelSize(job.model);
-  if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`, "size");
-  if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`, "size");
-  const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" ? job.options.samples : 0;
-  if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`, "size");
-  const points = job.kind === "sweep" ? job.options.points : 0;
-  if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`, "size");
-}
-
-function acquireSlot(signal?: AbortSignal): Promise<void> {
-  if (signal?.aborted) return Promise.reject(new SimulationCancelled());
-  if (running < CONCURRENCY) {
-    running++;
-    return Promise.resolve();
-  }
-  return new Promise((resolve, reject) => {
-    const start = () => {
-      signal?.removeEventListener("abort", cancel);
-      running++;
-      resolve();
-    };
-    const cancel = () => {
-      waiting.splice(waiting.indexOf(start), 1);
-      reject(new SimulationCancelled());
-    };
-    signal?.addEventListener("abort", cancel, { once: true });
-    waiting.push(start);
-  });
-}
-
-function releaseSlot(): void {
-  running--;
-  waiting.shift()?.();
+/** `runInWorker` with other default limits (the server's configured analysis time, say). */
+export function jobRunner(defaults: Partial<RunLimits>): typeof runInWorker {
+  return (job, options = {}) => runInWorker(job, { ...options, limits: { ...defaults, ...options.limits } });
 }
 
 // Booting a worker (tsx, then the chemistry modules and mathjs) takes a second or two, so workers
 // that finish a job cleanly wait for the next one. A cancelled, timed-out or failed worker is
 // terminated and never reused. Idle workers do not keep the process alive.
 const idle = new Map<number, Worker[]>();
+/** Resolves once a worker has loaded its modules: time limits count from then, not from its boot. */
+const loaded = new WeakMap<Worker, Promise<void>>();
 
 function takeWorker(heapMb: number): Worker {
   const reused = idle.get(heapMb)?.pop();
@@ -124,6 +93,7 @@ function takeWorker(heapMb: number): Worker {
     return reused;
   }
   const worker = new Worker(workerBootstrap, { eval: true, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
+  loaded.set(worker, new Promise((resolve) => worker.once("message", (message: WorkerMessage) => message.type === "ready" && resolve())));
   // While idle nobody else listens: an idle worker that dies just leaves the pool.
   worker.on("error", () => undefined);
   worker.on("exit", () => {
@@ -161,16 +131,23 @@ function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, { onProgress,
       else void worker.terminate();
       outcome();
     };
-    const timer = setTimeout(
-      () => finish(false, () => reject(new SimulationLimitError(`the run took longer than ${limits.timeMs / 1000} s and was stopped`, "time"))),
-      limits.timeMs,
-    );
+    const [what, timeMs] = isTextJob(job) ? ["analysis", limits.analysisTimeMs] : ["run", limits.timeMs];
+    let timer: NodeJS.Timeout | undefined;
+    void loaded.get(worker)!.then(() => {
+      if (settled) return;
+      timer = setTimeout(
+        () => finish(false, () => reject(new SimulationLimitError(`the ${what} took longer than ${timeMs / 1000} s and was stopped`, "time"))),
+        timeMs,
+      );
+    });
     const cancel = () => finish(false, () => reject(new SimulationCancelled()));
     signal?.addEventListener("abort", cancel, { once: true });
 
     const onMessage = (message: WorkerMessage) => {
+      if (message.type === "ready") return;
       if (message.type === "progress") onProgress?.(message.fraction);
       else if (message.type === "result") finish(true, () => resolve(message.result as JobResult<J>));
+      else if (message.name === "SimulationLimitError") finish(true, () => reject(new SimulationLimitError(message.message, message.limit as "size")));
       else finish(true, () => reject(new (rebuilt[message.name] ?? Error)(message.message)));
     };
     const onError = (error: Error) => {
@@ -179,6 +156,7 @@ function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, { onProgress,
     };
     const onExit = (code: number) => finish(false, () => reject(new Error(`the simulation worker stopped unexpectedly (exit code ${code})`)));
     worker.on("message", onMessage).on("error", onError).on("exit", onExit);
-    worker.postMessage(job);
+    const { maxVariables, maxReactions, maxSamples, maxSweepPoints } = limits;
+    worker.postMessage({ job, limits: { maxVariables, maxReactions, maxSamples, maxSweepPoints } } satisfies WorkerRequest);
   });
 }

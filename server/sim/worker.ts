@@ -2,26 +2,33 @@
 // error (by name, so the parent can rebuild the error class) for each.
 
 import { parentPort } from "node:worker_threads";
-import { runAnalysisJob, runJob, runRealizationJob, type WorkerJob } from "./job";
+import { isTextJob, runJob, runRealizationJob, runTextJob, type SizeLimits, type WorkerJob } from "./job";
 
 export type WorkerMessage =
+  | { type: "ready" }
   | { type: "progress"; fraction: number }
   | { type: "result"; result: unknown }
-  | { type: "error"; name: string; message: string };
+  | { type: "error"; name: string; message: string; limit?: string };
+
+export interface WorkerRequest {
+  job: WorkerJob;
+  limits: SizeLimits;
+}
 
 const post = (message: WorkerMessage) => parentPort?.postMessage(message);
 
-// One job at a time, as the parent sends them; the worker then waits for the next.
-parentPort?.on("message", (job: WorkerJob) => void run(job));
+// One job at a time, as the parent sends them; the worker then waits for the next. Every module is
+// loaded by now: the parent starts the job's clock.
+parentPort?.on("message", (request: WorkerRequest) => void run(request));
+post({ type: "ready" });
 
-async function run(job: WorkerJob) {
+async function run({ job, limits }: WorkerRequest) {
   try {
     const hooks = { onProgress: (fraction: number) => post({ type: "progress", fraction }) };
-    const result =
-      job.kind === "realize" ? await runRealizationJob(job, hooks) : job.kind === "analyze" ? await runAnalysisJob(job) : runJob(job, hooks);
+    const result = job.kind === "realize" ? await runRealizationJob(job, hooks) : isTextJob(job) ? await runTextJob(job) : runJob(job, hooks, limits);
     post({ type: "result", result });
   } catch (error) {
     const { name, message } = error instanceof Error ? error : new Error(String(error));
-    post({ type: "error", name, message });
+    post({ type: "error", name, message, limit: (error as { limit?: string }).limit });
   }
 }

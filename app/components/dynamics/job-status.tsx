@@ -1,7 +1,14 @@
-// A running job's progress bar, or the message of a failed one.
+// A waiting job's place in the queue, a running job's progress bar, or the message of a failed one.
 import type { JobState } from "./use-dynamics-job";
 
 export function JobStatus({ job }: { job: JobState<unknown> }) {
+  if (job.running && job.queued !== null) {
+    return (
+      <p className="mt-3 text-xs text-muted" role="status" data-testid="job-queued">
+        Waiting for a free worker: {job.queued === 1 ? "next in line" : `number ${job.queued} in the queue`}…
+      </p>
+    );
+  }
   if (job.running) {
     return (
       <div className="mt-3" role="progressbar" aria-valuenow={Math.round(job.progress * 100)} aria-valuemin={0} aria-valuemax={100}>

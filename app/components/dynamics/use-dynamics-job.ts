@@ -1,24 +1,27 @@
-// Runs a dynamics job on the server with live progress (newline-delimited JSON) and lets the
-// reader cancel it: aborting the request stops the worker on the server too.
+// Runs a dynamics job on the server with its place in the queue and live progress
+// (newline-delimited JSON), and lets the reader cancel it: aborting the request stops the worker
+// on the server too, or takes the job out of the queue.
 import { useCallback, useRef, useState } from "react";
 
 export interface JobState<T> {
   running: boolean;
   progress: number;
+  /** The job's place in the server's queue while it waits; null once it runs. */
+  queued: number | null;
   result: T | null;
   error: string | null;
 }
 
 /** `url` is the endpoint that runs the job (a mechanism's dynamics, or free-standing text). */
 export function useDynamicsJob<T>(url: string) {
-  const [state, setState] = useState<JobState<T>>({ running: false, progress: 0, result: null, error: null });
+  const [state, setState] = useState<JobState<T>>({ running: false, progress: 0, queued: null, result: null, error: null });
   const controller = useRef<AbortController | null>(null);
 
   const run = useCallback(
     async (body: unknown) => {
       controller.current?.abort();
       const abort = (controller.current = new AbortController());
-      setState((s) => ({ ...s, running: true, progress: 0, error: null }));
+      setState((s) => ({ ...s, running: true, progress: 0, queued: null, error: null }));
       try {
         const response = await fetch(url, {
           method: "POST",
@@ -28,7 +31,7 @@ export function useDynamicsJob<T>(url: string) {
         });
         if (!response.ok || !response.body) {
           const message = (await response.json().catch(() => null))?.error ?? `The server answered ${response.status}.`;
-          setState((s) => ({ ...s, running: false, error: message }));
+          setState((s) => ({ ...s, running: false, queued: null, error: message }));
           return;
         }
         const reader = response.body.pipeThrough(new TextDecoderStream()).getReader();
@@ -40,15 +43,16 @@ export function useDynamicsJob<T>(url: string) {
           const lines = buffer.split("\n");
           buffer = lines.pop() ?? "";
           for (const line of lines.filter(Boolean)) {
-            const message = JSON.parse(line) as { progress?: number; result?: T; error?: string };
-            if (message.progress !== undefined) setState((s) => ({ ...s, progress: message.progress! }));
-            if (message.result !== undefined) setState({ running: false, progress: 1, result: message.result, error: null });
-            if (message.error !== undefined) setState((s) => ({ ...s, running: false, error: message.error! }));
+            const message = JSON.parse(line) as { queued?: number; progress?: number; result?: T; error?: string };
+            if (message.queued !== undefined) setState((s) => ({ ...s, queued: message.queued! }));
+            if (message.progress !== undefined) setState((s) => ({ ...s, queued: null, progress: message.progress! }));
+            if (message.result !== undefined) setState({ running: false, progress: 1, queued: null, result: message.result, error: null });
+            if (message.error !== undefined) setState((s) => ({ ...s, running: false, queued: null, error: message.error! }));
           }
         }
       } catch (error) {
-        if ((error as Error).name === "AbortError") setState((s) => ({ ...s, running: false, error: "Cancelled." }));
-        else setState((s) => ({ ...s, running: false, error: "The connection to the server was lost." }));
+        if ((error as Error).name === "AbortError") setState((s) => ({ ...s, running: false, queued: null, error: "Cancelled." }));
+        else setState((s) => ({ ...s, running: false, queued: null, error: "The connection to the server was lost." }));
       }
     },
     [url],

@@ -3,7 +3,7 @@
 import { z } from "zod";
 import { sourceField } from "~/utils/fields";
 import { readJson } from "~/utils/json.server";
-import { modelFromSource, respondWithJob } from "~/utils/dynamics.server";
+import { jobOwner, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
 import { httpError } from "~/utils/http";
 import { requireViewAccess } from "~/utils/permissions.server";
 import type { Route } from "./+types/dynamics";
@@ -42,7 +42,7 @@ const body = z.discriminatedUnion("kind", [
 
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return httpError(405, "Use POST.");
-  await requireViewAccess(args, args.params.id);
+  const { user } = await requireViewAccess(args, args.params.id);
   const input = await readJson(args.request, body);
   const model = modelFromSource(input.source);
   const job =
@@ -51,5 +51,5 @@ export async function action(args: Route.ActionArgs) {
       : input.kind === "sweep"
         ? { kind: input.kind, model, options: input.options }
         : { kind: input.kind, model, options: input.options };
-  return respondWithJob(args.request, args.context, job as Parameters<typeof respondWithJob>[2]);
+  return respondWithJob(args.request, args.context, jobOwner(args.context, user), job as Parameters<typeof respondWithJob>[3]);
 }

@@ -1,9 +1,6 @@
 // A mechanism as a file: SBML Level 3 Core, a LaTeX document, or its stoichiometric matrix as CSV.
-import { csvTooLarge, stoichiometricMatrixCsv } from "~/chem/exchange/csv";
-import { exportLatex } from "~/chem/exchange/latex";
-import { exportSbml } from "~/chem/exchange/sbml-export";
-import { parseMechanism } from "~/chem/parse";
-import { analysisFor } from "~/utils/analysis.server";
+import { exportFor } from "~/utils/analysis.server";
+import { jobOwner } from "~/utils/dynamics.server";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/export";
@@ -15,22 +12,13 @@ const formats = {
 } as const;
 
 export async function loader(args: Route.LoaderArgs) {
-  const { mechanism } = await requireRole(args, args.params.id, "viewer");
+  const { mechanism, user } = await requireRole(args, args.params.id, "viewer");
   const format = new URL(args.request.url).searchParams.get("format") ?? "";
   if (!(format in formats)) return httpError(400, "Ask for format=sbml, latex or csv.");
-  const parsed = parseMechanism(mechanism.source);
-  const error = parsed.diagnostics.find((d) => d.severity === "error");
-  if (error) return httpError(400, `Fix the mechanism before exporting it: line ${error.line}: ${error.message}`);
   const chosen = formats[format as keyof typeof formats];
-  let body: string;
-  if (format === "sbml") {
-    body = exportSbml(parsed.mechanism, { title: mechanism.title });
-  } else {
-    const report = await analysisFor(args.context, mechanism.source);
-    const refusal = format === "csv" ? csvTooLarge(report) : null;
-    if (refusal) return httpError(413, refusal);
-    body = format === "latex" ? exportLatex(parsed.mechanism, report, { title: mechanism.title }) : stoichiometricMatrixCsv(report);
-  }
+  const exported = await exportFor({ ...args, owner: jobOwner(args.context, user) }, mechanism.source, format as keyof typeof formats, mechanism.title);
+  if ("refusal" in exported) return httpError(exported.tooLarge ? 413 : 400, exported.refusal);
+  const body = exported.body;
   const filename = `${mechanism.title.replace(/[^\w.-]+/g, "-").replace(/^-|-$/g, "") || mechanism.id}.${chosen.extension}`;
   return new Response(body, { headers: { "Content-Type": chosen.type, "Content-Disposition": `attachment; filename="${filename}"` } });
 }

@@ -18,6 +18,6 @@ export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return httpError(405, "Use POST with an SBML file.");
   const user = await requireUser(args);
   const { xml, filename } = await readUpload(args.request);
-  const { row, warnings } = await importSbmlFile(args.context, user, xml, filename);
+  const { row, warnings } = await importSbmlFile(args, user, xml, filename);
   return Response.json({ id: row.id, title: row.title, summary: row.summary, source: row.source, role: "owner", warnings }, { status: 201 });
 }

@@ -1,9 +1,10 @@
 import { analysisFor } from "~/utils/analysis.server";
+import { jobOwner } from "~/utils/dynamics.server";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/mechanism";
 
 export async function loader(args: Route.LoaderArgs) {
-  const { mechanism, role } = await requireRole(args, args.params.id, "viewer");
+  const { mechanism, role, user } = await requireRole(args, args.params.id, "viewer");
   return Response.json({
     id: mechanism.id,
     title: mechanism.title,
@@ -11,6 +12,6 @@ export async function loader(args: Route.LoaderArgs) {
     source: mechanism.source,
     role,
     updatedAt: mechanism.updatedAt,
-    analysis: await analysisFor(args.context, mechanism.source),
+    analysis: await analysisFor({ ...args, owner: jobOwner(args.context, user) }, mechanism.source),
   });
 }

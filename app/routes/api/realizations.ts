@@ -6,7 +6,7 @@ import type { Route } from "./+types/realizations";
 
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return httpError(405, "Use POST with { ode, shift?, multiply? }.");
-  await requireUser(args);
+  const user = await requireUser(args);
   const input = await readJson(args.request, realizationRequest);
-  return runRealization(args.request, args.context, input);
+  return runRealization(args.request, args.context, user, input);
 }

@@ -2,7 +2,7 @@
 // polynomial ODE or a mechanism — for the side-by-side check of a realization.
 import { z } from "zod";
 import { requireUser } from "~/utils/auth.server";
-import { modelFromOde, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
+import { jobOwner, modelFromOde, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
 import { httpError } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/simulate-text";
@@ -22,8 +22,8 @@ const body = z
 
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return httpError(405, "Use POST.");
-  await requireUser(args);
+  const user = await requireUser(args);
   const input = await readJson(args.request, body);
   const model = input.ode !== undefined ? modelFromOde(input.ode) : modelFromSource(input.source!);
-  return respondWithJob(args.request, args.context, { kind: "simulate", model, settings: input.settings });
+  return respondWithJob(args.request, args.context, jobOwner(args.context, user), { kind: "simulate", model, settings: input.settings });
 }

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { readJson } from "~/utils/json.server";
-import { modelFromSource, respondWithJob } from "~/utils/dynamics.server";
+import { jobOwner, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/simulations";
@@ -16,7 +16,7 @@ const body = z.object({
 /** The `simulate` JSON of the command line, for viewers and editors alike. */
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return httpError(405, "Use POST with { until, samples }.");
-  const { mechanism } = await requireRole(args, args.params.id, "viewer");
+  const { mechanism, user } = await requireRole(args, args.params.id, "viewer");
   const settings = await readJson(args.request, body);
-  return respondWithJob(args.request, args.context, { kind: "simulate", model: modelFromSource(mechanism.source), settings });
+  return respondWithJob(args.request, args.context, jobOwner(args.context, user), { kind: "simulate", model: modelFromSource(mechanism.source), settings });
 }

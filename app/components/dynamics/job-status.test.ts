@@ -1,0 +1,16 @@
+import { createElement } from "react";
+import { renderToString } from "react-dom/server";
+import { describe, expect, it } from "vitest";
+import { JobStatus } from "./job-status";
+
+const job = { running: true, progress: 0, queued: null as number | null, result: null, error: null };
+
+describe("JobStatus", () => {
+  it("shows a waiting job's place in the queue, then the progress bar once it runs", () => {
+    expect(renderToString(createElement(JobStatus, { job: { ...job, queued: 1 } }))).toContain("next in line");
+    expect(renderToString(createElement(JobStatus, { job: { ...job, queued: 3 } }))).toContain("number 3 in the queue");
+    const running = renderToString(createElement(JobStatus, { job: { ...job, progress: 0.4 } }));
+    expect(running).toContain(`aria-valuenow="40"`);
+    expect(running).not.toContain("queue");
+  });
+});
