@@ -58,14 +58,21 @@ const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.met
 
 /** Jobs running at once: one core stays with the server, but never fewer than two, so one long run cannot hold up everybody. */
 const CONCURRENCY = Math.max(2, availableParallelism() - 1);
-/** One running job per user and kind (text or dynamics) and three waiting; a fourth waiting is refused. */
-const admission = new Admission({ concurrency: CONCURRENCY, running: 1, queued: 3 }, 10);
+/**
+ * One running job per user and kind and three waiting; a fourth waiting is refused. Reading text
+ * and running dynamics are admitted apart: analyses are short and bounded by their own time limit,
+ * so minutes-long simulations of other users must not hold up everyone's exports and API reads.
+ */
+const admissions = {
+  text: new Admission({ concurrency: CONCURRENCY, running: 1, queued: 3 }, 10),
+  dynamics: new Admission({ concurrency: CONCURRENCY, running: 1, queued: 3 }, 10),
+};
 
 export async function runInWorker<J extends WorkerJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
   const limits = { ...DEFAULT_LIMITS, ...options.limits };
   // Reading text is quick and shows on every page: a user's simulation must not hold up their exports.
   const lane = isTextJob(job) ? "text" : "dynamics";
-  const release = await admission.admit(`${options.owner ?? ""}\u0000${lane}`, options, () => new SimulationCancelled());
+  const release = await admissions[lane].admit(options.owner ?? "", options, () => new SimulationCancelled());
   options.onStart?.();
   try {
     return await runWorker(job, limits, options);
