@@ -1,7 +1,7 @@
 // Every dynamics job the Dynamics panel runs (time course, equilibrium, Lyapunov exponent,
 // sweep), on the text the page is showing; streamed with progress when asked.
 import { z } from "zod";
-import { sourceField } from "~/utils/fields";
+import { cleanText, sourceField } from "~/utils/fields";
 import { readJson } from "~/utils/json.server";
 import { modelFromSource, respondWithJob } from "~/utils/dynamics.server";
 import { httpError } from "~/utils/http";
@@ -26,15 +26,15 @@ const body = z.discriminatedUnion("kind", [
       ...settings,
       samples: z.number().int().min(2).max(5_000),
       target: z.discriminatedUnion("kind", [
-        z.object({ kind: z.literal("parameter"), name: z.string() }),
-        z.object({ kind: z.literal("initial"), species: z.string() }),
+        z.object({ kind: z.literal("parameter"), name: cleanText("The parameter") }),
+        z.object({ kind: z.literal("initial"), species: cleanText("The species") }),
         z.object({ kind: z.literal("rate"), reaction: z.number().int().nonnegative() }),
       ]),
       from: z.number(),
       to: z.number(),
       points: z.number().int().min(2).max(200),
       scale: z.enum(["linear", "log"]),
-      species: z.string(),
+      species: cleanText("The species"),
       observable: z.enum(["final", "max", "period"]),
     }),
   }),

@@ -3,14 +3,15 @@
 import { z } from "zod";
 import { requireUser } from "~/utils/auth.server";
 import { modelFromOde, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
+import { cleanText } from "~/utils/fields";
 import { httpError } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/simulate-text";
 
 const body = z
   .object({
-    ode: z.string().max(64 * 1024).optional(),
-    source: z.string().max(1024 * 1024).optional(),
+    ode: cleanText("The ODE").max(64 * 1024).optional(),
+    source: cleanText("The mechanism text").max(1024 * 1024).optional(),
     settings: z.object({
       until: z.number().positive(),
       samples: z.number().int().min(2).max(20_000),

@@ -1,13 +1,13 @@
 // PUT /api/v1/mechanisms/:id/source — the whole text, written through the live document so
 // everyone in the room sees it at once.
 import { z } from "zod";
-import { MAX_SOURCE_BYTES } from "~/utils/fields";
+import { cleanText, MAX_SOURCE_BYTES } from "~/utils/fields";
 import { httpError } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/source";
 
-const body = z.object({ source: z.string({ message: "source must be a string." }) });
+const body = z.object({ source: cleanText("The mechanism text") });
 
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "PUT") return httpError(405, 'Use PUT with { "source" }.');

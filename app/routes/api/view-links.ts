@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { listViewLinks } from "../../../server/db/view-links";
+import { labelField } from "~/utils/fields";
 import { httpError } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
@@ -8,7 +9,7 @@ import type { Route } from "./+types/view-links";
 
 const body = z.object({
   expiresAt: z.iso.datetime({ offset: true, message: "expiresAt must be an ISO 8601 date-time." }).optional(),
-  label: z.string().trim().max(80).optional(),
+  label: labelField.optional(),
 });
 
 export async function loader(args: Route.LoaderArgs) {
