@@ -3,7 +3,7 @@
 import type { IncomingMessage, Server } from "node:http";
 import type { Duplex } from "node:stream";
 import { WebSocketServer } from "ws";
-import { z } from "zod";
+import { mechanismIdField } from "../../app/utils/fields";
 import type { Db } from "../db/client";
 import type { CollabIdentity } from "./connection";
 import { CollabHub, type HubTimings } from "./hub";
@@ -30,7 +30,6 @@ export interface CollaborationOptions {
 /** A document update may hold the whole text (≤ 1 MiB) with its history. */
 const MAX_MESSAGE_BYTES = 8 * 1024 * 1024;
 const roomPath = /^\/collab\/([^/]+)$/;
-const mechanismIdField = z.string().regex(/^[A-Za-z0-9_-]{1,64}$/);
 
 const statusText: Record<number, string> = { 401: "Unauthorized", 403: "Forbidden", 404: "Not Found", 500: "Internal Server Error" };
 

@@ -3,12 +3,16 @@ import { analysisFor } from "~/utils/analysis.server";
 import { checkSourceLimits } from "~/chem/limits";
 import { requireUser } from "~/utils/auth.server";
 import { cleanText } from "~/utils/fields";
-import { httpError } from "~/utils/http";
+import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/analyze";
 
+const allowed = ["POST"];
+const hint = "Use POST with { \"source\" }.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST with { \"source\" }.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   await requireUser(args);
   const { source } = await readJson(args.request, z.object({ source: cleanText("The mechanism text") }));
   const refusal = checkSourceLimits(source);

@@ -1,5 +1,7 @@
-import { httpError } from "~/utils/http";
+import { httpError, onlyMethods } from "~/utils/http";
 import type { Route } from "./+types/dev-mail";
+
+export const action = onlyMethods(["GET"]);
 
 /** Only with the local mail catcher: every caught message, newest first. */
 export async function loader({ context }: Route.LoaderArgs) {

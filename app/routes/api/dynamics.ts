@@ -4,7 +4,7 @@ import { z } from "zod";
 import { cleanText, sourceField } from "~/utils/fields";
 import { readJson } from "~/utils/json.server";
 import { modelFromSource, respondWithJob } from "~/utils/dynamics.server";
-import { httpError } from "~/utils/http";
+import { methodNotAllowed, onlyMethods } from "~/utils/http";
 import { requireViewAccess } from "~/utils/permissions.server";
 import type { Route } from "./+types/dynamics";
 
@@ -40,8 +40,12 @@ const body = z.discriminatedUnion("kind", [
   }),
 ]);
 
+const allowed = ["POST"];
+const hint = "Use POST.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   await requireViewAccess(args, args.params.id);
   const input = await readJson(args.request, body);
   const model = modelFromSource(input.source);

@@ -4,7 +4,7 @@ import { exportLatex } from "~/chem/exchange/latex";
 import { exportSbml } from "~/chem/exchange/sbml-export";
 import { parseMechanism } from "~/chem/parse";
 import { analysisFor } from "~/utils/analysis.server";
-import { httpError } from "~/utils/http";
+import { httpError, onlyMethods } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/export";
 
@@ -14,10 +14,12 @@ const formats = {
   csv: { type: "text/csv; charset=utf-8", extension: "csv" },
 } as const;
 
+export const action = onlyMethods(["GET"], "Use GET with ?format=sbml, latex or csv.");
+
 export async function loader(args: Route.LoaderArgs) {
   const { mechanism } = await requireRole(args, args.params.id, "viewer");
   const format = new URL(args.request.url).searchParams.get("format") ?? "";
-  if (!(format in formats)) return httpError(400, "Ask for format=sbml, latex or csv.");
+  if (!Object.hasOwn(formats, format)) return httpError(400, "Ask for format=sbml, latex or csv.");
   const parsed = parseMechanism(mechanism.source);
   const error = parsed.diagnostics.find((d) => d.severity === "error");
   if (error) return httpError(400, `Fix the mechanism before exporting it: line ${error.line}: ${error.message}`);

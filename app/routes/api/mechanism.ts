@@ -1,6 +1,9 @@
 import { analysisFor } from "~/utils/analysis.server";
+import { onlyMethods } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/mechanism";
+
+export const action = onlyMethods(["GET"]);
 
 export async function loader(args: Route.LoaderArgs) {
   const { mechanism, role } = await requireRole(args, args.params.id, "viewer");

@@ -4,7 +4,7 @@ import { z } from "zod";
 import { requireUser } from "~/utils/auth.server";
 import { modelFromOde, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
 import { cleanText } from "~/utils/fields";
-import { httpError } from "~/utils/http";
+import { methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/simulate-text";
 
@@ -21,8 +21,12 @@ const body = z
   })
   .refine((b) => (b.ode === undefined) !== (b.source === undefined), "Send either ode or source.");
 
+const allowed = ["POST"];
+const hint = "Use POST.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   await requireUser(args);
   const input = await readJson(args.request, body);
   const model = input.ode !== undefined ? modelFromOde(input.ode) : modelFromSource(input.source!);
