@@ -46,7 +46,11 @@ const services = {
   mailer,
   mailCatcher,
   dynamics: { run: runInWorker },
-  collab: attachCollaboration(server, { db: database.db, identify: identifyCaller(database.db, sessions) }),
+  collab: attachCollaboration(server, {
+    db: database.db,
+    identify: identifyCaller(database.db, sessions),
+    leave: dev ? (request) => /^vite-(hmr|ping)$/.test(request.headers["sec-websocket-protocol"] ?? "") : undefined,
+  }),
 };
 
 const vite = dev

@@ -7,7 +7,7 @@ import type { Route } from "./+types/token";
 const allowed = ["DELETE"];
 const hint = "Use DELETE to revoke a token.";
 export const loader = onlyMethods(allowed, hint);
-const uuid = z.uuid();
+const uuid = z.guid();
 
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "DELETE") return methodNotAllowed(allowed, hint);
