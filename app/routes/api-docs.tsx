@@ -44,7 +44,14 @@ export default function ApiDocs({ loaderData }: Route.ComponentProps) {
         Every endpoint lives under <code>/api/v1/</code> and accepts your browser session or a personal access token
         (<a href="/settings/tokens">create one</a>) as <code>Authorization: Bearer TOKEN</code>. A token acts with your roles and has a budget of
         120 requests a minute. Errors are <code>{`{ "error": "message" }`}</code> with status 400 (bad input), 401 (not signed in), 403 (role too
-        low), 404 (not found or not visible to you), 413 (too large) or 429 (rate limited).
+        low, or a request from another site), 404 (not found or not visible to you), 405 (wrong method; the <code>Allow</code> header lists the
+        right ones), 413 (too large), 415 (a body that is not <code>application/json</code>), 429 (rate limited) or 503 (the database is
+        unavailable; try again shortly).
+      </p>
+      <p className="mt-2 max-w-3xl text-sm text-muted">
+        Send bodies as JSON with <code>Content-Type: application/json</code> (only the SBML import also takes a file upload or raw XML). Text
+        fields and mechanism texts refuse control characters other than tab, line feed and carriage return. A change whose{" "}
+        <code>Origin</code> header names another site is refused; scripts send no <code>Origin</code> and are not affected.
       </p>
       <div className="mt-6 space-y-3">
         {endpoints.map((e) => (
