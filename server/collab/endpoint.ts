@@ -5,6 +5,7 @@ import type { Duplex } from "node:stream";
 import { WebSocketServer } from "ws";
 import { mechanismIdField } from "../../app/utils/fields";
 import type { Db } from "../db/client";
+import { isDatabaseUnavailable } from "../db/unavailable";
 import { isOwnOrigin } from "../origin";
 import type { CollabIdentity } from "./connection";
 import { CollabHub, type HubTimings } from "./hub";
@@ -88,6 +89,7 @@ export function attachCollaboration(server: Server, options: CollaborationOption
     if (!match) return refuse(socket, 404, "WebSockets are served at /collab/:id only.");
     upgrade(request, socket, head, match[1]).catch((error: unknown) => {
       if (error instanceof UpgradeRefusal) return refuse(socket, error.status, error.message);
+      if (isDatabaseUnavailable(error)) return refuse(socket, 503, "The database is unavailable just now; try again shortly.");
       console.error(`[collab] upgrade failed: ${(error as Error).stack}`);
       refuse(socket, 500, "The collaboration server failed; try again.");
     });

@@ -103,8 +103,8 @@ describe("security headers", () => {
 });
 
 /** A raw upgrade request; resolves with what the server sent once the server closes the socket. */
-function upgradeRequest(target: string): Promise<string> {
-  const { hostname, port } = new URL(server.url);
+function upgradeRequest(target: string, base = server.url, headers = ""): Promise<string> {
+  const { hostname, port } = new URL(base);
   return new Promise((resolve, reject) => {
     const socket = net.connect(Number(port), hostname);
     let received = "";
@@ -113,7 +113,7 @@ function upgradeRequest(target: string): Promise<string> {
     socket.on("close", () => resolve(received));
     socket.write(
       `GET ${target} HTTP/1.1\r\nHost: ${hostname}:${port}\r\nConnection: Upgrade\r\nUpgrade: websocket\r\n` +
-        `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n\r\n`,
+        `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n${headers}\r\n`,
     );
   });
 }
@@ -264,6 +264,7 @@ describe("the database going away", () => {
 
   it("answers 503 on pages and the API as /healthz does, and recovers when it is back", async () => {
     const client = await signUp(away.url, "Abe Away");
+    const { id } = await (await client.json("/api/v1/mechanisms", "POST", { title: "Kept" })).json();
     expect((await client.get("/dashboard")).status).toBe(200);
     await proxy.down();
 
@@ -277,6 +278,7 @@ describe("the database going away", () => {
     expect(page.status).toBe(503);
     expect(page.headers.get("Content-Type")).toMatch(/text\/html/);
     expect(await page.text()).toContain("temporarily unavailable");
+    expect(await upgradeRequest(`/collab/${id}`, away.url, `Cookie: ${client.cookieHeader}\r\n`)).toMatch(/^HTTP\/1\.1 503 /);
 
     await proxy.up();
     await expect.poll(async () => (await client.get("/healthz")).status, { timeout: 10_000 }).toBe(200);
