@@ -15,6 +15,7 @@ import "./app.css";
 import { Logo } from "./components/logo";
 import { ThemeToggle } from "./components/theme-toggle";
 import { getUser } from "./utils/auth.server";
+import { useNonce } from "./utils/nonce";
 import { themeFromCookie } from "./utils/theme";
 
 export const links: Route.LinksFunction = () => [
@@ -28,6 +29,7 @@ export async function loader(args: Route.LoaderArgs) {
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const data = useRouteLoaderData<typeof loader>("root");
+  const nonce = useNonce();
   return (
     <html lang="en" data-theme={data?.theme ?? undefined}>
       <head>
@@ -37,6 +39,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links />
         {/* Follow the system theme until the user picks one (no flash: runs before paint). */}
         <script
+          nonce={nonce}
+          suppressHydrationWarning
           dangerouslySetInnerHTML={{
             __html: `if(!document.documentElement.dataset.theme&&matchMedia('(prefers-color-scheme: dark)').matches)document.documentElement.dataset.theme='dark'`,
           }}

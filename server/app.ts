@@ -1,10 +1,13 @@
-// The Express app: static files, fonts and the React Router request handler. The caller owns
-// the http.Server (so the collaboration WebSocket can share its port).
+// The Express app: the door every request passes (frame protection, refusing cross-site
+// writes), static files, fonts, the React Router request handler, and 503 while the database is
+// away. The caller owns the http.Server (so the collaboration WebSocket can share its port).
 import { createRequestHandler } from "@react-router/express";
 import express from "express";
 import path from "node:path";
 import type { AppLoadContext, ServerBuild } from "react-router";
 import type { AppServices } from "./context";
+import { isDatabaseUnavailable } from "./db/unavailable";
+import { isOwnOrigin } from "./origin";
 
 export interface AppOptions {
   projectRoot: string;
@@ -17,6 +20,7 @@ export async function createApp({ projectRoot, services, vite }: AppOptions) {
   const app = express();
   app.disable("x-powered-by");
   app.set("trust proxy", "loopback");
+  app.use(door);
   app.use("/fonts", express.static(path.join(projectRoot, "fonts"), { immutable: true, maxAge: "1y" }));
 
   const getLoadContext = (req: express.Request): AppLoadContext => ({
@@ -41,5 +45,39 @@ export async function createApp({ projectRoot, services, vite }: AppOptions) {
     const build = (await import(path.join(projectRoot, "build", "server", "index.js"))) as ServerBuild;
     app.all("/{*splat}", createRequestHandler({ build, getLoadContext, mode: "production" }));
   }
+  app.use(unavailable);
   return app;
+}
+
+const stateChanging = new Set(["POST", "PUT", "PATCH", "DELETE"]);
+
+/**
+ * Headers for every response, and the cross-site check: a browser names the page a request
+ * comes from in `Origin`, so a write from another site's page is refused before it reaches a
+ * route. Scripts send no Origin and keep working, with a bearer token or a session.
+ */
+function door(req: express.Request, res: express.Response, next: express.NextFunction) {
+  res.set({ "X-Frame-Options": "DENY", "X-Content-Type-Options": "nosniff" });
+  const origin = req.get("Origin");
+  if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"))) {
+    const message = "Requests from other sites cannot change anything here.";
+    if (req.path.startsWith("/api/")) return res.status(403).json({ error: message });
+    return res.status(403).type("text/plain").send(message);
+  }
+  next();
+}
+
+/** The database being away is not a bug: 503 as /healthz says, JSON under /api/, a plain page elsewhere. */
+function unavailable(error: unknown, req: express.Request, res: express.Response, next: express.NextFunction) {
+  if (!isDatabaseUnavailable(error) || res.headersSent) return next(error);
+  console.error(`[http] ${req.method} ${req.path}: database unavailable (${(error as Error).message})`);
+  res.status(503).set("Retry-After", "30");
+  if (req.path.startsWith("/api/")) return res.json({ error: "The database is unavailable just now; try again shortly." });
+  res
+    .set("Content-Security-Policy", "default-src 'none'; frame-ancestors 'none'")
+    .type("html")
+    .send(
+      `<!doctype html><html lang="en"><meta charset="utf-8"><title>Temporarily unavailable · Mechweave</title>` +
+        `<h1>Mechweave is temporarily unavailable</h1><p>The database cannot be reached just now. Your saved work is safe; try again in a minute.</p></html>`,
+    );
 }

@@ -53,6 +53,7 @@ const services = {
     db: database.db,
     identify: identifyCaller(database.db, sessions),
     timings: { analysisTimeoutMs: env.ANALYSIS_TIME_LIMIT_MS },
+    leave: dev ? (request) => /^vite-(hmr|ping)$/.test(request.headers["sec-websocket-protocol"] ?? "") : undefined,
   }),
 };
 

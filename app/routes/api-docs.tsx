@@ -51,8 +51,15 @@ export default function ApiDocs({ loaderData }: Route.ComponentProps) {
         Every endpoint lives under <code>/api/v1/</code> and accepts your browser session or a personal access token
         (<a href="/settings/tokens">create one</a>) as <code>Authorization: Bearer TOKEN</code>. A token acts with your roles and has a budget of
         120 requests a minute. Errors are <code>{`{ "error": "message" }`}</code> with status 400 (bad input), 401 (not signed in), 403 (role too
-        low), 404 (not found or not visible to you), 413 (too large), 422 (a text that cannot be analysed), 429 (rate limited, or too many
-        of your jobs waiting: see <code>Retry-After</code>) or 503 (over the server's time limit).
+        low, or a request from another site), 404 (not found or not visible to you), 405 (wrong method; the <code>Allow</code> header lists the
+        right ones), 413 (too large), 415 (a body that is not <code>application/json</code>), 422 (a text that cannot be analysed), 429 (rate
+        limited, or too many of your jobs waiting: see <code>Retry-After</code>) or 503 (over the server's time limit, or the database is
+        unavailable; try again shortly).
+      </p>
+      <p className="mt-2 max-w-3xl text-sm text-muted">
+        Send bodies as JSON with <code>Content-Type: application/json</code> (only the SBML import also takes a file upload or raw XML). Text
+        fields and mechanism texts refuse control characters other than tab, line feed and carriage return. A change whose{" "}
+        <code>Origin</code> header names another site is refused; scripts send no <code>Origin</code> and are not affected.
       </p>
       <p className="mt-2 max-w-3xl text-sm text-muted">
         Every analysis of a text (analyze, a mechanism's <code>analysis</code>, exports, imports) runs off the server's event loop under a time

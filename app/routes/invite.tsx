@@ -67,7 +67,7 @@ export default function Invite({ loaderData, actionData, params }: Route.Compone
     <AuthCard
       title={`Join “${title}”`}
       lead={`${inviter} invited ${email} as ${role === "editor" ? "an editor" : "a viewer"}.`}
-      footer={signedInAs ? <>Not you? <Link to="/sign-out">Sign out</Link>.</> : <>Have an account with {email}? <Link to={`/sign-in?next=${next}`}>Sign in</Link> and come back to this link.</>}
+      footer={signedInAs ? <>Not you? <Form method="post" action="/sign-out" className="inline"><button type="submit" className="cursor-pointer text-accent underline">Sign out</button></Form>.</> : <>Have an account with {email}? <Link to={`/sign-in?next=${next}`}>Sign in</Link> and come back to this link.</>}
     >
       {failed?.error && <p className="notice-error mb-4" role="alert">{failed.error}</p>}
       {signedInAs ? (

@@ -6,7 +6,7 @@ import { listViewLinks, revokeViewLink } from "../../server/db/view-links";
 import { InvitationsPanel } from "~/components/invitations-panel";
 import { ViewLinksPanel } from "~/components/view-links-panel";
 import { RolePill } from "~/components/role-pill";
-import { memberRoleField } from "~/utils/fields";
+import { labelField, memberRoleField } from "~/utils/fields";
 import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
@@ -43,7 +43,7 @@ const memberActions = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("uninvite"), invitationId: z.string().uuid() }),
   z.object({
     intent: z.literal("link"),
-    label: z.string().trim().max(80, "Keep the label under 80 characters.").default(""),
+    label: labelField.default(""),
     days: z.union([z.literal(""), z.coerce.number().int().min(1, "Expiry is at least one day.").max(365, "Expiry is at most a year.")]).default(""),
   }),
   z.object({ intent: z.literal("unlink"), linkId: z.string().uuid() }),

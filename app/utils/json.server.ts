@@ -3,8 +3,14 @@ import { httpError } from "./http";
 
 const MAX_BODY_BYTES = 2 * 1024 * 1024;
 
-/** Parses and validates a JSON body, throwing the API's error shape (400, 413) on bad input. */
+/**
+ * Parses and validates a JSON body, throwing the API's error shape (400, 413, 415) on bad input.
+ * Only `application/json` is read: a page on another site can send `text/plain` or a form
+ * without asking first (no CORS preflight), never `application/json`.
+ */
 export async function readJson<T>(request: Request, schema: z.ZodType<T>): Promise<T> {
+  const mediaType = (request.headers.get("Content-Type") ?? "").split(";")[0].trim().toLowerCase();
+  if (mediaType !== "application/json") throw httpError(415, "Send the body as JSON, with Content-Type: application/json.");
   const declared = Number(request.headers.get("Content-Length") ?? 0);
   if (declared > MAX_BODY_BYTES) throw httpError(413, "The request body is over 2 MiB.");
   const text = await request.text();

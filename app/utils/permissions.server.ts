@@ -4,6 +4,7 @@ import { accessTo } from "../../server/auth/caller";
 import { findMechanism } from "../../server/db/mechanisms";
 import { atLeast, type Role } from "../../server/db/roles";
 import { getCaller, signInRequired, type RequestArgs } from "./auth.server";
+import { mechanismIdField } from "./fields";
 import { httpError } from "./http";
 
 type Mechanism = NonNullable<Awaited<ReturnType<typeof findMechanism>>>;
@@ -32,7 +33,8 @@ export function requireViewAccess(args: RequestArgs, mechanismId: string | undef
 
 async function checkAccess(args: RequestArgs, mechanismId: string | undefined, needed: Role, allowViewLink: boolean): Promise<Access> {
   const caller = await getCaller(args);
-  const role = mechanismId ? await accessTo(args.context.db, caller, mechanismId, allowViewLink) : null;
+  // A malformed id (a NUL, say) names no mechanism; PostgreSQL would refuse it with an error.
+  const role = mechanismId && mechanismIdField.safeParse(mechanismId).success ? await accessTo(args.context.db, caller, mechanismId, allowViewLink) : null;
   if (!mechanismId || !role) {
     if (!caller.user) throw signInRequired(args.request);
     throw httpError(404, "No mechanism with that id is visible to you.");

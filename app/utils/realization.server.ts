@@ -2,15 +2,16 @@
 import { z } from "zod";
 import type { AppLoadContext } from "react-router";
 import { jobOwner, respondWithJob } from "./dynamics.server";
+import { cleanText } from "./fields";
 
 const MAX_ODE_BYTES = 64 * 1024;
 
 export const realizationRequest = z.object({
-  ode: z.string().refine((s) => s.length <= MAX_ODE_BYTES, "The ODE text is over 64 KiB."),
+  ode: cleanText("The ODE").refine((s) => s.length <= MAX_ODE_BYTES, "The ODE text is over 64 KiB."),
   shift: z.union([z.record(z.string(), z.number().finite()), z.literal("suggested")]).optional(),
   multiply: z.union([z.boolean(), z.record(z.string(), z.number().int().min(0).max(20))]).optional(),
   equivalents: z.boolean().optional(),
-  complexes: z.array(z.string().max(200)).max(200).optional(),
+  complexes: z.array(cleanText("A complex").max(200)).max(200).optional(),
 });
 
 /** The MILP searches share this budget (in a worker thread, so the server stays responsive). */

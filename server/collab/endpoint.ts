@@ -3,8 +3,10 @@
 import type { IncomingMessage, Server } from "node:http";
 import type { Duplex } from "node:stream";
 import { WebSocketServer } from "ws";
-import { z } from "zod";
+import { mechanismIdField } from "../../app/utils/fields";
 import type { Db } from "../db/client";
+import { isDatabaseUnavailable } from "../db/unavailable";
+import { isOwnOrigin } from "../origin";
 import type { CollabIdentity } from "./connection";
 import { CollabHub, type HubTimings } from "./hub";
 
@@ -25,18 +27,21 @@ export interface CollaborationOptions {
   /** Who is asking for this mechanism, with which role; null refuses with 404. */
   identify: Identify;
   timings?: Partial<HubTimings>;
+  /** Upgrades another listener answers (Vite's hot reload in development); every other path is refused. */
+  leave?: (request: IncomingMessage) => boolean;
 }
 
 /** A document update may hold the whole text (≤ 1 MiB) with its history. */
 const MAX_MESSAGE_BYTES = 8 * 1024 * 1024;
 const roomPath = /^\/collab\/([^/]+)$/;
-const mechanismIdField = z.string().regex(/^[A-Za-z0-9_-]{1,64}$/);
 
-const statusText: Record<number, string> = { 401: "Unauthorized", 403: "Forbidden", 404: "Not Found", 500: "Internal Server Error" };
+const statusText: Record<number, string> = { 400: "Bad Request", 401: "Unauthorized", 403: "Forbidden", 404: "Not Found", 500: "Internal Server Error", 503: "Service Unavailable" };
 
+/** Answers and closes: ending only half-closes, and a client that never hangs up would keep the descriptor. */
 function refuse(socket: Duplex, status: number, message: string) {
   if (!socket.writable) return socket.destroy();
   const body = JSON.stringify({ error: message });
+  socket.once("finish", () => socket.destroy());
   socket.end(
     `HTTP/1.1 ${status} ${statusText[status]}\r\nConnection: close\r\nContent-Type: application/json\r\nContent-Length: ${Buffer.byteLength(body)}\r\n\r\n${body}`,
   );
@@ -45,12 +50,7 @@ function refuse(socket: Duplex, status: number, message: string) {
 /** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
 function sameOrigin(request: IncomingMessage): boolean {
   const origin = request.headers.origin;
-  if (!origin) return true;
-  try {
-    return new URL(origin).host === request.headers.host;
-  } catch {
-    return false;
-  }
+  return !origin || isOwnOrigin(origin, request.headers.host);
 }
 
 export function attachCollaboration(server: Server, options: CollaborationOptions): CollabHub {
@@ -59,7 +59,8 @@ export function attachCollaboration(server: Server, options: CollaborationOption
 
   async function upgrade(request: IncomingMessage, socket: Duplex, head: Buffer, rawId: string) {
     if (!sameOrigin(request)) throw new UpgradeRefusal(403, "Cross-site connections are not accepted.");
-    const mechanismId = mechanismIdField.safeParse(decodeURIComponent(rawId));
+    // Ids are plain letters, digits, _ and -: an escaped one is no id (and may not even decode).
+    const mechanismId = mechanismIdField.safeParse(rawId);
     if (!mechanismId.success) throw new UpgradeRefusal(404, "No mechanism with that id is visible to you.");
     const identity = await options.identify(request, mechanismId.data);
     if (!identity) throw new UpgradeRefusal(404, "No mechanism with that id is visible to you.");
@@ -79,11 +80,16 @@ export function attachCollaboration(server: Server, options: CollaborationOption
   }
 
   server.on("upgrade", (request: IncomingMessage, socket: Duplex, head: Buffer) => {
-    const match = roomPath.exec(new URL(request.url ?? "/", "http://localhost").pathname);
-    if (!match) return; // Not ours (in development, Vite's hot reload shares the server).
+    if (options.leave?.(request)) return;
     socket.on("error", () => socket.destroy());
+    const target = URL.parse(request.url ?? "/", "http://localhost");
+    if (!target) return refuse(socket, 400, "That request target is not a URL.");
+    const match = roomPath.exec(target.pathname);
+    // Nobody else listens for upgrades: a socket left unanswered would hang and leak.
+    if (!match) return refuse(socket, 404, "WebSockets are served at /collab/:id only.");
     upgrade(request, socket, head, match[1]).catch((error: unknown) => {
       if (error instanceof UpgradeRefusal) return refuse(socket, error.status, error.message);
+      if (isDatabaseUnavailable(error)) return refuse(socket, 503, "The database is unavailable just now; try again shortly.");
       console.error(`[collab] upgrade failed: ${(error as Error).stack}`);
       refuse(socket, 500, "The collaboration server failed; try again.");
     });

@@ -42,9 +42,15 @@ function waitExit(child: ChildProcess) {
   return new Promise<void>((resolve) => (child.exitCode !== null ? resolve() : child.once("exit", () => resolve())));
 }
 
-export async function startTestServer(extraEnv: Record<string, string> = {}): Promise<TestServer & { dispose(): Promise<void> }> {
+export interface TestServerOptions {
+  /** The server reaches its database through this URL instead (e.g. a proxy that can go down). */
+  databaseUrl?: (url: string) => string;
+}
+
+export async function startTestServer(extraEnv: Record<string, string> = {}, options: TestServerOptions = {}): Promise<TestServer & { dispose(): Promise<void> }> {
   const database = await createTestDatabase();
-  let current = launch(database.url, extraEnv);
+  const serverDatabaseUrl = options.databaseUrl?.(database.url) ?? database.url;
+  let current = launch(serverDatabaseUrl, extraEnv);
   const url = await current.ready;
   const port = Number(new URL(url).port);
   let logs = "";
@@ -61,7 +67,7 @@ export async function startTestServer(extraEnv: Record<string, string> = {}): Pr
     },
     async restart() {
       logs += current.output();
-      current = launch(database.url, extraEnv, port);
+      current = launch(serverDatabaseUrl, extraEnv, port);
       await current.ready;
     },
     logs: () => logs + current.output(),

@@ -19,6 +19,15 @@ describe("stoichiometric matrix CSV", () => {
     expect(csv.endsWith("\r\n")).toBe(true);
   });
 
+  it("neutralises species names a spreadsheet would run as formulas, and keeps numbers numbers", async () => {
+    const csv = stoichiometricMatrixCsv(await analyzeSource('"=HYPERLINK(1)" + "@x" -> "+y" + "-z"\n'));
+    const lines = csv.split("\r\n");
+    // Header cells all start with "r1:"; the species cells are text and get the apostrophe.
+    expect(lines.slice(1, 5).map((line) => line.split(",")[0]).sort()).toEqual(["'+y", "'-z", "'=HYPERLINK(1)", "'@x"]);
+    // A coefficient of -1 is data: it stays a number a spreadsheet can add up.
+    expect(lines.find((line) => line.startsWith("'@x"))).toBe("'@x,-1");
+  });
+
   it("refuses a matrix too large for a spreadsheet", async () => {
     const report = await analyzeSource("A -> B @ 1\n");
     const huge = { ...report, species: Array.from({ length: 2000 }, (_, i) => `S${i}`), reactions: Array(1001).fill(report.reactions[0]) };

@@ -42,4 +42,12 @@ describe("CSV time courses", () => {
     expect(data.series.A[1]).toBe(0.123456789012345);
     expect(data.series["Fe3+"][1]).toBe(1e-12);
   });
+
+  it("exports species names safe from formulas, and negative values as numbers", () => {
+    const text = simulationCsv({ t: [0, 1], series: { "=SUM(A1)": [1, -2.5e-3], "-B": [0, -1] } });
+    const [header, , second] = text.split("\n");
+    expect(header).toBe("time,'=SUM(A1),'-B");
+    expect(second).toBe("1,-0.0025,-1");
+    expect(readMeasuredCsv(text.replace("-0.0025", "0.0025").replace(",-1", ",1")).data.series).toEqual({ "=SUM(A1)": [1, 0.0025], "-B": [0, 1] });
+  });
 });

@@ -4,6 +4,7 @@
 // the measured times.
 
 import Papa from "papaparse";
+import { fromSpreadsheetText, spreadsheetText } from "~/chem/exchange/csv";
 
 export const MAX_CSV_BYTES = 5 * 1024 * 1024;
 export const MAX_CSV_ROWS = 100_000;
@@ -32,7 +33,7 @@ export function readMeasuredCsv(text: string, options: ReadOptions = {}): { data
   if (!header || rows.length === 0) throw new CsvError("the file needs a header line and at least one line of data");
   if (rows.length > MAX_CSV_ROWS) throw new CsvError(`the file has more than ${MAX_CSV_ROWS} lines of data`);
 
-  const names = header.map((name) => name.trim());
+  const names = header.map((name) => fromSpreadsheetText(name.trim()));
   const timeColumn = names.findIndex((name) => /^(time|t)$/i.test(name));
   if (timeColumn < 0) throw new CsvError('the header needs a "time" column');
   const seen = new Set<string>();
@@ -125,9 +126,9 @@ function interpolate(t: readonly number[], x: readonly number[], at: number): nu
   return x[low] + fraction * (x[high] - x[low]);
 }
 
-/** A simulation as CSV: `time` then one column per species, full double precision. */
+/** A simulation as CSV: `time` then one column per species (names safe from formulas), full double precision. */
 export function simulationCsv(simulated: SimulatedCourses): string {
   const names = Object.keys(simulated.series);
   const data = simulated.t.map((t, i) => [t, ...names.map((name) => simulated.series[name][i])]);
-  return Papa.unparse({ fields: ["time", ...names], data }, { newline: "\n" }) + "\n";
+  return Papa.unparse({ fields: ["time", ...names.map(spreadsheetText)], data }, { newline: "\n" }) + "\n";
 }

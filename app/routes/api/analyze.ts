@@ -2,15 +2,20 @@ import { z } from "zod";
 import { analysisFor } from "~/utils/analysis.server";
 import { checkSourceLimits } from "~/chem/limits";
 import { requireUser } from "~/utils/auth.server";
+import { cleanText } from "~/utils/fields";
 import { jobOwner } from "~/utils/dynamics.server";
-import { httpError } from "~/utils/http";
+import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/analyze";
 
+const allowed = ["POST"];
+const hint = "Use POST with { \"source\" }.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST with { \"source\" }.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const user = await requireUser(args);
-  const { source } = await readJson(args.request, z.object({ source: z.string({ message: "source must be the mechanism text." }) }));
+  const { source } = await readJson(args.request, z.object({ source: cleanText("The mechanism text") }));
   const refusal = checkSourceLimits(source);
   if (refusal) return httpError(413, refusal);
   return Response.json(await analysisFor({ ...args, owner: jobOwner(args.context, user) }, source));

@@ -1,5 +1,8 @@
+import { onlyMethods } from "~/utils/http";
 import { requireCaughtMail } from "~/utils/mailbox.server";
 import type { Route } from "./+types/dev-mail";
+
+export const action = onlyMethods(["GET"]);
 
 /** Only with the local mail catcher, and only for the demo owner: every caught message, newest first. */
 export async function loader(args: Route.LoaderArgs) {

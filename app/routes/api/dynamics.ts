@@ -1,10 +1,10 @@
 // Every dynamics job the Dynamics panel runs (time course, equilibrium, Lyapunov exponent,
 // sweep), on the text the page is showing; streamed with progress when asked.
 import { z } from "zod";
-import { sourceField } from "~/utils/fields";
+import { cleanText, sourceField } from "~/utils/fields";
 import { readJson } from "~/utils/json.server";
 import { jobOwner, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
-import { httpError } from "~/utils/http";
+import { methodNotAllowed, onlyMethods } from "~/utils/http";
 import { requireViewAccess } from "~/utils/permissions.server";
 import type { Route } from "./+types/dynamics";
 
@@ -26,22 +26,26 @@ const body = z.discriminatedUnion("kind", [
       ...settings,
       samples: z.number().int().min(2).max(5_000),
       target: z.discriminatedUnion("kind", [
-        z.object({ kind: z.literal("parameter"), name: z.string() }),
-        z.object({ kind: z.literal("initial"), species: z.string() }),
+        z.object({ kind: z.literal("parameter"), name: cleanText("The parameter") }),
+        z.object({ kind: z.literal("initial"), species: cleanText("The species") }),
         z.object({ kind: z.literal("rate"), reaction: z.number().int().nonnegative() }),
       ]),
       from: z.number(),
       to: z.number(),
       points: z.number().int().min(2).max(200),
       scale: z.enum(["linear", "log"]),
-      species: z.string(),
+      species: cleanText("The species"),
       observable: z.enum(["final", "max", "period"]),
     }),
   }),
 ]);
 
+const allowed = ["POST"];
+const hint = "Use POST.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const { user } = await requireViewAccess(args, args.params.id);
   const input = await readJson(args.request, body);
   const model = modelFromSource(input.source);

@@ -1,7 +1,7 @@
 // A mechanism as a file: SBML Level 3 Core, a LaTeX document, or its stoichiometric matrix as CSV.
 import { exportFor } from "~/utils/analysis.server";
 import { jobOwner } from "~/utils/dynamics.server";
-import { httpError } from "~/utils/http";
+import { httpError, onlyMethods } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/export";
 
@@ -11,10 +11,12 @@ const formats = {
   csv: { type: "text/csv; charset=utf-8", extension: "csv" },
 } as const;
 
+export const action = onlyMethods(["GET"], "Use GET with ?format=sbml, latex or csv.");
+
 export async function loader(args: Route.LoaderArgs) {
   const { mechanism, user } = await requireRole(args, args.params.id, "viewer");
   const format = new URL(args.request.url).searchParams.get("format") ?? "";
-  if (!(format in formats)) return httpError(400, "Ask for format=sbml, latex or csv.");
+  if (!Object.hasOwn(formats, format)) return httpError(400, "Ask for format=sbml, latex or csv.");
   const chosen = formats[format as keyof typeof formats];
   const exported = await exportFor({ ...args, owner: jobOwner(args.context, user) }, mechanism.source, format as keyof typeof formats, mechanism.title);
   if ("refusal" in exported) return httpError(exported.tooLarge ? 413 : 400, exported.refusal);

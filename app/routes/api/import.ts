@@ -1,6 +1,6 @@
 // POST /api/v1/mechanisms/import: a multipart `file` field, or the raw XML as the body.
 import { requireUser } from "~/utils/auth.server";
-import { httpError } from "~/utils/http";
+import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { importSbmlFile, MAX_SBML_BYTES } from "~/utils/import.server";
 import type { Route } from "./+types/import";
 
@@ -14,8 +14,12 @@ async function readUpload(request: Request): Promise<{ xml: string; filename: st
   return { xml: await request.text(), filename: null };
 }
 
+const allowed = ["POST"];
+const hint = "Use POST with an SBML file.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST with an SBML file.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const user = await requireUser(args);
   const { xml, filename } = await readUpload(args.request);
   const { row, warnings } = await importSbmlFile(args, user, xml, filename);

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { isMembershipError } from "../../../server/db/mechanisms";
 import { memberRoleField } from "~/utils/fields";
-import { httpError } from "~/utils/http";
+import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
 import { inviteByEmail } from "~/utils/sharing.server";
@@ -9,8 +9,12 @@ import type { Route } from "./+types/invitations";
 
 const body = z.object({ email: z.string().trim().toLowerCase().email("Enter a valid e-mail address."), role: memberRoleField });
 
+const allowed = ["POST"];
+const hint = "Use POST to invite.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST to invite.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const { mechanism, user } = await requireRole(args, args.params.id, "owner");
   const input = await readJson(args.request, body);
   try {

@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { createMechanism, listMechanismsFor } from "../../../server/db/mechanisms";
 import { requireUser } from "~/utils/auth.server";
-import { sourceField, titleField } from "~/utils/fields";
+import { cleanText, sourceField, titleField } from "~/utils/fields";
+import { methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/mechanisms";
 
@@ -11,10 +12,10 @@ export async function loader(args: Route.LoaderArgs) {
   return Response.json({ mechanisms });
 }
 
-const createBody = z.object({ title: titleField, source: sourceField.optional(), summary: z.string().max(2000).optional() });
+const createBody = z.object({ title: titleField, source: sourceField.optional(), summary: cleanText("The summary").max(2000).optional() });
 
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return Response.json({ error: "Use POST to create a mechanism." }, { status: 405 });
+  if (args.request.method !== "POST") return methodNotAllowed(["GET", "POST"], "Use POST to create a mechanism.");
   const user = await requireUser(args);
   const body = await readJson(args.request, createBody);
   const row = await createMechanism(args.context.db, user.id, body);

@@ -3,14 +3,15 @@
 import { z } from "zod";
 import { requireUser } from "~/utils/auth.server";
 import { jobOwner, modelFromOde, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
-import { httpError } from "~/utils/http";
+import { cleanText } from "~/utils/fields";
+import { methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/simulate-text";
 
 const body = z
   .object({
-    ode: z.string().max(64 * 1024).optional(),
-    source: z.string().max(1024 * 1024).optional(),
+    ode: cleanText("The ODE").max(64 * 1024).optional(),
+    source: cleanText("The mechanism text").max(1024 * 1024).optional(),
     settings: z.object({
       until: z.number().positive(),
       samples: z.number().int().min(2).max(20_000),
@@ -20,8 +21,12 @@ const body = z
   })
   .refine((b) => (b.ode === undefined) !== (b.source === undefined), "Send either ode or source.");
 
+const allowed = ["POST"];
+const hint = "Use POST.";
+export const loader = onlyMethods(allowed, hint);
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST.");
+  if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const user = await requireUser(args);
   const input = await readJson(args.request, body);
   const model = input.ode !== undefined ? modelFromOde(input.ode) : modelFromSource(input.source!);

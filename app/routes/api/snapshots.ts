@@ -2,7 +2,7 @@
 // POST { "name" } — names the current version (editor).
 import { z } from "zod";
 import { listSnapshots, snapshotNameField } from "../../../server/collab/snapshots";
-import { httpError } from "~/utils/http";
+import { httpError, methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/snapshots";
@@ -15,7 +15,7 @@ export async function loader(args: Route.LoaderArgs) {
 const body = z.object({ name: snapshotNameField });
 
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, 'Use POST with { "name" } to name the current version.');
+  if (args.request.method !== "POST") return methodNotAllowed(["GET", "POST"], 'Use POST with { "name" } to name the current version.');
   const { mechanism, user } = await requireRole(args, args.params.id, "editor");
   const { name } = await readJson(args.request, body);
   const snapshot = await args.context.collab.createNamedSnapshot(mechanism.id, user.id, name);

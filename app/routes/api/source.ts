@@ -1,16 +1,20 @@
 // PUT /api/v1/mechanisms/:id/source — the whole text, written through the live document so
 // everyone in the room sees it at once.
 import { z } from "zod";
-import { MAX_SOURCE_BYTES } from "~/utils/fields";
-import { httpError } from "~/utils/http";
+import { cleanText, MAX_SOURCE_BYTES } from "~/utils/fields";
+import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/source";
 
-const body = z.object({ source: z.string({ message: "source must be a string." }) });
+const body = z.object({ source: cleanText("The mechanism text") });
+
+const allowed = ["PUT"];
+const hint = 'Use PUT with { "source" }.';
+export const loader = onlyMethods(allowed, hint);
 
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "PUT") return httpError(405, 'Use PUT with { "source" }.');
+  if (args.request.method !== "PUT") return methodNotAllowed(allowed, hint);
   const { mechanism, user } = await requireRole(args, args.params.id, "editor");
   const { source } = await readJson(args.request, body);
   if (Buffer.byteLength(source, "utf8") > MAX_SOURCE_BYTES) return httpError(413, "The mechanism text is over 1 MiB; split it or trim comments.");

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { createApiToken, listApiTokens } from "../../../server/db/api-tokens";
 import { requireSessionUser } from "~/utils/auth.server";
 import { tokenNameField } from "~/utils/fields";
-import { httpError } from "~/utils/http";
+import { methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/tokens";
 
@@ -12,7 +12,7 @@ export async function loader(args: Route.LoaderArgs) {
 }
 
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST to create a token.");
+  if (args.request.method !== "POST") return methodNotAllowed(["GET", "POST"], "Use POST to create a token.");
   const user = await requireSessionUser(args);
   const { name } = await readJson(args.request, z.object({ name: tokenNameField }));
   const created = await createApiToken(args.context.db, user.id, name);

@@ -1,12 +1,19 @@
 import { isMembershipError } from "../../../server/db/mechanisms";
 import { revokeViewLink } from "../../../server/db/view-links";
-import { httpError } from "~/utils/http";
+import { z } from "zod";
+import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/view-link";
 
+const allowed = ["DELETE"];
+const hint = "Use DELETE to revoke a view link.";
+export const loader = onlyMethods(allowed, hint);
+const uuid = z.guid();
+
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "DELETE") return httpError(405, "Use DELETE to revoke a view link.");
+  if (args.request.method !== "DELETE") return methodNotAllowed(allowed, hint);
   const { mechanism, user } = await requireRole(args, args.params.id, "owner");
+  if (!uuid.safeParse(args.params.linkId).success) return httpError(400, "That is not a view link id: view link ids are UUIDs, as GET …/view-links lists them.");
   try {
     await revokeViewLink(args.context.db, user.id, mechanism.id, args.params.linkId);
   } catch (error) {

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { listViewLinks } from "../../../server/db/view-links";
-import { httpError } from "~/utils/http";
+import { labelField } from "~/utils/fields";
+import { httpError, methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
 import { makeViewLink } from "~/utils/sharing.server";
@@ -8,7 +9,7 @@ import type { Route } from "./+types/view-links";
 
 const body = z.object({
   expiresAt: z.iso.datetime({ offset: true, message: "expiresAt must be an ISO 8601 date-time." }).optional(),
-  label: z.string().trim().max(80).optional(),
+  label: labelField.optional(),
 });
 
 export async function loader(args: Route.LoaderArgs) {
@@ -17,7 +18,7 @@ export async function loader(args: Route.LoaderArgs) {
 }
 
 export async function action(args: Route.ActionArgs) {
-  if (args.request.method !== "POST") return httpError(405, "Use POST to create a view link.");
+  if (args.request.method !== "POST") return methodNotAllowed(["GET", "POST"], "Use POST to create a view link.");
   const { mechanism, user } = await requireRole(args, args.params.id, "owner");
   const input = await readJson(args.request, body);
   const expiresAt = input.expiresAt ? new Date(input.expiresAt) : undefined;
