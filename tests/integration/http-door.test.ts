@@ -179,6 +179,9 @@ describe("odd inputs", () => {
     await refused(await owner.json(`/api/v1/mechanisms/${mechanismId}/snapshots`, "POST", { name: "v\u00001" }), /U\+0000/);
     await refused(await owner.json(`/api/v1/mechanisms/${mechanismId}/view-links`, "POST", { label: "\u0000" }), /U\+0000/);
     await refused(await owner.json("/api/v1/tokens", "POST", { name: "t\u0000" }), /U\+0000/);
+    const nulName = await new Client(server.url).post("/sign-up", { name: "Nul\u0000Name", email: `nul.${Date.now()}@example.test`, password: "correct horse battery" });
+    expect(nulName.status).toBe(400);
+    expect(await nulName.text()).toContain("The name holds the control character U+0000");
     await refused(await owner.json(`/api/v1/mechanisms/${mechanismId}/source`, "PUT", { source: "A -> B\u0000\n" }), /U\+0000/);
     expect((await (await owner.get(`/api/v1/mechanisms/${mechanismId}`)).json()).source).toBe(source);
     await refused(await owner.json("/api/v1/analyze", "POST", { source: "\u0000" }), /U\+0000/);
