@@ -4,7 +4,7 @@
 import type { Page } from "playwright-core";
 import { expect, it } from "vitest";
 import { signedInPage, useServerAndBrowser } from "../support/e2e";
-import { signUp } from "../support/http";
+import { linkIn, signUp, waitForMail } from "../support/http";
 
 const world = useServerAndBrowser();
 
@@ -76,9 +76,8 @@ it("shows every page with no CSP refusal, and signs out with a POST", async () =
   ]) {
     await visit(guest, path, ready);
   }
-  const { messages } = await (await fetch(`${world.server.url}/api/dev/mail`)).json();
-  const invitation = messages.find((m: { to: string }) => m.to.includes("ivy.invitee@example.test")).text.match(/https?:\/\/\S+\/invite\/\S+/)[0];
-  await visit(guest, new URL(invitation).pathname, "main");
+  const invitation = linkIn(await waitForMail(world.server.url, "ivy.invitee@example.test", "invited"), "/invite/");
+  await visit(guest, invitation.pathname, "main");
 
   expect([...refusals, ...guestRefusals]).toEqual([]);
 
