@@ -14,12 +14,16 @@ export interface AppOptions {
   services: AppServices;
   /** Vite dev server in middleware mode; absent in production. */
   vite?: import("vite").ViteDevServer;
+  /** Express's "trust proxy": which proxies may speak for the client in X-Forwarded-For. */
+  trustProxy: boolean | number | string;
 }
 
-export async function createApp({ projectRoot, services, vite }: AppOptions) {
+export async function createApp({ projectRoot, services, vite, trustProxy }: AppOptions) {
   const app = express();
   app.disable("x-powered-by");
-  app.set("trust proxy", "loopback");
+  // The client address behind sign-in limits comes from X-Forwarded-For only through proxies the
+  // operator names; anyone can write that header.
+  app.set("trust proxy", trustProxy);
   app.use(door);
   app.use("/fonts", express.static(path.join(projectRoot, "fonts"), { immutable: true, maxAge: "1y" }));
 

@@ -60,10 +60,7 @@ const services = {
 const vite = dev
   ? await (await import("vite")).createServer({ root: projectRoot, server: { middlewareMode: true, hmr: { server } } })
   : undefined;
-const app = await createApp({ projectRoot, services, vite });
-// The client address behind sign-in limits comes from X-Forwarded-For only through proxies the
-// operator names; anyone can write that header.
-app.set("trust proxy", env.TRUST_PROXY);
+const app = await createApp({ projectRoot, services, vite, trustProxy: env.TRUST_PROXY });
 server.on("request", app);
 
 server.listen(env.PORT, env.HOST, () => {
