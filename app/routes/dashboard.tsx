@@ -3,7 +3,7 @@ import { Form, Link, redirect, useNavigation } from "react-router";
 import { createMechanism, listMechanismsFor } from "../../server/db/mechanisms";
 import { RolePill } from "~/components/role-pill";
 import { requireUser } from "~/utils/auth.server";
-import { titleField } from "~/utils/fields";
+import { titleField } from "~/shared/fields";
 import { importSbmlFile } from "~/utils/import.server";
 import { TimeAgo } from "~/components/time-ago";
 import type { Route } from "./+types/dashboard";

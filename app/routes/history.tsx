@@ -3,11 +3,11 @@
 import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import { findSnapshot, listSnapshots, snapshotNameField, type SnapshotKind } from "../../server/collab/snapshots";
-import { atLeast } from "../../server/db/roles";
+import { atLeast } from "../shared/roles";
 import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
-import { describeInvariantChanges, diffText, type DiffLine } from "~/utils/version-diff";
+import { describeInvariantChanges, diffText, type DiffLine } from "~/shared/version-diff";
 import type { Route } from "./+types/history";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `History of ${data?.title ?? "mechanism"} · Mechweave` }];

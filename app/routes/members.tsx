@@ -6,7 +6,7 @@ import { listViewLinks, revokeViewLink } from "../../server/db/view-links";
 import { InvitationsPanel } from "~/components/invitations-panel";
 import { ViewLinksPanel } from "~/components/view-links-panel";
 import { RolePill } from "~/components/role-pill";
-import { labelField, memberRoleField } from "~/utils/fields";
+import { labelField, memberRoleField } from "~/shared/fields";
 import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";

@@ -11,7 +11,7 @@ import { RealizationPanel, type RealizationChoice } from "~/components/realizati
 import type { RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { parseOde } from "~/chem/ode/parse";
 import { requireUser } from "~/utils/auth.server";
-import { cleanText, sourceField, titleField } from "~/utils/fields";
+import { cleanText, sourceField, titleField } from "~/shared/fields";
 import type { Route } from "./+types/realize";
 
 export const meta: Route.MetaFunction = () => [{ title: "From ODE to mechanism · Mechweave" }];

@@ -2,7 +2,7 @@ import { Form, Link } from "react-router";
 import { z } from "zod";
 import { createApiToken, listApiTokens, revokeApiToken } from "../../server/db/api-tokens";
 import { requireSessionUser } from "~/utils/auth.server";
-import { tokenNameField } from "~/utils/fields";
+import { tokenNameField } from "~/shared/fields";
 import { TimeAgo } from "~/components/time-ago";
 import type { Route } from "./+types/tokens";
 

@@ -4,9 +4,9 @@ import { useEffect, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
-import { roomAnalysisReader, type RoomAnalysis } from "~/utils/analysis-map";
-import { MESSAGE_REFUSED, readRefusal } from "~/utils/room-refusal";
-import type { Role } from "../../server/db/roles";
+import { roomAnalysisReader, type RoomAnalysis } from "~/shared/analysis-map";
+import { MESSAGE_REFUSED, readRefusal } from "~/shared/room-refusal";
+import type { Role } from "../shared/roles";
 
 export type RoomStatus = "connecting" | "online" | "offline";
 

@@ -3,7 +3,7 @@ import { eq } from "drizzle-orm";
 import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { z } from "zod";
-import { cleanText } from "../../app/utils/fields";
+import { cleanText } from "../../app/shared/fields";
 import type { Db } from "../db/client";
 import { users } from "../db/schema";
 import { hashPassword, verifyPassword } from "./password";

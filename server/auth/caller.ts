@@ -7,7 +7,7 @@ import type { SessionStore } from "./sessions";
 import { hashSecret } from "./secrets";
 import type { Db } from "../db/client";
 import { roleOf } from "../db/mechanisms";
-import type { Role } from "../db/roles";
+import type { Role } from "../../app/shared/roles";
 import { apiTokens, users, viewLinks } from "../db/schema";
 
 export interface Caller {

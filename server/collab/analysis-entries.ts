@@ -1,8 +1,8 @@
 // What the server writes into the room's `analysis` map for one report: the contract keys of
 // PRODUCT.md (counts), a few more counts, and the full report for the Structure panel and graph.
 import type { AnalysisReport } from "../../app/chem/analysis";
-import { packReport } from "../../app/utils/analysis-map";
-import { summarizeStructure, type StructureSummary } from "../../app/utils/version-diff";
+import { packReport } from "../../app/shared/analysis-map";
+import { summarizeStructure, type StructureSummary } from "../../app/shared/version-diff";
 
 export interface AnalysisRequest {
   id: number;
@@ -12,7 +12,7 @@ export interface AnalysisRequest {
 export interface AnalysisEntries {
   /** The counts, each as JSON text: cheap to compare with what the map holds, parsed only when it changed. */
   entries: Record<string, string>;
-  /** The full report, packed (app/utils/analysis-map.ts). */
+  /** The full report, packed (app/shared/analysis-map.ts). */
   report: Uint8Array;
   summary: StructureSummary;
   /** The complexes' canonical texts: the keys of the shared `layout` map. */

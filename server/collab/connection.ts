@@ -1,8 +1,8 @@
 // One member's socket in a room. Every message is classified first and checked against the
 // connection's current role: viewers may sync *from* the server and share presence, never edit.
 import type { WebSocket } from "ws";
-import { atLeast, type Role } from "../db/roles";
-import { encodeRefusal } from "../../app/utils/room-refusal";
+import { atLeast, type Role } from "../../app/shared/roles";
+import { encodeRefusal } from "../../app/shared/room-refusal";
 import { readClientMessage, syncStep2Message } from "./protocol";
 import type { Credential } from "./credentials";
 import { PresenceBudget } from "./presence";

@@ -3,7 +3,7 @@
 import type { IncomingMessage, Server } from "node:http";
 import type { Duplex } from "node:stream";
 import { WebSocketServer } from "ws";
-import { mechanismIdField } from "../../app/utils/fields";
+import { mechanismIdField } from "../../app/shared/fields";
 import type { Db } from "../db/client";
 import { isDatabaseUnavailable } from "../db/unavailable";
 import { isOwnOrigin } from "../origin";

@@ -3,7 +3,7 @@
 // server stamps the name and role it authenticated into `user`, so presence cannot impersonate.
 import * as decoding from "lib0/decoding";
 import * as encoding from "lib0/encoding";
-import type { Role } from "../db/roles";
+import type { Role } from "../../app/shared/roles";
 
 /** A caret, a selection and the user's details take a few hundred characters. */
 export const MAX_STATE_CHARS = 4 * 1024;

@@ -5,8 +5,8 @@
 // reload shows the last analysis; a restore puts back only the text, so they never get in its way.
 import { createHash } from "node:crypto";
 import * as Y from "yjs";
-import { roomAnalysisReader } from "../../app/utils/analysis-map";
-import { summarizeStructure, type StructureSummary } from "../../app/utils/version-diff";
+import { roomAnalysisReader } from "../../app/shared/analysis-map";
+import { summarizeStructure, type StructureSummary } from "../../app/shared/version-diff";
 import type { AnalysisPool } from "./analysis-pool";
 import { Pacer } from "./pacer";
 

@@ -2,7 +2,7 @@
 // connections and presence, and the services that keep it durable and analysed.
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
-import { MAX_SOURCE_BYTES } from "../../app/utils/fields";
+import { MAX_SOURCE_BYTES } from "../../app/shared/fields";
 import type { Db } from "../db/client";
 import { findMechanism } from "../db/mechanisms";
 import { closeCodes, type Connection } from "./connection";
@@ -17,7 +17,7 @@ import { AutoSnapshotPolicy, insertSnapshot, latestSummary, type SnapshotKind } 
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
 import { UpdateCheck } from "./update-check";
-import type { RefusalReason } from "../../app/utils/room-refusal";
+import type { RefusalReason } from "../../app/shared/room-refusal";
 
 export interface RoomTimings {
   /** Shortest interval between two structure recomputes (the first after a quiet spell runs at once). */

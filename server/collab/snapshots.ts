@@ -3,8 +3,8 @@
 // and the invariants, so History can compare versions without re-parsing.
 import { and, desc, eq } from "drizzle-orm";
 import { z } from "zod";
-import { cleanText } from "../../app/utils/fields";
-import { sameStructure, type StructureSummary } from "../../app/utils/version-diff";
+import { cleanText } from "../../app/shared/fields";
+import { sameStructure, type StructureSummary } from "../../app/shared/version-diff";
 import type { Db } from "../db/client";
 import { snapshots, users } from "../db/schema";
 

@@ -5,7 +5,7 @@
 // The work is proportional to the update, never to the document: each new item's place is read
 // from its parent name, or from its origin, which is in the update or already in the document.
 import * as Y from "yjs";
-import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS, type RefusalReason } from "../../app/utils/room-refusal";
+import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS, type RefusalReason } from "../../app/shared/room-refusal";
 
 /** Where an item lands: a root type and map key, or somewhere no update may write. */
 type Place = { root: string; key: string | null } | "nested" | "missing" | "discarded";

@@ -3,7 +3,7 @@
 import { randomBytes } from "node:crypto";
 import { and, desc, eq, sql } from "drizzle-orm";
 import type { Db } from "./client";
-import type { Role } from "./roles";
+import type { Role } from "../../app/shared/roles";
 import { mechanisms, memberships, roleChanges, users } from "./schema";
 
 export type MemberRole = Exclude<Role, "owner">;

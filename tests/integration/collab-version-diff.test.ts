@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { describeInvariantChanges, diffText, type StructureSummary } from "../../app/utils/version-diff";
+import { describeInvariantChanges, diffText, type StructureSummary } from "../../app/shared/version-diff";
 
 const base: StructureSummary = {
   species: 2, speciesNames: ["X", "Y"], complexes: 3, reactions: 2, linkageClasses: 1,

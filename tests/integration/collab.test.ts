@@ -7,7 +7,7 @@ import * as encoding from "lib0/encoding";
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { roomAnalysisReader } from "../../app/utils/analysis-map";
+import { roomAnalysisReader } from "../../app/shared/analysis-map";
 import { eventually, joinRoom, rawSocket, storedDocument, type RoomClient } from "../support/collab-client";
 import { Client, signUp } from "../support/http";
 import { startTestServer } from "../support/server";
@@ -406,7 +406,7 @@ describe("live co-editing", () => {
     expect(viewerRoom.analysis.get("revision") as number).toBeGreaterThan(first);
     expect(viewerRoom.analysis.get("errors")).toBe(0);
     expect(viewerRoom.analysis.get("rank")).toBe(2);
-    // The full report travels packed (app/utils/analysis-map.ts).
+    // The full report travels packed (app/shared/analysis-map.ts).
     const { report } = roomAnalysisReader()(viewerRoom.analysis);
     expect(report?.complexes).toContain("X + Y");
 

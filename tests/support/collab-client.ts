@@ -9,7 +9,7 @@ import * as awarenessProtocol from "y-protocols/awareness";
 import * as syncProtocol from "y-protocols/sync";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
-import { MESSAGE_REFUSED, readRefusal, type RefusalReason } from "../../app/utils/room-refusal";
+import { MESSAGE_REFUSED, readRefusal, type RefusalReason } from "../../app/shared/room-refusal";
 
 /** A member's live copy of the room. */
 export interface RoomReplica {

@@ -1,7 +1,7 @@
 import { EditorState } from "@codemirror/state";
 import { describe, expect, it } from "vitest";
 import { ySyncAnnotation } from "y-codemirror.next";
-import { refusalReasons } from "~/utils/room-refusal";
+import { refusalReasons } from "~/shared/room-refusal";
 import { NUL_REMOVED, textLimits, utf8Bytes } from "./text-limits";
 
 function editor(doc: string, maxBytes: number) {

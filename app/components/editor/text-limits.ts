@@ -4,8 +4,8 @@
 // co-authors' edits arrive through Yjs already accepted by the server.
 import { ChangeSet, EditorState, StateField, type Extension, type Text, type Transaction } from "@codemirror/state";
 import { ySyncAnnotation } from "y-codemirror.next";
-import { refusalReasons } from "~/utils/room-refusal";
-import { MAX_SOURCE_BYTES } from "~/utils/fields";
+import { refusalReasons } from "~/shared/room-refusal";
+import { MAX_SOURCE_BYTES } from "~/shared/fields";
 
 export const NUL_REMOVED = "NUL characters were removed from the inserted text.";
 

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { analysisFor } from "~/utils/analysis.server";
 import { checkSourceLimits } from "~/chem/limits";
 import { requireUser } from "~/utils/auth.server";
-import { cleanText } from "~/utils/fields";
+import { cleanText } from "~/shared/fields";
 import { jobOwner } from "~/utils/dynamics.server";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";

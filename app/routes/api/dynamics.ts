@@ -1,7 +1,7 @@
 // Every dynamics job the Dynamics panel runs (time course, equilibrium, Lyapunov exponent,
 // sweep), on the text the page is showing; streamed with progress when asked.
 import { z } from "zod";
-import { cleanText, sourceField } from "~/utils/fields";
+import { cleanText, sourceField } from "~/shared/fields";
 import { readJson } from "~/utils/json.server";
 import { jobOwner, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
 import { methodNotAllowed, onlyMethods } from "~/utils/http";

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { isMembershipError } from "../../../server/db/mechanisms";
-import { memberRoleField } from "~/utils/fields";
+import { memberRoleField } from "~/shared/fields";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { createMechanism, listMechanismsFor } from "../../../server/db/mechanisms";
 import { requireUser } from "~/utils/auth.server";
-import { cleanText, sourceField, titleField } from "~/utils/fields";
+import { cleanText, sourceField, titleField } from "~/shared/fields";
 import { methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/mechanisms";

@@ -3,7 +3,7 @@
 import { z } from "zod";
 import { requireUser } from "~/utils/auth.server";
 import { jobOwner, modelFromOde, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
-import { cleanText } from "~/utils/fields";
+import { cleanText } from "~/shared/fields";
 import { methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/simulate-text";

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { createApiToken, listApiTokens } from "../../../server/db/api-tokens";
 import { requireSessionUser } from "~/utils/auth.server";
-import { tokenNameField } from "~/utils/fields";
+import { tokenNameField } from "~/shared/fields";
 import { methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/tokens";

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { listViewLinks } from "../../../server/db/view-links";
-import { labelField } from "~/utils/fields";
+import { labelField } from "~/shared/fields";
 import { httpError, methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
