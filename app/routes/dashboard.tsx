@@ -1,6 +1,6 @@
 import { useMemo, useState } from "react";
 import { Form, Link, redirect, useNavigation } from "react-router";
-import { createMechanism, listMechanismsFor } from "../../server/db/mechanisms";
+import { createMechanism, listMechanismsFor } from "~/utils/mechanisms.server";
 import { RolePill } from "~/components/role-pill";
 import { requireUser } from "~/utils/auth.server";
 import { titleField } from "~/shared/fields";

@@ -1,9 +1,8 @@
 // Accepting an invitation: sign in or sign up with the invited address, then take the role.
 import { Form, Link, redirect } from "react-router";
 import { z } from "zod";
-import { createUser, isAuthFailure, signUpForm } from "../../server/auth/authenticator";
-import { acceptInvitation, lookUpInvitation } from "../../server/db/invitations";
-import { isMembershipError } from "../../server/db/mechanisms";
+import { createUser, isAuthFailure, signUpForm } from "~/utils/accounts.server";
+import { acceptInvitation, isMembershipError, lookUpInvitation } from "~/utils/mechanisms.server";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { sendVerification } from "~/utils/account-mail.server";

@@ -1,8 +1,6 @@
 import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
-import { findPendingInvitation, pendingInvitations, revokeInvitation } from "../../server/db/invitations";
-import { addMember, changeRole, isMembershipError, listMembers, removeMember, roleHistory, transferOwnership } from "../../server/db/mechanisms";
-import { listViewLinks, revokeViewLink } from "../../server/db/view-links";
+import { addMember, changeRole, findPendingInvitation, isMembershipError, listMembers, listViewLinks, pendingInvitations, removeMember, revokeInvitation, revokeViewLink, roleHistory, transferOwnership } from "~/utils/mechanisms.server";
 import { InvitationsPanel } from "~/components/invitations-panel";
 import { ViewLinksPanel } from "~/components/view-links-panel";
 import { RolePill } from "~/components/role-pill";

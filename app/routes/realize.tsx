@@ -3,7 +3,7 @@
 import { useState } from "react";
 import { redirect, useFetcher } from "react-router";
 import { z } from "zod";
-import { createMechanism } from "../../server/db/mechanisms";
+import { createMechanism } from "~/utils/mechanisms.server";
 import { JobStatus } from "~/components/dynamics/job-status";
 import { useDynamicsJob } from "~/components/dynamics/use-dynamics-job";
 import { RealizationCheck } from "~/components/realization-check";

@@ -1,8 +1,7 @@
 // Choosing a new password from a mailed link: signs in afresh and ends every other session.
 // A dead link is answered with data and 404, not thrown, so a failed POST still shows its reason.
 import { data, Form, Link, useNavigation } from "react-router";
-import { signUpForm } from "../../server/auth/authenticator";
-import { lookUpEmailToken, resetPassword } from "../../server/auth/email-tokens";
+import { lookUpEmailToken, resetPassword, signUpForm } from "~/utils/accounts.server";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { startUserSession } from "~/utils/auth.server";

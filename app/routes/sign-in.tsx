@@ -1,6 +1,5 @@
 import { Form, Link, useNavigation } from "react-router";
-import { isAuthFailure, signInForm } from "../../server/auth/authenticator";
-import { clearFailedSignIns, recordFailedSignIn, signInWait } from "../../server/auth/sign-in-limits";
+import { clearFailedSignIns, isAuthFailure, recordFailedSignIn, signInForm, signInWait } from "~/utils/accounts.server";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";

@@ -1,5 +1,5 @@
 import { Form, Link, useNavigation } from "react-router";
-import { isAuthFailure } from "../../server/auth/authenticator";
+import { isAuthFailure } from "~/utils/accounts.server";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { sendVerification } from "~/utils/account-mail.server";

@@ -1,6 +1,6 @@
 import { Form, Link } from "react-router";
 import { z } from "zod";
-import { createApiToken, listApiTokens, revokeApiToken } from "../../server/db/api-tokens";
+import { createApiToken, listApiTokens, revokeApiToken } from "~/utils/accounts.server";
 import { requireSessionUser } from "~/utils/auth.server";
 import { tokenNameField } from "~/shared/fields";
 import { TimeAgo } from "~/components/time-ago";

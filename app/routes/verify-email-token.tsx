@@ -2,8 +2,8 @@
 // links must not use up the single-use token; the POST confirms. The loader answers a dead link
 // with data and 404 rather than throwing, because it runs again right after a successful POST.
 import { data, Form, Link } from "react-router";
-import { lookUpEmailToken, verifyAddress } from "../../server/auth/email-tokens";
-import { findMechanism } from "../../server/db/mechanisms";
+import { lookUpEmailToken, verifyAddress } from "~/utils/accounts.server";
+import { findMechanism } from "~/utils/mechanisms.server";
 import { AuthCard } from "~/components/auth-card";
 import type { Route } from "./+types/verify-email-token";
 

@@ -1,7 +1,7 @@
 // The signed-in account's address: confirmed or not, which seats wait for it, and a resend button.
 import { Form, Link } from "react-router";
-import { sentRecently } from "../../server/auth/email-tokens";
-import { waitingSeats } from "../../server/db/invitations";
+import { sentRecently } from "~/utils/accounts.server";
+import { waitingSeats } from "~/utils/mechanisms.server";
 import { AuthCard } from "~/components/auth-card";
 import { sendVerification } from "~/utils/account-mail.server";
 import { requireSessionUser } from "~/utils/auth.server";

@@ -1,8 +1,12 @@
 // Sharing actions used by both the Members page and the JSON API, so they behave the same.
+import { eq } from "drizzle-orm";
 import type { AppLoadContext } from "react-router";
 import type { AuthUser } from "../../server/auth/authenticator";
+import { liveViewLink } from "../../server/auth/caller";
+import { hashSecret } from "../../server/auth/secrets";
 import { createInvitation } from "../../server/db/invitations";
 import type { MemberRole } from "../../server/db/mechanisms";
+import { viewLinks } from "../../server/db/schema";
 import { createViewLink } from "../../server/db/view-links";
 import { invitationMessage, roleChangedMessage } from "../../server/mail/messages";
 import { publicOrigin } from "./links.server";
@@ -25,6 +29,12 @@ export async function inviteByEmail(
 export async function makeViewLink(context: AppLoadContext, request: Request, actor: AuthUser, mechanismId: string, input: { expiresAt?: Date; label?: string }) {
   const { link, token } = await createViewLink(context.db, actor.id, mechanismId, input);
   return { id: link.id, url: `${publicOrigin(context, request)}/v/${token}`, expiresAt: link.expiresAt };
+}
+
+/** The mechanism a view-link token opens, or null when the link is unknown, expired or revoked. */
+export async function viewLinkMechanism(context: AppLoadContext, token: string): Promise<string | null> {
+  const [link] = await context.db.select({ mechanismId: viewLinks.mechanismId }).from(viewLinks).where(eq(viewLinks.tokenHash, hashSecret(token)));
+  return link && (await liveViewLink(context.db, link.mechanismId, [token])) ? link.mechanismId : null;
 }
 
 /** Tells a member their role changed (or that they were removed); mail trouble never undoes it. */

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { isMembershipError } from "../../../server/db/mechanisms";
+import { isMembershipError } from "~/utils/mechanisms.server";
 import { memberRoleField } from "~/shared/fields";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { createMechanism, listMechanismsFor } from "../../../server/db/mechanisms";
+import { createMechanism, listMechanismsFor } from "~/utils/mechanisms.server";
 import { requireUser } from "~/utils/auth.server";
 import { cleanText, sourceField, titleField } from "~/shared/fields";
 import { methodNotAllowed } from "~/utils/http";

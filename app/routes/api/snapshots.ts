@@ -1,7 +1,7 @@
 // GET /api/v1/mechanisms/:id/snapshots — the versions, newest first (viewer);
 // POST { "name" } — names the current version (editor).
 import { z } from "zod";
-import { listSnapshots, snapshotNameField } from "../../../server/collab/snapshots";
+import { listSnapshots, snapshotNameField } from "~/utils/mechanisms.server";
 import { httpError, methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";

@@ -1,4 +1,4 @@
-import { revokeApiToken } from "../../../server/db/api-tokens";
+import { revokeApiToken } from "~/utils/accounts.server";
 import { requireUser } from "~/utils/auth.server";
 import { z } from "zod";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";

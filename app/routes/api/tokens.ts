@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { createApiToken, listApiTokens } from "../../../server/db/api-tokens";
+import { createApiToken, listApiTokens } from "~/utils/accounts.server";
 import { requireSessionUser } from "~/utils/auth.server";
 import { tokenNameField } from "~/shared/fields";
 import { methodNotAllowed } from "~/utils/http";

@@ -1,5 +1,4 @@
-import { isMembershipError } from "../../../server/db/mechanisms";
-import { revokeViewLink } from "../../../server/db/view-links";
+import { isMembershipError, revokeViewLink } from "~/utils/mechanisms.server";
 import { z } from "zod";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";

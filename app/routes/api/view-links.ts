@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { listViewLinks } from "../../../server/db/view-links";
+import { listViewLinks } from "~/utils/mechanisms.server";
 import { labelField } from "~/shared/fields";
 import { httpError, methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
