@@ -1,5 +1,5 @@
 import { Form, useNavigation } from "react-router";
-import { atLeast, type Role } from "../shared/roles";
+import { atLeast, type Role } from "~/shared/roles";
 
 interface FilesPanelProps {
   mechanismId: string;

@@ -1,4 +1,4 @@
-import type { Role } from "../shared/roles";
+import type { Role } from "~/shared/roles";
 
 const tone: Record<Role, string> = {
   owner: "bg-accent-soft text-accent",

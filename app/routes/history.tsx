@@ -3,7 +3,7 @@
 import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import { findSnapshot, listSnapshots, snapshotNameField, type SnapshotKind } from "~/utils/mechanisms.server";
-import { atLeast } from "../shared/roles";
+import { atLeast } from "~/shared/roles";
 import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";

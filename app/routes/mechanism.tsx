@@ -4,7 +4,7 @@ import type { AnalysisReport } from "~/chem/analysis";
 import type { XY } from "~/components/graph/layout";
 import { Form, Link, redirect, useNavigation } from "react-router";
 import { deleteMechanism, renameMechanism } from "~/utils/mechanisms.server";
-import { atLeast } from "../shared/roles";
+import { atLeast } from "~/shared/roles";
 import { CollabEditor, type CollabEditorHandle } from "~/components/editor/collab-editor";
 import { ComplexGraph } from "~/components/graph/complex-graph";
 import { Presence } from "~/components/presence";

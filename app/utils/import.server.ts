@@ -5,7 +5,7 @@ import type { AuthUser } from "../../server/auth/authenticator";
 import { createMechanism } from "../../server/db/mechanisms";
 import { sbmlImportFor } from "./analysis.server";
 import { jobOwner } from "./dynamics.server";
-import { controlCharacterProblem } from "../shared/fields";
+import { controlCharacterProblem } from "~/shared/fields";
 import { httpError } from "./http";
 
 export const MAX_SBML_BYTES = 4 * 1024 * 1024;

@@ -2,9 +2,9 @@
 import type { AuthUser } from "../../server/auth/authenticator";
 import { accessTo } from "../../server/auth/caller";
 import { findMechanism } from "../../server/db/mechanisms";
-import { atLeast, type Role } from "../shared/roles";
+import { atLeast, type Role } from "~/shared/roles";
 import { getCaller, signInRequired, type RequestArgs } from "./auth.server";
-import { mechanismIdField } from "../shared/fields";
+import { mechanismIdField } from "~/shared/fields";
 import { httpError } from "./http";
 
 type Mechanism = NonNullable<Awaited<ReturnType<typeof findMechanism>>>;

@@ -2,7 +2,7 @@
 import { z } from "zod";
 import type { AppLoadContext } from "react-router";
 import { jobOwner, respondWithJob } from "./dynamics.server";
-import { cleanText } from "../shared/fields";
+import { cleanText } from "~/shared/fields";
 
 const MAX_ODE_BYTES = 64 * 1024;
 

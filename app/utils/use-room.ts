@@ -6,7 +6,7 @@ import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
 import { roomAnalysisReader, type RoomAnalysis } from "~/shared/analysis-map";
 import { MESSAGE_REFUSED, readRefusal } from "~/shared/room-refusal";
-import type { Role } from "../shared/roles";
+import type { Role } from "~/shared/roles";
 
 export type RoomStatus = "connecting" | "online" | "offline";
 
