@@ -1,7 +1,7 @@
 import * as Y from "yjs";
 import { describe, expect, it } from "vitest";
 import { analyzeMechanism, parseForAnalysis } from "~/chem/analysis";
-import { packReport, roomAnalysisReader, unpackReport } from "~/shared/analysis-map";
+import { packReport, roomAnalysisReader, unpackReport } from "./analysis-map";
 
 const reportOf = async (source: string) => analyzeMechanism(parseForAnalysis(source));
 
