@@ -84,6 +84,9 @@ function sourcesUnder(folder: string): Source[] {
     });
 }
 
+/** The files that break the rules, one entry per offending import. */
+const offenders = (sources: Source[]) => boundaryViolations(sources).map((violation) => violation.split(" ")[0]);
+
 describe("server/browser boundary", () => {
   it("has no leaks in app/ or server/", () => {
     expect(boundaryViolations([...sourcesUnder("app"), ...sourcesUnder("server")])).toEqual([]);
@@ -112,7 +115,7 @@ describe("server/browser boundary", () => {
   });
 
   it("refuses server code in a browser module, and lets *.server.ts and type-only imports through", () => {
-    const leaks = boundaryViolations([
+    expect(offenders([
       { file: "app/routes/members.tsx", text: 'import { listMembers } from "../../server/db/mechanisms";' },
       { file: "app/components/files-panel.tsx", text: 'import { atLeast, type Role } from "../../server/db/roles";' },
       { file: "app/components/lazy.tsx", text: 'const m = await import("../../server/db/mechanisms");' },
@@ -120,28 +123,25 @@ describe("server/browser boundary", () => {
       { file: "app/components/role-pill.tsx", text: 'import type { Role } from "../../server/db/roles";' },
       { file: "app/routes/tokens.tsx", text: 'import { listApiTokens } from "~/utils/accounts.server";' },
       { file: "app/chem/exchange/sbml.test.ts", text: 'import { demoMechanisms } from "../../../server/seed/demo";' },
-    ]);
-    expect(leaks.map((leak) => leak.split(" ")[0])).toEqual(["app/routes/members.tsx", "app/components/files-panel.tsx", "app/components/lazy.tsx"]);
+    ])).toEqual(["app/routes/members.tsx", "app/components/files-panel.tsx", "app/components/lazy.tsx"]);
   });
 
   it("lets server/ import only app/shared, app/chem and app/utils/*.server.ts", () => {
-    const leaks = boundaryViolations([
+    expect(offenders([
       { file: "server/collab/recompute.ts", text: 'import { roomAnalysisReader } from "../../app/utils/analysis-map";' },
       { file: "server/collab/room.ts", text: 'import type { RefusalReason } from "~/components/editor/text-limits";' },
       { file: "server/collab/room.ts", text: 'import { MAX_SOURCE_BYTES } from "../../app/shared/fields";' },
       { file: "server/sim/job.ts", text: 'import { parseMechanism } from "~/chem/parse";' },
       { file: "server/app.ts", text: 'import { publicOrigin } from "../app/utils/links.server";' },
       { file: "server/app.ts", text: 'import express from "express";' },
-    ]);
-    expect(leaks.map((leak) => leak.split(" ")[0])).toEqual(["server/collab/recompute.ts", "server/collab/room.ts"]);
+    ])).toEqual(["server/collab/recompute.ts", "server/collab/room.ts"]);
   });
 
   it("keeps app/shared free of UI and server code", () => {
-    const leaks = boundaryViolations([
+    expect(offenders([
       { file: "app/shared/roles.ts", text: 'import { x } from "~/components/role-pill";' },
       { file: "app/shared/fields.ts", text: 'import { y } from "../../server/db/schema";' },
       { file: "app/shared/version-diff.ts", text: 'import type { AnalysisReport } from "~/chem/analysis";' },
-    ]);
-    expect(leaks.map((leak) => leak.split(" ")[0])).toEqual(["app/shared/roles.ts", "app/shared/fields.ts"]);
+    ])).toEqual(["app/shared/roles.ts", "app/shared/fields.ts"]);
   });
 });
