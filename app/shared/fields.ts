@@ -1,5 +1,6 @@
 // Field rules shared by forms and the JSON API, so both refuse the same input the same way.
 import { z } from "zod";
+import { MAX_SOURCE_BYTES } from "~/chem/limits";
 
 // C0 controls other than tab, line feed and carriage return: PostgreSQL cannot store NUL in
 // text, and none of the others belongs in a title, a name or a mechanism.
@@ -23,7 +24,6 @@ export function cleanText(what: string) {
 }
 
 export const titleField = cleanText("The title").trim().min(1, "Give the mechanism a title.").max(200, "Keep the title under 200 characters.");
-export const MAX_SOURCE_BYTES = 1024 * 1024;
 export const sourceField = cleanText("The mechanism text").refine(
   (s) => Buffer.byteLength(s, "utf8") <= MAX_SOURCE_BYTES,
   "The mechanism text is over 1 MiB; split it or trim comments.",

@@ -2,7 +2,7 @@
 // connections and presence, and the services that keep it durable and analysed.
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
-import { MAX_SOURCE_BYTES } from "../../app/shared/fields";
+import { MAX_SOURCE_BYTES } from "../../app/chem/limits";
 import type { Db } from "../db/client";
 import { findMechanism } from "../db/mechanisms";
 import { closeCodes, type Connection } from "./connection";

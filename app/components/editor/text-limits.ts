@@ -5,23 +5,15 @@
 import { ChangeSet, EditorState, StateField, type Extension, type Text, type Transaction } from "@codemirror/state";
 import { ySyncAnnotation } from "y-codemirror.next";
 import { refusalReasons } from "~/shared/room-refusal";
-import { MAX_SOURCE_BYTES } from "~/shared/fields";
+import { MAX_SOURCE_BYTES } from "~/chem/limits";
 
 export const NUL_REMOVED = "NUL characters were removed from the inserted text.";
 
+const encoder = new TextEncoder();
+
 /** UTF-8 length of a string, as PostgreSQL and the server count it (a lone surrogate is 3 bytes). */
 export function utf8Bytes(text: string): number {
-  let bytes = 0;
-  for (let i = 0; i < text.length; i++) {
-    const code = text.charCodeAt(i);
-    if (code < 0x80) bytes += 1;
-    else if (code < 0x800) bytes += 2;
-    else if (code >= 0xd800 && code <= 0xdbff && (text.charCodeAt(i + 1) & 0xfc00) === 0xdc00) {
-      bytes += 4;
-      i++;
-    } else bytes += 3;
-  }
-  return bytes;
+  return encoder.encode(text).length;
 }
 
 /** The change in UTF-8 size, read from the changed ranges only. */

@@ -1,7 +1,8 @@
 // PUT /api/v1/mechanisms/:id/source — the whole text, written through the live document so
 // everyone in the room sees it at once.
 import { z } from "zod";
-import { cleanText, MAX_SOURCE_BYTES } from "~/shared/fields";
+import { MAX_SOURCE_BYTES } from "~/chem/limits";
+import { cleanText } from "~/shared/fields";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
