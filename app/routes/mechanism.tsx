@@ -90,7 +90,9 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
       </header>
 
       <section className="mt-4 grid gap-4 xl:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
-        <div className="card flex min-h-[32rem] flex-col overflow-hidden">
+        {/* A bounded card: a long text scrolls inside the editor instead of stretching the row, which
+            would centre the graph beside it far below the fold. */}
+        <div className="card flex h-[calc(100vh-9rem)] min-h-[32rem] flex-col overflow-hidden">
           <div className="flex items-center justify-between border-b border-line px-4 py-2 text-xs text-muted">
             <span>Mechanism text{canEdit ? "" : " · read-only"}</span>
             <Summary errors={room.analysis.errors} deficiency={room.analysis.deficiency} failed={Boolean(room.analysis.failure)} />
