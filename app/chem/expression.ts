@@ -2,13 +2,19 @@
 // the detailed-balance conditions and merged custom laws always agree on notation.
 import type { MathNode } from "mathjs";
 import { readLaw } from "./law";
-import type { ComplexVector, RateFactor } from "./model";
+import type { ComplexVector, RateExpression, RateFactor } from "./model";
 import { speciesToken } from "./print";
+import { operandNeedsParentheses, rateExpressionPrecedence } from "./rate-expression";
 
 // ---- plain text (the `.weave` spelling of names, mathjs operators)
 
+/** An expression coefficient is grouped, so that it stays one factor beside others and under powers. */
+function groupedExpression(factor: RateFactor): boolean {
+  return factor.kind === "expression" && factor.expression!.tree.kind !== "call";
+}
+
 function factorText(factor: RateFactor): string {
-  const base = factor.kind === "fixed" ? speciesToken(factor.symbol) : factor.symbol;
+  const base = factor.kind === "fixed" ? speciesToken(factor.symbol) : groupedExpression(factor) ? `(${factor.symbol})` : factor.symbol;
   return factor.power === 1 ? base : `${base}^${factor.power}`;
 }
 
@@ -87,7 +93,39 @@ export function numberLatex(text: string): string {
   return match[1] === "1" ? exponent : `${match[1]} \\times ${exponent}`;
 }
 
+/** An arithmetic rate coefficient in LaTeX: fractions, powers and functions typeset as such. */
+export function rateExpressionLatex(node: RateExpression): string {
+  switch (node.kind) {
+    case "number":
+      return numberLatex(String(node.value));
+    case "parameter":
+      return symbolLatex(node.name);
+    case "negate":
+      return rateExpressionPrecedence(node.operand) < 3 ? `-\left(${rateExpressionLatex(node.operand)}\right)` : `-${rateExpressionLatex(node.operand)}`;
+    case "call": {
+      const argument = rateExpressionLatex(node.argument);
+      if (node.name === "sqrt") return `\sqrt{${argument}}`;
+      return `${node.name === "exp" ? "\exp" : "\ln"}\left(${argument}\right)`;
+    }
+    case "binary": {
+      if (node.operator === "/") return `\frac{${rateExpressionLatex(node.left)}}{${rateExpressionLatex(node.right)}}`;
+      const side = (which: "left" | "right") => {
+        const latex = rateExpressionLatex(node[which]);
+        // A fraction as an exponent's base still needs its parentheses.
+        const grouped = operandNeedsParentheses(node, which) || (node.operator === "^" && which === "left" && node.left.kind === "binary");
+        return grouped ? `\left(${latex}\right)` : latex;
+      };
+      if (node.operator === "^") return `{${side("left")}}^{${rateExpressionLatex(node.right)}}`;
+      return `${side("left")}${node.operator === "*" ? "\, " : ` ${node.operator} `}${side("right")}`;
+    }
+  }
+}
+
 function factorLatex(factor: RateFactor): string {
+  if (factor.kind === "expression") {
+    const latex = rateExpressionLatex(factor.expression!.tree);
+    return groupedExpression(factor) ? `\left(${latex}\right)` : latex;
+  }
   const base = factor.kind === "value" ? numberLatex(factor.symbol) : symbolLatex(factor.symbol);
   return factor.power === 1 ? base : `${base}^{${factor.power}}`;
 }
