@@ -101,22 +101,22 @@ export function rateExpressionLatex(node: RateExpression): string {
     case "parameter":
       return symbolLatex(node.name);
     case "negate":
-      return rateExpressionPrecedence(node.operand) < 3 ? `-\left(${rateExpressionLatex(node.operand)}\right)` : `-${rateExpressionLatex(node.operand)}`;
+      return rateExpressionPrecedence(node.operand) < 3 ? `-\\left(${rateExpressionLatex(node.operand)}\\right)` : `-${rateExpressionLatex(node.operand)}`;
     case "call": {
       const argument = rateExpressionLatex(node.argument);
-      if (node.name === "sqrt") return `\sqrt{${argument}}`;
-      return `${node.name === "exp" ? "\exp" : "\ln"}\left(${argument}\right)`;
+      if (node.name === "sqrt") return `\\sqrt{${argument}}`;
+      return `${node.name === "exp" ? "\\exp" : "\\ln"}\\left(${argument}\\right)`;
     }
     case "binary": {
-      if (node.operator === "/") return `\frac{${rateExpressionLatex(node.left)}}{${rateExpressionLatex(node.right)}}`;
+      if (node.operator === "/") return `\\frac{${rateExpressionLatex(node.left)}}{${rateExpressionLatex(node.right)}}`;
       const side = (which: "left" | "right") => {
         const latex = rateExpressionLatex(node[which]);
         // A fraction as an exponent's base still needs its parentheses.
         const grouped = operandNeedsParentheses(node, which) || (node.operator === "^" && which === "left" && node.left.kind === "binary");
-        return grouped ? `\left(${latex}\right)` : latex;
+        return grouped ? `\\left(${latex}\\right)` : latex;
       };
       if (node.operator === "^") return `{${side("left")}}^{${rateExpressionLatex(node.right)}}`;
-      return `${side("left")}${node.operator === "*" ? "\, " : ` ${node.operator} `}${side("right")}`;
+      return `${side("left")}${node.operator === "*" ? "\\, " : ` ${node.operator} `}${side("right")}`;
     }
   }
 }
@@ -124,7 +124,7 @@ export function rateExpressionLatex(node: RateExpression): string {
 function factorLatex(factor: RateFactor): string {
   if (factor.kind === "expression") {
     const latex = rateExpressionLatex(factor.expression!.tree);
-    return groupedExpression(factor) ? `\left(${latex}\right)` : latex;
+    return groupedExpression(factor) ? `\\left(${latex}\\right)` : latex;
   }
   const base = factor.kind === "value" ? numberLatex(factor.symbol) : symbolLatex(factor.symbol);
   return factor.power === 1 ? base : `${base}^{${factor.power}}`;
