@@ -2,12 +2,14 @@
 // that asks for `application/x-ndjson` gets its place in the queue and progress lines while it
 // runs, then the result — and closing the request cancels the run.
 import type { AppLoadContext } from "react-router";
+import type { Settings } from "~/chem/parse";
 import type { DynamicsModel, WorkerJob } from "../../server/sim/job";
 import { httpError } from "./http";
 
 /** The mechanism text as a dynamics model; the worker parses it (a 400 names its first error). */
-export function modelFromSource(source: string): DynamicsModel {
-  return { kind: "text", source };
+/** `overrides` replace parameters and initial concentrations, as the CLI's `--set` does. */
+export function modelFromSource(source: string, overrides?: Settings): DynamicsModel {
+  return overrides ? { kind: "text", source, overrides } : { kind: "text", source };
 }
 
 /** A polynomial ODE text as a dynamics model; the worker parses it (a 400 names its first error). */

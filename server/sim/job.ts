@@ -18,7 +18,7 @@ import { importSbml, type SbmlImport } from "~/chem/exchange/sbml-import";
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
-import { parseMechanism } from "~/chem/parse";
+import { parseMechanism, parseMechanismWithSettings, type Settings } from "~/chem/parse";
 import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 
 /**
@@ -28,7 +28,7 @@ import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/che
 export type DynamicsModel =
   | { kind: "mechanism"; mechanism: Mechanism; network: Network }
   | { kind: "ode"; ode: PolynomialOde }
-  | { kind: "text"; source: string }
+  | { kind: "text"; source: string; overrides?: Settings }
   | { kind: "odeText"; text: string };
 
 type ParsedModel = Exclude<DynamicsModel, { kind: "text" | "odeText" }>;
@@ -149,7 +149,8 @@ function parsedModel(model: DynamicsModel): ParsedModel {
     return { kind: "ode", ode: parsed.ode };
   }
   if (model.kind !== "text") return model;
-  const parsed = parseMechanism(model.source);
+  const parsed = model.overrides ? parseMechanismWithSettings(model.source, model.overrides) : { ...parseMechanism(model.source), unknown: [] };
+  if (parsed.unknown.length > 0) throw new SimulationInputError(`The override ${parsed.unknown[0]} names no parameter or species of the mechanism`);
   const error = parsed.diagnostics.find((d) => d.severity === "error");
   if (error) throw new SimulationInputError(`Fix the mechanism first: line ${error.line}, column ${error.column}: ${error.message}`);
   return { kind: "mechanism", mechanism: parsed.mechanism, network: buildNetwork(parsed.mechanism) };
