@@ -352,7 +352,7 @@ function OverridesCard({ overrides, onChange }: { overrides: string[]; onChange:
       return;
     }
     setProblem(null);
-    onChange([...overrides, draft.replace(/\s+/g, "")]);
+    onChange([...overrides, draft.trim()]);
     setDraft("");
   }
   return (
