@@ -66,16 +66,18 @@ describe("SBML export of rate coefficients written as arithmetic", () => {
 });
 
 describe("SBML that validates: species a custom law names besides its reactants and products", () => {
-  const inhibited = `S -> P @ { Vmax * S / (Km + S) / (1 + I / Ki) }
-E -> 0 @ 0.1
-I + E -> E @ 0
-fixed [I] = 0.2
-Vmax = 1
-Km = 0.5
-Ki = 0.1
-[S]0 = 1
-[E]0 = 1
-`;
+  // An inhibitor I held constant, named by a law that neither consumes nor makes it.
+  const inhibited = [
+    "S -> P @ { Vmax * S / (Km + S) / (1 + I / Ki) }",
+    "E -> 0 @ 0.1",
+    "I + E -> E @ 0",
+    "fixed [I] = 0.2",
+    "Vmax = 1",
+    "Km = 0.5",
+    "Ki = 0.1",
+    "[S]0 = 1",
+    "[E]0 = 1",
+  ].join("\n");
 
   it("lists them as modifiers, so the export passes the kinetic-law rule", () => {
     const xml = exported(inhibited);
