@@ -6,7 +6,7 @@ import { signUp } from "../support/http";
 
 const world = useServerAndBrowser();
 
-it("runs a simulation with an override and sweeps a held species", async () => {
+it("runs a simulation with an override and sweeps a held species", { timeout: 120_000 }, async () => {
   const owner = await signUp(world.server.url, "Olga Override");
   const source = ["r1: A -> B @ 1e3 * exp(-3000 / T)", "r2: B + F -> C @ 2", "T = 500", "fixed [F] = 1", "[A]0 = 1"].join("\n") + "\n";
   const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Hot scheme", source })).json();
