@@ -34,7 +34,7 @@ function elementaryWeights(tree: Tree, a: number[][]): number[] {
 }
 
 /** The largest |Σ b_i Φ_i(t) − 1/γ(t)| over the trees of one order. */
-function worstResidual(trees: Tree[], a: number[][], b: number[]): number {
+function worstResidual(trees: Tree[], a: number[][], b: readonly number[]): number {
   return Math.max(...trees.map((tree) => Math.abs(elementaryWeights(tree, a).reduce((sum, phi, i) => sum + b[i] * phi, 0) - 1 / density(tree))));
 }
 

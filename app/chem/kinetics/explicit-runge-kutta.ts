@@ -7,7 +7,7 @@
 import type { OdeSystem } from "./ode-system";
 import type { ControllerSettings } from "./step-size-controller";
 import { errorNorm, type Stepper, type Tolerances } from "./stepper";
-import { setWeightedSum } from "./weighted-sums";
+import { scaledSum, type ScaledSum } from "./weighted-sums";
 
 /** An embedded explicit pair with s stages, numbered from 0; stage 0 is f(y). */
 export interface ExplicitPair {
@@ -49,6 +49,7 @@ export class ExplicitRungeKutta implements Stepper {
   private readonly start: Float64Array;
   private readonly error: Float64Array;
   private readonly dense: Float64Array[];
+  private readonly sums: { a: ScaledSum[]; b: ScaledSum; e: ScaledSum; dense: ScaledSum };
   private haveFirstStage = false;
   private lastH = 0;
   private stiffVotes = 0;
@@ -68,22 +69,23 @@ export class ExplicitRungeKutta implements Stepper {
     this.start = new Float64Array(n);
     this.error = new Float64Array(n);
     this.dense = Array.from({ length: 5 }, () => new Float64Array(n));
+    this.sums = { a: pair.a.map(scaledSum), b: scaledSum(pair.b), e: scaledSum(pair.e), dense: scaledSum(pair.dense) };
   }
 
   step(y: Float64Array, h: number): number {
-    const { system, stage, yNew, error, k, pair } = this;
+    const { system, stage, yNew, error, k, sums } = this;
     this.start.set(y);
     if (!this.haveFirstStage) {
       system.rhs(y, k[0]);
       this.haveFirstStage = true;
     }
     for (let i = 1; i < k.length - 1; i++) {
-      advance(stage, y, h, pair.a[i - 1], k);
+      sums.a[i - 1](stage, y, h, k);
       system.rhs(stage, k[i]);
     }
-    advance(yNew, y, h, pair.b, k);
+    sums.b(yNew, y, h, k);
     system.rhs(yNew, k[k.length - 1]);
-    setWeightedSum(error, pair.e, k, h);
+    sums.e(error, null, h, k);
     this.lastH = h;
     return errorNorm(error, y, yNew, this.tolerances);
   }
@@ -94,7 +96,7 @@ export class ExplicitRungeKutta implements Stepper {
     const h = this.lastH;
     const first = k[0];
     const last = k[k.length - 1];
-    setWeightedSum(r5, this.pair.dense, k, h);
+    this.sums.dense(r5, null, h, k);
     for (let i = 0; i < first.length; i++) {
       const difference = yNew[i] - start[i];
       const spline = h * first[i] - difference;
@@ -140,10 +142,4 @@ export class ExplicitRungeKutta implements Stepper {
       this.stiffVotes = 0;
     }
   }
-}
-
-/** out = y + h·Σ weights_j k_j. */
-function advance(out: Float64Array, y: Float64Array, h: number, weights: readonly number[], k: readonly Float64Array[]): void {
-  if (setWeightedSum(out, weights, k, h)) for (let i = 0; i < out.length; i++) out[i] += y[i];
-  else out.set(y);
 }

@@ -9,7 +9,7 @@ import type { OdeSystem } from "./ode-system";
 import { SparseShiftedLu } from "./sparse-lu";
 import type { ControllerSettings } from "./step-size-controller";
 import { errorNorm, type Stepper, type Tolerances } from "./stepper";
-import { addWeightedSum, setWeightedSum } from "./weighted-sums";
+import { accumulatedSum, scaledSum, type AccumulatedSum, type ScaledSum } from "./weighted-sums";
 
 /** A Rosenbrock method with s stages, numbered from 0, in the transformed form. */
 export interface RosenbrockMethod {
@@ -58,6 +58,7 @@ export class Rosenbrock implements Stepper {
   private readonly error: Float64Array;
   private readonly u: Float64Array[];
   private readonly dense: Float64Array[];
+  private readonly sums: { a: AccumulatedSum[]; c: ScaledSum[]; m: AccumulatedSum; e: ScaledSum; dense: ScaledSum[] };
   private jacobianCurrent = false;
 
   constructor(
@@ -79,10 +80,12 @@ export class Rosenbrock implements Stepper {
     this.error = new Float64Array(n);
     this.u = Array.from({ length: method.m.length }, () => new Float64Array(n));
     this.dense = Array.from({ length: 4 }, () => new Float64Array(n));
+    const { a, c, m, e, dense } = method;
+    this.sums = { a: a.map(accumulatedSum), c: c.map(scaledSum), m: accumulatedSum(m), e: scaledSum(e), dense: dense.map(scaledSum) };
   }
 
   step(y: Float64Array, h: number): number {
-    const { system, stage, f, yNew, error, u, method } = this;
+    const { system, stage, f, yNew, error, u, method, sums } = this;
     this.start.set(y);
     if (!this.jacobianCurrent) {
       // A rejected step retries from the same point: J and f(y) stay valid until the state moves.
@@ -98,17 +101,13 @@ export class Rosenbrock implements Stepper {
     u[0].set(this.f0);
     lu.solve(u[0]);
     for (let s = 1; s < u.length; s++) {
-      stage.set(y);
-      addWeightedSum(stage, method.a[s - 1], u);
+      sums.a[s - 1](stage, y, u);
       system.rhs(stage, f);
-      const us = u[s];
-      if (setWeightedSum(us, method.c[s - 1], u, inverseH)) for (let i = 0; i < us.length; i++) us[i] += f[i];
-      else us.set(f);
-      lu.solve(us);
+      sums.c[s - 1](u[s], f, inverseH, u);
+      lu.solve(u[s]);
     }
-    yNew.set(y);
-    addWeightedSum(yNew, method.m, u);
-    if (!setWeightedSum(error, method.e, u)) error.fill(0);
+    sums.m(yNew, y, u);
+    sums.e(error, null, 1, u);
     return errorNorm(error, y, yNew, this.tolerances);
   }
 
@@ -123,8 +122,8 @@ export class Rosenbrock implements Stepper {
     const [y0, y1, r0, r1] = this.dense;
     y0.set(this.start);
     y1.set(this.yNew);
-    setWeightedSum(r0, this.method.dense[0], this.u);
-    setWeightedSum(r1, this.method.dense[1], this.u);
+    this.sums.dense[0](r0, null, 1, this.u);
+    this.sums.dense[1](r1, null, 1, this.u);
     this.jacobianCurrent = false;
   }
 
