@@ -69,7 +69,7 @@ export class ExplicitRungeKutta implements Stepper {
     this.start = new Float64Array(n);
     this.error = new Float64Array(n);
     this.dense = Array.from({ length: 5 }, () => new Float64Array(n));
-    this.sums = { a: pair.a.map(scaledSum), b: scaledSum(pair.b), e: scaledSum(pair.e), dense: scaledSum(pair.dense) };
+    this.sums = { a: pair.a.map((row) => scaledSum(row)), b: scaledSum(pair.b), e: scaledSum(pair.e), dense: scaledSum(pair.dense) };
   }
 
   step(y: Float64Array, h: number): number {

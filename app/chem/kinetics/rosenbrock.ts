@@ -81,7 +81,7 @@ export class Rosenbrock implements Stepper {
     this.u = Array.from({ length: method.m.length }, () => new Float64Array(n));
     this.dense = Array.from({ length: 4 }, () => new Float64Array(n));
     const { a, c, m, e, dense } = method;
-    this.sums = { a: a.map(accumulatedSum), c: c.map(scaledSum), m: accumulatedSum(m), e: scaledSum(e), dense: dense.map(scaledSum) };
+    this.sums = { a: a.map((row) => accumulatedSum(row)), c: c.map((row) => scaledSum(row)), m: accumulatedSum(m), e: scaledSum(e), dense: dense.map((row) => scaledSum(row)) };
   }
 
   step(y: Float64Array, h: number): number {
