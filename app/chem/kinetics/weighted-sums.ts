@@ -1,7 +1,7 @@
 // The one kernel of every tableau-driven stage loop: a weighted sum of stage vectors, one per row
 // of a tableau. Each row is compiled once into straight-line code (its non-zero weights as
 // literals, one pass over the components) — a loop over the weights inside the loop over the
-// components runs 2–5× slower, and these sums are a large share of an explicit step. Hosts that
+// components ran up to 5× slower, and these sums are a large share of an explicit step. Hosts that
 // forbid code generation get the same sums as table-driven loops. Either way a sum adds left to
 // right exactly as the unrolled formula base + s·(w_1·v_1 + w_2·v_2 + …) would, and a lone term
 // as base + (s·w)·v.
