@@ -3,6 +3,7 @@
 // server stamps the name and role it authenticated into `user`, so presence cannot impersonate.
 import * as decoding from "lib0/decoding";
 import * as encoding from "lib0/encoding";
+import { stampPresence } from "../../app/shared/room-document";
 import type { Role } from "../../app/shared/roles";
 
 /** A caret, a selection and the user's details take a few hundred characters. */
@@ -97,11 +98,7 @@ export function vetAwarenessUpdate(update: Uint8Array, speaker: PresenceSpeaker)
   } catch {
     return null;
   }
-  const allowed = entries.map((entry) => {
-    if (entry.state === null) return entry;
-    const user = typeof entry.state.user === "object" && entry.state.user !== null ? entry.state.user : {};
-    return { ...entry, state: { ...entry.state, user: { ...user, name: speaker.name, role: speaker.role } } };
-  });
+  const allowed = entries.map((entry) => (entry.state === null ? entry : { ...entry, state: stampPresence(entry.state, speaker) }));
   if (allowed.length === 0) return null;
   return { update: encodeEntries(allowed), clientIds: allowed.map((e) => e.clientId) };
 }

@@ -6,6 +6,7 @@
 import { createHash } from "node:crypto";
 import * as Y from "yjs";
 import { roomAnalysisReader } from "../../app/shared/analysis-map";
+import { analysisMap, sourceText } from "../../app/shared/room-document";
 import { summarizeStructure, type StructureSummary } from "../../app/shared/version-diff";
 import type { AnalysisPool } from "./analysis-pool";
 import { Pacer } from "./pacer";
@@ -45,8 +46,8 @@ export class StructureRecompute {
       () => Math.max(options.intervalMs, 2 * this.lastDurationMs),
       () => void this.enqueue(false),
     );
-    this.text = doc.getText("source");
-    this.analysis = doc.getMap("analysis");
+    this.text = sourceText(doc);
+    this.analysis = analysisMap(doc);
     for (const [key, value] of this.analysis.entries()) {
       if (value instanceof Uint8Array) this.writtenReport = value;
       else this.written.set(key, JSON.stringify(value));

@@ -17,6 +17,7 @@ import { AutoSnapshotPolicy, insertSnapshot, latestSummary, type SnapshotKind } 
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
 import { UpdateCheck } from "./update-check";
+import { layoutMap, sourceText } from "../../app/shared/room-document";
 import type { RefusalReason } from "../../app/shared/room-refusal";
 
 export interface RoomTimings {
@@ -100,7 +101,7 @@ export class Room {
     if (!stored.state && stored.updates.length === 0) {
       // The first document is stored before anyone joins: initialising it again on a later load
       // would duplicate the text for clients holding the first one.
-      doc.getText("source").insert(0, mechanism.source);
+      sourceText(doc).insert(0, mechanism.source);
       await appendUpdates(db, mechanismId, [Y.encodeStateAsUpdate(doc)]);
     }
     return new Room(db, pool, mechanismId, doc, mechanism.source, await latestSummary(db, mechanismId), timings);
@@ -115,7 +116,7 @@ export class Room {
     lastSnapshot: Awaited<ReturnType<typeof latestSummary>>,
     private readonly timings: RoomTimings,
   ) {
-    this.text = doc.getText("source");
+    this.text = sourceText(doc);
     this.check = new UpdateCheck(doc);
     this.documentBytes = Y.encodeStateAsUpdate(doc).byteLength;
     this.awareness = new awarenessProtocol.Awareness(doc);
@@ -195,7 +196,7 @@ export class Room {
     try {
       Y.applyUpdate(trial, Y.encodeStateAsUpdate(this.doc));
       Y.applyUpdate(trial, update);
-      return Buffer.byteLength(trial.getText("source").toString()) > MAX_SOURCE_BYTES;
+      return Buffer.byteLength(sourceText(trial).toString()) > MAX_SOURCE_BYTES;
     } finally {
       trial.destroy();
     }
@@ -353,7 +354,7 @@ export class Room {
   }
 
   private pruneLayout(complexes: string[]) {
-    const layout = this.doc.getMap("layout");
+    const layout = layoutMap(this.doc);
     const stale = stalePositions(layout, complexes);
     if (stale.length > 0) this.doc.transact(() => stale.forEach((key) => layout.delete(key)), analysisOrigin);
   }

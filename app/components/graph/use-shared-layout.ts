@@ -2,7 +2,7 @@
 // co-author reads and writes the same map, so all of them see one picture of the graph.
 import { useCallback, useEffect, useState } from "react";
 import type * as Y from "yjs";
-import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS } from "~/shared/room-refusal";
+import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS } from "~/shared/room-document";
 import type { XY } from "./layout";
 
 export interface SharedLayout {
