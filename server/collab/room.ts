@@ -5,11 +5,11 @@ import * as Y from "yjs";
 import { MAX_SOURCE_BYTES } from "../../app/chem/limits";
 import type { Db } from "../db/client";
 import { findMechanism } from "../db/mechanisms";
-import { closeCodes, type Connection } from "./connection";
+import { closeCodes, type Connection, type RoomPort } from "./connection";
 import { appendUpdates, compactDocument, loadDocument, UpdateLog, type LoggedUpdate } from "./persistence";
-import { MAX_CLIENTS_PER_CONNECTION, vetAwarenessUpdate } from "./presence";
+import { PresenceOwners, vetAwarenessUpdate } from "./presence";
 import { Pacer } from "./pacer";
-import { awarenessMessage, syncStep1Message, updateMessage } from "./protocol";
+import { awarenessMessage, syncStep1Message, syncStep2Message, updateMessage } from "./protocol";
 import type { AnalysisPool } from "./analysis-pool";
 import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recompute";
 import { stalePositions } from "./layout-pruning";
@@ -60,12 +60,12 @@ const withoutNul = (text: string) => text.replaceAll("\0", "");
 
 type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin;
 
-export class Room {
+export class Room implements RoomPort {
   readonly connections = new Set<Connection>();
   readonly awareness: awarenessProtocol.Awareness;
   /** API calls in progress; a leased room is not unloaded. */
   leases = 0;
-  private readonly awarenessOwners = new Map<number, Connection>();
+  private readonly presenceOwners = new PresenceOwners<Connection>();
   /** Committed updates not yet relayed, and awareness clients changed since the last relay. */
   private readonly outgoing: LoggedUpdate<UpdateOrigin>[] = [];
   private readonly awarenessChanged = new Set<number>();
@@ -159,10 +159,12 @@ export class Room {
 
   leave(connection: Connection) {
     this.connections.delete(connection);
-    for (const clientId of connection.awarenessClients) {
-      if (this.awarenessOwners.get(clientId) === connection) this.awarenessOwners.delete(clientId);
-    }
-    awarenessProtocol.removeAwarenessStates(this.awareness, [...connection.awarenessClients], null);
+    awarenessProtocol.removeAwarenessStates(this.awareness, this.presenceOwners.release(connection), null);
+  }
+
+  /** The answer to a member's sync step 1: whatever its state vector lacks. */
+  syncReply(stateVector: Uint8Array): Uint8Array {
+    return syncStep2Message(this.doc, stateVector);
   }
 
   /** Applies an editor's update, or says why not: unreadable (the caller drops the connection) or refused. */
@@ -203,25 +205,17 @@ export class Room {
   }
 
   applyClientAwareness(connection: Connection, update: Uint8Array) {
-    let claimed = connection.awarenessClients.size;
     const vetted = vetAwarenessUpdate(update, {
       name: connection.identity.name,
       role: connection.role,
-      mayControl: (clientId) => {
-        if ((this.awarenessOwners.get(clientId) ?? connection) !== connection) return false;
-        if (connection.awarenessClients.has(clientId)) return true;
-        return ++claimed <= MAX_CLIENTS_PER_CONNECTION;
-      },
+      mayControl: this.presenceOwners.mayControl(connection),
     });
     if (!vetted) return;
     if (!connection.presenceBudget.take(vetted.update.byteLength)) {
       connection.presenceDropped();
       return;
     }
-    for (const clientId of vetted.clientIds) {
-      this.awarenessOwners.set(clientId, connection);
-      connection.awarenessClients.add(clientId);
-    }
+    this.presenceOwners.claim(connection, vetted.clientIds);
     awarenessProtocol.applyAwarenessUpdate(this.awareness, vetted.update, connection);
   }
 
