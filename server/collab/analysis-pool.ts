@@ -3,7 +3,7 @@
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import { typescriptWorkerSource } from "../typescript-worker";
-import type { AnalysisEntries, AnalysisResponse } from "./analysis-entries";
+import type { AnalysisEntries, AnalysisResponse, Analyzer } from "./analysis-entries";
 
 const bootstrap = typescriptWorkerSource(new URL("./analysis-worker.ts", import.meta.url));
 
@@ -109,7 +109,7 @@ class AnalysisThread {
   }
 }
 
-export class AnalysisPool {
+export class AnalysisPool implements Analyzer {
   private readonly threads: AnalysisThread[];
   /** Request ids start at 1; 0 is the warm-up, whose answer nobody waits for. */
   private nextId = 0;

@@ -2,11 +2,10 @@
 // connection's current role: viewers may sync *from* the server and share presence, never edit.
 import type { WebSocket } from "ws";
 import { atLeast, type Role } from "../../app/shared/roles";
-import { encodeRefusal } from "../../app/shared/room-refusal";
+import { encodeRefusal, type RefusalReason } from "../../app/shared/room-refusal";
 import { readClientMessage } from "./protocol";
 import type { Credential } from "./credentials";
 import { PresenceBudget } from "./presence";
-import type { RefusalReason } from "../../app/shared/room-refusal";
 
 export interface CollabIdentity {
   /** null for a signed-out visitor holding a view link. */

@@ -8,7 +8,9 @@ import type { Db } from "../db/client";
 import { isDatabaseUnavailable } from "../db/unavailable";
 import { isOwnOrigin } from "../origin";
 import type { CollabIdentity } from "./connection";
-import { CollabHub, type HubTimings } from "./hub";
+import { AnalysisPool } from "./analysis-pool";
+import { CollabHub, defaultTimings, type HubTimings } from "./hub";
+import { postgresCollabStore } from "./postgres-store";
 
 export type Identify = (request: IncomingMessage, mechanismId: string) => Promise<CollabIdentity | null>;
 
@@ -54,7 +56,8 @@ function sameOrigin(request: IncomingMessage): boolean {
 }
 
 export function attachCollaboration(server: Server, options: CollaborationOptions): CollabHub {
-  const hub = new CollabHub(options.db, options.timings);
+  const analysisTimeoutMs = options.timings?.analysisTimeoutMs ?? defaultTimings.analysisTimeoutMs;
+  const hub = new CollabHub(postgresCollabStore(options.db), new AnalysisPool(analysisTimeoutMs), options.timings);
   const sockets = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES, perMessageDeflate: false });
 
   async function upgrade(request: IncomingMessage, socket: Duplex, head: Buffer, rawId: string) {

@@ -8,7 +8,7 @@ import * as Y from "yjs";
 import { roomAnalysisReader } from "../../app/shared/analysis-map";
 import { analysisMap, sourceText } from "../../app/shared/room-document";
 import { summarizeStructure, type StructureSummary } from "../../app/shared/version-diff";
-import type { AnalysisPool } from "./analysis-pool";
+import type { Analyzer } from "./analysis-entries";
 import { Pacer } from "./pacer";
 
 /** The transaction origin of the server's own writes into the document. */
@@ -39,7 +39,7 @@ export class StructureRecompute {
 
   constructor(
     private readonly doc: Y.Doc,
-    private readonly pool: AnalysisPool,
+    private readonly analyzer: Analyzer,
     private readonly options: { intervalMs: number; analyzed(result: AnalysisResult): void },
   ) {
     this.pacer = new Pacer(
@@ -107,7 +107,7 @@ export class StructureRecompute {
     let outcome;
     const started = performance.now();
     try {
-      outcome = await this.pool.analyze(source);
+      outcome = await this.analyzer.analyze(source);
     } catch (error) {
       console.error(`[collab] analysis failed: ${(error as Error).message}`);
       if (!this.disposed) this.showFailure(error as Error);

@@ -3,17 +3,16 @@
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { MAX_SOURCE_BYTES } from "../../app/chem/limits";
-import type { Db } from "../db/client";
-import { findMechanism } from "../db/mechanisms";
 import { closeCodes, type Connection, type RoomPort } from "./connection";
-import { appendUpdates, compactDocument, loadDocument, UpdateLog, type LoggedUpdate } from "./persistence";
+import type { RoomStore } from "./store";
+import { UpdateLog, type LoggedUpdate } from "./update-log";
 import { PresenceOwners, vetAwarenessUpdate } from "./presence";
 import { Pacer } from "./pacer";
 import { awarenessMessage, syncStep1Message, syncStep2Message, updateMessage } from "./protocol";
-import type { AnalysisPool } from "./analysis-pool";
+import type { Analyzer } from "./analysis-entries";
 import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recompute";
 import { stalePositions } from "./layout-pruning";
-import { AutoSnapshotPolicy, insertSnapshot, latestSummary, type SnapshotKind } from "./snapshots";
+import { AutoSnapshotPolicy, type SnapshotKind } from "./snapshots";
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
 import { UpdateCheck } from "./update-check";
@@ -91,29 +90,29 @@ export class Room implements RoomPort {
   private compacting: Promise<void> | null = null;
   private closed = false;
 
-  static async load(db: Db, pool: AnalysisPool, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
-    const mechanism = await findMechanism(db, mechanismId);
-    if (!mechanism) return null;
-    const stored = await loadDocument(db, mechanismId);
+  static async load(store: RoomStore, analyzer: Analyzer, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
+    const savedSource = await store.savedSource(mechanismId);
+    if (savedSource === null) return null;
+    const stored = await store.loadDocument(mechanismId);
     const doc = new Y.Doc();
     if (stored.state) Y.applyUpdate(doc, stored.state, loadOrigin);
     for (const update of stored.updates) Y.applyUpdate(doc, update, loadOrigin);
     if (!stored.state && stored.updates.length === 0) {
       // The first document is stored before anyone joins: initialising it again on a later load
       // would duplicate the text for clients holding the first one.
-      sourceText(doc).insert(0, mechanism.source);
-      await appendUpdates(db, mechanismId, [Y.encodeStateAsUpdate(doc)]);
+      sourceText(doc).insert(0, savedSource);
+      await store.appendUpdates(mechanismId, [Y.encodeStateAsUpdate(doc)]);
     }
-    return new Room(db, pool, mechanismId, doc, mechanism.source, await latestSummary(db, mechanismId), timings);
+    return new Room(store, analyzer, mechanismId, doc, savedSource, await store.latestSummary(mechanismId), timings);
   }
 
   private constructor(
-    private readonly db: Db,
-    pool: AnalysisPool,
+    private readonly store: RoomStore,
+    analyzer: Analyzer,
     readonly mechanismId: string,
     readonly doc: Y.Doc,
     savedSource: string,
-    lastSnapshot: Awaited<ReturnType<typeof latestSummary>>,
+    lastSnapshot: Awaited<ReturnType<RoomStore["latestSummary"]>>,
     private readonly timings: RoomTimings,
   ) {
     this.text = sourceText(doc);
@@ -122,10 +121,10 @@ export class Room implements RoomPort {
     this.awareness = new awarenessProtocol.Awareness(doc);
     this.awareness.setLocalState(null);
     this.awareness.on("update", this.collectAwareness);
-    this.log = new UpdateLog(db, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
-    this.mirror = new SourceMirror(db, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
+    this.log = new UpdateLog(store, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
+    this.mirror = new SourceMirror(store, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
     this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
-    this.recompute = new StructureRecompute(doc, pool, { intervalMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
+    this.recompute = new StructureRecompute(doc, analyzer, { intervalMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
     doc.on("update", (update: Uint8Array, origin: UpdateOrigin) => {
       if (origin === loadOrigin) return;
       this.documentBytes += update.byteLength;
@@ -238,7 +237,7 @@ export class Room implements RoomPort {
     const latest = this.recompute.latest;
     if (!latest) throw new Error(`no analysis of ${this.mechanismId} to store with the snapshot`);
     const { summary } = latest;
-    const row = await insertSnapshot(this.db, {
+    const row = await this.store.insertSnapshot({
       mechanismId: this.mechanismId,
       kind,
       name,
@@ -310,7 +309,7 @@ export class Room implements RoomPort {
 
   /** Merges the log into the stored state; a failure leaves the log as it was (nothing lost). */
   private compact(): Promise<void> {
-    this.compacting ??= compactDocument(this.db, this.mechanismId, () => {
+    this.compacting ??= this.store.compactDocument(this.mechanismId, () => {
       const state = Y.encodeStateAsUpdate(this.doc);
       this.documentBytes = state.byteLength;
       return state;
