@@ -1,6 +1,5 @@
 // The worker threads that analyse texts for every room of the process. A long analysis (a
 // network of thousands of reactions) then never delays keystrokes relayed by the event loop.
-import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import { typescriptWorkerSource } from "../typescript-worker";
 import type { AnalysisEntries, AnalysisResponse, Analyzer } from "./analysis-entries";
@@ -114,8 +113,8 @@ export class AnalysisPool implements Analyzer {
   /** Request ids start at 1; 0 is the warm-up, whose answer nobody waits for. */
   private nextId = 0;
 
-  /** One thread fewer than the cores (at least one): the event loop keeps a core. */
-  constructor(timeoutMs: number, size = Math.max(1, Math.min(4, availableParallelism() - 1))) {
+  /** `size` threads, from the process's worker budget (see worker-budget.ts). */
+  constructor(timeoutMs: number, size: number) {
     this.threads = Array.from({ length: size }, () => new AnalysisThread(timeoutMs));
     for (const thread of this.threads) thread.warm();
   }
