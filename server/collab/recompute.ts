@@ -5,7 +5,7 @@
 // reload shows the last analysis; a restore puts back only the text, so they never get in its way.
 import { createHash } from "node:crypto";
 import * as Y from "yjs";
-import { roomAnalysisReader } from "../../app/shared/analysis-map";
+import { analysisFields, roomAnalysisReader } from "../../app/shared/analysis-map";
 import { analysisMap, sourceText } from "../../app/shared/room-document";
 import { summarizeStructure, type StructureSummary } from "../../app/shared/version-diff";
 import type { Analyzer } from "./analysis-entries";
@@ -54,7 +54,7 @@ export class StructureRecompute {
     }
     const stored = roomAnalysisReader()(this.analysis).report;
     if (stored && !this.stale) {
-      const revision = Number(this.analysis.get("revision")) || 0;
+      const revision = Number(this.analysis.get(analysisFields.revision)) || 0;
       this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), complexes: stored.complexes, revision };
     }
     this.analysis.observe((event) => {
@@ -64,7 +64,7 @@ export class StructureRecompute {
 
   /** True when the stored analysis belongs to a different text, or there is none in today's form. */
   get stale(): boolean {
-    return this.analysis.get("digest") !== sourceDigest(this.text.toString()) || !(this.analysis.get("report") instanceof Uint8Array);
+    return this.analysis.get(analysisFields.digest) !== sourceDigest(this.text.toString()) || !(this.analysis.get(analysisFields.report) instanceof Uint8Array);
   }
 
   /**
@@ -90,7 +90,7 @@ export class StructureRecompute {
   /** Rewrites keys a client changed, with the server's values. */
   private repair(keys: string[]) {
     for (const key of keys) this.written.delete(key);
-    if (keys.includes("report")) this.writtenReport = null;
+    if (keys.includes(analysisFields.report)) this.writtenReport = null;
     void this.enqueue(true);
   }
 
@@ -103,7 +103,7 @@ export class StructureRecompute {
     if (this.disposed) return;
     const source = this.text.toString();
     const digest = sourceDigest(source);
-    if (!force && this.latest && this.analysis.get("digest") === digest) return;
+    if (!force && this.latest && this.analysis.get(analysisFields.digest) === digest) return;
     let outcome;
     const started = performance.now();
     try {
@@ -117,18 +117,18 @@ export class StructureRecompute {
     }
     if (this.disposed) return;
     // Revisions keep growing across reloads: the last one is in the stored document.
-    const revision = Math.max(Number(this.analysis.get("revision")) || 0, this.latest?.revision ?? 0) + 1;
-    const entries = { ...outcome.entries, digest: JSON.stringify(digest), revision: JSON.stringify(revision) };
+    const revision = Math.max(Number(this.analysis.get(analysisFields.revision)) || 0, this.latest?.revision ?? 0) + 1;
+    const entries = { ...outcome.entries, [analysisFields.digest]: JSON.stringify(digest), [analysisFields.revision]: JSON.stringify(revision) };
     this.doc.transact(() => {
-      if (this.analysis.has("failure")) this.analysis.delete("failure");
-      this.written.delete("failure");
+      if (this.analysis.has(analysisFields.failure)) this.analysis.delete(analysisFields.failure);
+      this.written.delete(analysisFields.failure);
       for (const [key, serialised] of Object.entries(entries)) {
         if (this.written.get(key) === serialised) continue;
         this.analysis.set(key, JSON.parse(serialised));
         this.written.set(key, serialised);
       }
       if (!this.writtenReport || !Buffer.from(outcome.report).equals(this.writtenReport)) {
-        this.analysis.set("report", outcome.report);
+        this.analysis.set(analysisFields.report, outcome.report);
         this.writtenReport = outcome.report;
       }
     }, analysisOrigin);
@@ -143,8 +143,8 @@ export class StructureRecompute {
   private showFailure(error: Error) {
     const message = error.name === "AnalysisTimeout" ? error.message : `The analysis of this text failed: ${error.message.split("\n")[0]}`;
     const serialised = JSON.stringify(message);
-    if (this.written.get("failure") === serialised) return;
-    this.doc.transact(() => this.analysis.set("failure", message), analysisOrigin);
-    this.written.set("failure", serialised);
+    if (this.written.get(analysisFields.failure) === serialised) return;
+    this.doc.transact(() => this.analysis.set(analysisFields.failure, message), analysisOrigin);
+    this.written.set(analysisFields.failure, serialised);
   }
 }

@@ -8,6 +8,7 @@ import type { WebSocket } from "ws";
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as syncProtocol from "y-protocols/sync";
 import * as Y from "yjs";
+import { sourceText } from "../../app/shared/room-document";
 import { MESSAGE_REFUSED, readRefusal, type RefusalReason } from "../../app/shared/room-refusal";
 import type { CollabIdentity } from "./connection";
 import type { CollabHub } from "./hub";
@@ -65,7 +66,7 @@ export class TestMember {
   }
 
   get text(): string {
-    return this.doc.getText("source").toString();
+    return sourceText(this.doc).toString();
   }
 
   /** Asks the server for its whole document (sync step 1). */
