@@ -63,7 +63,8 @@ export const presenceFields = {
 export const presenceUser = z.looseObject({
   name: z.string().min(1),
   colour: z.string().min(1).optional(),
-  role: z.enum(roles).optional(),
+  /** Stamped by the server; an unknown one reads as absent rather than hiding the person. */
+  role: z.enum(roles).optional().catch(undefined),
 });
 export type PresenceUser = z.infer<typeof presenceUser>;
 
@@ -75,9 +76,9 @@ export type Presence = z.infer<typeof presence>;
 
 /** One client's presence, each field read on its own: a malformed field is absent, the others stay. */
 export function readPresence(state: Record<string, unknown>): Presence {
-  const user = presenceUser.safeParse(state[presenceFields.user]);
-  const graphDrag = z.string().safeParse(state[presenceFields.graphDrag]);
-  return { user: user.success ? user.data : undefined, graphDrag: graphDrag.success ? graphDrag.data : null };
+  const user = presence.shape.user.safeParse(state[presenceFields.user]);
+  const graphDrag = presence.shape.graphDrag.safeParse(state[presenceFields.graphDrag]);
+  return { user: user.data, graphDrag: graphDrag.data ?? null };
 }
 
 /** The state with the speaker's authenticated name and role in its `user` field: presence cannot impersonate. */

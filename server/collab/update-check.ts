@@ -9,7 +9,7 @@ import { layoutMap, MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS, rootKeys, roomKeys, w
 import type { RefusalReason } from "../../app/shared/room-refusal";
 
 /** Where an item lands: a root type and map key, or somewhere no update may write. */
-type Place = { root: string | RoomKey; key: string | null } | "nested" | "missing" | "discarded";
+type Place = { root: string; key: string | null } | "nested" | "missing" | "discarded";
 
 interface Entry {
   struct: Y.Item | Y.GC;
