@@ -8,7 +8,7 @@ import type { CollabHub } from "./collab/hub";
 import type { Db } from "./db/client";
 import type { MailCatcher } from "./mail/catcher";
 import type { Mailer } from "./mail/mailer";
-import type { runInWorker } from "./sim/run-in-worker";
+import type { RunJob } from "./sim/run-in-worker";
 
 export interface AppServices {
   db: Db;
@@ -20,7 +20,7 @@ export interface AppServices {
   /** PUBLIC_URL's origin, when set: where mailed and shared links point (see publicOrigin). */
   publicOrigin: string | null;
   /** Dynamics jobs in worker threads (loaded by the server, not bundled with the routes). */
-  dynamics: { run: typeof runInWorker };
+  dynamics: { run: RunJob };
   /** The local mail catcher, when SMTP_URL is not set. */
   mailCatcher: MailCatcher | null;
   /** The live collaboration rooms: role changes, API writes to the text, versions. */

@@ -14,8 +14,9 @@ import { startMailCatcher } from "./mail/catcher";
 import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
 import { sessionSecret } from "./secret";
-import { jobRunner, prewarmWorkers } from "./sim/run-in-worker";
+import { WorkerJobs } from "./sim/run-in-worker";
 import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
+import { WorkerBudget } from "./worker-budget";
 
 const projectRoot = path.resolve(import.meta.dirname, "..");
 const env = readEnv();
@@ -40,6 +41,9 @@ const server = http.createServer();
 const publicOrigin = env.PUBLIC_URL ? new URL(env.PUBLIC_URL).origin : null;
 // Browsers send a Secure cookie only over https: set it whenever the public address is https.
 const sessions = createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), publicOrigin?.startsWith("https:") ?? false);
+// One budget of cores for every worker thread: the rooms' analyses and the API's jobs.
+const workers = new WorkerBudget();
+const jobs = new WorkerJobs(workers, { analysisTimeMs: env.ANALYSIS_TIME_LIMIT_MS });
 const services = {
   db: database.db,
   sessions,
@@ -48,10 +52,11 @@ const services = {
   mailer,
   publicOrigin,
   mailCatcher,
-  dynamics: { run: jobRunner({ analysisTimeMs: env.ANALYSIS_TIME_LIMIT_MS }) },
+  dynamics: { run: jobs.run },
   collab: attachCollaboration(server, {
     db: database.db,
     identify: identifyCaller(database.db, sessions),
+    workers,
     timings: { analysisTimeoutMs: env.ANALYSIS_TIME_LIMIT_MS },
     leave: dev ? (request) => /^vite-(hmr|ping)$/.test(request.headers["sec-websocket-protocol"] ?? "") : undefined,
   }),
@@ -68,7 +73,7 @@ server.listen(env.PORT, env.HOST, () => {
   const port = typeof address === "object" && address ? address.port : env.PORT;
   console.log(`Mechweave listening on http://${env.HOST}:${port}`);
   // Warm workers make the first simulation as quick as the rest; tests start many servers and skip it.
-  if (env.NODE_ENV === "production") prewarmWorkers();
+  if (env.NODE_ENV === "production") jobs.prewarm();
   if (embedded) {
     console.log(`Demo accounts (password ${DEMO_PASSWORD}): ${demoAccounts.map((a) => a.email).join(", ")}`);
   }

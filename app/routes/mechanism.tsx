@@ -5,6 +5,7 @@ import type { XY } from "~/components/graph/layout";
 import { Form, Link, redirect, useNavigation } from "react-router";
 import { deleteMechanism, renameMechanism } from "~/utils/mechanisms.server";
 import { atLeast } from "~/shared/roles";
+import { layoutMap, sourceText } from "~/shared/room-document";
 import { CollabEditor, type CollabEditorHandle } from "~/components/editor/collab-editor";
 import { ComplexGraph } from "~/components/graph/complex-graph";
 import { Presence } from "~/components/presence";
@@ -59,8 +60,8 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   const room = useRoom(mechanism.id, { user, readOnly: !canEdit, role });
   const editor = useRef<CollabEditorHandle>(null);
   const [tab, setTab] = useState<Tab>("Graph");
-  const source = useMemo(() => room.doc?.getText("source") ?? null, [room.doc]);
-  const layout = useMemo(() => room.doc?.getMap("layout") ?? null, [room.doc]);
+  const source = useMemo(() => (room.doc ? sourceText(room.doc) : null), [room.doc]);
+  const layout = useMemo(() => (room.doc ? layoutMap(room.doc) : null), [room.doc]);
   const report = room.analysis.report ?? null;
   // A view-link guest sees the live mechanism and nothing else: no files, no settings.
   const tabs = signedIn ? allTabs : allTabs.filter((name) => name !== "Files & settings");
