@@ -15,13 +15,14 @@ export type SessionStore = SessionStorage<SessionData>;
 
 const MAX_AGE_SECONDS = 60 * 60 * 24 * 30;
 
-export function createSessionStore(db: Db, secret: string, secure: boolean): SessionStore {
+/** `secrets[0]` signs new cookies; every one of them verifies (rotation keeps old sessions alive). */
+export function createSessionStore(db: Db, secrets: string[], secure: boolean): SessionStore {
   const cookie = createCookie("mw_session", {
     httpOnly: true,
     sameSite: "lax",
     path: "/",
     secure,
-    secrets: [secret],
+    secrets,
     maxAge: MAX_AGE_SECONDS,
   });
   const expiry = (expires?: Date) => expires ?? new Date(Date.now() + MAX_AGE_SECONDS * 1000);

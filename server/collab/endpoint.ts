@@ -27,6 +27,10 @@ export interface CollaborationOptions {
   /** Who is asking for this mechanism, with which role; null refuses with 404. */
   identify: Identify;
   timings?: Partial<HubTimings>;
+  /** Worker threads analysing the rooms' texts. */
+  analysisThreads?: number;
+  /** PUBLIC_URL's origin: browsers on it may connect besides those on the request's own host. */
+  publicOrigin: string | null;
   /** Upgrades another listener answers (Vite's hot reload in development); every other path is refused. */
   leave?: (request: IncomingMessage) => boolean;
 }
@@ -47,14 +51,15 @@ function refuse(socket: Duplex, status: number, message: string) {
   );
 }
 
-/** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
-function sameOrigin(request: IncomingMessage): boolean {
-  const origin = request.headers.origin;
-  return !origin || isOwnOrigin(origin, request.headers.host);
-}
-
 export function attachCollaboration(server: Server, options: CollaborationOptions): CollabHub {
-  const hub = new CollabHub(options.db, options.timings);
+  const hub = new CollabHub(options.db, options.timings, options.analysisThreads);
+
+  /** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
+  function sameOrigin(request: IncomingMessage): boolean {
+    const origin = request.headers.origin;
+    return !origin || isOwnOrigin(origin, request.headers.host, options.publicOrigin);
+  }
+
   const sockets = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES, perMessageDeflate: false });
 
   async function upgrade(request: IncomingMessage, socket: Duplex, head: Buffer, rawId: string) {

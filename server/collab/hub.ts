@@ -49,9 +49,11 @@ export class CollabHub {
   constructor(
     private readonly db: Db,
     timings: Partial<HubTimings> = {},
+    /** Worker threads analysing the rooms' texts; the pool's default when absent. */
+    analysisThreads?: number,
   ) {
     this.timings = { ...defaultTimings, ...timings };
-    this.analysis = new AnalysisPool(this.timings.analysisTimeoutMs);
+    this.analysis = new AnalysisPool(this.timings.analysisTimeoutMs, analysisThreads);
     this.intervals = [
       setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs),
       setInterval(() => this.heartbeat(), this.timings.heartbeatMs),

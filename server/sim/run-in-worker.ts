@@ -57,34 +57,43 @@ const rebuilt: Record<string, new (message: string) => Error> = {
 const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.meta.url));
 
 /** Jobs running at once: one core stays with the server, but never fewer than two, so one long run cannot hold up everybody. */
-const CONCURRENCY = Math.max(2, availableParallelism() - 1);
+const DEFAULT_THREADS = Math.max(2, availableParallelism() - 1);
+
+export interface JobRunnerOptions {
+  /** Default limits of every job this runner starts (a job's own options may lower or raise them). */
+  limits?: Partial<RunLimits>;
+  /** Jobs of each lane running at once, and workers kept warm between jobs. */
+  threads?: number;
+  /** Jobs one user may run at once, per lane. */
+  runningPerUser?: number;
+  /** Jobs one user may have waiting, per lane; one more is refused. */
+  queuedPerUser?: number;
+}
+
 /**
- * One running job per user and kind and three waiting; a fourth waiting is refused. Reading text
- * and running dynamics are admitted apart: analyses are short and bounded by their own time limit,
- * so minutes-long simulations of other users must not hold up everyone's exports and API reads.
+ * A job runner with its own admission: one running job per user and lane and three waiting by
+ * default; a fourth waiting is refused. Reading text and running dynamics are admitted apart:
+ * analyses are short and bounded by their own time limit, so minutes-long simulations of other
+ * users must not hold up everyone's exports and API reads.
  */
-const admissions = {
-  text: new Admission({ concurrency: CONCURRENCY, running: 1, queued: 3 }, 10),
-  dynamics: new Admission({ concurrency: CONCURRENCY, running: 1, queued: 3 }, 10),
-};
-
-export async function runInWorker<J extends WorkerJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> {
-  const limits = { ...DEFAULT_LIMITS, ...options.limits };
-  // Reading text is quick and shows on every page: a user's simulation must not hold up their exports.
-  const lane = isTextJob(job) ? "text" : "dynamics";
-  const release = await admissions[lane].admit(options.owner ?? "", options, () => new SimulationCancelled());
-  options.onStart?.();
-  try {
-    return await runWorker(job, limits, options);
-  } finally {
-    release();
-  }
+export function jobRunner({ limits: defaults = {}, threads = DEFAULT_THREADS, runningPerUser = 1, queuedPerUser = 3 }: JobRunnerOptions = {}) {
+  const admissionLimits = { concurrency: threads, running: runningPerUser, queued: queuedPerUser };
+  const admissions = { text: new Admission(admissionLimits, 10), dynamics: new Admission(admissionLimits, 10) };
+  return async <J extends WorkerJob>(job: J, options: RunOptions = {}): Promise<JobResult<J>> => {
+    const limits = { ...DEFAULT_LIMITS, ...defaults, ...options.limits };
+    const lane = isTextJob(job) ? "text" : "dynamics";
+    const release = await admissions[lane].admit(options.owner ?? "", options, () => new SimulationCancelled());
+    options.onStart?.();
+    try {
+      return await runWorker(job, limits, threads, options);
+    } finally {
+      release();
+    }
+  };
 }
 
-/** `runInWorker` with other default limits (the server's configured analysis time, say). */
-export function jobRunner(defaults: Partial<RunLimits>): typeof runInWorker {
-  return (job, options = {}) => runInWorker(job, { ...options, limits: { ...defaults, ...options.limits } });
-}
+/** Runs a job with the default limits and admission (the command line, tests). */
+export const runInWorker = jobRunner();
 
 // Booting a worker (tsx, then the chemistry modules and mathjs) takes a second or two, so workers
 // that finish a job cleanly wait for the next one. A cancelled, timed-out or failed worker is
@@ -110,20 +119,21 @@ function takeWorker(heapMb: number): Worker {
   return worker;
 }
 
-function returnWorker(worker: Worker, heapMb: number) {
+function returnWorker(worker: Worker, heapMb: number, keep: number) {
   const pool = idle.get(heapMb) ?? [];
-  if (pool.length >= CONCURRENCY) return void worker.terminate();
+  if (pool.length >= keep) return void worker.terminate();
   worker.unref();
   pool.push(worker);
   idle.set(heapMb, pool);
 }
 
 /** Boots the workers a busy server will want, so the first run does not wait for them. */
-export function prewarmWorkers(heapMb = DEFAULT_LIMITS.heapMb): void {
-  for (let i = (idle.get(heapMb)?.length ?? 0); i < CONCURRENCY; i++) returnWorker(takeWorker(heapMb), heapMb);
+export function prewarmWorkers(threads = DEFAULT_THREADS, heapMb = DEFAULT_LIMITS.heapMb): void {
+  for (let i = (idle.get(heapMb)?.length ?? 0); i < threads; i++) returnWorker(takeWorker(heapMb), heapMb, threads);
 }
 
-function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, { onProgress, signal }: RunOptions): Promise<JobResult<J>> {
+/** Runs one job on a worker; a clean finish leaves the worker warm while fewer than `keep` are. */
+function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, keep: number, { onProgress, signal }: RunOptions): Promise<JobResult<J>> {
   return new Promise((resolve, reject) => {
     if (signal?.aborted) return reject(new SimulationCancelled());
     const worker = takeWorker(limits.heapMb);
@@ -134,7 +144,7 @@ function runWorker<J extends WorkerJob>(job: J, limits: RunLimits, { onProgress,
       clearTimeout(timer);
       signal?.removeEventListener("abort", cancel);
       worker.off("message", onMessage).off("error", onError).off("exit", onExit);
-      if (reusable) returnWorker(worker, limits.heapMb);
+      if (reusable) returnWorker(worker, limits.heapMb, keep);
       else void worker.terminate();
       outcome();
     };
