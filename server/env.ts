@@ -89,6 +89,9 @@ const schema = z.object({
 
 export type Env = z.infer<typeof schema>;
 
+/** Every key Mechweave reads (DEVELOPERS.md documents each). */
+export const environmentKeys = Object.keys(schema.shape);
+
 /** The environment's settings, or an error that names every bad key. */
 export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const parsed = schema.safeParse(source);
