@@ -118,6 +118,32 @@ function upgradeRequest(target: string, base = server.url, headers = ""): Promis
   });
 }
 
+/** The status line the server answers a WebSocket upgrade with (the socket is then dropped). */
+function upgradeStatus(target: string, headers: string): Promise<string> {
+  const { hostname, port } = new URL(server.url);
+  return new Promise((resolve, reject) => {
+    const socket = net.connect(Number(port), hostname);
+    socket.once("data", (chunk) => {
+      resolve(chunk.toString().split("\r\n")[0]);
+      socket.destroy();
+    });
+    socket.on("error", reject);
+    socket.write(
+      `GET ${target} HTTP/1.1\r\nHost: ${hostname}:${port}\r\nConnection: Upgrade\r\nUpgrade: websocket\r\n` +
+        `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n${headers}\r\n`,
+    );
+  });
+}
+
+describe("collaboration socket origins", () => {
+  it("admits a page on this host or on PUBLIC_URL, and refuses another site's", async () => {
+    const status = (origin: string) => upgradeStatus(`/collab/${mechanismId}`, `Cookie: ${owner.cookieHeader}\r\nOrigin: ${origin}\r\n`);
+    expect(await status(server.url)).toBe("HTTP/1.1 101 Switching Protocols");
+    expect(await status(PUBLIC_URL)).toBe("HTTP/1.1 101 Switching Protocols");
+    expect(await status(FOREIGN)).toMatch(/^HTTP\/1\.1 403 /);
+  });
+});
+
 describe("WebSocket upgrades off /collab", () => {
   it("answers 404 and closes the socket, for 200 at once", async () => {
     const answers = await Promise.all(Array.from({ length: 200 }, (_, i) => upgradeRequest(i % 2 ? `/elsewhere/${i}` : "/")));
