@@ -102,36 +102,37 @@ describe("security headers", () => {
   });
 });
 
+/** Opens a socket and asks it for a WebSocket upgrade at `target`. */
+function sendUpgrade(target: string, base: string, headers: string): net.Socket {
+  const { hostname, port } = new URL(base);
+  const socket = net.connect(Number(port), hostname);
+  socket.write(
+    `GET ${target} HTTP/1.1\r\nHost: ${hostname}:${port}\r\nConnection: Upgrade\r\nUpgrade: websocket\r\n` +
+      `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n${headers}\r\n`,
+  );
+  return socket;
+}
+
 /** A raw upgrade request; resolves with what the server sent once the server closes the socket. */
 function upgradeRequest(target: string, base = server.url, headers = ""): Promise<string> {
-  const { hostname, port } = new URL(base);
   return new Promise((resolve, reject) => {
-    const socket = net.connect(Number(port), hostname);
+    const socket = sendUpgrade(target, base, headers);
     let received = "";
     socket.on("data", (chunk) => (received += chunk.toString()));
     socket.on("error", reject);
     socket.on("close", () => resolve(received));
-    socket.write(
-      `GET ${target} HTTP/1.1\r\nHost: ${hostname}:${port}\r\nConnection: Upgrade\r\nUpgrade: websocket\r\n` +
-        `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n${headers}\r\n`,
-    );
   });
 }
 
-/** The status line the server answers a WebSocket upgrade with (the socket is then dropped). */
+/** The status line of the answer (the socket is then dropped: an accepted one would stay open). */
 function upgradeStatus(target: string, headers: string): Promise<string> {
-  const { hostname, port } = new URL(server.url);
   return new Promise((resolve, reject) => {
-    const socket = net.connect(Number(port), hostname);
+    const socket = sendUpgrade(target, server.url, headers);
     socket.once("data", (chunk) => {
       resolve(chunk.toString().split("\r\n")[0]);
       socket.destroy();
     });
     socket.on("error", reject);
-    socket.write(
-      `GET ${target} HTTP/1.1\r\nHost: ${hostname}:${port}\r\nConnection: Upgrade\r\nUpgrade: websocket\r\n` +
-        `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n${headers}\r\n`,
-    );
   });
 }
 
