@@ -24,7 +24,7 @@ export async function createApp({ projectRoot, services, vite, trustProxy }: App
   // The client address behind sign-in limits comes from X-Forwarded-For only through proxies the
   // operator names; anyone can write that header.
   app.set("trust proxy", trustProxy);
-  app.use(door);
+  app.use(door(services.publicOrigin));
   app.use("/fonts", express.static(path.join(projectRoot, "fonts"), { immutable: true, maxAge: "1y" }));
 
   const getLoadContext = (req: express.Request): AppLoadContext => ({
@@ -60,15 +60,17 @@ const stateChanging = new Set(["POST", "PUT", "PATCH", "DELETE"]);
  * comes from in `Origin`, so a write from another site's page is refused before it reaches a
  * route. Scripts send no Origin and keep working, with a bearer token or a session.
  */
-function door(req: express.Request, res: express.Response, next: express.NextFunction) {
-  res.set({ "X-Frame-Options": "DENY", "X-Content-Type-Options": "nosniff" });
-  const origin = req.get("Origin");
-  if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"))) {
-    const message = "Requests from other sites cannot change anything here.";
-    if (req.path.startsWith("/api/")) return res.status(403).json({ error: message });
-    return res.status(403).type("text/plain").send(message);
-  }
-  next();
+function door(publicOrigin: string | null) {
+  return (req: express.Request, res: express.Response, next: express.NextFunction) => {
+    res.set({ "X-Frame-Options": "DENY", "X-Content-Type-Options": "nosniff" });
+    const origin = req.get("Origin");
+    if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"), publicOrigin)) {
+      const message = "Requests from other sites cannot change anything here.";
+      if (req.path.startsWith("/api/")) return res.status(403).json({ error: message });
+      return res.status(403).type("text/plain").send(message);
+    }
+    next();
+  };
 }
 
 /** The database being away is not a bug: 503 as /healthz says, JSON under /api/, a plain page elsewhere. */

@@ -4,6 +4,7 @@ import type { Authenticator } from "remix-auth";
 import type { AuthUser } from "./auth/authenticator";
 import type { RateLimiter } from "./auth/rate-limit";
 import type { SessionStore } from "./auth/sessions";
+import type { SignInLimits } from "./auth/sign-in-limits";
 import type { CollabHub } from "./collab/hub";
 import type { Db } from "./db/client";
 import type { MailCatcher } from "./mail/catcher";
@@ -16,6 +17,8 @@ export interface AppServices {
   authenticator: Authenticator<AuthUser>;
   /** Per-token request budget for the JSON API. */
   tokenLimiter: RateLimiter;
+  /** Failed sign-ins per account and address, kept in the database. */
+  signInLimits: SignInLimits;
   mailer: Mailer;
   /** PUBLIC_URL's origin, when set: where mailed and shared links point (see publicOrigin). */
   publicOrigin: string | null;

@@ -32,6 +32,8 @@ export interface CollaborationOptions {
   timings?: Partial<HubTimings>;
   /** The process's worker budget; the rooms' analysis threads are sized from it. */
   workers: WorkerBudget;
+  /** PUBLIC_URL's origin: browsers on it may connect besides those on the request's own host. */
+  publicOrigin: string | null;
   /** Upgrades another listener answers (Vite's hot reload in development); every other path is refused. */
   leave?: (request: IncomingMessage) => boolean;
 }
@@ -52,15 +54,16 @@ function refuse(socket: Duplex, status: number, message: string) {
   );
 }
 
-/** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
-function sameOrigin(request: IncomingMessage): boolean {
-  const origin = request.headers.origin;
-  return !origin || isOwnOrigin(origin, request.headers.host);
-}
-
 export function attachCollaboration(server: Server, options: CollaborationOptions): CollabHub {
   const analysisTimeoutMs = options.timings?.analysisTimeoutMs ?? defaultTimings.analysisTimeoutMs;
   const hub = new CollabHub(postgresCollabStore(options.db), new AnalysisPool(analysisTimeoutMs, options.workers.analysisThreads), options.timings);
+
+  /** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
+  function sameOrigin(request: IncomingMessage): boolean {
+    const origin = request.headers.origin;
+    return !origin || isOwnOrigin(origin, request.headers.host, options.publicOrigin);
+  }
+
   const sockets = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES, perMessageDeflate: false });
 
   async function upgrade(request: IncomingMessage, socket: Duplex, head: Buffer, rawId: string) {

@@ -57,6 +57,15 @@ const rebuilt: Record<string, new (message: string) => Error> = {
 
 const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.meta.url));
 
+export interface JobRunnerOptions {
+  /** Default limits of every job (a job's own options may lower or raise them); DEFAULT_LIMITS elsewhere. */
+  limits?: Partial<RunLimits>;
+  /** Jobs one user may run at once, per lane. */
+  runningPerUser?: number;
+  /** Jobs one user may have waiting, per lane; one more is refused. */
+  queuedPerUser?: number;
+}
+
 /** Runs one job in a worker thread, within the runner's default limits and `options.limits`. */
 export type RunJob = <J extends WorkerJob>(job: J, options?: RunOptions) => Promise<JobResult<J>>;
 
@@ -79,16 +88,13 @@ export class WorkerJobs {
   /** Resolves once a worker has loaded its modules: time limits count from then, not from its boot. */
   private readonly loaded = new WeakMap<Worker, Promise<void>>();
 
-  /** `defaults` replace DEFAULT_LIMITS where given (the server's configured analysis time, say). */
-  constructor(
-    budget: WorkerBudget,
-    private readonly defaults: Partial<RunLimits> = {},
-  ) {
+  private readonly defaults: Partial<RunLimits>;
+
+  constructor(budget: WorkerBudget, { limits = {}, runningPerUser = 1, queuedPerUser = 3 }: JobRunnerOptions = {}) {
     this.poolSize = budget.jobsAtOnce;
-    this.admissions = {
-      text: new Admission({ concurrency: this.poolSize, running: 1, queued: 3 }, 10),
-      dynamics: new Admission({ concurrency: this.poolSize, running: 1, queued: 3 }, 10),
-    };
+    this.defaults = limits;
+    const admissionLimits = { concurrency: this.poolSize, running: runningPerUser, queued: queuedPerUser };
+    this.admissions = { text: new Admission(admissionLimits, 10), dynamics: new Admission(admissionLimits, 10) };
   }
 
   readonly run: RunJob = async (job, options = {}) => {
