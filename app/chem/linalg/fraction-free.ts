@@ -26,10 +26,12 @@ export type Echelon = Map<number, IntegerRow>;
 export interface SizeLimit {
   bits: number;
   bound: bigint;
+  negativeBound: bigint;
 }
 
 export function sizeLimit(bits: number): SizeLimit {
-  return { bits, bound: 1n << BigInt(bits) };
+  const bound = 1n << BigInt(bits);
+  return { bits, bound, negativeBound: -bound };
 }
 
 /**
@@ -147,14 +149,14 @@ function normalise(row: IntegerRow, limit?: SizeLimit): IntegerRow {
   if (row.values.length === 0) return row;
   let divisor = 0n;
   for (const value of row.values) {
-    divisor = gcd(divisor, value);
+    divisor = gcd(divisor, abs(value));
     if (divisor === 1n) break;
   }
   if (row.values[row.values.length - 1] < 0n) divisor = -divisor;
   const values = divisor === 1n ? row.values : row.values.map((value) => value / divisor);
   if (limit) {
     for (const value of values) {
-      if (abs(value) >= limit.bound) {
+      if (value >= limit.bound || value <= limit.negativeBound) {
         throw new ExactSizeLimitError(`exact elimination met numbers of more than ${limit.bits} bits; this network is too large and unstructured to analyse exactly`);
       }
     }
