@@ -6,6 +6,7 @@
 import { independentRows, reducedNullSpace } from "~/chem/linalg/rational-matrix";
 import * as Q from "~/chem/linalg/rational";
 import type { Rational } from "~/chem/linalg/rational";
+import { SimulationInputError } from "./errors";
 import type { KineticSpec } from "./kinetic-system";
 
 /** S as rows of variables, columns of rates. */
@@ -54,5 +55,12 @@ export function stoichiometricSubspace(stoichiometry: number[][]): number[][] {
  */
 function exactReactionVectors(stoichiometry: number[][]): Rational[][] {
   const rates = stoichiometry[0]?.length ?? 0;
-  return Array.from({ length: rates }, (_, r) => stoichiometry.map((row) => (row[r] === 0 ? Q.ZERO : Q.simplestRational(row[r]))));
+  return Array.from({ length: rates }, (_, r) => stoichiometry.map((row) => exactChange(row[r])));
+}
+
+function exactChange(change: number): Rational {
+  if (change === 0) return Q.ZERO;
+  // An ODE coefficient such as 10^400 parses, but no law or direction can be read from infinity.
+  if (!Number.isFinite(change)) throw new SimulationInputError(`a coefficient of the system is ${change}, beyond the range of double-precision numbers`);
+  return Q.simplestRational(change);
 }

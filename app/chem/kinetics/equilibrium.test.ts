@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { brusselator, lotkaVolterra, massAction } from "../../../tests/fixtures/dynamics/models";
 import { conservationBasis } from "./conservation";
 import { networkEquilibrium, polynomialEquilibrium } from "./equilibrium";
+import { SimulationInputError } from "./errors";
 
 describe("equilibria", () => {
   it("A ⇌ B ⇌ C settles at the detailed-balance solution, stable within its class", () => {
@@ -60,6 +61,11 @@ describe("equilibria", () => {
     expect(result.state.y).toBeCloseTo(0.3, 12);
     expect(result.eigenvalues).toEqual([{ re: expect.closeTo(-10 / 3, 10), im: 0 }]);
     expect(result.stability).toBe("stable");
+  });
+
+  it("refuses a coefficient beyond the doubles (10^400 in an ODE text) with a clear message", () => {
+    const ode = { variables: ["x"], rhs: [[{ coefficient: Infinity, exponents: [1] }]], initial: [1] };
+    expect(() => polynomialEquilibrium(ode, { start: [1] })).toThrow(SimulationInputError);
   });
 
   it("the Brusselator's equilibrium (1, 3) is unstable: b = 3 > 1 + a² (Prigogine & Lefever 1968)", () => {
