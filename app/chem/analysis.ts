@@ -2,7 +2,8 @@
 // Its keys are the `analyze --json` contract of PRODUCT.md plus the extras the web UI needs.
 import { hasPositiveConservationLaw } from "./conservation";
 import { detailedBalance, type DetailedBalance } from "./detailed-balance";
-import { nullSpace, rank, type SparseVector } from "./exact";
+import { nullSpace, rank } from "./linalg/kernel";
+import type { SparseVector } from "./linalg/sparse";
 import { analyzeLinkage } from "./linkage";
 import type { Diagnostic, Network, ParseResult } from "./model";
 import { buildNetwork, reactionVector } from "./network";
