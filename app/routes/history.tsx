@@ -2,7 +2,8 @@
 // name the current one, restore an old one as a new change.
 import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
-import { findSnapshot, listSnapshots, snapshotNameField, type SnapshotKind } from "~/utils/mechanisms.server";
+import { snapshotNameField } from "~/shared/fields";
+import { findSnapshot, listSnapshots, type SnapshotKind } from "~/utils/mechanisms.server";
 import { atLeast } from "~/shared/roles";
 import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";

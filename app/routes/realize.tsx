@@ -11,7 +11,7 @@ import { RealizationPanel, type RealizationChoice } from "~/components/realizati
 import type { RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { parseOde } from "~/chem/ode/parse";
 import { requireUser } from "~/utils/auth.server";
-import { cleanText, sourceField, titleField } from "~/shared/fields";
+import { odeField, sourceField, titleField } from "~/shared/fields";
 import type { Route } from "./+types/realize";
 
 export const meta: Route.MetaFunction = () => [{ title: "From ODE to mechanism · Mechweave" }];
@@ -21,7 +21,7 @@ export async function loader(args: Route.LoaderArgs) {
   return null;
 }
 
-const openForm = z.object({ title: titleField, mechanism: sourceField, ode: cleanText("The ODE").max(64 * 1024) });
+const openForm = z.object({ title: titleField, mechanism: sourceField, ode: odeField });
 
 /** Opens a realization as a new mechanism owned by the caller, the ODE kept in its summary. */
 export async function action(args: Route.ActionArgs) {

@@ -1,7 +1,8 @@
 import type { z } from "zod";
+import { byteSize, MAX_JSON_BODY_BYTES } from "~/chem/limits";
 import { httpError } from "./http";
 
-const MAX_BODY_BYTES = 2 * 1024 * 1024;
+const oversized = `The request body is over ${byteSize(MAX_JSON_BODY_BYTES)}.`;
 
 /**
  * Parses and validates a JSON body, throwing the API's error shape (400, 413, 415) on bad input.
@@ -12,9 +13,9 @@ export async function readJson<T>(request: Request, schema: z.ZodType<T>): Promi
   const mediaType = (request.headers.get("Content-Type") ?? "").split(";")[0].trim().toLowerCase();
   if (mediaType !== "application/json") throw httpError(415, "Send the body as JSON, with Content-Type: application/json.");
   const declared = Number(request.headers.get("Content-Length") ?? 0);
-  if (declared > MAX_BODY_BYTES) throw httpError(413, "The request body is over 2 MiB.");
+  if (declared > MAX_JSON_BODY_BYTES) throw httpError(413, oversized);
   const text = await request.text();
-  if (Buffer.byteLength(text) > MAX_BODY_BYTES) throw httpError(413, "The request body is over 2 MiB.");
+  if (Buffer.byteLength(text) > MAX_JSON_BODY_BYTES) throw httpError(413, oversized);
   let value: unknown;
   try {
     value = JSON.parse(text);

@@ -1,6 +1,7 @@
 // The user-facing knobs of a time-course run, their defaults and their sane ranges — shared by
 // the library, the CLI, the worker and the HTTP API so every door refuses the same things.
 
+import { MAX_SAMPLES } from "../limits";
 import { SimulationInputError } from "./errors";
 import type { Method } from "./integrator";
 
@@ -16,7 +17,6 @@ export type ResolvedSettings = Required<SimulationSettings>;
 
 export const DEFAULT_RTOL = 1e-6;
 export const DEFAULT_ATOL = 1e-10;
-export const MAX_SAMPLES = 100_000;
 export const METHODS: readonly Method[] = ["auto", "stiff", "explicit"];
 
 /** What is wrong with the settings, in words, or null when they are usable. */

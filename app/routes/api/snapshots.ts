@@ -1,7 +1,8 @@
 // GET /api/v1/mechanisms/:id/snapshots — the versions, newest first (viewer);
 // POST { "name" } — names the current version (editor).
 import { z } from "zod";
-import { listSnapshots, snapshotNameField } from "~/utils/mechanisms.server";
+import { snapshotNameField } from "~/shared/fields";
+import { listSnapshots } from "~/utils/mechanisms.server";
 import { httpError, methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
