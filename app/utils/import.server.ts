@@ -12,12 +12,12 @@ import { httpError } from "./http";
 export const oversizedSbmlMessage = `The file is over ${byteSize(MAX_SBML_BYTES)}.`;
 
 export async function importSbmlFile({ request, context }: { request: Request; context: AppLoadContext }, user: AuthUser, xml: string, filename: string | null) {
-  if (Buffer.byteLength(xml) > MAX_SBML_BYTES) throw httpError(413, oversizedSbmlMessage);
-  if (!xml.trim()) throw httpError(400, "The file is empty.");
+  if (Buffer.byteLength(xml) > MAX_SBML_BYTES) throw httpError("too_large", oversizedSbmlMessage);
+  if (!xml.trim()) throw httpError("bad_input", "The file is empty.");
   refuseControlCharacters("The file", xml);
   // Reading XML and translating it is heavy for a large file: a worker does it.
   const imported = await sbmlImportFor({ request, context, owner: jobOwner(context, user) }, xml);
-  if ("errors" in imported) throw httpError(400, `This is not an SBML file Mechweave can read: ${imported.errors.join(" ")}`);
+  if ("errors" in imported) throw httpError("bad_input", `This is not an SBML file Mechweave can read: ${imported.errors.join(" ")}`);
   const title = (imported.title || filename?.replace(/\.(xml|sbml)$/i, "") || "Imported model").slice(0, MAX_TITLE_CHARS);
   // Character references (`&#1;`) and the upload's file name reach the text past the raw check.
   refuseControlCharacters("The model's name", title);
@@ -29,5 +29,5 @@ export async function importSbmlFile({ request, context }: { request: Request; c
 
 function refuseControlCharacters(what: string, text: string) {
   const problem = controlCharacterProblem(text);
-  if (problem) throw httpError(400, `${what} ${problem}`);
+  if (problem) throw httpError("bad_input", `${what} ${problem}`);
 }

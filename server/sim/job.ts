@@ -127,6 +127,10 @@ export interface SizeLimits {
 /** A job is bigger, longer or hungrier than this server runs; `limit` says which. */
 export class SimulationLimitError extends Error {
   override name = "SimulationLimitError";
+  /** A run stopped by its time limit met the server's limit; anything else is too large an input. */
+  get code(): "time_limit" | "too_large" {
+    return this.limit === "time" ? "time_limit" : "too_large";
+  }
   constructor(
     message: string,
     readonly limit: "size" | "time" | "memory",

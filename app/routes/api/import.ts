@@ -6,10 +6,10 @@ import { importSbmlFile, oversizedSbmlMessage } from "~/utils/import.server";
 import type { Route } from "./+types/import";
 
 async function readUpload(request: Request): Promise<{ xml: string; filename: string | null }> {
-  if (Number(request.headers.get("Content-Length") ?? 0) > MAX_SBML_BYTES + MULTIPART_OVERHEAD_BYTES) throw httpError(413, oversizedSbmlMessage);
+  if (Number(request.headers.get("Content-Length") ?? 0) > MAX_SBML_BYTES + MULTIPART_OVERHEAD_BYTES) throw httpError("too_large", oversizedSbmlMessage);
   if ((request.headers.get("Content-Type") ?? "").startsWith("multipart/form-data")) {
     const file = (await request.formData()).get("file");
-    if (!(file instanceof File)) throw httpError(400, "Send the SBML file in a form field named file.");
+    if (!(file instanceof File)) throw httpError("bad_input", "Send the SBML file in a form field named file.");
     return { xml: await file.text(), filename: file.name };
   }
   return { xml: await request.text(), filename: null };
