@@ -41,3 +41,9 @@ export const snapshotNameField = cleanText("The name").trim().min(1, "Give the v
 export const personNameField = cleanText("The name").trim().min(1, "Enter your name.").max(MAX_NAME_CHARS, `Keep the name under ${MAX_NAME_CHARS} characters.`);
 /** Mechanism ids as `newMechanismId` makes them, with room to spare; anything else is no mechanism. */
 export const mechanismIdField = z.string().regex(/^[A-Za-z0-9_-]{1,64}$/);
+
+/** The first problem of a refused input, as one line: `settings.samples: the number of samples …`. */
+export function firstProblem(error: z.ZodError): string {
+  const issue = error.issues[0];
+  return issue.path.length ? `${issue.path.join(".")}: ${issue.message}` : issue.message;
+}

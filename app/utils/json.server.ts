@@ -1,5 +1,6 @@
 import type { z } from "zod";
 import { byteSize, MAX_JSON_BODY_BYTES } from "~/chem/limits";
+import { firstProblem } from "~/shared/fields";
 import { httpError } from "./http";
 
 const oversized = `The request body is over ${byteSize(MAX_JSON_BODY_BYTES)}.`;
@@ -23,9 +24,6 @@ export async function readJson<T>(request: Request, schema: z.ZodType<T>): Promi
     throw httpError("bad_input", "The request body is not valid JSON.");
   }
   const parsed = schema.safeParse(value);
-  if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    throw httpError("bad_input", issue.path.length ? `${issue.path.join(".")}: ${issue.message}` : issue.message);
-  }
+  if (!parsed.success) throw httpError("bad_input", firstProblem(parsed.error));
   return parsed.data;
 }
