@@ -5,7 +5,7 @@ import { createRequestHandler } from "@react-router/express";
 import express from "express";
 import path from "node:path";
 import type { AppLoadContext, ServerBuild } from "react-router";
-import { errorBody, statusOfCode } from "../app/shared/error-codes";
+import { errorBody, statusOf } from "../app/shared/error-codes";
 import type { AppServices } from "./context";
 import { isDatabaseUnavailable } from "./db/unavailable";
 import { isOwnOrigin } from "./origin";
@@ -66,7 +66,7 @@ function door(req: express.Request, res: express.Response, next: express.NextFun
   const origin = req.get("Origin");
   if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"))) {
     const message = "Requests from other sites cannot change anything here.";
-    res.status(statusOfCode.forbidden);
+    res.status(statusOf("forbidden"));
     if (req.path.startsWith("/api/")) return res.json(errorBody("forbidden", message));
     return res.type("text/plain").send(message);
   }
@@ -77,7 +77,7 @@ function door(req: express.Request, res: express.Response, next: express.NextFun
 function unavailable(error: unknown, req: express.Request, res: express.Response, next: express.NextFunction) {
   if (!isDatabaseUnavailable(error) || res.headersSent) return next(error);
   console.error(`[http] ${req.method} ${req.path}: database unavailable (${(error as Error).message})`);
-  res.status(statusOfCode.unavailable).set("Retry-After", "30");
+  res.status(statusOf("unavailable")).set("Retry-After", "30");
   if (req.path.startsWith("/api/")) return res.json(errorBody("unavailable", "The database is unavailable just now; try again shortly."));
   res
     .set("Content-Security-Policy", "default-src 'none'; frame-ancestors 'none'")

@@ -46,12 +46,16 @@ export const sweepSettings = integrationSettings.extend({
 });
 
 /** How to realize a polynomial ODE: transformations first, then the searches for equivalents. */
+const exponentMessage = `a multiplier's exponents are whole numbers from 0 to ${MAX_MULTIPLIER_EXPONENT}`;
 export const realizeSettings = z.object({
-  shift: z.union([z.record(z.string(), z.number()), z.literal("suggested")]).optional(),
-  multiply: z.union([z.boolean(), z.record(z.string(), z.number().int().min(0).max(MAX_MULTIPLIER_EXPONENT))]).optional(),
+  shift: z.union([z.record(z.string(), z.number()), z.literal("suggested")], { message: 'the shift is { variable: number, … } or "suggested"' }).optional(),
+  multiply: z.union([z.boolean(), z.record(z.string(), z.number().int(exponentMessage).min(0, exponentMessage).max(MAX_MULTIPLIER_EXPONENT, exponentMessage))]).optional(),
   until: untilField.optional(),
   equivalents: z.boolean().optional(),
-  complexes: z.array(cleanText("A complex").max(MAX_COMPLEX_CHARS)).max(MAX_EXTRA_COMPLEXES).optional(),
+  complexes: z
+    .array(cleanText("A complex").max(MAX_COMPLEX_CHARS, `Keep each complex under ${MAX_COMPLEX_CHARS} characters.`))
+    .max(MAX_EXTRA_COMPLEXES, `Offer at most ${MAX_EXTRA_COMPLEXES} extra complexes.`)
+    .optional(),
 });
 
 export type SimulateSettings = z.infer<typeof simulateSettings>;

@@ -1,8 +1,8 @@
-import { errorBody, statusOfCode, type ErrorCode } from "~/shared/error-codes";
+import { errorBody, statusOf, type ErrorCode } from "~/shared/error-codes";
 
 /** The API's error shape: `{ "error": message, "code": code }`, with the code's status. */
 export function httpError(code: ErrorCode, message: string, headers?: HeadersInit): Response {
-  return Response.json(errorBody(code, message), { status: statusOfCode[code], headers });
+  return Response.json(errorBody(code, message), { status: statusOf(code), headers });
 }
 
 /** 405 with the `Allow` header RFC 9110 asks for, naming the methods the endpoint answers. */
