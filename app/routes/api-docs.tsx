@@ -98,9 +98,11 @@ function ErrorTable() {
       <table className="mt-2 w-full text-left text-sm">
         <thead className="text-muted">
           <tr>
-            <th className="py-1 pr-3 font-medium">Status</th>
-            <th className="py-1 pr-3 font-medium">Code</th>
-            <th className="py-1 font-medium">Meaning</th>
+            {["Status", "Code", "Meaning"].map((heading) => (
+              <th key={heading} className="py-1 pr-3 font-medium">
+                {heading}
+              </th>
+            ))}
           </tr>
         </thead>
         <tbody>
