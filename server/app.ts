@@ -5,6 +5,7 @@ import { createRequestHandler } from "@react-router/express";
 import express from "express";
 import path from "node:path";
 import type { AppLoadContext, ServerBuild } from "react-router";
+import { errorBody, statusOf } from "../app/shared/error-codes";
 import type { AppServices } from "./context";
 import { isDatabaseUnavailable } from "./db/unavailable";
 import { isOwnOrigin } from "./origin";
@@ -66,8 +67,9 @@ function door(publicOrigin: string | null) {
     const origin = req.get("Origin");
     if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"), publicOrigin)) {
       const message = "Requests from other sites cannot change anything here.";
-      if (req.path.startsWith("/api/")) return res.status(403).json({ error: message });
-      return res.status(403).type("text/plain").send(message);
+      res.status(statusOf("forbidden"));
+      if (req.path.startsWith("/api/")) return res.json(errorBody("forbidden", message));
+      return res.type("text/plain").send(message);
     }
     next();
   };
@@ -77,8 +79,8 @@ function door(publicOrigin: string | null) {
 function unavailable(error: unknown, req: express.Request, res: express.Response, next: express.NextFunction) {
   if (!isDatabaseUnavailable(error) || res.headersSent) return next(error);
   console.error(`[http] ${req.method} ${req.path}: database unavailable (${(error as Error).message})`);
-  res.status(503).set("Retry-After", "30");
-  if (req.path.startsWith("/api/")) return res.json({ error: "The database is unavailable just now; try again shortly." });
+  res.status(statusOf("unavailable")).set("Retry-After", "30");
+  if (req.path.startsWith("/api/")) return res.json(errorBody("unavailable", "The database is unavailable just now; try again shortly."));
   res
     .set("Content-Security-Policy", "default-src 'none'; frame-ancestors 'none'")
     .type("html")

@@ -9,6 +9,7 @@ import type { EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { SweepResult } from "~/chem/kinetics/sweep";
+import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { mechanismNames } from "~/editor/complete";
 import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
@@ -73,7 +74,7 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
           }}
         >
           <NumberField label="Until time" value={until} onChange={setUntil} min={1e-9} />
-          <NumberField label="Samples" value={samples} onChange={(v) => setSamples(Math.round(v))} min={2} max={20000} />
+          <NumberField label="Samples" value={samples} onChange={(v) => setSamples(Math.round(v))} min={2} max={MAX_SERVER_SAMPLES} />
           <label className="text-sm">
             <span className="label">Method</span>
             <select className="field py-1.5" value={method} onChange={(e) => setMethod(e.target.value as typeof method)}>
@@ -270,7 +271,7 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
         </label>
         <NumberField label="From" value={from} onChange={setFrom} />
         <NumberField label="To" value={to} onChange={setTo} />
-        <NumberField label="Points" value={points} onChange={(v) => setPoints(Math.round(v))} min={2} max={200} />
+        <NumberField label="Points" value={points} onChange={(v) => setPoints(Math.round(v))} min={2} max={MAX_SERVER_SWEEP_POINTS} />
         <label>
           <span className="label">Scale</span>
           <select className="field py-1.5" value={scale} onChange={(e) => setScale(e.target.value as typeof scale)}><option>log</option><option>linear</option></select>

@@ -39,7 +39,7 @@ export async function action(args: Route.ActionArgs) {
   if (intent === "rename") {
     const { mechanism } = await requireRole(args, args.params.id, "editor");
     const title = titleField.safeParse(form.get("title"));
-    if (!title.success) return Response.json({ error: title.error.issues[0].message }, { status: 400 });
+    if (!title.success) return httpError("bad_input", title.error.issues[0].message);
     await renameMechanism(args.context.db, mechanism.id, title.data);
     return { ok: "Renamed." };
   }
@@ -48,7 +48,7 @@ export async function action(args: Route.ActionArgs) {
     await deleteMechanism(args.context.db, user.id, mechanism.id);
     throw redirect("/dashboard");
   }
-  throw httpError(400, "Unknown action.");
+  throw httpError("bad_input", "Unknown action.");
 }
 
 const allTabs = ["Graph", "Structure", "Dynamics", "Files & settings"] as const;

@@ -5,6 +5,7 @@
 // time, a short queue per user.
 
 import { Worker } from "node:worker_threads";
+import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
 import { RealizeRequestError } from "~/chem/realize/request-error";
 import { typescriptWorkerSource } from "../typescript-worker";
@@ -32,8 +33,8 @@ export const DEFAULT_LIMITS: RunLimits = {
    */
   maxVariables: 2_000,
   maxReactions: 10_000,
-  maxSamples: 20_000,
-  maxSweepPoints: 200,
+  maxSamples: MAX_SERVER_SAMPLES,
+  maxSweepPoints: MAX_SERVER_SWEEP_POINTS,
   heapMb: 512,
 };
 
