@@ -67,7 +67,12 @@ export function TimeCourseChart({
       const style = getComputedStyle(document.documentElement);
       const ink = style.getPropertyValue("--mw-muted").trim();
       const grid = style.getPropertyValue("--mw-line").trim();
-      const labels = (log: boolean) => (_: uPlot, splits: number[]) => (log ? logTickLabels(splits) : tickLabels(splits));
+      // The labels drawn on the canvas are also left on the element, where a reader of the page finds them.
+      const labels = (log: boolean, key: "xTicks" | "yTicks") => (_: uPlot, splits: number[]) => {
+        const written = log ? logTickLabels(splits) : tickLabels(splits);
+        element.dataset[key] = written.filter(Boolean).join(" | ");
+        return written;
+      };
       const axis = { stroke: ink, grid: { stroke: grid, width: 1 }, ticks: { stroke: grid }, font: "11px IBM Plex Sans, system-ui, sans-serif" };
       chart.current = new UPlot(
         {
@@ -85,8 +90,8 @@ export function TimeCourseChart({
             },
           },
           axes: [
-            { ...axis, label: xLabel, values: labels(logTime), space: 70 },
-            { ...axis, label: yLabel, values: labels(logY), size: (_, values) => 30 + 7 * Math.max(3, ...(values ?? []).map((value) => value.length)) },
+            { ...axis, label: xLabel, values: labels(logTime, "xTicks"), space: 70 },
+            { ...axis, label: yLabel, values: labels(logY, "yTicks"), size: (_, values) => 30 + 7 * Math.max(3, ...(values ?? []).map((value) => value.length)) },
           ],
           cursor: { drag: { x: true, y: true } },
           legend: { show: false },
