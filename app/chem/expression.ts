@@ -98,7 +98,8 @@ export function coefficientLatex(sum: RateFactor[][]): string {
 
 /** A concentration in brackets, so [MQ] and [M][Q] never look alike: [\mathrm{MQ}]^{2}. */
 export function concentrationLatex(species: string, power: number): string {
-  const bracketed = `[${symbolLatex(species)}]`;
+  // Species are upright like every chemical name, one letter or several: [Q] beside [MQ].
+  const bracketed = `[${symbolLatex(species).replace(/^[A-Za-z](?=_|$)/, (letter) => `\\mathrm{${letter}}`)}]`;
   return power === 1 ? bracketed : `${bracketed}^{${power}}`;
 }
 

@@ -128,12 +128,15 @@ function joinLatex(terms: { change: number; rate: RateWriting }[]): string {
   const combined = combine(terms);
   if (combined.length === 0) return "0";
   return combined
-    .map(({ number, rest, compound }, position) => {
-      const sign = number < 0 ? (position === 0 ? "-" : `${termBreak}- `) : position === 0 ? "" : `${termBreak}+ `;
-      const magnitude = Math.abs(number);
-      if (!rest) return sign + readableNumberLatex(magnitude, typesetDigits);
-      const body = compound && (magnitude !== 1 || number < 0) ? `\\left(${rest}\\right)` : rest;
-      return magnitude === 1 ? sign + body : `${sign}${readableNumberLatex(magnitude, typesetDigits)}\\, ${body}`;
+    .map(({ number: coefficient, rest, compound }, position) => {
+      const sign = coefficient < 0 ? (position === 0 ? "-" : `${termBreak}- `) : position === 0 ? "" : `${termBreak}+ `;
+      const magnitude = Math.abs(coefficient);
+      // Braced, a × 10^n is one unit: a line never breaks after its ×.
+      const number = readableNumberLatex(magnitude, typesetDigits);
+      const written = number.includes("\\times") ? `{${number}}` : number;
+      if (!rest) return sign + written;
+      const body = compound && (magnitude !== 1 || coefficient < 0) ? `\\left(${rest}\\right)` : rest;
+      return magnitude === 1 ? sign + body : `${sign}${written}\\, ${body}`;
     })
     .join("");
 }

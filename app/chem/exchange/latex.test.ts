@@ -62,7 +62,7 @@ describe("LaTeX export", () => {
     expect(latex).toContain("\\title{Autocatalytic dye bleaching}");
     expect(latex).toContain("\\text{init:}\\quad & D + O \\xrightarrow{k_{\\mathrm{init}}} R");
     expect(latex).toContain("\\text{decay:}\\quad & R \\xrightarrow{0.05} \\emptyset");
-    expect(latex).toContain("\\frac{d[R]}{dt} &= ");
+    expect(latex).toContain("\\frac{d[\\mathrm{R}]}{dt} &= ");
     expect(latex.trimEnd().endsWith("\\end{document}")).toBe(true);
     expectBalanced(latex);
   });
@@ -113,11 +113,11 @@ describe("LaTeX export", () => {
     const latex = await latexOf(readFileSync("tests/fixtures/oxidation-cell.weave", "utf8"));
     expect(latex).toContain("s62:}\\quad & Q + Q \\xrightarrow{1.2 \\times 10^{13}} \\mathrm{MQ}");
     expect(latex).toContain("k_{33} &= 3.15 \\times 10^{16}");
-    const q = latex.slice(latex.indexOf("\\frac{d[Q]}{dt} &= "));
+    const q = latex.slice(latex.indexOf("\\frac{d[\\mathrm{Q}]}{dt} &= "));
     const rows = q.slice(0, q.indexOf("\\frac{d[", 1)).split(" \\\\\n");
     expect(rows.length).toBeGreaterThan(1);
     expect(rows.slice(1, -1).every((row) => row.trimStart().startsWith("&\\quad {}"))).toBe(true);
-    expect(q).toContain("3 \\times 10^{9}\\, [M][\\mathrm{MQ}]");
+    expect(q).toContain("{3 \\times 10^{9}}\\, [\\mathrm{M}][\\mathrm{MQ}]");
     expect(latex).not.toContain("\\allowbreak");
   });
 

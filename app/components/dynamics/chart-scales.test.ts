@@ -19,6 +19,8 @@ describe("chart scales", () => {
     expect(linearTicks({ min: 0, max: 1e-3 })).toEqual([0, 0.0002, 0.0004, 0.0006, 0.0008, 0.001]);
     expect(linearTicks({ min: 0, max: 2.08e-6 })).toEqual([0, 5e-7, 1e-6, 1.5e-6, 2e-6]);
     expect(logRange(3e-9, 2e-6)).toEqual({ min: 1e-9, max: 1e-5 });
+    expect(logRange(5e-324, 2e-6)).toEqual({ min: 1e-17, max: 1e-5 });
+    expect(logRange(1e-6, 1e-6)).toEqual({ min: 1e-7, max: 1e-5 });
     expect(logTicks({ min: 1e-9, max: 1e-5 })).toEqual([1e-9, 1e-8, 1e-7, 1e-6, 1e-5]);
     expect(logTicks({ min: 1e-20, max: 1 })).toEqual([1e-20, 1e-17, 1e-14, 1e-11, 1e-8, 1e-5, 1e-2]);
   });

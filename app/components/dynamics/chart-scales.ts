@@ -26,12 +26,18 @@ export function linearRange(min: number, max: number): Range {
   return { min: min >= 0 ? Math.max(0, low - pad) : low - pad, max: high + pad };
 }
 
-/** A log range from the decade below the smallest positive value to the decade above the largest. */
+/** Decades a log axis shows at most: what lies further below the largest value is not drawn. */
+export const logDecades = 12;
+
+/**
+ * A log range from the decade below the smallest positive value to the decade above the largest,
+ * at most `logDecades` deep (a trace at 1e-300 would otherwise flatten everything else).
+ */
 export function logRange(min: number, max: number): Range {
-  if (!(min > 0) || !(max > 0)) return { min: 1e-12, max: 1 };
-  const low = Number(`1e${Math.floor(Math.log10(min))}`);
-  const high = Number(`1e${Math.ceil(Math.log10(max))}`);
-  return high > low ? { min: low, max: high } : { min: low / 10, max: high * 10 };
+  if (!(min > 0) || !(max > 0) || !Number.isFinite(max)) return { min: 1e-12, max: 1 };
+  const top = Math.ceil(Math.log10(max));
+  const bottom = Math.max(Math.floor(Math.log10(min)), top - logDecades);
+  return top > bottom ? { min: Number(`1e${bottom}`), max: Number(`1e${top}`) } : { min: Number(`1e${bottom - 1}`), max: Number(`1e${top + 1}`) };
 }
 
 /** About `count` ticks at 1, 2 or 5 × 10^n steps, inside the range. */

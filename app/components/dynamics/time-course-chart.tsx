@@ -170,7 +170,7 @@ export function TimeCourseChart({
               <input type="checkbox" className="sr-only" checked={!hidden.has(name)} onChange={() => toggle(name)} />
               <Swatch look={look} faded={hidden.has(name)} />
               <span className={hidden.has(name) ? "text-muted line-through" : ""}>{name}</span>
-              {line && <span className="font-mono text-muted">{at(line.values)}</span>}
+              {line && cursor !== null && <span className="font-mono text-muted">{at(line.values)}</span>}
             </label>
           );
         })}
