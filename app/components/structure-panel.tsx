@@ -217,12 +217,14 @@ function Formulas({ latex, titles, wrap = false }: { latex: string[]; titles?: s
   return (
     <div className="space-y-1.5 overflow-x-auto">
       {html.map((markup, index) => (
-        <div key={index} title={titles?.[index] || undefined} className={wrap ? "pl-8 -indent-8" : undefined} dangerouslySetInnerHTML={{ __html: markup }} />
+        <div key={index} title={titles?.[index] || undefined} style={wrap ? hangingIndent : undefined} dangerouslySetInnerHTML={{ __html: markup }} />
       ))}
       {latex.length > shownFormulas && <p className="text-sm text-muted">… and {latex.length - shownFormulas} more.</p>}
     </div>
   );
 }
+
+const hangingIndent = { paddingLeft: "2em", textIndent: "-2em" } as const;
 
 /** "k1 = 2.5×10⁹, k7 = 0.3": the values behind the names in one species' equation. */
 function coefficientValues(report: AnalysisReport, species: string): string {

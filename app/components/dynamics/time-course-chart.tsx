@@ -6,7 +6,7 @@ import type uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
 import { readableNumberText, tickLabels } from "~/chem/numbers";
 import { currentThemeColours, downloadBlob, svgToPng } from "~/utils/graph-svg";
-import { linearRange, logRange, logTickLabels } from "./chart-scales";
+import { linearRange, logRange, logTickLabels, logTicks } from "./chart-scales";
 import { chartSvg, type ChartSeries } from "./chart-svg";
 import { seriesLook, type SeriesLook } from "./palette";
 
@@ -73,6 +73,11 @@ export function TimeCourseChart({
         element.dataset[key] = written.filter(Boolean).join(" | ");
         return written;
       };
+      // A log axis gets its ticks and grid at powers of ten only, not at every 2, 3, … 9 between.
+      const decades = (u: uPlot, index: number) => {
+        const scale = u.scales[index === 0 ? "x" : "y"];
+        return logTicks({ min: scale.min!, max: scale.max! });
+      };
       const axis = { stroke: ink, grid: { stroke: grid, width: 1 }, ticks: { stroke: grid }, font: "11px IBM Plex Sans, system-ui, sans-serif" };
       chart.current = new UPlot(
         {
@@ -90,8 +95,8 @@ export function TimeCourseChart({
             },
           },
           axes: [
-            { ...axis, label: xLabel, values: labels(logTime, "xTicks"), space: 70 },
-            { ...axis, label: yLabel, values: labels(logY, "yTicks"), size: (_, values) => 30 + 7 * Math.max(3, ...(values ?? []).map((value) => value.length)) },
+            { ...axis, label: xLabel, values: labels(logTime, "xTicks"), space: 70, ...(logTime ? { splits: decades } : {}) },
+            { ...axis, label: yLabel, values: labels(logY, "yTicks"), ...(logY ? { splits: decades } : {}), size: (_, values) => 30 + 7 * Math.max(3, ...(values ?? []).map((value) => value.length)) },
           ],
           cursor: { drag: { x: true, y: true } },
           legend: { show: false },
