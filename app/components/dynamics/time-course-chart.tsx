@@ -5,7 +5,8 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import type uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
 import { readableNumberText, tickLabels } from "~/chem/numbers";
-import { currentThemeColours, downloadBlob, svgToPng } from "~/utils/graph-svg";
+import { currentThemeColours } from "~/utils/graph-svg";
+import { PictureDownloads } from "../picture-downloads";
 import { linearRange, logRange, logTickLabels, logTicks } from "./chart-scales";
 import { chartSvg, type ChartSeries } from "./chart-svg";
 import { seriesLook, type SeriesLook } from "./palette";
@@ -155,12 +156,7 @@ export function TimeCourseChart({
         <label className="flex items-center gap-1.5">
           <input type="checkbox" checked={logY} onChange={(e) => setLogY(e.target.checked)} /> log {yLabel} axis
         </label>
-        <button type="button" className="btn px-2 py-1 text-xs" onClick={() => downloadBlob(new Blob([picture()], { type: "image/svg+xml" }), `${fileName}.svg`)}>
-          SVG
-        </button>
-        <button type="button" className="btn px-2 py-1 text-xs" onClick={() => void svgToPng(picture()).then((png) => downloadBlob(png, `${fileName}.png`))}>
-          PNG
-        </button>
+        <PictureDownloads svg={picture} name={fileName} />
       </div>
       <div ref={host} className="mw-chart w-full" data-testid="time-course-chart" />
       <figcaption className="flex flex-wrap items-center gap-x-3 gap-y-1 text-xs" data-testid="chart-legend">
