@@ -102,7 +102,9 @@ it("simulates and labels the axes with distinct ticks, linear and log", async ()
   await page.click("button:text-is('Sweep')");
   const sweep = page.locator("[data-testid=time-course-chart]").nth(1);
   await expect.poll(() => sweep.getAttribute("data-x-ticks"), { timeout: 60_000 }).toBeTruthy();
-  const box = (await sweep.locator("canvas").boundingBox())!;
+  await sweep.scrollIntoViewIfNeeded();
+  const box = (await sweep.locator(".u-over").boundingBox())!;
+  await page.mouse.move(box.x + box.width / 3, box.y + box.height / 2);
   await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
   await expect.poll(() => page.locator("[data-testid=chart-legend]").nth(1).innerText()).toMatch(/k3 = \d/);
   await sweep.locator("xpath=ancestor::section[1]").screenshot({ path: `${shots}/sweep.png` });
