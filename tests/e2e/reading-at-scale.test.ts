@@ -56,6 +56,18 @@ describe.each([1280, 390])("at %i px wide", (width) => {
     // [MQ] and [M][Q] read apart; 2 × 1.5e9 is written as one number.
     expect(await equations.locator(".katex-mathml").allTextContents()).toEqual(expect.arrayContaining([expect.stringContaining("[MQ]")]));
     expect(await equations.locator("[title*='k33 = 3.15×10¹⁶']").count()).toBeGreaterThan(0);
+    // A wrapped equation continues indented under its start.
+    const starts = await equations.locator("[title] .katex-html").first().evaluate((html) => {
+      const lefts = new Map<number, number>();
+      for (const base of html.children) {
+        const { top, left } = base.getBoundingClientRect();
+        lefts.set(Math.round(top / 10), Math.min(lefts.get(Math.round(top / 10)) ?? Infinity, left));
+      }
+      return [...lefts.values()];
+    });
+    console.log("line starts", width, starts);
+    expect(starts.length).toBeGreaterThan(1);
+    expect(Math.min(...starts.slice(1))).toBeGreaterThan(starts[0] + 10);
     await equations.screenshot({ path: `${shots}/equations-${width}.png` });
   }, 120_000);
 });

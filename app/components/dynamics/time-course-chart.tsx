@@ -7,7 +7,7 @@ import "uplot/dist/uPlot.min.css";
 import { readableNumberText, tickLabels } from "~/chem/numbers";
 import { currentThemeColours } from "~/utils/graph-svg";
 import { PictureDownloads } from "../picture-downloads";
-import { linearRange, logRange, logTickLabels, logTicks } from "./chart-scales";
+import { linearRange, linearTicks, logRange, logTickLabels, logTicks } from "./chart-scales";
 import { chartSvg, type ChartSeries } from "./chart-svg";
 import { seriesLook, type SeriesLook } from "./palette";
 
@@ -74,10 +74,12 @@ export function TimeCourseChart({
         element.dataset[key] = written.filter(Boolean).join(" | ");
         return written;
       };
-      // A log axis gets its ticks and grid at powers of ten only, not at every 2, 3, … 9 between.
-      const decades = (u: uPlot, index: number) => {
+      // Our ticks, not uPlot's: its steps stop at 10^-16, so a trace at 1e-20 had none. A log axis
+      // gets its ticks and grid at powers of ten only, not at every 2, 3, … 9 between.
+      const splits = (log: boolean) => (u: uPlot, index: number) => {
         const scale = u.scales[index === 0 ? "x" : "y"];
-        return logTicks({ min: scale.min!, max: scale.max! });
+        const range = { min: scale.min!, max: scale.max! };
+        return log ? logTicks(range) : linearTicks(range);
       };
       const axis = { stroke: ink, grid: { stroke: grid, width: 1 }, ticks: { stroke: grid }, font: "11px IBM Plex Sans, system-ui, sans-serif" };
       chart.current = new UPlot(
@@ -96,8 +98,8 @@ export function TimeCourseChart({
             },
           },
           axes: [
-            { ...axis, label: xLabel, values: labels(logTime, "xTicks"), space: 70, ...(logTime ? { splits: decades } : {}) },
-            { ...axis, label: yLabel, values: labels(logY, "yTicks"), ...(logY ? { splits: decades } : {}), size: (_, values) => 30 + 7 * Math.max(3, ...(values ?? []).map((value) => value.length)) },
+            { ...axis, label: xLabel, values: labels(logTime, "xTicks"), splits: splits(logTime) },
+            { ...axis, label: yLabel, values: labels(logY, "yTicks"), splits: splits(logY), size: (_, values) => 30 + 7 * Math.max(3, ...(values ?? []).map((value) => value.length)) },
           ],
           cursor: { drag: { x: true, y: true } },
           legend: { show: false },
