@@ -65,7 +65,6 @@ describe.each([1280, 390])("at %i px wide", (width) => {
       }
       return [...lefts.values()];
     });
-    console.log("line starts", width, starts);
     expect(starts.length).toBeGreaterThan(1);
     expect(Math.min(...starts.slice(1))).toBeGreaterThan(starts[0] + 10);
     await equations.screenshot({ path: `${shots}/equations-${width}.png` });
