@@ -39,6 +39,8 @@ export interface AnalysisReport {
   detailedBalance: DetailedBalance;
   customLaws: { reaction: number; law: string; lines: number[] }[];
   fixedSpecies: Record<string, number>;
+  /** Named rate coefficients and their values: the typeset equations keep the names. */
+  parameters: Record<string, number>;
 }
 
 export async function analyzeSource(source: string): Promise<AnalysisReport> {
@@ -115,6 +117,7 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     detailedBalance: detailedBalance(network, reversible),
     customLaws,
     fixedSpecies: mechanism.fixed,
+    parameters: mechanism.parameters,
   };
 }
 

@@ -3,6 +3,7 @@
 import type { MathNode } from "mathjs";
 import { readLaw } from "./law";
 import type { ComplexVector, RateFactor } from "./model";
+import { readableNumberLatex } from "./numbers";
 import { speciesToken } from "./print";
 
 // ---- plain text (the `.weave` spelling of names, mathjs operators)
@@ -80,14 +81,13 @@ export function symbolLatex(name: string): string {
   return latexBase(name);
 }
 
+/** A literal number with every digit it has, as a × 10^n outside 10^-3..10^5. */
 export function numberLatex(text: string): string {
-  const match = /^(-?[\d.]+)[eE]([+-]?\d+)$/.exec(String(Number(text)));
-  if (!match) return String(Number(text));
-  const exponent = `10^{${Number(match[2])}}`;
-  return match[1] === "1" ? exponent : `${match[1]} \\times ${exponent}`;
+  return readableNumberLatex(Number(text));
 }
 
-function factorLatex(factor: RateFactor): string {
+/** One factor of a coefficient with its power: k_{1}, k_{f}^{2}, 10^{-3}. */
+export function factorLatex(factor: RateFactor): string {
   const base = factor.kind === "value" ? numberLatex(factor.symbol) : symbolLatex(factor.symbol);
   return factor.power === 1 ? base : `${base}^{${factor.power}}`;
 }
@@ -96,16 +96,11 @@ export function coefficientLatex(sum: RateFactor[][]): string {
   return sum.map((product) => withoutUnitFactors(product).map(factorLatex).join(" ")).join(" + ");
 }
 
-export function monomialLatex(complex: ComplexVector, species: string[]): string {
-  return complex.terms
-    .map(({ species: index, coefficient }) => symbolLatex(species[index]) + (coefficient === 1 ? "" : `^{${coefficient}}`))
-    .join(" ");
-}
-
-export function massActionLatex(sum: RateFactor[][], monomial: string): string {
-  if (monomial && isUnit(sum)) return monomial;
-  const coefficient = sum.length > 1 ? `\\left(${coefficientLatex(sum)}\\right)` : coefficientLatex(sum);
-  return monomial ? `${coefficient}\\, ${monomial}` : coefficient;
+/** A concentration in brackets, so [MQ] and [M][Q] never look alike: [\mathrm{MQ}]^{2}. */
+export function concentrationLatex(species: string, power: number): string {
+  // Species are upright like every chemical name, one letter or several: [Q] beside [MQ].
+  const bracketed = `[${symbolLatex(species).replace(/^[A-Za-z](?=_|$)/, (letter) => `\\mathrm{${letter}}`)}]`;
+  return power === 1 ? bracketed : `${bracketed}^{${power}}`;
 }
 
 /** A custom law typeset by mathjs, with names in the same notation as everything else. */

@@ -31,13 +31,10 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
   const [samples, setSamples] = useState(400);
   const [method, setMethod] = useState<"auto" | "stiff" | "explicit">("auto");
   const [logTime, setLogTime] = useState(false);
-  const [hidden, setHidden] = useState<string[]>([]);
   const [measured, setMeasured] = useState<MeasuredCourses | null>(null);
   const [csvNote, setCsvNote] = useState<string | null>(null);
 
   const result = simulation.result;
-  const species = result ? Object.keys(result.series) : (report?.species ?? []);
-  const shown = species.filter((s) => !hidden.includes(s));
   const fit = useMemo(() => (result && measured ? residuals(measured, result) : null), [result, measured]);
 
   async function loadCsv(file: File) {
@@ -95,26 +92,13 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
         <JobStatus job={simulation} />
         {result && (
           <>
-            <div className="mt-3 flex flex-wrap gap-2">
-              {species.map((name) => (
-                <label key={name} className="pill cursor-pointer border border-line">
-                  <input
-                    type="checkbox"
-                    className="mr-1"
-                    checked={!hidden.includes(name)}
-                    onChange={(e) => setHidden((h) => (e.target.checked ? h.filter((n) => n !== name) : [...h, name]))}
-                  />
-                  {name}
-                </label>
-              ))}
-            </div>
             <div className="mt-3">
-              <TimeCourseChart t={result.t} series={result.series} shown={shown} logTime={logTime} measured={measured} />
+              <TimeCourseChart t={result.t} series={result.series} logTime={logTime} measured={measured} fileName={`simulation-${mechanismId}`} />
             </div>
             <p className="mt-2 text-xs text-muted">
               {result.stats.steps} steps ({result.stats.rejected} rejected, {result.stats.jacobians} Jacobians) in {result.stats.ms.toFixed(0)} ms
               with the {result.method} method{result.switchedAt !== null ? `, switched to stiff at t = ${result.switchedAt.toPrecision(3)}` : ""}.
-              Drag to zoom, double-click to reset.
+              Drag to zoom, double-click to reset; click a name to hide or show it.
             </p>
             <div className="mt-3 flex flex-wrap items-center gap-3">
               <button type="button" className="btn" onClick={downloadCsv}>Download CSV</button>
@@ -234,6 +218,14 @@ function LyapunovCard({ mechanismId, text }: { mechanismId: string; text: () => 
   );
 }
 
+const observableNames = { final: "final value", max: "maximum", period: "period" } as const;
+
+/** "parameter:k1" → "k1", "initial:S" → "[S]0": the swept quantity as the chart names it. */
+function sweepTargetLabel(target: string): string {
+  const [kind, name] = target.split(":");
+  return kind === "initial" ? `[${name}]0` : (name ?? target);
+}
+
 function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; text: () => string; report: AnalysisReport | null; until: number }) {
   const job = useDynamicsJob<SweepResult>(dynamicsUrl(mechanismId));
   const species = report?.species ?? [];
@@ -294,11 +286,11 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
         <div className="mt-3">
           <TimeCourseChart
             t={job.result.values}
-            series={{ [`${observable} of ${chosenSpecies}`]: job.result.observed.map((v) => v ?? Number.NaN) }}
-            shown={[`${observable} of ${chosenSpecies}`]}
+            series={{ [`${observableNames[observable]} of ${chosenSpecies}`]: job.result.observed.map((v) => v ?? Number.NaN) }}
             logTime={scale === "log"}
-            xLabel={chosenTarget}
-            yLabel={observable}
+            xLabel={sweepTargetLabel(chosenTarget)}
+            yLabel={observableNames[observable]}
+            fileName={`sweep-${mechanismId}`}
             height={260}
           />
         </div>

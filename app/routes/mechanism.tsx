@@ -17,7 +17,8 @@ import { titleField } from "~/shared/fields";
 import { httpError } from "~/utils/http";
 import { requireRole, requireViewAccess } from "~/utils/permissions.server";
 import { stepRangesFor } from "~/utils/step-ranges";
-import { complexGraphSvg, currentThemeColours, downloadBlob, svgToPng } from "~/utils/graph-svg";
+import { complexGraphSvg, currentThemeColours } from "~/utils/graph-svg";
+import { PictureDownloads } from "~/components/picture-downloads";
 import { useRoom } from "~/utils/use-room";
 import type { Route } from "./+types/mechanism";
 
@@ -149,12 +150,7 @@ function GraphDownloads({ report, layout, title }: { report: AnalysisReport; lay
   const name = title.replace(/[^\w.-]+/g, "-") || "complex-graph";
   return (
     <div className="-mb-1 flex justify-end gap-2 text-xs">
-      <button type="button" className="btn px-2 py-1 text-xs" onClick={() => downloadBlob(new Blob([svg()], { type: "image/svg+xml" }), `${name}.svg`)}>
-        SVG
-      </button>
-      <button type="button" className="btn px-2 py-1 text-xs" onClick={() => void svgToPng(svg()).then((png) => downloadBlob(png, `${name}.png`))}>
-        PNG
-      </button>
+      <PictureDownloads svg={svg} name={name} />
     </div>
   );
 }
