@@ -11,5 +11,7 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 120_000,
     globalSetup: ["tests/support/global-setup.ts"],
+    // An unexpected console.error fails the test that printed it (see the module).
+    setupFiles: ["tests/support/console-guard.ts"],
   },
 });

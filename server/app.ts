@@ -5,6 +5,7 @@ import { createRequestHandler } from "@react-router/express";
 import express from "express";
 import path from "node:path";
 import type { AppLoadContext, ServerBuild } from "react-router";
+import { errorBody, statusOf } from "../app/shared/error-codes";
 import type { AppServices } from "./context";
 import { isDatabaseUnavailable } from "./db/unavailable";
 import { isOwnOrigin } from "./origin";
@@ -24,7 +25,7 @@ export async function createApp({ projectRoot, services, vite, trustProxy }: App
   // The client address behind sign-in limits comes from X-Forwarded-For only through proxies the
   // operator names; anyone can write that header.
   app.set("trust proxy", trustProxy);
-  app.use(door);
+  app.use(door(services.publicOrigin));
   app.use("/fonts", express.static(path.join(projectRoot, "fonts"), { immutable: true, maxAge: "1y" }));
 
   const getLoadContext = (req: express.Request): AppLoadContext => ({
@@ -60,23 +61,26 @@ const stateChanging = new Set(["POST", "PUT", "PATCH", "DELETE"]);
  * comes from in `Origin`, so a write from another site's page is refused before it reaches a
  * route. Scripts send no Origin and keep working, with a bearer token or a session.
  */
-function door(req: express.Request, res: express.Response, next: express.NextFunction) {
-  res.set({ "X-Frame-Options": "DENY", "X-Content-Type-Options": "nosniff" });
-  const origin = req.get("Origin");
-  if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"))) {
-    const message = "Requests from other sites cannot change anything here.";
-    if (req.path.startsWith("/api/")) return res.status(403).json({ error: message });
-    return res.status(403).type("text/plain").send(message);
-  }
-  next();
+function door(publicOrigin: string | null) {
+  return (req: express.Request, res: express.Response, next: express.NextFunction) => {
+    res.set({ "X-Frame-Options": "DENY", "X-Content-Type-Options": "nosniff" });
+    const origin = req.get("Origin");
+    if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"), publicOrigin)) {
+      const message = "Requests from other sites cannot change anything here.";
+      res.status(statusOf("forbidden"));
+      if (req.path.startsWith("/api/")) return res.json(errorBody("forbidden", message));
+      return res.type("text/plain").send(message);
+    }
+    next();
+  };
 }
 
 /** The database being away is not a bug: 503 as /healthz says, JSON under /api/, a plain page elsewhere. */
 function unavailable(error: unknown, req: express.Request, res: express.Response, next: express.NextFunction) {
   if (!isDatabaseUnavailable(error) || res.headersSent) return next(error);
   console.error(`[http] ${req.method} ${req.path}: database unavailable (${(error as Error).message})`);
-  res.status(503).set("Retry-After", "30");
-  if (req.path.startsWith("/api/")) return res.json({ error: "The database is unavailable just now; try again shortly." });
+  res.status(statusOf("unavailable")).set("Retry-After", "30");
+  if (req.path.startsWith("/api/")) return res.json(errorBody("unavailable", "The database is unavailable just now; try again shortly."));
   res
     .set("Content-Security-Policy", "default-src 'none'; frame-ancestors 'none'")
     .type("html")

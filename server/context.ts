@@ -4,11 +4,12 @@ import type { Authenticator } from "remix-auth";
 import type { AuthUser } from "./auth/authenticator";
 import type { RateLimiter } from "./auth/rate-limit";
 import type { SessionStore } from "./auth/sessions";
+import type { SignInLimits } from "./auth/sign-in-limits";
 import type { CollabHub } from "./collab/hub";
 import type { Db } from "./db/client";
 import type { MailCatcher } from "./mail/catcher";
 import type { Mailer } from "./mail/mailer";
-import type { runInWorker } from "./sim/run-in-worker";
+import type { RunJob } from "./sim/run-in-worker";
 
 export interface AppServices {
   db: Db;
@@ -16,11 +17,13 @@ export interface AppServices {
   authenticator: Authenticator<AuthUser>;
   /** Per-token request budget for the JSON API. */
   tokenLimiter: RateLimiter;
+  /** Failed sign-ins per account and address, kept in the database. */
+  signInLimits: SignInLimits;
   mailer: Mailer;
   /** PUBLIC_URL's origin, when set: where mailed and shared links point (see publicOrigin). */
   publicOrigin: string | null;
   /** Dynamics jobs in worker threads (loaded by the server, not bundled with the routes). */
-  dynamics: { run: typeof runInWorker };
+  dynamics: { run: RunJob };
   /** The local mail catcher, when SMTP_URL is not set. */
   mailCatcher: MailCatcher | null;
   /** The live collaboration rooms: role changes, API writes to the text, versions. */

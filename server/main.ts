@@ -5,17 +5,19 @@ import path from "node:path";
 import { createAuthenticator } from "./auth/authenticator";
 import { RateLimiter } from "./auth/rate-limit";
 import { createSessionStore } from "./auth/sessions";
+import { signInLimits } from "./auth/sign-in-limits";
 import { createApp } from "./app";
 import { attachCollaboration } from "./collab/endpoint";
 import { identifyCaller } from "./collab/identify";
 import { applyMigrations, connect, ensureDatabase } from "./db/client";
-import { readEnv } from "./env";
+import { hubTimings, jobSettings, publicOrigin, readEnv, signInSettings } from "./env";
 import { startMailCatcher } from "./mail/catcher";
 import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
-import { sessionSecret } from "./secret";
-import { jobRunner, prewarmWorkers } from "./sim/run-in-worker";
+import { sessionSecrets } from "./secret";
+import { WorkerJobs } from "./sim/run-in-worker";
 import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
+import { WorkerBudget } from "./worker-budget";
 
 const projectRoot = path.resolve(import.meta.dirname, "..");
 const env = readEnv();
@@ -37,22 +39,28 @@ const mailCatcher = env.SMTP_URL ? null : await startMailCatcher();
 const mailer = createMailer(env.SMTP_URL ?? mailCatcher!.url);
 
 const server = http.createServer();
-const publicOrigin = env.PUBLIC_URL ? new URL(env.PUBLIC_URL).origin : null;
+const origin = publicOrigin(env);
 // Browsers send a Secure cookie only over https: set it whenever the public address is https.
-const sessions = createSessionStore(database.db, sessionSecret(projectRoot, env.SESSION_SECRET), publicOrigin?.startsWith("https:") ?? false);
+const sessions = createSessionStore(database.db, sessionSecrets(projectRoot, env.SESSION_SECRET), origin?.startsWith("https:") ?? false);
+// One budget of cores for every worker thread: the rooms' analyses and the API's jobs.
+const workers = new WorkerBudget(env.WORKER_THREADS);
+const jobs = new WorkerJobs(workers, jobSettings(env));
 const services = {
   db: database.db,
   sessions,
   authenticator: createAuthenticator(database.db),
-  tokenLimiter: new RateLimiter(120, 60_000),
+  tokenLimiter: new RateLimiter(env.API_REQUESTS_PER_MINUTE, 60_000),
+  signInLimits: signInLimits(database.db, signInSettings(env)),
   mailer,
-  publicOrigin,
+  publicOrigin: origin,
   mailCatcher,
-  dynamics: { run: jobRunner({ analysisTimeMs: env.ANALYSIS_TIME_LIMIT_MS }) },
+  dynamics: { run: jobs.run },
   collab: attachCollaboration(server, {
     db: database.db,
     identify: identifyCaller(database.db, sessions),
-    timings: { analysisTimeoutMs: env.ANALYSIS_TIME_LIMIT_MS },
+    workers,
+    timings: hubTimings(env),
+    publicOrigin: origin,
     leave: dev ? (request) => /^vite-(hmr|ping)$/.test(request.headers["sec-websocket-protocol"] ?? "") : undefined,
   }),
 };
@@ -68,7 +76,7 @@ server.listen(env.PORT, env.HOST, () => {
   const port = typeof address === "object" && address ? address.port : env.PORT;
   console.log(`Mechweave listening on http://${env.HOST}:${port}`);
   // Warm workers make the first simulation as quick as the rest; tests start many servers and skip it.
-  if (env.NODE_ENV === "production") prewarmWorkers();
+  if (env.NODE_ENV === "production") jobs.prewarm(env.JOB_HEAP_MB);
   if (embedded) {
     console.log(`Demo accounts (password ${DEMO_PASSWORD}): ${demoAccounts.map((a) => a.email).join(", ")}`);
   }

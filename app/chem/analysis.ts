@@ -2,7 +2,8 @@
 // Its keys are the `analyze --json` contract of PRODUCT.md plus the extras the web UI needs.
 import { hasPositiveConservationLaw } from "./conservation";
 import { detailedBalance, type DetailedBalance } from "./detailed-balance";
-import { nullSpace, rank, type SparseVector } from "./exact";
+import { nullSpace, rank } from "./linalg/kernel";
+import type { SparseVector } from "./linalg/sparse";
 import { analyzeLinkage } from "./linkage";
 import type { Diagnostic, Network, ParseResult } from "./model";
 import { buildNetwork, reactionVector } from "./network";
@@ -38,6 +39,8 @@ export interface AnalysisReport {
   detailedBalance: DetailedBalance;
   customLaws: { reaction: number; law: string; lines: number[] }[];
   fixedSpecies: Record<string, number>;
+  /** Named rate coefficients and their values: the typeset equations keep the names. */
+  parameters: Record<string, number>;
 }
 
 export async function analyzeSource(source: string): Promise<AnalysisReport> {
@@ -114,6 +117,7 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     detailedBalance: detailedBalance(network, reversible),
     customLaws,
     fixedSpecies: mechanism.fixed,
+    parameters: mechanism.parameters,
   };
 }
 

@@ -2,8 +2,10 @@
 // (Feinberg 1989): one circuit condition for each independent cycle of the undirected complex
 // graph (the Wegscheider-type conditions), and one spanning-forest condition for each linear
 // dependency among the reaction vectors of a spanning forest. Together r/2 − s conditions.
-import { ExactSizeLimitError, sparseNullSpace, type SparseVector } from "./exact";
 import { coefficientLatex, coefficientText } from "./expression";
+import { ExactSizeLimitError } from "./linalg/fraction-free";
+import { sparseNullSpace } from "./linalg/kernel";
+import type { SparseVector } from "./linalg/sparse";
 import type { Network } from "./model";
 import { reactionVector } from "./network";
 

@@ -3,6 +3,7 @@
 import type { MathNode } from "mathjs";
 import { readLaw } from "./law";
 import type { ComplexVector, RateExpression, RateFactor } from "./model";
+import { readableNumberLatex } from "./numbers";
 import { speciesToken } from "./print";
 import { operandNeedsParentheses, rateExpressionPrecedence } from "./rate-expression";
 
@@ -86,45 +87,50 @@ export function symbolLatex(name: string): string {
   return latexBase(name);
 }
 
+/** A literal number with every digit it has, as a × 10^n outside 10^-3..10^5. */
 export function numberLatex(text: string): string {
-  const match = /^(-?[\d.]+)[eE]([+-]?\d+)$/.exec(String(Number(text)));
-  if (!match) return String(Number(text));
-  const exponent = `10^{${Number(match[2])}}`;
-  return match[1] === "1" ? exponent : `${match[1]} \\times ${exponent}`;
+  return readableNumberLatex(Number(text));
 }
 
-/** An arithmetic rate coefficient in LaTeX: fractions, powers and functions typeset as such. */
-export function rateExpressionLatex(node: RateExpression): string {
+/**
+ * An arithmetic rate coefficient in LaTeX, e.g. 2 \times 10^{6}\, T^{0.5}\, e^{-6000/T}: numbers in
+ * the readable notation, `exp` as a power of e, and a fraction stacked on the line but written
+ * with a slash inside an exponent, where a stacked one would be too small to read.
+ */
+export function rateExpressionLatex(node: RateExpression, inExponent = false): string {
+  const latex = (child: RateExpression) => rateExpressionLatex(child, inExponent);
   switch (node.kind) {
     case "number":
       return numberLatex(String(node.value));
     case "parameter":
       return symbolLatex(node.name);
     case "negate":
-      return rateExpressionPrecedence(node.operand) < 3 ? `-\\left(${rateExpressionLatex(node.operand)}\\right)` : `-${rateExpressionLatex(node.operand)}`;
-    case "call": {
-      const argument = rateExpressionLatex(node.argument);
-      if (node.name === "sqrt") return `\\sqrt{${argument}}`;
-      return `${node.name === "exp" ? "\\exp" : "\\ln"}\\left(${argument}\\right)`;
-    }
+      return rateExpressionPrecedence(node.operand) < 3 ? `-\\left(${latex(node.operand)}\\right)` : `-${latex(node.operand)}`;
+    case "call":
+      if (node.name === "exp") return `e^{${rateExpressionLatex(node.argument, true)}}`;
+      return node.name === "sqrt" ? `\\sqrt{${latex(node.argument)}}` : `\\ln\\left(${latex(node.argument)}\\right)`;
     case "binary": {
-      if (node.operator === "/") return `\\frac{${rateExpressionLatex(node.left)}}{${rateExpressionLatex(node.right)}}`;
+      if (node.operator === "/" && !inExponent) return `\\frac{${latex(node.left)}}{${latex(node.right)}}`;
       const side = (which: "left" | "right") => {
-        const latex = rateExpressionLatex(node[which]);
-        // A fraction as an exponent's base still needs its parentheses.
-        const grouped = operandNeedsParentheses(node, which) || (node.operator === "^" && which === "left" && node.left.kind === "binary");
-        return grouped ? `\\left(${latex}\\right)` : latex;
+        const written = latex(node[which]);
+        // A base that is more than one symbol (a fraction, a number with its power of ten, a power of e) is grouped.
+        const compoundBase = node.operator === "^" && which === "left" && (node.left.kind === "binary" || /\^|\\times/.test(written));
+        const grouped = operandNeedsParentheses(node, which) || compoundBase;
+        return grouped ? `\\left(${written}\\right)` : written;
       };
-      if (node.operator === "^") return `{${side("left")}}^{${rateExpressionLatex(node.right)}}`;
-      return `${side("left")}${node.operator === "*" ? "\\, " : ` ${node.operator} `}${side("right")}`;
+      if (node.operator === "^") return `${side("left")}^{${rateExpressionLatex(node.right, true)}}`;
+      return `${side("left")}${node.operator === "*" ? "\\, " : node.operator === "/" ? "/" : ` ${node.operator} `}${side("right")}`;
     }
   }
 }
 
-function factorLatex(factor: RateFactor): string {
+/** One factor of a coefficient with its power: k_{1}, k_{f}^{2}, 10^{-3}; an expression as its tree. */
+export function factorLatex(factor: RateFactor): string {
   if (factor.kind === "expression") {
-    const latex = rateExpressionLatex(factor.expression!.tree);
-    return groupedExpression(factor) ? `\\left(${latex}\\right)` : latex;
+    // Beside other factors only a sum needs parentheses: a product, power or call reads as one.
+    const tree = factor.expression!.tree;
+    const latex = rateExpressionLatex(tree);
+    return rateExpressionPrecedence(tree) < 2 ? `\\left(${latex}\\right)` : latex;
   }
   const base = factor.kind === "value" ? numberLatex(factor.symbol) : symbolLatex(factor.symbol);
   return factor.power === 1 ? base : `${base}^{${factor.power}}`;
@@ -134,16 +140,11 @@ export function coefficientLatex(sum: RateFactor[][]): string {
   return sum.map((product) => withoutUnitFactors(product).map(factorLatex).join(" ")).join(" + ");
 }
 
-export function monomialLatex(complex: ComplexVector, species: string[]): string {
-  return complex.terms
-    .map(({ species: index, coefficient }) => symbolLatex(species[index]) + (coefficient === 1 ? "" : `^{${coefficient}}`))
-    .join(" ");
-}
-
-export function massActionLatex(sum: RateFactor[][], monomial: string): string {
-  if (monomial && isUnit(sum)) return monomial;
-  const coefficient = sum.length > 1 ? `\\left(${coefficientLatex(sum)}\\right)` : coefficientLatex(sum);
-  return monomial ? `${coefficient}\\, ${monomial}` : coefficient;
+/** A concentration in brackets, so [MQ] and [M][Q] never look alike: [\mathrm{MQ}]^{2}. */
+export function concentrationLatex(species: string, power: number): string {
+  // Species are upright like every chemical name, one letter or several: [Q] beside [MQ].
+  const bracketed = `[${symbolLatex(species).replace(/^[A-Za-z](?=_|$)/, (letter) => `\\mathrm{${letter}}`)}]`;
+  return power === 1 ? bracketed : `${bracketed}^{${power}}`;
 }
 
 /** A custom law typeset by mathjs, with names in the same notation as everything else. */

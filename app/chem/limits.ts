@@ -1,22 +1,87 @@
-// Size limits checked before parsing, so that one oversized paste cannot stall a shared room.
+// Every number that is a rule a person can run into: how much text, how many samples, how long a
+// name. One home, so the editor, the API, the worker, the CLI and the messages never disagree. It
+// sits in the chemistry library because every side may import app/chem and app/chem imports
+// nothing of the app (decision 013-one-home-for-limits-and-errors).
+
+const KiB = 1024;
+const MiB = 1024 * KiB;
+
+// ── Texts ──────────────────────────────────────────────────────────────────────────────────────
 /** The largest mechanism text anywhere: editor, live document, API and database. */
-export const MAX_SOURCE_BYTES = 1024 * 1024;
-const maxSteps = 20_000;
+export const MAX_SOURCE_BYTES = 1 * MiB;
+/** Steps a mechanism may have before the analysis refuses it unread. */
+export const MAX_SOURCE_STEPS = 20_000;
+/** A polynomial ODE text (realization, the side-by-side check): its expansion is the cost, not its length. */
+export const MAX_ODE_BYTES = 64 * KiB;
+
+// ── Time courses ───────────────────────────────────────────────────────────────────────────────
+/** Samples of one time course in the library and the command line, where only the caller waits. */
+export const MAX_SAMPLES = 100_000;
+/**
+ * Samples of one run on the shared server: every sample of every series crosses from the worker
+ * and travels as JSON, and the Dynamics panel draws them. Larger runs answer 413.
+ */
+export const MAX_SERVER_SAMPLES = 20_000;
+/** Samples of each point of a sweep: one observable is kept per point, so few suffice. */
+export const MAX_SWEEP_SAMPLES = 5_000;
+/** Points of one sweep in the library and the command line. */
+export const MAX_SWEEP_POINTS = 500;
+/** Points of one sweep on the shared server (each point is a whole run). Larger sweeps answer 413. */
+export const MAX_SERVER_SWEEP_POINTS = 200;
+
+// ── Overrides of one run ───────────────────────────────────────────────────────────────────────
+/** Parameters and initial concentrations one dynamics request may replace, and the characters of each name. */
+export const MAX_OVERRIDES = 100;
+export const MAX_OVERRIDE_NAME_CHARS = 200;
+
+// ── Files ──────────────────────────────────────────────────────────────────────────────────────
+/** A measured time course read from CSV. */
+export const MAX_CSV_BYTES = 5 * MiB;
+export const MAX_CSV_ROWS = 100_000;
+/** Entries of the stoichiometric matrix exported as CSV: beyond this (tens of MB) a spreadsheet is the wrong tool. */
+export const MAX_CSV_EXPORT_ENTRIES = 2_000_000;
+/** An SBML file to import. */
+export const MAX_SBML_BYTES = 4 * MiB;
+/** What a multipart upload adds around the file (boundaries, part headers) before its size is known. */
+export const MULTIPART_OVERHEAD_BYTES = 64 * KiB;
+/** A JSON request body: a mechanism text at its limit, escaped, fits. */
+export const MAX_JSON_BODY_BYTES = 2 * MiB;
+
+// ── Names and short texts ──────────────────────────────────────────────────────────────────────
+export const MAX_TITLE_CHARS = 200;
+export const MAX_SUMMARY_CHARS = 2000;
+/** An access token's name, a view link's label. */
+export const MAX_LABEL_CHARS = 80;
+/** A person's name, a named version. */
+export const MAX_NAME_CHARS = 120;
+
+// ── Realization requests ───────────────────────────────────────────────────────────────────────
+/** Extra complexes offered to the search for equivalent mechanisms, and the characters of each. */
+export const MAX_EXTRA_COMPLEXES = 200;
+export const MAX_COMPLEX_CHARS = 200;
+/** The largest exponent of a variable in a monomial multiplier. */
+export const MAX_MULTIPLIER_EXPONENT = 20;
+
+/** "1 MiB", "64 KiB": a byte limit as the messages say it. */
+export function byteSize(bytes: number): string {
+  return bytes >= MiB ? `${bytes / MiB} MiB` : `${bytes / KiB} KiB`;
+}
+
 const arrow = /->|→|<=>|<->|⇌|⇄/;
 
-/** A message refusing the text, or null when it is within the limits. */
+/** A message refusing the text, or null when it is within the limits. Checked before parsing, so one oversized paste cannot stall a shared room. */
 export function checkSourceLimits(source: string): string | null {
   const bytes = source.length > MAX_SOURCE_BYTES ? source.length : new TextEncoder().encode(source).length;
   if (bytes > MAX_SOURCE_BYTES) {
-    return `This mechanism is ${(bytes / MAX_SOURCE_BYTES).toFixed(1)} MiB of text; Mechweave reads at most 1 MiB.`;
+    return `This mechanism is ${(bytes / MAX_SOURCE_BYTES).toFixed(1)} MiB of text; Mechweave reads at most ${byteSize(MAX_SOURCE_BYTES)}.`;
   }
   let steps = 0;
   for (const line of source.split("\n")) {
     const hash = line.indexOf("#");
     if (arrow.test(hash < 0 ? line : line.slice(0, hash))) steps++;
   }
-  if (steps > maxSteps) {
-    return `This mechanism has ${steps.toLocaleString("en")} steps; Mechweave analyses at most ${maxSteps.toLocaleString("en")}.`;
+  if (steps > MAX_SOURCE_STEPS) {
+    return `This mechanism has ${steps.toLocaleString("en")} steps; Mechweave analyses at most ${MAX_SOURCE_STEPS.toLocaleString("en")}.`;
   }
   return null;
 }

@@ -1,7 +1,7 @@
 // From steps as written to the reaction network of chemical reaction network theory: complexes
 // over the non-fixed species and directed reactions between them, duplicates merged.
-import type { SparseVector } from "./exact";
 import { massActionText, monomialText } from "./expression";
+import type { SparseVector } from "./linalg/sparse";
 import type { ComplexVector, Mechanism, Network, RateFactor, RateRef, Reaction, Step, Term } from "./model";
 import { speciesToken } from "./print";
 import { evaluateRateExpression, rateExpressionText } from "./rate-expression";

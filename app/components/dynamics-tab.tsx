@@ -10,6 +10,7 @@ import type { EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { SweepResult } from "~/chem/kinetics/sweep";
+import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { readOverrides } from "~/chem/overrides";
 import { parseMechanism, type Settings } from "~/chem/parse";
 import { mechanismNames } from "~/editor/complete";
@@ -36,7 +37,6 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
   const [samples, setSamples] = useState(400);
   const [method, setMethod] = useState<"auto" | "stiff" | "explicit">("auto");
   const [logTime, setLogTime] = useState(false);
-  const [hidden, setHidden] = useState<string[]>([]);
   const [measured, setMeasured] = useState<MeasuredCourses | null>(null);
   const [csvNote, setCsvNote] = useState<string | null>(null);
   const [overrides, setOverrides] = useState<string[]>([]);
@@ -46,8 +46,6 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
   };
 
   const result = simulation.result;
-  const species = result ? Object.keys(result.series) : (report?.species ?? []);
-  const shown = species.filter((s) => !hidden.includes(s));
   const fit = useMemo(() => (result && measured ? residuals(measured, result) : null), [result, measured]);
 
   async function loadCsv(file: File) {
@@ -86,7 +84,7 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
           }}
         >
           <NumberField label="Until time" value={until} onChange={setUntil} min={1e-9} />
-          <NumberField label="Samples" value={samples} onChange={(v) => setSamples(Math.round(v))} min={2} max={20000} />
+          <NumberField label="Samples" value={samples} onChange={(v) => setSamples(Math.round(v))} min={2} max={MAX_SERVER_SAMPLES} />
           <label className="text-sm">
             <span className="label">Method</span>
             <select className="field py-1.5" value={method} onChange={(e) => setMethod(e.target.value as typeof method)}>
@@ -107,26 +105,13 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
         <JobStatus job={simulation} />
         {result && (
           <>
-            <div className="mt-3 flex flex-wrap gap-2">
-              {species.map((name) => (
-                <label key={name} className="pill cursor-pointer border border-line">
-                  <input
-                    type="checkbox"
-                    className="mr-1"
-                    checked={!hidden.includes(name)}
-                    onChange={(e) => setHidden((h) => (e.target.checked ? h.filter((n) => n !== name) : [...h, name]))}
-                  />
-                  {name}
-                </label>
-              ))}
-            </div>
             <div className="mt-3">
-              <TimeCourseChart t={result.t} series={result.series} shown={shown} logTime={logTime} measured={measured} />
+              <TimeCourseChart t={result.t} series={result.series} logTime={logTime} measured={measured} fileName={`simulation-${mechanismId}`} />
             </div>
             <p className="mt-2 text-xs text-muted">
               {result.stats.steps} steps ({result.stats.rejected} rejected, {result.stats.jacobians} Jacobians) in {result.stats.ms.toFixed(0)} ms
               with the {result.method} method{result.switchedAt !== null ? `, switched to stiff at t = ${result.switchedAt.toPrecision(3)}` : ""}.
-              Drag to zoom, double-click to reset.
+              Drag to zoom, double-click to reset; click a name to hide or show it.
             </p>
             <div className="mt-3 flex flex-wrap items-center gap-3">
               <button type="button" className="btn" onClick={downloadCsv}>Download CSV</button>
@@ -268,6 +253,17 @@ function sweepTarget(choice: string) {
   return { kind: "parameter", name };
 }
 
+const observableNames = { final: "final value", max: "maximum", period: "period" } as const;
+
+/** "parameter:k1" → "k1", "initial:S" → "[S]0", "fixed:B" → "[B]", "step:r2:backward" → "k of r2 (backward)": the swept quantity as the chart names it. */
+function sweepTargetLabel(target: string): string {
+  const [kind, name, direction] = target.split(":");
+  if (kind === "initial") return `[${name}]0`;
+  if (kind === "fixed") return `[${name}]`;
+  if (kind === "step") return direction === "backward" ? `k of ${name} (backward)` : `k of ${name}`;
+  return name ?? target;
+}
+
 function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: string; text: () => string; input: JobInput; report: AnalysisReport | null; until: number }) {
   const job = useDynamicsJob<SweepResult>(dynamicsUrl(mechanismId));
   const species = report?.species ?? [];
@@ -302,7 +298,7 @@ function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: s
         </label>
         <NumberField label="From" value={from} onChange={setFrom} />
         <NumberField label="To" value={to} onChange={setTo} />
-        <NumberField label="Points" value={points} onChange={(v) => setPoints(Math.round(v))} min={2} max={200} />
+        <NumberField label="Points" value={points} onChange={(v) => setPoints(Math.round(v))} min={2} max={MAX_SERVER_SWEEP_POINTS} />
         <label>
           <span className="label">Scale</span>
           <select className="field py-1.5" value={scale} onChange={(e) => setScale(e.target.value as typeof scale)}><option>log</option><option>linear</option></select>
@@ -328,11 +324,11 @@ function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: s
         <div className="mt-3">
           <TimeCourseChart
             t={job.result.values}
-            series={{ [`${observable} of ${chosenSpecies}`]: job.result.observed.map((v) => v ?? Number.NaN) }}
-            shown={[`${observable} of ${chosenSpecies}`]}
+            series={{ [`${observableNames[observable]} of ${chosenSpecies}`]: job.result.observed.map((v) => v ?? Number.NaN) }}
             logTime={scale === "log"}
-            xLabel={chosenTarget}
-            yLabel={observable}
+            xLabel={sweepTargetLabel(chosenTarget)}
+            yLabel={observableNames[observable]}
+            fileName={`sweep-${mechanismId}`}
             height={260}
           />
         </div>

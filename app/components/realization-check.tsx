@@ -49,7 +49,7 @@ export function RealizationCheck({ ode, result, variables }: { ode: string; resu
       {original.result && within && (
         <>
           <div className="mt-3">
-            <TimeCourseChart t={original.result.t} series={original.result.series} shown={variables} logTime={false} measured={thin(within)} yLabel="value" overlayLabel="realization" />
+            <TimeCourseChart t={original.result.t} series={original.result.series} logTime={false} measured={thin(within)} yLabel="value" overlayLabel="realization" />
           </div>
           <p className="mt-1 text-xs text-muted">Lines: the original ODE. Markers: the realization, mapped back. Chaotic systems part ways after a while, as any two integrations do.</p>
         </>

@@ -22,6 +22,12 @@ describe("StructurePanel", () => {
     expect(html).not.toContain("exactly one positive steady state");
   });
 
+  it("shows the values behind the names of an equation on hover", async () => {
+    const report = await analyzeSource("A + B -> C @ k1\nC -> A @ 3e9\nk1 = 2.5e13");
+    const html = renderToString(createElement(StructurePanel, { report }));
+    expect(html).toContain('title="k1 = 2.5×10¹³"');
+  });
+
   it("renders an empty mechanism without failing", async () => {
     const html = renderToString(createElement(StructurePanel, { report: await analyzeSource("") }));
     expect(html).toContain("There are no reactions yet");

@@ -7,6 +7,7 @@ import { useMemo, type ReactNode } from "react";
 import type { AnalysisReport } from "~/chem/analysis";
 import { denseStoichiometricMatrix } from "~/chem/stoichiometry";
 import { combinationLatex } from "~/chem/expression";
+import { readableNumberText } from "~/chem/numbers";
 import type { TheoremVerdict } from "~/chem/theorems";
 
 /** Typesetting thousands of formulas would stall the page; beyond this many the rest are counted. */
@@ -60,7 +61,7 @@ export function StructurePanel({ report }: { report: AnalysisReport }) {
 
       {species.length > 0 && (
         <Section title="Induced kinetic differential equations">
-          <Formulas latex={species.map((name) => report.odesLatex[name])} />
+          <Formulas latex={species.map((name) => report.odesLatex[name])} titles={species.map((name) => coefficientValues(report, name))} wrap />
           {report.customLaws.length > 0 && (
             <p className="mt-2 rounded-md bg-signal-soft px-3 py-2 text-sm text-signal">
               Not mass action: {report.customLaws.map(({ reaction, law, lines }) => `${reactionText(report, reaction)} uses ${law} (line ${lines.join(", ")})`).join("; ")}.
@@ -200,7 +201,12 @@ function LinkageClasses({ report }: { report: AnalysisReport }) {
   );
 }
 
-function Formulas({ latex }: { latex: string[] }) {
+/**
+ * Typeset formulas, one a line. `wrap` lets a long one break between terms, continuing indented
+ * under its start (inline KaTeX breaks after + and − and at \allowbreak), so it stays within the
+ * panel at any width; a single term too long for a line still scrolls. `titles` show on hover.
+ */
+function Formulas({ latex, titles, wrap = false }: { latex: string[]; titles?: string[]; wrap?: boolean }) {
   // Callers build the list afresh on every render; the joined text is what identifies it.
   const shown = latex.slice(0, shownFormulas).join("\n");
   const html = useMemo(
@@ -211,11 +217,22 @@ function Formulas({ latex }: { latex: string[] }) {
   return (
     <div className="space-y-1.5 overflow-x-auto">
       {html.map((markup, index) => (
-        <div key={index} dangerouslySetInnerHTML={{ __html: markup }} />
+        <div key={index} title={titles?.[index] || undefined} style={wrap ? hangingIndent : undefined} dangerouslySetInnerHTML={{ __html: markup }} />
       ))}
       {latex.length > shownFormulas && <p className="text-sm text-muted">… and {latex.length - shownFormulas} more.</p>}
     </div>
   );
+}
+
+const hangingIndent = { paddingLeft: "2em", textIndent: "-2em" } as const;
+
+/** "k1 = 2.5×10⁹, k7 = 0.3": the values behind the names in one species' equation. */
+function coefficientValues(report: AnalysisReport, species: string): string {
+  const names = new Set(report.odes[species]?.replace(/"[^"]*"/g, "").match(/[A-Za-z][A-Za-z0-9_]*/g));
+  return Object.entries(report.parameters)
+    .filter(([name]) => names.has(name))
+    .map(([name, value]) => `${name} = ${readableNumberText(value)}`)
+    .join(", ");
 }
 
 function reactionText(report: AnalysisReport, index: number): string {

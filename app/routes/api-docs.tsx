@@ -1,3 +1,5 @@
+import { byteSize, MAX_JSON_BODY_BYTES, MAX_ODE_BYTES, MAX_SBML_BYTES, MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS, MAX_SOURCE_BYTES } from "~/chem/limits";
+import { errorCodes, type ErrorCode } from "~/shared/error-codes";
 import type { Route } from "./+types/api-docs";
 
 export const meta: Route.MetaFunction = () => [{ title: "JSON API · Mechweave" }];
@@ -24,7 +26,7 @@ const endpoints: Endpoint[] = [
   { method: "PUT", path: "/api/v1/mechanisms/:id/source", role: "editor", what: "Replace the text; applied through the live document, so everyone in the room sees it.", example: (o) => `curl -X PUT ${auth} ${json} -d '{"source":"A -> B @ 1"}' ${o}/api/v1/mechanisms/ID/source` },
   { method: "GET", path: "/api/v1/mechanisms/:id/snapshots", role: "viewer", what: "Versions, newest first.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID/snapshots` },
   { method: "POST", path: "/api/v1/mechanisms/:id/snapshots", role: "editor", what: "Name the current version: { name }.", example: (o) => `curl ${auth} ${json} -d '{"name":"before review"}' ${o}/api/v1/mechanisms/ID/snapshots` },
-  { method: "POST", path: "/api/v1/mechanisms/:id/simulations", role: "viewer", what: "Simulate: { until, samples, rtol?, atol? } → { t, series, stats }.", example: (o) => `curl ${auth} ${json} -d '{"until":50,"samples":101}' ${o}/api/v1/mechanisms/ID/simulations` },
+  { method: "POST", path: "/api/v1/mechanisms/:id/simulations", role: "viewer", what: "Simulate: { until, samples, rtol?, atol?, method? } → { t, series, stats }. method is auto, stiff or explicit.", example: (o) => `curl ${auth} ${json} -d '{"until":50,"samples":101}' ${o}/api/v1/mechanisms/ID/simulations` },
   {
     method: "POST",
     path: "/api/v1/mechanisms/:id/dynamics",
@@ -40,7 +42,7 @@ const endpoints: Endpoint[] = [
   { method: "POST", path: "/api/v1/mechanisms/:id/view-links", role: "owner", what: "A read-only link: { expiresAt? } → { id, url }.", example: (o) => `curl ${auth} ${json} -d '{}' ${o}/api/v1/mechanisms/ID/view-links` },
   { method: "DELETE", path: "/api/v1/mechanisms/:id/view-links/:linkId", role: "owner", what: "Revoke a view link.", example: (o) => `curl -X DELETE ${auth} ${o}/api/v1/mechanisms/ID/view-links/LINK` },
   { method: "POST", path: "/api/v1/analyze", role: "signed in", what: "Analyse a text without saving it: { source }. A step with rate coefficient 0 is left out of the network, with a warning on its line.", example: (o) => `curl ${auth} ${json} -d '{"source":"X + Y -> 2Y @ 1"}' ${o}/api/v1/analyze` },
-  { method: "POST", path: "/api/v1/realizations", role: "signed in", what: "Kinetic check and canonical realization of a polynomial ODE: { ode, shift?, multiply? }.", example: (o) => `curl ${auth} ${json} -d '{"ode":"x\\' = x - x*y\\ny\\' = x*y - y"}' ${o}/api/v1/realizations` },
+  { method: "POST", path: "/api/v1/realizations", role: "signed in", what: "Kinetic check and canonical realization of a polynomial ODE: { ode, shift?, multiply?, until?, equivalents?, complexes? }.", example: (o) => `curl ${auth} ${json} -d '{"ode":"x\\' = x - x*y\\ny\\' = x*y - y"}' ${o}/api/v1/realizations` },
   { method: "POST", path: "/api/v1/tokens", role: "browser session", what: "Create a token: { name } → { id, token } (shown once).", example: (o) => `curl -b cookies.txt ${json} -d '{"name":"script"}' ${o}/api/v1/tokens` },
   { method: "DELETE", path: "/api/v1/tokens/:id", role: "signed in", what: "Revoke a token; live-document sockets opened with it close within about a second.", example: (o) => `curl -X DELETE ${auth} ${o}/api/v1/tokens/TOKEN_ID` },
   {
@@ -59,11 +61,8 @@ export default function ApiDocs({ loaderData }: Route.ComponentProps) {
       <p className="mt-2 max-w-3xl text-sm text-muted">
         Every endpoint lives under <code>/api/v1/</code> and accepts your browser session or a personal access token
         (<a href="/settings/tokens">create one</a>) as <code>Authorization: Bearer TOKEN</code>. A token acts with your roles and has a budget of
-        120 requests a minute. Errors are <code>{`{ "error": "message" }`}</code> with status 400 (bad input), 401 (not signed in), 403 (role too
-        low, or a request from another site), 404 (not found or not visible to you), 405 (wrong method; the <code>Allow</code> header lists the
-        right ones), 413 (too large), 415 (a body that is not <code>application/json</code>), 422 (a text that cannot be analysed), 429 (rate
-        limited, or too many of your jobs waiting: see <code>Retry-After</code>) or 503 (over the server's time limit, or the database is
-        unavailable; try again shortly).
+        120 requests a minute. Errors are <code>{`{ "error": "message", "code": "…" }`}</code>: the message is for people, the code for
+        scripts (see <a href="#errors">Errors</a>).
       </p>
       <p className="mt-2 max-w-3xl text-sm text-muted">
         Send bodies as JSON with <code>Content-Type: application/json</code> (only the SBML import also takes a file upload or raw XML). Text
@@ -75,8 +74,14 @@ export default function ApiDocs({ loaderData }: Route.ComponentProps) {
         limit, 20 s unless the operator sets <code>ANALYSIS_TIME_LIMIT_MS</code>. Simulations, sweeps and realizations run one per user at a
         time with up to three more waiting; asked with <code>Accept: application/x-ndjson</code>, they answer <code>{`{ "queued": n }`}</code>{" "}
         lines while waiting, then <code>{`{ "progress": f }`}</code> lines, then <code>{`{ "result": … }`}</code> or{" "}
-        <code>{`{ "error": "…" }`}</code>.
+        <code>{`{ "error": "…", "code": "…" }`}</code>.
       </p>
+      <p className="mt-2 max-w-3xl text-sm text-muted">
+        Limits: a JSON body up to {byteSize(MAX_JSON_BODY_BYTES)}, a mechanism text up to {byteSize(MAX_SOURCE_BYTES)}, an ODE up to{" "}
+        {byteSize(MAX_ODE_BYTES)}, an SBML file up to {byteSize(MAX_SBML_BYTES)}; a run up to {MAX_SERVER_SAMPLES.toLocaleString("en")} samples, a
+        sweep up to {MAX_SERVER_SWEEP_POINTS} points. Beyond them the answer is 413.
+      </p>
+      <ErrorTable />
       <div className="mt-6 space-y-3">
         {endpoints.map((e) => (
           <section key={e.method + e.path} className="card p-4">
@@ -91,5 +96,36 @@ export default function ApiDocs({ loaderData }: Route.ComponentProps) {
         ))}
       </div>
     </main>
+  );
+}
+
+/** The code → status table itself (app/shared/error-codes.ts), so the page cannot drift from it. */
+function ErrorTable() {
+  return (
+    <section id="errors" className="mt-6 max-w-3xl">
+      <h2 className="text-lg font-semibold">Errors</h2>
+      <table className="mt-2 w-full text-left text-sm">
+        <thead className="text-muted">
+          <tr>
+            {["Status", "Code", "Meaning"].map((heading) => (
+              <th key={heading} className="py-1 pr-3 font-medium">
+                {heading}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {(Object.entries(errorCodes) as [ErrorCode, (typeof errorCodes)[ErrorCode]][]).map(([code, { status, meaning }]) => (
+            <tr key={code} className="border-t border-line align-top">
+              <td className="py-1 pr-3 font-mono">{status}</td>
+              <td className="py-1 pr-3">
+                <code>{code}</code>
+              </td>
+              <td className="py-1">{meaning}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </section>
   );
 }

@@ -7,6 +7,7 @@ import { titleField } from "~/shared/fields";
 import { importSbmlFile } from "~/utils/import.server";
 import { TimeAgo } from "~/components/time-ago";
 import type { Route } from "./+types/dashboard";
+import { httpError } from "~/utils/http";
 
 export const meta: Route.MetaFunction = () => [{ title: "Mechanisms · Mechweave" }];
 
@@ -21,7 +22,7 @@ export async function action(args: Route.ActionArgs) {
   const form = await args.request.formData();
   if (form.get("intent") === "import") {
     const file = form.get("file");
-    if (!(file instanceof File) || file.size === 0) return Response.json({ error: "Choose an SBML file to import." }, { status: 400 });
+    if (!(file instanceof File) || file.size === 0) return httpError("bad_input", "Choose an SBML file to import.");
     try {
       const { row } = await importSbmlFile(args, user, await file.text(), file.name);
       throw redirect(`/m/${row.id}`);
@@ -31,7 +32,7 @@ export async function action(args: Route.ActionArgs) {
     }
   }
   const title = titleField.safeParse(form.get("title"));
-  if (!title.success) return Response.json({ error: title.error.issues[0].message }, { status: 400 });
+  if (!title.success) return httpError("bad_input", title.error.issues[0].message);
   const row = await createMechanism(args.context.db, user.id, { title: title.data, source: "# Write one reaction step a line, e.g.\n# A + B -> C @ k1 = 0.5\n" });
   throw redirect(`/m/${row.id}`);
 }

@@ -5,6 +5,7 @@ import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { requestPasswordReset } from "~/utils/account-mail.server";
 import type { Route } from "./+types/forgot-password";
+import { httpError } from "~/utils/http";
 
 export const meta: Route.MetaFunction = () => [{ title: "Forgot your password · Mechweave" }];
 
@@ -12,7 +13,7 @@ const resetRequest = z.object({ email: z.string().trim().toLowerCase().email("En
 
 export async function action({ request, context }: Route.ActionArgs) {
   const parsed = resetRequest.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message }, { status: 400 });
+  if (!parsed.success) return httpError("bad_input", parsed.error.issues[0].message);
   requestPasswordReset(context, request, parsed.data.email);
   return { sent: parsed.data.email };
 }

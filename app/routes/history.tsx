@@ -2,7 +2,8 @@
 // name the current one, restore an old one as a new change.
 import { Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
-import { findSnapshot, listSnapshots, snapshotNameField, type SnapshotKind } from "~/utils/mechanisms.server";
+import { snapshotNameField } from "~/shared/fields";
+import { findSnapshot, listSnapshots, type SnapshotKind } from "~/utils/mechanisms.server";
 import { atLeast } from "~/shared/roles";
 import { TimeAgo } from "~/components/time-ago";
 import { httpError } from "~/utils/http";
@@ -46,7 +47,7 @@ const historyActions = z.discriminatedUnion("intent", [
 export async function action(args: Route.ActionArgs) {
   const { mechanism, user } = await requireRole(args, args.params.id, "editor");
   const parsed = historyActions.safeParse(Object.fromEntries(await args.request.formData()));
-  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message }, { status: 400 });
+  if (!parsed.success) return httpError("bad_input", parsed.error.issues[0].message);
   const input = parsed.data;
   const collab = args.context.collab;
   if (input.intent === "name") {
@@ -54,7 +55,7 @@ export async function action(args: Route.ActionArgs) {
     return { ok: `Saved this version as “${input.name}”.` };
   }
   const restored = await collab.restoreSnapshot(mechanism.id, user.id, input.snapshotId);
-  if (!restored) throw httpError(404, "No such version of this mechanism.");
+  if (!restored) throw httpError("not_found", "No such version of this mechanism.");
   return { ok: `Version #${input.snapshotId} is the current text again; the text before it stays in the history.` };
 }
 

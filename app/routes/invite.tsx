@@ -14,7 +14,7 @@ export const meta: Route.MetaFunction = () => [{ title: "Invitation · Mechweave
 
 export async function loader(args: Route.LoaderArgs) {
   const found = await lookUpInvitation(args.context.db, args.params.token);
-  if (!found.ok) throw httpError(404, found.reason);
+  if (!found.ok) throw httpError("not_found", found.reason);
   const user = await getUser(args);
   return {
     title: found.title,
@@ -34,12 +34,12 @@ const acceptForm = z.discriminatedUnion("intent", [
 export async function action(args: Route.ActionArgs) {
   const { context, params } = args;
   const parsed = acceptForm.safeParse(Object.fromEntries(await args.request.formData()));
-  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message }, { status: 400 });
+  if (!parsed.success) return httpError("bad_input", parsed.error.issues[0].message);
   try {
     if (parsed.data.intent === "sign-up") {
       const found = await lookUpInvitation(context.db, params.token);
-      if (!found.ok) return Response.json({ error: found.reason }, { status: 400 });
-      if (parsed.data.email !== found.invitation.email) return Response.json({ error: `Use the invited address, ${found.invitation.email}.` }, { status: 400 });
+      if (!found.ok) return httpError("bad_input", found.reason);
+      if (parsed.data.email !== found.invitation.email) return httpError("bad_input", `Use the invited address, ${found.invitation.email}.`);
       // The new account's address is not verified yet: the invitation waits for the mailed link.
       const user = await createUser(context.db, parsed.data);
       await acceptInvitation(context.db, params.token, user);
@@ -47,12 +47,12 @@ export async function action(args: Route.ActionArgs) {
       return await startUserSession(args, user, "/verify-email");
     }
     const user = await getUser(args);
-    if (!user) return Response.json({ error: "Sign in first." }, { status: 401 });
+    if (!user) return httpError("sign_in_required", "Sign in first.");
     const accepted = await acceptInvitation(context.db, params.token, user);
     throw redirect(accepted.waiting ? "/verify-email" : `/m/${accepted.mechanismId}`);
   } catch (error) {
     if (isAuthFailure(error) || isMembershipError(error)) {
-      return Response.json({ error: (error as Error).message }, { status: 400 });
+      return httpError("bad_input", (error as Error).message);
     }
     throw error;
   }

@@ -5,6 +5,7 @@ import type { XY } from "~/components/graph/layout";
 import { Form, Link, redirect, useNavigation } from "react-router";
 import { deleteMechanism, renameMechanism } from "~/utils/mechanisms.server";
 import { atLeast } from "~/shared/roles";
+import { layoutMap, sourceText } from "~/shared/room-document";
 import { CollabEditor, type CollabEditorHandle } from "~/components/editor/collab-editor";
 import { ComplexGraph } from "~/components/graph/complex-graph";
 import { Presence } from "~/components/presence";
@@ -16,7 +17,8 @@ import { titleField } from "~/shared/fields";
 import { httpError } from "~/utils/http";
 import { requireRole, requireViewAccess } from "~/utils/permissions.server";
 import { stepRangesFor } from "~/utils/step-ranges";
-import { complexGraphSvg, currentThemeColours, downloadBlob, svgToPng } from "~/utils/graph-svg";
+import { complexGraphSvg, currentThemeColours } from "~/utils/graph-svg";
+import { PictureDownloads } from "~/components/picture-downloads";
 import { useRoom } from "~/utils/use-room";
 import type { Route } from "./+types/mechanism";
 
@@ -38,7 +40,7 @@ export async function action(args: Route.ActionArgs) {
   if (intent === "rename") {
     const { mechanism } = await requireRole(args, args.params.id, "editor");
     const title = titleField.safeParse(form.get("title"));
-    if (!title.success) return Response.json({ error: title.error.issues[0].message }, { status: 400 });
+    if (!title.success) return httpError("bad_input", title.error.issues[0].message);
     await renameMechanism(args.context.db, mechanism.id, title.data);
     return { ok: "Renamed." };
   }
@@ -47,7 +49,7 @@ export async function action(args: Route.ActionArgs) {
     await deleteMechanism(args.context.db, user.id, mechanism.id);
     throw redirect("/dashboard");
   }
-  throw httpError(400, "Unknown action.");
+  throw httpError("bad_input", "Unknown action.");
 }
 
 const allTabs = ["Graph", "Structure", "Dynamics", "Files & settings"] as const;
@@ -59,8 +61,8 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   const room = useRoom(mechanism.id, { user, readOnly: !canEdit, role });
   const editor = useRef<CollabEditorHandle>(null);
   const [tab, setTab] = useState<Tab>("Graph");
-  const source = useMemo(() => room.doc?.getText("source") ?? null, [room.doc]);
-  const layout = useMemo(() => room.doc?.getMap("layout") ?? null, [room.doc]);
+  const source = useMemo(() => (room.doc ? sourceText(room.doc) : null), [room.doc]);
+  const layout = useMemo(() => (room.doc ? layoutMap(room.doc) : null), [room.doc]);
   const report = room.analysis.report ?? null;
   // A view-link guest sees the live mechanism and nothing else: no files, no settings.
   const tabs = signedIn ? allTabs : allTabs.filter((name) => name !== "Files & settings");
@@ -148,12 +150,7 @@ function GraphDownloads({ report, layout, title }: { report: AnalysisReport; lay
   const name = title.replace(/[^\w.-]+/g, "-") || "complex-graph";
   return (
     <div className="-mb-1 flex justify-end gap-2 text-xs">
-      <button type="button" className="btn px-2 py-1 text-xs" onClick={() => downloadBlob(new Blob([svg()], { type: "image/svg+xml" }), `${name}.svg`)}>
-        SVG
-      </button>
-      <button type="button" className="btn px-2 py-1 text-xs" onClick={() => void svgToPng(svg()).then((png) => downloadBlob(png, `${name}.png`))}>
-        PNG
-      </button>
+      <PictureDownloads svg={svg} name={name} />
     </div>
   );
 }

@@ -50,7 +50,7 @@ const memberActions = z.discriminatedUnion("intent", [
 export async function action(args: Route.ActionArgs) {
   const { mechanism, user } = await requireRole(args, args.params.id, "owner");
   const parsed = memberActions.safeParse(Object.fromEntries(await args.request.formData()));
-  if (!parsed.success) throw httpError(400, parsed.error.issues[0].message);
+  if (!parsed.success) throw httpError("bad_input", parsed.error.issues[0].message);
   const input = parsed.data;
   const db = args.context.db;
   try {
@@ -64,7 +64,7 @@ export async function action(args: Route.ActionArgs) {
     }
     if (input.intent === "resend") {
       const pending = await findPendingInvitation(db, mechanism.id, input.invitationId);
-      if (!pending) return Response.json({ error: "That invitation is no longer pending." }, { status: 400 });
+      if (!pending) return httpError("bad_input", "That invitation is no longer pending.");
       await inviteByEmail(args.context, args.request, user, mechanism, pending.email, pending.role);
       return { ok: `A new link went to ${pending.email}; the old one no longer works.` };
     }
@@ -94,7 +94,7 @@ export async function action(args: Route.ActionArgs) {
     }
     return { ok: input.intent === "transfer" ? "Ownership transferred. You stay on as an editor." : "Saved." };
   } catch (error) {
-    if (isMembershipError(error)) return Response.json({ error: error.message }, { status: 400 });
+    if (isMembershipError(error)) return httpError("bad_input", error.message);
     throw error;
   }
 }

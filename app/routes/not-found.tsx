@@ -1,5 +1,7 @@
+import { httpError } from "~/utils/http";
+
 export async function loader() {
-  throw Response.json({ error: "There is no page at this address." }, { status: 404 });
+  throw httpError("not_found", "There is no page at this address.");
 }
 
 export default function NotFound() {

@@ -3,6 +3,7 @@
 import { useMemo } from "react";
 import { Link } from "react-router";
 import { ComplexGraph } from "~/components/graph/complex-graph";
+import { layoutMap } from "~/shared/room-document";
 import { requireViewAccess } from "~/utils/permissions.server";
 import { useRoom } from "~/utils/use-room";
 import type { Route } from "./+types/projector";
@@ -18,7 +19,7 @@ export default function Projector({ loaderData }: Route.ComponentProps) {
   const { id, title, viewer } = loaderData;
   // The projector only ever watches, whatever its user's role.
   const room = useRoom(id, { user: { name: `${viewer} (projector)` }, readOnly: true, role: "viewer" });
-  const layout = useMemo(() => room.doc?.getMap("layout") ?? null, [room.doc]);
+  const layout = useMemo(() => (room.doc ? layoutMap(room.doc) : null), [room.doc]);
   const analysis = room.analysis;
   return (
     <div className="fixed inset-0 z-50 flex flex-col bg-canvas">

@@ -11,8 +11,9 @@ import { RealizationPanel, type RealizationChoice } from "~/components/realizati
 import type { RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { parseOde } from "~/chem/ode/parse";
 import { requireUser } from "~/utils/auth.server";
-import { cleanText, sourceField, titleField } from "~/shared/fields";
+import { odeField, sourceField, titleField } from "~/shared/fields";
 import type { Route } from "./+types/realize";
+import { httpError } from "~/utils/http";
 
 export const meta: Route.MetaFunction = () => [{ title: "From ODE to mechanism · Mechweave" }];
 
@@ -21,13 +22,13 @@ export async function loader(args: Route.LoaderArgs) {
   return null;
 }
 
-const openForm = z.object({ title: titleField, mechanism: sourceField, ode: cleanText("The ODE").max(64 * 1024) });
+const openForm = z.object({ title: titleField, mechanism: sourceField, ode: odeField });
 
 /** Opens a realization as a new mechanism owned by the caller, the ODE kept in its summary. */
 export async function action(args: Route.ActionArgs) {
   const user = await requireUser(args);
   const parsed = openForm.safeParse(Object.fromEntries(await args.request.formData()));
-  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message }, { status: 400 });
+  if (!parsed.success) return httpError("bad_input", parsed.error.issues[0].message);
   const { title, mechanism, ode } = parsed.data;
   const row = await createMechanism(args.context.db, user.id, { title, source: mechanism, summary: `Realization of the ODE:\n${ode.trim()}` });
   throw redirect(`/m/${row.id}`);

@@ -6,6 +6,7 @@ import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { startUserSession } from "~/utils/auth.server";
 import type { Route } from "./+types/reset-password";
+import { httpError } from "~/utils/http";
 
 export const meta: Route.MetaFunction = () => [{ title: "Choose a new password · Mechweave" }];
 
@@ -19,9 +20,9 @@ export async function loader({ context, params }: Route.LoaderArgs) {
 
 export async function action(args: Route.ActionArgs) {
   const parsed = newPassword.safeParse(Object.fromEntries(await args.request.formData()));
-  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message }, { status: 400 });
+  if (!parsed.success) return httpError("bad_input", parsed.error.issues[0].message);
   const result = await resetPassword(args.context.db, args.params.token, parsed.data.password);
-  if (!result.ok) return Response.json({ error: result.reason }, { status: 400 });
+  if (!result.ok) return httpError("bad_input", result.reason);
   return startUserSession(args, result.user, "/dashboard");
 }
 

@@ -1,5 +1,5 @@
 import { Form, Link, useNavigation } from "react-router";
-import { clearFailedSignIns, isAuthFailure, recordFailedSignIn, signInForm, signInWait } from "~/utils/accounts.server";
+import { isAuthFailure, signInForm } from "~/utils/accounts.server";
 import { AuthCard } from "~/components/auth-card";
 import { Field } from "~/components/field";
 import { redirectIfSignedIn, safeNext, startUserSession } from "~/utils/auth.server";
@@ -21,19 +21,19 @@ export async function action(args: Route.ActionArgs) {
   const next = safeNext(new URL(request.url).searchParams.get("next") ?? String(form.get("next") ?? ""));
   const parsed = signInForm.safeParse(Object.fromEntries(form));
   if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message, email }, { status: 400 });
-  const wait = Math.ceil((await signInWait(context.db, context.clientAddress, email)) / 1000);
+  const wait = Math.ceil((await context.signInLimits.wait(context.clientAddress, email)) / 1000);
   if (wait > 0) {
     const error = `Too many failed sign-ins from here. Wait ${wait < 120 ? `${wait} seconds` : `${Math.ceil(wait / 60)} minutes`} and try again, or reset your password.`;
     return Response.json({ error, email }, { status: 429, headers: { "Retry-After": String(wait) } });
   }
   try {
     const user = await context.authenticator.authenticate("password", request);
-    await clearFailedSignIns(context.db, context.clientAddress, email);
+    await context.signInLimits.clear(context.clientAddress, email);
     return await startUserSession(args, user, next);
   } catch (error) {
     if (error instanceof Response) throw error;
     if (!isAuthFailure(error)) throw error;
-    await recordFailedSignIn(context.db, context.clientAddress, email);
+    await context.signInLimits.recordFailure(context.clientAddress, email);
     return Response.json({ error: error.message, email }, { status: 401 });
   }
 }

@@ -5,6 +5,7 @@ import { requireSessionUser } from "~/utils/auth.server";
 import { tokenNameField } from "~/shared/fields";
 import { TimeAgo } from "~/components/time-ago";
 import type { Route } from "./+types/tokens";
+import { httpError } from "~/utils/http";
 
 export const meta: Route.MetaFunction = () => [{ title: "Access tokens · Mechweave" }];
 
@@ -22,7 +23,7 @@ const tokenActions = z.discriminatedUnion("intent", [
 export async function action(args: Route.ActionArgs) {
   const user = await requireSessionUser(args);
   const parsed = tokenActions.safeParse(Object.fromEntries(await args.request.formData()));
-  if (!parsed.success) return Response.json({ error: parsed.error.issues[0].message }, { status: 400 });
+  if (!parsed.success) return httpError("bad_input", parsed.error.issues[0].message);
   if (parsed.data.intent === "create") {
     const created = await createApiToken(args.context.db, user.id, parsed.data.name);
     return { created: created.token, name: created.name };

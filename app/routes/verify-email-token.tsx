@@ -6,6 +6,7 @@ import { lookUpEmailToken, verifyAddress } from "~/utils/accounts.server";
 import { findMechanism } from "~/utils/mechanisms.server";
 import { AuthCard } from "~/components/auth-card";
 import type { Route } from "./+types/verify-email-token";
+import { httpError } from "~/utils/http";
 
 export const meta: Route.MetaFunction = () => [{ title: "Confirm your e-mail · Mechweave" }];
 
@@ -17,7 +18,7 @@ export async function loader({ context, params }: Route.LoaderArgs) {
 
 export async function action({ context, params }: Route.ActionArgs) {
   const result = await verifyAddress(context.db, params.token);
-  if (!result.ok) return Response.json({ error: result.reason }, { status: 400 });
+  if (!result.ok) return httpError("bad_input", result.reason);
   const joined = await Promise.all(result.joined.map(async (id) => ({ id, title: (await findMechanism(context.db, id))?.title ?? id })));
   // An explicit 200: the action's status, not the loader's 404 for the now-used link, is the page's.
   return data({ confirmed: result.user.email, joined }, { status: 200 });

@@ -6,6 +6,7 @@ import { AuthCard } from "~/components/auth-card";
 import { sendVerification } from "~/utils/account-mail.server";
 import { requireSessionUser } from "~/utils/auth.server";
 import type { Route } from "./+types/verify-email";
+import { httpError } from "~/utils/http";
 
 export const meta: Route.MetaFunction = () => [{ title: "Confirm your e-mail · Mechweave" }];
 
@@ -19,7 +20,7 @@ export async function action(args: Route.ActionArgs) {
   const user = await requireSessionUser(args);
   if (user.verified) return { ok: "Your address is already confirmed." };
   if (await sentRecently(args.context.db, user.id, "verify")) {
-    return Response.json({ error: "A link went out less than a minute ago. Check your inbox, then try again." }, { status: 429 });
+    return httpError("rate_limited", "A link went out less than a minute ago. Check your inbox, then try again.");
   }
   await sendVerification(args.context, args.request, user);
   return { ok: `A new link is on its way to ${user.email}. Earlier links no longer work.` };

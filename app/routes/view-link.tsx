@@ -9,7 +9,7 @@ const MAX_REMEMBERED_LINKS = 20;
 export async function loader({ request, context, params }: Route.LoaderArgs) {
   const mechanismId = await viewLinkMechanism(context, params.token);
   if (!mechanismId) {
-    throw httpError(404, "This view link is not valid: it may have expired or been revoked by the owner.");
+    throw httpError("not_found", "This view link is not valid: it may have expired or been revoked by the owner.");
   }
   const session = await context.sessions.getSession(request.headers.get("Cookie"));
   const tokens = [params.token, ...(session.get("viewTokens") ?? []).filter((t) => t !== params.token)];

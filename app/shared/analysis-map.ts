@@ -6,6 +6,18 @@ import { deflateSync, inflateSync, strFromU8, strToU8 } from "fflate";
 import type * as Y from "yjs";
 import type { AnalysisReport } from "~/chem/analysis";
 
+/** The map's keys besides the counts, which the server reads back and rewrites. */
+export const analysisFields = {
+  /** The packed report. */
+  report: "report",
+  /** A digest of the text analysed: the stored analysis belongs to the text when it matches. */
+  digest: "digest",
+  /** Grows with every recompute, across reloads. */
+  revision: "revision",
+  /** Why the current text has no analysis. */
+  failure: "failure",
+} as const;
+
 /** The map's values (empty until the server's first recompute arrives). */
 export interface RoomAnalysis {
   deficiency?: number;

@@ -7,10 +7,6 @@ import * as encoding from "lib0/encoding";
 
 export const MESSAGE_REFUSED = 7;
 
-/** The `layout` map's bounds; clients keep within them, since a refused write costs a resync. */
-export const MAX_LAYOUT_KEYS = 5000;
-export const MAX_LAYOUT_KEY_CHARS = 256;
-
 export const refusalReasons = {
   "text-too-large": "The change was not saved: the text would be over 1 MiB.",
   "nul-character": "The change was not saved: the text may not contain NUL characters.",

@@ -2,5 +2,4 @@
 // bundler refuses by name to ship any of this to the browser.
 export { createUser, isAuthFailure, signInForm, signUpForm } from "../../server/auth/authenticator";
 export { lookUpEmailToken, resetPassword, sentRecently, verifyAddress } from "../../server/auth/email-tokens";
-export { clearFailedSignIns, recordFailedSignIn, signInWait } from "../../server/auth/sign-in-limits";
 export { createApiToken, listApiTokens, revokeApiToken } from "../../server/db/api-tokens";

@@ -22,7 +22,7 @@ async function runTextJob<J extends TextJob>({ request, context, owner }: Caller
     if (failure) throw failureResponse(failure);
     // Anything else went wrong inside the analysis of this text (an exact result too large to
     // represent, a solver that refused the problem): the text's doing, not a server fault.
-    throw failureResponse({ status: 422, message: `This text could not be analysed: ${(error as Error).message}` });
+    throw failureResponse({ code: "analysis_failed", message: `This text could not be analysed: ${(error as Error).message}` });
   }
 }
 

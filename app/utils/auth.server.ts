@@ -16,9 +16,9 @@ async function resolveCaller({ request, context }: RequestArgs): Promise<Caller>
     cookie: request.headers.get("Cookie"),
     authorization: request.headers.get("Authorization"),
   });
-  if (caller === "bad-token") throw httpError(401, "That access token is not valid: it was revoked or mistyped.");
+  if (caller === "bad-token") throw httpError("sign_in_required", "That access token is not valid: it was revoked or mistyped.");
   if (caller.tokenId && !context.tokenLimiter.allow(caller.tokenId)) {
-    throw httpError(429, "Too many requests with this token. Wait a minute and try again.");
+    throw httpError("rate_limited", "Too many requests with this token. Wait a minute and try again.");
   }
   return caller;
 }
@@ -40,7 +40,7 @@ export function isApiRequest(request: Request): boolean {
 
 /** What a signed-out caller gets: a redirect to sign in, or 401 JSON from the API. */
 export function signInRequired(request: Request): Response {
-  if (isApiRequest(request)) return httpError(401, "Sign in first, or send Authorization: Bearer TOKEN.");
+  if (isApiRequest(request)) return httpError("sign_in_required", "Sign in first, or send Authorization: Bearer TOKEN.");
   const url = new URL(request.url);
   return redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
 }
@@ -55,7 +55,7 @@ export async function requireUser(args: RequestArgs): Promise<AuthUser> {
 export async function requireSessionUser(args: RequestArgs): Promise<AuthUser> {
   const caller = await getCaller(args);
   if (!caller.user) throw signInRequired(args.request);
-  if (caller.via !== "session") throw httpError(403, "This needs a signed-in browser session, not an access token.");
+  if (caller.via !== "session") throw httpError("forbidden", "This needs a signed-in browser session, not an access token.");
   return caller.user;
 }
 

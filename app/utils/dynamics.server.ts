@@ -2,13 +2,16 @@
 // that asks for `application/x-ndjson` gets its place in the queue and progress lines while it
 // runs, then the result — and closing the request cancels the run.
 import type { AppLoadContext } from "react-router";
-import type { Settings } from "~/chem/parse";
 import type { DynamicsModel, WorkerJob } from "../../server/sim/job";
+import { codeOf, type ErrorCode } from "~/shared/error-codes";
+import type { Overrides } from "~/shared/job-schemas";
 import { httpError } from "./http";
 
-/** The mechanism text as a dynamics model; the worker parses it (a 400 names its first error). */
-/** `overrides` replace parameters and initial concentrations, as the CLI's `--set` does. */
-export function modelFromSource(source: string, overrides?: Settings): DynamicsModel {
+/**
+ * The mechanism text as a dynamics model; the worker parses it (a 400 names its first error).
+ * `overrides` replace parameters and initial concentrations, as the CLI's `--set` does.
+ */
+export function modelFromSource(source: string, overrides?: Overrides): DynamicsModel {
   return overrides ? { kind: "text", source, overrides } : { kind: "text", source };
 }
 
@@ -22,29 +25,25 @@ export function jobOwner(context: AppLoadContext, user: { id: string } | null): 
   return user ? `user:${user.id}` : `guest:${context.clientAddress}`;
 }
 
-const statusOf: Record<string, number> = {
-  SimulationInputError: 400,
-  RealizeRequestError: 400,
-  SimulationLimitError: 413,
-  QueueFullError: 429,
-  IntegrationFailure: 422,
-  SimulationCancelled: 499,
-};
-
-/** The status and message for a job's error; null for an error nobody expected. */
-export function jobFailure(error: unknown): { status: number; message: string; retryAfter?: number } | null {
-  if (!(error instanceof Error) || !(error.name in statusOf)) return null;
-  // A run stopped by its time limit is the server's limit, not too large an input.
-  const status = (error as { limit?: string }).limit === "time" ? 503 : statusOf[error.name];
-  const message = error.message.charAt(0).toUpperCase() + error.message.slice(1);
-  return { status, message: message.endsWith(".") ? message : `${message}.`, retryAfter: (error as { retryAfter?: number }).retryAfter };
+export interface JobFailure {
+  code: ErrorCode;
+  message: string;
+  /** Seconds after which a retry may be admitted (a full queue). */
+  retryAfter?: number;
 }
 
-/** The `{ error }` response for a failure, with Retry-After when waiting helps. */
-export function failureResponse({ status, message, retryAfter }: NonNullable<ReturnType<typeof jobFailure>>): Response {
-  const response = httpError(status, message);
-  if (retryAfter !== undefined) response.headers.set("Retry-After", String(retryAfter));
-  return response;
+/** The code and message for a job's error, as a sentence; null for an error nobody expected. */
+export function jobFailure(error: unknown): JobFailure | null {
+  const code = codeOf(error);
+  if (!code) return null;
+  const { message: text, retryAfter } = error as Error & { retryAfter?: number };
+  const message = text.charAt(0).toUpperCase() + text.slice(1);
+  return { code, message: message.endsWith(".") ? message : `${message}.`, retryAfter };
+}
+
+/** The error response for a failure, with Retry-After when waiting helps. */
+export function failureResponse({ code, message, retryAfter }: JobFailure): Response {
+  return httpError(code, message, retryAfter === undefined ? undefined : { "Retry-After": String(retryAfter) });
 }
 
 export async function respondWithJob(request: Request, context: AppLoadContext, owner: string, job: WorkerJob): Promise<Response> {
@@ -95,7 +94,7 @@ export async function respondWithJob(request: Request, context: AppLoadContext, 
       (error: unknown) => {
         const failure = jobFailure(error);
         if (!failure) console.error(error);
-        send({ error: failure?.message ?? "The run failed on the server." });
+        send(failure ? { error: failure.message, code: failure.code } : { error: "The run failed on the server." });
       },
     )
     .finally(() => request.signal.aborted || controller.close());

@@ -10,6 +10,6 @@ export async function requireCaughtMail(args: RequestArgs): Promise<CaughtMessag
   const caller = await getCaller(args);
   if (!caller.user) throw signInRequired(args.request);
   const reader = caller.via === "session" && caller.user.verified && caller.user.email === demoAccounts[0].email;
-  if (!args.context.mailCatcher || !reader) throw httpError(404, "There is no mailbox here.");
+  if (!args.context.mailCatcher || !reader) throw httpError("not_found", "There is no mailbox here.");
   return args.context.mailCatcher.messages();
 }

@@ -37,10 +37,10 @@ async function checkAccess(args: RequestArgs, mechanismId: string | undefined, n
   const role = mechanismId && mechanismIdField.safeParse(mechanismId).success ? await accessTo(args.context.db, caller, mechanismId, allowViewLink) : null;
   if (!mechanismId || !role) {
     if (!caller.user) throw signInRequired(args.request);
-    throw httpError(404, "No mechanism with that id is visible to you.");
+    throw httpError("not_found", "No mechanism with that id is visible to you.");
   }
-  if (!atLeast(role, needed)) throw httpError(403, `This needs the ${needed} role; you are a ${role}.`);
+  if (!atLeast(role, needed)) throw httpError("forbidden", `This needs the ${needed} role; you are a ${role}.`);
   const mechanism = await findMechanism(args.context.db, mechanismId);
-  if (!mechanism) throw httpError(404, "No mechanism with that id is visible to you.");
+  if (!mechanism) throw httpError("not_found", "No mechanism with that id is visible to you.");
   return { user: caller.user, role, mechanism };
 }

@@ -5,6 +5,7 @@ import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
 import { roomAnalysisReader, type RoomAnalysis } from "~/shared/analysis-map";
+import { analysisMap, presenceFields, readPresence } from "~/shared/room-document";
 import { MESSAGE_REFUSED, readRefusal } from "~/shared/room-refusal";
 import type { Role } from "~/shared/roles";
 
@@ -108,7 +109,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     // Connecting a tick later lets a mount that is undone at once (React's development double
     // mount) end without opening, and abandoning, a socket.
     const opening = setTimeout(() => provider.connect());
-    const analysisMap = doc.getMap("analysis");
+    const analysis = analysisMap(doc);
     provider.messageHandlers[MESSAGE_REFUSED] = (_reply, decoder) => {
       const { message } = readRefusal(decoder);
       setNotice((current) => ({ id: (current?.id ?? 0) + 1, message }));
@@ -123,18 +124,18 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     const onClosed = () => setStatus("offline");
     const onSync = (state: boolean) => setSynced(state);
     const readAnalysis = roomAnalysisReader();
-    const onAnalysis = () => setAnalysis(readAnalysis(analysisMap));
+    const onAnalysis = () => setAnalysis(readAnalysis(analysis));
 
     provider.on("status", onStatus);
     provider.on("closed", onClosed);
     provider.on("sync", onSync);
-    analysisMap.observe(onAnalysis);
+    analysis.observe(onAnalysis);
     onAnalysis();
     setConnection({ doc, provider });
 
     return () => {
       clearTimeout(opening);
-      analysisMap.unobserve(onAnalysis);
+      analysis.unobserve(onAnalysis);
       provider.destroy();
       doc.destroy();
       setConnection(null);
@@ -152,7 +153,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     const publish = () => {
       const published = { name: user.name, colour, role: publishedRole };
       setSelf(published);
-      awareness.setLocalStateField("user", awarenessUser(published));
+      awareness.setLocalStateField(presenceFields.user, awarenessUser(published));
     };
 
     const onChange = () => {
@@ -198,8 +199,8 @@ function samePeople(a: readonly Peer[], b: readonly Peer[]): boolean {
 function peersOf(awareness: Awareness): Peer[] {
   const peers: Peer[] = [];
   awareness.getStates().forEach((state, clientId) => {
-    const user = state.user as Partial<PeerUser> | undefined;
-    if (clientId === awareness.clientID || !user?.name) return;
+    const { user } = readPresence(state);
+    if (clientId === awareness.clientID || !user) return;
     peers.push({ clientId, name: user.name, colour: user.colour ?? peerPalette[0], role: user.role ?? "viewer" });
   });
   return peers.sort((a, b) => a.clientId - b.clientId);

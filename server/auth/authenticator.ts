@@ -3,7 +3,7 @@ import { eq } from "drizzle-orm";
 import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { z } from "zod";
-import { cleanText } from "../../app/shared/fields";
+import { personNameField } from "../../app/shared/fields";
 import type { Db } from "../db/client";
 import { users } from "../db/schema";
 import { hashPassword, verifyPassword } from "./password";
@@ -39,7 +39,7 @@ export const signInForm = z.object({
 });
 
 export const signUpForm = z.object({
-  name: cleanText("The name").trim().min(1, "Enter your name.").max(120, "Keep the name under 120 characters."),
+  name: personNameField,
   email: z.string().trim().toLowerCase().email("Enter a valid e-mail address.").max(254),
   password: z.string().min(10, "Use at least 10 characters for the password.").max(200),
 });

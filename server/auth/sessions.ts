@@ -15,15 +15,13 @@ export type SessionStore = SessionStorage<SessionData>;
 
 const MAX_AGE_SECONDS = 60 * 60 * 24 * 30;
 
-export function createSessionStore(db: Db, secret: string, secure: boolean): SessionStore {
-  const cookie = createCookie("mw_session", {
-    httpOnly: true,
-    sameSite: "lax",
-    path: "/",
-    secure,
-    secrets: [secret],
-    maxAge: MAX_AGE_SECONDS,
-  });
+/** The session id's cookie: `secrets[0]` signs, every one verifies, so rotating keeps old sessions alive. */
+export function sessionCookie(secrets: string[], secure: boolean) {
+  return createCookie("mw_session", { httpOnly: true, sameSite: "lax", path: "/", secure, secrets, maxAge: MAX_AGE_SECONDS });
+}
+
+export function createSessionStore(db: Db, secrets: string[], secure: boolean): SessionStore {
+  const cookie = sessionCookie(secrets, secure);
   const expiry = (expires?: Date) => expires ?? new Date(Date.now() + MAX_AGE_SECONDS * 1000);
   return createSessionStorage<SessionData>({
     cookie,

@@ -2,8 +2,10 @@
 // → { "largest", "converged", "transient", "until", "renormalisations", "history", "stats" }.
 
 import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
+import { lyapunovSettings } from "~/shared/job-schemas";
 import { runJob } from "../sim/job";
-import { runModelCommand, UsageError } from "./simulate";
+import { runModelCommand } from "./simulate";
+import { checkedSettings, UsageError } from "./usage";
 
 export function run(args: string[]): Promise<number> {
   return runModelCommand(
@@ -12,14 +14,14 @@ export function run(args: string[]): Promise<number> {
     { until: "number", transient: "number", interval: "number", rtol: "number", atol: "number", method: "method" },
     (model, flags) => {
       if (flags.until === undefined) throw new UsageError("--until T is required");
-      const options = {
-        until: flags.until as number,
-        transient: flags.transient as number | undefined,
-        interval: flags.interval as number | undefined,
-        rtol: flags.rtol as number | undefined,
-        atol: flags.atol as number | undefined,
-        method: flags.method as "auto" | "stiff" | "explicit" | undefined,
-      };
+      const options = checkedSettings(lyapunovSettings, {
+        until: flags.until,
+        transient: flags.transient,
+        interval: flags.interval,
+        rtol: flags.rtol,
+        atol: flags.atol,
+        method: flags.method,
+      });
       return runJob({ kind: "lyapunov", model, options });
     },
     (result: LyapunovResult) =>

@@ -6,10 +6,10 @@
 import { readFile } from "node:fs/promises";
 import type { RealizeOdeRequest, RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { realizeOde, RealizeRequestError } from "~/chem/realize/realize-ode";
+import { realizeSettings } from "~/shared/job-schemas";
+import { checkedSettings, UsageError } from "./usage";
 
 const usage = "usage: mechweave realize ODEFILE [--shift [x=20,y=30]] [--multiply[=x*y]] [--until T] [--equivalents [--complexes 2y,x+y] [--time-limit S]] [--json]";
-
-class UsageError extends Error {}
 
 interface Invocation {
   file: string;
@@ -67,6 +67,8 @@ export function readArguments(args: string[]): Invocation {
   if ((timeLimit !== undefined || request.complexes) && !request.equivalents) {
     throw new UsageError("--time-limit and --complexes go with --equivalents");
   }
+  // The API's rules for the same request (a multiplier's exponents, the extra complexes).
+  checkedSettings(realizeSettings, { ...request, equivalents: request.equivalents !== undefined });
   if (timeLimit !== undefined) {
     request.equivalents = { timeLimitMs: timeLimit * 1000 };
   }

@@ -6,16 +6,16 @@
 import { readFile } from "node:fs/promises";
 import { extname } from "node:path";
 import { IntegrationFailure, SimulationInputError } from "~/chem/kinetics/errors";
-import { METHODS, settingsProblem } from "~/chem/kinetics/settings";
+import { METHODS } from "~/chem/kinetics/settings";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { Diagnostic, ParseResult } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
 import { readOverride } from "~/chem/overrides";
 import { parseMechanismWithSettings, type Settings } from "~/chem/parse";
+import { simulateSettings } from "~/shared/job-schemas";
 import { runJob, type DynamicsModel } from "../sim/job";
-
-export class UsageError extends Error {}
+import { checkedSettings, UsageError } from "./usage";
 
 type FlagKind = "number" | "integer" | "method" | "switch" | "settings";
 type FlagValue = number | string | boolean | Settings;
@@ -147,15 +147,13 @@ export function run(args: string[]): Promise<number> {
     { until: "number", samples: "integer", rtol: "number", atol: "number", method: "method" },
     (model, flags) => {
       if (flags.until === undefined) throw new UsageError("--until T is required");
-      const settings = {
-        until: flags.until as number,
-        samples: (flags.samples as number | undefined) ?? 101,
-        rtol: flags.rtol as number | undefined,
-        atol: flags.atol as number | undefined,
-        method: flags.method as "auto" | "stiff" | "explicit" | undefined,
-      };
-      const problem = settingsProblem(settings);
-      if (problem) throw new UsageError(problem);
+      const settings = checkedSettings(simulateSettings, {
+        until: flags.until,
+        samples: flags.samples ?? 101,
+        rtol: flags.rtol,
+        atol: flags.atol,
+        method: flags.method,
+      });
       const result = runJob({ kind: "simulate", model, settings });
       return { t: result.t, series: result.series, stats: result.stats };
     },

@@ -19,6 +19,13 @@ export interface AnalysisEntries {
   complexes: string[];
 }
 
+/** Analyses texts for the rooms: worker threads in the server (analysis-pool.ts). */
+export interface Analyzer {
+  analyze(source: string): Promise<AnalysisEntries>;
+  /** Stops whatever runs the analyses; pending ones are abandoned. */
+  stop(): void;
+}
+
 export type AnalysisResponse = { id: number } & (AnalysisEntries | { failure: string });
 
 export function analysisEntries(report: AnalysisReport): AnalysisEntries {

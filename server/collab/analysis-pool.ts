@@ -1,9 +1,8 @@
 // The worker threads that analyse texts for every room of the process. A long analysis (a
 // network of thousands of reactions) then never delays keystrokes relayed by the event loop.
-import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import { typescriptWorkerSource } from "../typescript-worker";
-import type { AnalysisEntries, AnalysisResponse } from "./analysis-entries";
+import type { AnalysisEntries, AnalysisResponse, Analyzer } from "./analysis-entries";
 
 const bootstrap = typescriptWorkerSource(new URL("./analysis-worker.ts", import.meta.url));
 
@@ -109,13 +108,13 @@ class AnalysisThread {
   }
 }
 
-export class AnalysisPool {
+export class AnalysisPool implements Analyzer {
   private readonly threads: AnalysisThread[];
   /** Request ids start at 1; 0 is the warm-up, whose answer nobody waits for. */
   private nextId = 0;
 
-  /** One thread fewer than the cores (at least one): the event loop keeps a core. */
-  constructor(timeoutMs: number, size = Math.max(1, Math.min(4, availableParallelism() - 1))) {
+  /** `size` threads, from the process's worker budget (see worker-budget.ts). */
+  constructor(timeoutMs: number, size: number) {
     this.threads = Array.from({ length: size }, () => new AnalysisThread(timeoutMs));
     for (const thread of this.threads) thread.warm();
   }

@@ -2,11 +2,10 @@
 // connection's current role: viewers may sync *from* the server and share presence, never edit.
 import type { WebSocket } from "ws";
 import { atLeast, type Role } from "../../app/shared/roles";
-import { encodeRefusal } from "../../app/shared/room-refusal";
-import { readClientMessage, syncStep2Message } from "./protocol";
+import { encodeRefusal, type RefusalReason } from "../../app/shared/room-refusal";
+import { readClientMessage } from "./protocol";
 import type { Credential } from "./credentials";
 import { PresenceBudget } from "./presence";
-import type { Room } from "./room";
 
 export interface CollabIdentity {
   /** null for a signed-out visitor holding a view link. */
@@ -36,13 +35,24 @@ export const closeCodes = {
   tooSlow: 4508,
 } as const;
 
+/** What a connection asks of its room: all it may do there goes through these. */
+export interface RoomPort {
+  readonly mechanismId: string;
+  /** The sync step 2 message answering a member's state vector. */
+  syncReply(stateVector: Uint8Array): Uint8Array;
+  /** Applies an editor's update, or says why not: unreadable (the connection is dropped) or refused. */
+  applyClientUpdate(member: Connection, update: Uint8Array): "applied" | "unreadable" | RefusalReason;
+  /** Applies the presence this member may speak for (the rest is skipped). */
+  applyClientAwareness(member: Connection, update: Uint8Array): void;
+  /** Sends the member everyone's presence. */
+  sendAwarenessTo(member: Connection): void;
+}
+
 /** A client that cannot keep up is dropped rather than buffered without limit. */
 const MAX_BUFFERED_BYTES = 32 * 1024 * 1024;
 
 export class Connection {
   role: Role;
-  /** Awareness client ids this socket speaks for (removed from the room when it closes). */
-  readonly awarenessClients = new Set<number>();
   alive = true;
   readonly presenceBudget = new PresenceBudget();
   private droppedUpdates = 0;
@@ -53,7 +63,7 @@ export class Connection {
   constructor(
     readonly socket: WebSocket,
     readonly identity: CollabIdentity,
-    private readonly room: Room,
+    private readonly room: RoomPort,
   ) {
     this.role = identity.role;
   }
@@ -82,7 +92,7 @@ export class Connection {
     const message = readClientMessage(data);
     switch (message.kind) {
       case "sync-step-1":
-        this.send(syncStep2Message(this.room.doc, message.stateVector));
+        this.send(this.room.syncReply(message.stateVector));
         return;
       case "document-update":
         if (!this.canEdit) {

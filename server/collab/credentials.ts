@@ -6,15 +6,15 @@
 import { and, gt, inArray, isNull } from "drizzle-orm";
 import type { Db } from "../db/client";
 import { apiTokens, sessions } from "../db/schema";
-import type { Connection } from "./connection";
+import type { CollabIdentity } from "./connection";
 
 /** What opened a socket; a visitor without a session row has none to follow. */
 export type Credential = { sessionId: string } | { tokenId: string } | null;
 
 /** The connections whose credential has ended, or whose session now belongs to someone else. */
-export async function endedCredentials(db: Db, connections: Iterable<Connection>): Promise<Connection[]> {
-  const bySession = new Map<string, Connection[]>();
-  const byToken = new Map<string, Connection[]>();
+export async function endedCredentials<M extends { identity: CollabIdentity }>(db: Db, connections: Iterable<M>): Promise<M[]> {
+  const bySession = new Map<string, M[]>();
+  const byToken = new Map<string, M[]>();
   for (const connection of connections) {
     const { credential } = connection.identity;
     if (!credential) continue;
@@ -38,7 +38,7 @@ export async function endedCredentials(db: Db, connections: Iterable<Connection>
           .where(and(inArray(apiTokens.id, [...byToken.keys()]), isNull(apiTokens.revokedAt))),
   ]);
   const sessionUser = new Map(liveSessions.map((row) => [row.id, row.userId]));
-  const ended: Connection[] = [];
+  const ended: M[] = [];
   for (const [id, list] of bySession) {
     for (const connection of list) if (!sessionUser.has(id) || sessionUser.get(id) !== connection.identity.userId) ended.push(connection);
   }

@@ -7,8 +7,11 @@ import { mechanismIdField } from "../../app/shared/fields";
 import type { Db } from "../db/client";
 import { isDatabaseUnavailable } from "../db/unavailable";
 import { isOwnOrigin } from "../origin";
+import type { WorkerBudget } from "../worker-budget";
 import type { CollabIdentity } from "./connection";
-import { CollabHub, type HubTimings } from "./hub";
+import { AnalysisPool } from "./analysis-pool";
+import { CollabHub, defaultTimings, type HubTimings } from "./hub";
+import { postgresCollabStore } from "./postgres-store";
 
 export type Identify = (request: IncomingMessage, mechanismId: string) => Promise<CollabIdentity | null>;
 
@@ -27,6 +30,10 @@ export interface CollaborationOptions {
   /** Who is asking for this mechanism, with which role; null refuses with 404. */
   identify: Identify;
   timings?: Partial<HubTimings>;
+  /** The process's worker budget; the rooms' analysis threads are sized from it. */
+  workers: WorkerBudget;
+  /** PUBLIC_URL's origin: browsers on it may connect besides those on the request's own host. */
+  publicOrigin: string | null;
   /** Upgrades another listener answers (Vite's hot reload in development); every other path is refused. */
   leave?: (request: IncomingMessage) => boolean;
 }
@@ -47,14 +54,16 @@ function refuse(socket: Duplex, status: number, message: string) {
   );
 }
 
-/** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
-function sameOrigin(request: IncomingMessage): boolean {
-  const origin = request.headers.origin;
-  return !origin || isOwnOrigin(origin, request.headers.host);
-}
-
 export function attachCollaboration(server: Server, options: CollaborationOptions): CollabHub {
-  const hub = new CollabHub(options.db, options.timings);
+  const analysisTimeoutMs = options.timings?.analysisTimeoutMs ?? defaultTimings.analysisTimeoutMs;
+  const hub = new CollabHub(postgresCollabStore(options.db), new AnalysisPool(analysisTimeoutMs, options.workers.analysisThreads), options.timings);
+
+  /** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
+  function sameOrigin(request: IncomingMessage): boolean {
+    const origin = request.headers.origin;
+    return !origin || isOwnOrigin(origin, request.headers.host, options.publicOrigin);
+  }
+
   const sockets = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES, perMessageDeflate: false });
 
   async function upgrade(request: IncomingMessage, socket: Duplex, head: Buffer, rawId: string) {

@@ -1,14 +1,11 @@
 // All live rooms of the process, in one place: loading on first use, unloading when idle, and
 // the operations routes call (role changes, API writes, versions).
 import type { WebSocket } from "ws";
-import type { Db } from "../db/client";
-import { roleOf } from "../db/mechanisms";
-import { AnalysisPool } from "./analysis-pool";
+import type { Analyzer } from "./analysis-entries";
 import { closeCodes, Connection, type CollabIdentity } from "./connection";
-import { endedCredentials } from "./credentials";
 import { RoleChangeFeed, type RoleChange } from "./role-feed";
 import { Room, type RoomTimings } from "./room";
-import { findSnapshot } from "./snapshots";
+import type { CollabStore } from "./store";
 
 export interface HubTimings extends RoomTimings {
   /** A room without connections is unloaded (after flushing) when this long idle. */
@@ -42,16 +39,16 @@ export class CollabHub {
   private readonly intervals: NodeJS.Timeout[];
   private readonly timings: HubTimings;
   private readonly roleFeed: RoleChangeFeed;
-  private readonly analysis: AnalysisPool;
   private readonly connections = new Set<Connection>();
   private checkingCredentials = false;
 
+  /** The hub owns `analysis` from here on: closing the hub stops it. */
   constructor(
-    private readonly db: Db,
+    private readonly store: CollabStore,
+    private readonly analysis: Analyzer,
     timings: Partial<HubTimings> = {},
   ) {
     this.timings = { ...defaultTimings, ...timings };
-    this.analysis = new AnalysisPool(this.timings.analysisTimeoutMs);
     this.intervals = [
       setInterval(() => void this.sweepRoles(), this.timings.roleSweepMs),
       setInterval(() => this.heartbeat(), this.timings.heartbeatMs),
@@ -59,7 +56,7 @@ export class CollabHub {
       setInterval(() => void this.checkCredentials(), this.timings.roleFeedMs),
     ];
     for (const interval of this.intervals) interval.unref();
-    this.roleFeed = new RoleChangeFeed(db, (change) => this.applyRoleChange(change));
+    this.roleFeed = new RoleChangeFeed(store, (change) => this.applyRoleChange(change));
     this.roleFeed.start(this.timings.roleFeedMs);
   }
 
@@ -85,7 +82,7 @@ export class CollabHub {
    * it with a `restore` snapshot. Null when the mechanism or the version does not exist.
    */
   async restoreSnapshot(mechanismId: string, userId: string, snapshotId: number) {
-    const snapshot = await findSnapshot(this.db, mechanismId, snapshotId);
+    const snapshot = await this.store.findSnapshotSource(mechanismId, snapshotId);
     if (!snapshot) return null;
     return this.withRoom(mechanismId, async (room) => {
       await room.replaceSource(snapshot.source, userId);
@@ -137,7 +134,7 @@ export class CollabHub {
     await this.unloading.get(mechanismId);
     let loading = this.rooms.get(mechanismId);
     if (!loading) {
-      loading = Room.load(this.db, this.analysis, mechanismId, this.timings);
+      loading = Room.load(this.store, this.analysis, mechanismId, this.timings);
       this.rooms.set(mechanismId, loading);
       loading.then(
         (room) => (room ? this.scheduleUnloadIfIdle(room) : this.rooms.delete(mechanismId)),
@@ -208,7 +205,7 @@ export class CollabHub {
       const { identity } = connection;
       let role;
       try {
-        role = identity.recheck ? await identity.recheck() : identity.userId ? await roleOf(this.db, mechanismId, identity.userId) : connection.role;
+        role = identity.recheck ? await identity.recheck() : identity.userId ? await this.store.roleOf(mechanismId, identity.userId) : connection.role;
       } catch (error) {
         console.error(`[collab] re-checking ${connection.describe()} failed: ${(error as Error).message}`);
         continue;
@@ -225,7 +222,7 @@ export class CollabHub {
     if (this.checkingCredentials || this.connections.size === 0) return;
     this.checkingCredentials = true;
     try {
-      for (const connection of await endedCredentials(this.db, this.connections)) {
+      for (const connection of await this.store.endedCredentials(this.connections)) {
         console.log(`[collab] ${connection.describe()}: credential ended; closing`);
         // Nothing more is accepted from it while the close completes.
         connection.role = "viewer";

@@ -7,7 +7,9 @@ import { createUser } from "../auth/authenticator";
 import { connect, type Database } from "../db/client";
 import { createMechanism } from "../db/mechanisms";
 import { createTestDatabase } from "../../tests/support/database";
-import { compactDocument, loadDocument, UpdateLog } from "./persistence";
+import { compactDocument, loadDocument } from "./persistence";
+import { postgresCollabStore } from "./postgres-store";
+import { UpdateLog } from "./update-log";
 
 let database: Database;
 let dropDatabase: () => Promise<void>;
@@ -30,7 +32,7 @@ describe("update log", () => {
     const owner = await createUser(database.db, { name: "Log Owner", email: "log-owner@example.test", password: "weave-test-password" });
     const mechanism = await createMechanism(database.db, owner.id, { title: "Log" });
     const doc = new Y.Doc();
-    const log = new UpdateLog<null>(database.db, mechanism.id, { committed() {}, mechanismGone() {} });
+    const log = new UpdateLog<null>(postgresCollabStore(database.db), mechanism.id, { committed() {}, mechanismGone() {} });
     doc.on("update", (update: Uint8Array) => log.append({ update, origin: null }));
     const text = doc.getText("source");
 

@@ -7,11 +7,7 @@
 import { and, asc, eq, lte, max } from "drizzle-orm";
 import type { Db } from "../db/client";
 import { docStates, docUpdates } from "../db/schema";
-
-export interface StoredDocument {
-  state: Uint8Array | null;
-  updates: Uint8Array[];
-}
+import { MechanismGone, type StoredDocument } from "./store";
 
 export async function loadDocument(db: Db, mechanismId: string): Promise<StoredDocument> {
   const [state] = await db.select({ state: docStates.state }).from(docStates).where(eq(docStates.mechanismId, mechanismId));
@@ -21,10 +17,23 @@ export async function loadDocument(db: Db, mechanismId: string): Promise<StoredD
   return { state: state?.state ?? null, updates: rows.map((r) => r.update) };
 }
 
+const FOREIGN_KEY_VIOLATION = "23503";
+
+function isForeignKeyViolation(error: unknown): boolean {
+  const cause = (error as { cause?: { code?: string }; code?: string }) ?? {};
+  return (cause.code ?? cause.cause?.code) === FOREIGN_KEY_VIOLATION;
+}
+
 /** One multi-row INSERT: the batch commits as a whole or not at all. */
 export async function appendUpdates(db: Db, mechanismId: string, updates: Uint8Array[]): Promise<void> {
   if (updates.length === 0) return;
-  await db.insert(docUpdates).values(updates.map((update) => ({ mechanismId, update })));
+  try {
+    await db.insert(docUpdates).values(updates.map((update) => ({ mechanismId, update })));
+  } catch (error) {
+    // The row's mechanism is gone: deleted under its live room.
+    if (isForeignKeyViolation(error)) throw new MechanismGone(`mechanism ${mechanismId} was deleted`, { cause: error });
+    throw error;
+  }
 }
 
 /**
@@ -50,83 +59,4 @@ export async function compactDocument(db: Db, mechanismId: string, encodeState: 
     const deleted = await tx.delete(docUpdates).where(and(eq(docUpdates.mechanismId, mechanismId), lte(docUpdates.id, throughUpdate)));
     return deleted.rowCount ?? 0;
   });
-}
-
-export interface LoggedUpdate<Origin> {
-  update: Uint8Array;
-  origin: Origin;
-}
-
-const MAX_BATCH = 500;
-const RETRY_MS = 500;
-const FOREIGN_KEY_VIOLATION = "23503";
-
-function isMechanismGone(error: unknown): boolean {
-  const cause = (error as { cause?: { code?: string }; code?: string }) ?? {};
-  return (cause.code ?? cause.cause?.code) === FOREIGN_KEY_VIOLATION;
-}
-
-/**
- * The write queue of one document: appends in arrival order, batching whatever arrived while
- * the previous insert was in flight (group commit), retrying while the database is away.
- */
-export class UpdateLog<Origin> {
-  private pending: LoggedUpdate<Origin>[] = [];
-  private chain: Promise<void> = Promise.resolve();
-  private drainScheduled = false;
-  private lost = false;
-  appendedSinceCompaction = 0;
-
-  constructor(
-    private readonly db: Db,
-    private readonly mechanismId: string,
-    private readonly hooks: {
-      committed(batch: LoggedUpdate<Origin>[]): void;
-      /** The mechanism was deleted under the live room: nothing more can be stored. */
-      mechanismGone(): void;
-    },
-  ) {}
-
-  append(entry: LoggedUpdate<Origin>) {
-    if (this.lost) return;
-    this.pending.push(entry);
-    if (this.drainScheduled) return;
-    this.drainScheduled = true;
-    this.chain = this.chain.then(() => this.drain());
-  }
-
-  /** Resolves once everything appended before the call has committed. */
-  flushed(): Promise<void> {
-    return this.chain;
-  }
-
-  private async drain() {
-    this.drainScheduled = false;
-    while (this.pending.length > 0 && !this.lost) {
-      const batch = this.pending.splice(0, MAX_BATCH);
-      if (!(await this.store(batch))) return;
-      this.appendedSinceCompaction += batch.length;
-      this.hooks.committed(batch);
-    }
-  }
-
-  private async store(batch: LoggedUpdate<Origin>[]): Promise<boolean> {
-    for (let attempt = 1; ; attempt++) {
-      try {
-        await appendUpdates(this.db, this.mechanismId, batch.map((e) => e.update));
-        return true;
-      } catch (error) {
-        if (isMechanismGone(error)) {
-          this.lost = true;
-          this.pending = [];
-          this.hooks.mechanismGone();
-          return false;
-        }
-        if (attempt === 1 || attempt % 20 === 0) {
-          console.error(`[collab] storing ${batch.length} update(s) of ${this.mechanismId} failed (attempt ${attempt}), retrying: ${(error as Error).message}`);
-        }
-        await new Promise((resolve) => setTimeout(resolve, Math.min(RETRY_MS * attempt, 5000)));
-      }
-    }
-  }
 }

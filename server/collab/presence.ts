@@ -3,6 +3,7 @@
 // server stamps the name and role it authenticated into `user`, so presence cannot impersonate.
 import * as decoding from "lib0/decoding";
 import * as encoding from "lib0/encoding";
+import { stampPresence } from "../../app/shared/room-document";
 import type { Role } from "../../app/shared/roles";
 
 /** A caret, a selection and the user's details take a few hundred characters. */
@@ -97,11 +98,45 @@ export function vetAwarenessUpdate(update: Uint8Array, speaker: PresenceSpeaker)
   } catch {
     return null;
   }
-  const allowed = entries.map((entry) => {
-    if (entry.state === null) return entry;
-    const user = typeof entry.state.user === "object" && entry.state.user !== null ? entry.state.user : {};
-    return { ...entry, state: { ...entry.state, user: { ...user, name: speaker.name, role: speaker.role } } };
-  });
+  const allowed = entries.map((entry) => (entry.state === null ? entry : { ...entry, state: stampPresence(entry.state, speaker) }));
   if (allowed.length === 0) return null;
   return { update: encodeEntries(allowed), clientIds: allowed.map((e) => e.clientId) };
+}
+
+/**
+ * Which member speaks for each awareness client of a room, kept in one place: a client id is
+ * claimed by the first member whose presence names it and stays theirs until they leave, and a
+ * member claims at most MAX_CLIENTS_PER_CONNECTION.
+ */
+export class PresenceOwners<Member> {
+  private readonly ownerOf = new Map<number, Member>();
+  private readonly clientsOf = new Map<Member, Set<number>>();
+
+  /** A `mayControl` test for one update of `member`: it counts the new clients the update claims. */
+  mayControl(member: Member): (clientId: number) => boolean {
+    const own = this.clientsOf.get(member);
+    let claimed = own?.size ?? 0;
+    return (clientId) => {
+      if ((this.ownerOf.get(clientId) ?? member) !== member) return false;
+      if (own?.has(clientId)) return true;
+      return ++claimed <= MAX_CLIENTS_PER_CONNECTION;
+    };
+  }
+
+  claim(member: Member, clientIds: number[]) {
+    let own = this.clientsOf.get(member);
+    if (!own) this.clientsOf.set(member, (own = new Set()));
+    for (const clientId of clientIds) {
+      this.ownerOf.set(clientId, member);
+      own.add(clientId);
+    }
+  }
+
+  /** Forgets the member; returns the clients it spoke for, whose states the room removes. */
+  release(member: Member): number[] {
+    const own = [...(this.clientsOf.get(member) ?? [])];
+    this.clientsOf.delete(member);
+    for (const clientId of own) if (this.ownerOf.get(clientId) === member) this.ownerOf.delete(clientId);
+    return own;
+  }
 }

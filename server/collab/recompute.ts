@@ -5,9 +5,10 @@
 // reload shows the last analysis; a restore puts back only the text, so they never get in its way.
 import { createHash } from "node:crypto";
 import * as Y from "yjs";
-import { roomAnalysisReader } from "../../app/shared/analysis-map";
+import { analysisFields, roomAnalysisReader } from "../../app/shared/analysis-map";
+import { analysisMap, sourceText } from "../../app/shared/room-document";
 import { summarizeStructure, type StructureSummary } from "../../app/shared/version-diff";
-import type { AnalysisPool } from "./analysis-pool";
+import type { Analyzer } from "./analysis-entries";
 import { Pacer } from "./pacer";
 
 /** The transaction origin of the server's own writes into the document. */
@@ -38,22 +39,22 @@ export class StructureRecompute {
 
   constructor(
     private readonly doc: Y.Doc,
-    private readonly pool: AnalysisPool,
+    private readonly analyzer: Analyzer,
     private readonly options: { intervalMs: number; analyzed(result: AnalysisResult): void },
   ) {
     this.pacer = new Pacer(
       () => Math.max(options.intervalMs, 2 * this.lastDurationMs),
       () => void this.enqueue(false),
     );
-    this.text = doc.getText("source");
-    this.analysis = doc.getMap("analysis");
+    this.text = sourceText(doc);
+    this.analysis = analysisMap(doc);
     for (const [key, value] of this.analysis.entries()) {
       if (value instanceof Uint8Array) this.writtenReport = value;
       else this.written.set(key, JSON.stringify(value));
     }
     const stored = roomAnalysisReader()(this.analysis).report;
     if (stored && !this.stale) {
-      const revision = Number(this.analysis.get("revision")) || 0;
+      const revision = Number(this.analysis.get(analysisFields.revision)) || 0;
       this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), complexes: stored.complexes, revision };
     }
     this.analysis.observe((event) => {
@@ -63,7 +64,7 @@ export class StructureRecompute {
 
   /** True when the stored analysis belongs to a different text, or there is none in today's form. */
   get stale(): boolean {
-    return this.analysis.get("digest") !== sourceDigest(this.text.toString()) || !(this.analysis.get("report") instanceof Uint8Array);
+    return this.analysis.get(analysisFields.digest) !== sourceDigest(this.text.toString()) || !(this.analysis.get(analysisFields.report) instanceof Uint8Array);
   }
 
   /**
@@ -89,7 +90,7 @@ export class StructureRecompute {
   /** Rewrites keys a client changed, with the server's values. */
   private repair(keys: string[]) {
     for (const key of keys) this.written.delete(key);
-    if (keys.includes("report")) this.writtenReport = null;
+    if (keys.includes(analysisFields.report)) this.writtenReport = null;
     void this.enqueue(true);
   }
 
@@ -102,11 +103,11 @@ export class StructureRecompute {
     if (this.disposed) return;
     const source = this.text.toString();
     const digest = sourceDigest(source);
-    if (!force && this.latest && this.analysis.get("digest") === digest) return;
+    if (!force && this.latest && this.analysis.get(analysisFields.digest) === digest) return;
     let outcome;
     const started = performance.now();
     try {
-      outcome = await this.pool.analyze(source);
+      outcome = await this.analyzer.analyze(source);
     } catch (error) {
       console.error(`[collab] analysis failed: ${(error as Error).message}`);
       if (!this.disposed) this.showFailure(error as Error);
@@ -116,18 +117,18 @@ export class StructureRecompute {
     }
     if (this.disposed) return;
     // Revisions keep growing across reloads: the last one is in the stored document.
-    const revision = Math.max(Number(this.analysis.get("revision")) || 0, this.latest?.revision ?? 0) + 1;
-    const entries = { ...outcome.entries, digest: JSON.stringify(digest), revision: JSON.stringify(revision) };
+    const revision = Math.max(Number(this.analysis.get(analysisFields.revision)) || 0, this.latest?.revision ?? 0) + 1;
+    const entries = { ...outcome.entries, [analysisFields.digest]: JSON.stringify(digest), [analysisFields.revision]: JSON.stringify(revision) };
     this.doc.transact(() => {
-      if (this.analysis.has("failure")) this.analysis.delete("failure");
-      this.written.delete("failure");
+      if (this.analysis.has(analysisFields.failure)) this.analysis.delete(analysisFields.failure);
+      this.written.delete(analysisFields.failure);
       for (const [key, serialised] of Object.entries(entries)) {
         if (this.written.get(key) === serialised) continue;
         this.analysis.set(key, JSON.parse(serialised));
         this.written.set(key, serialised);
       }
       if (!this.writtenReport || !Buffer.from(outcome.report).equals(this.writtenReport)) {
-        this.analysis.set("report", outcome.report);
+        this.analysis.set(analysisFields.report, outcome.report);
         this.writtenReport = outcome.report;
       }
     }, analysisOrigin);
@@ -142,8 +143,8 @@ export class StructureRecompute {
   private showFailure(error: Error) {
     const message = error.name === "AnalysisTimeout" ? error.message : `The analysis of this text failed: ${error.message.split("\n")[0]}`;
     const serialised = JSON.stringify(message);
-    if (this.written.get("failure") === serialised) return;
-    this.doc.transact(() => this.analysis.set("failure", message), analysisOrigin);
-    this.written.set("failure", serialised);
+    if (this.written.get(analysisFields.failure) === serialised) return;
+    this.doc.transact(() => this.analysis.set(analysisFields.failure, message), analysisOrigin);
+    this.written.set(analysisFields.failure, serialised);
   }
 }

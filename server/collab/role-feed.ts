@@ -2,9 +2,8 @@
 // transfer, delete and view-link revocation writes a role_changes row in the same transaction, so
 // reading new rows every second applies a change even when the route that made it did not call
 // refreshRole.
-import { asc, gt, max } from "drizzle-orm";
-import type { Db } from "../db/client";
-import { roleChanges } from "../db/schema";
+import type { roleChanges } from "../db/schema";
+import type { CollabStore } from "./store";
 
 export interface RoleChange {
   mechanismId: string;
@@ -19,7 +18,7 @@ export class RoleChangeFeed {
   private reading = false;
 
   constructor(
-    private readonly db: Db,
+    private readonly store: Pick<CollabStore, "lastRoleChangeId" | "roleChangesAfter">,
     private readonly changed: (change: RoleChange) => Promise<void>,
   ) {}
 
@@ -39,19 +38,12 @@ export class RoleChangeFeed {
     this.reading = true;
     try {
       if (this.lastSeen === null) {
-        const [row] = await this.db.select({ last: max(roleChanges.id) }).from(roleChanges);
-        this.lastSeen = row?.last ?? 0;
+        this.lastSeen = await this.store.lastRoleChangeId();
         return;
       }
-      const rows = await this.db
-        .select({ id: roleChanges.id, mechanismId: roleChanges.mechanismId, userId: roleChanges.subjectId, action: roleChanges.action })
-        .from(roleChanges)
-        .where(gt(roleChanges.id, this.lastSeen))
-        .orderBy(asc(roleChanges.id))
-        .limit(1000);
-      for (const row of rows) {
-        this.lastSeen = row.id;
-        await this.changed(row);
+      for (const { id, ...change } of await this.store.roleChangesAfter(this.lastSeen, 1000)) {
+        this.lastSeen = id;
+        await this.changed(change);
       }
     } catch (error) {
       console.error(`[collab] reading role changes failed: ${(error as Error).message}`);

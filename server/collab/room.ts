@@ -3,20 +3,20 @@
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { MAX_SOURCE_BYTES } from "../../app/chem/limits";
-import type { Db } from "../db/client";
-import { findMechanism } from "../db/mechanisms";
-import { closeCodes, type Connection } from "./connection";
-import { appendUpdates, compactDocument, loadDocument, UpdateLog, type LoggedUpdate } from "./persistence";
-import { MAX_CLIENTS_PER_CONNECTION, vetAwarenessUpdate } from "./presence";
+import { closeCodes, type Connection, type RoomPort } from "./connection";
+import type { RoomStore } from "./store";
+import { UpdateLog, type LoggedUpdate } from "./update-log";
+import { PresenceOwners, vetAwarenessUpdate } from "./presence";
 import { Pacer } from "./pacer";
-import { awarenessMessage, syncStep1Message, updateMessage } from "./protocol";
-import type { AnalysisPool } from "./analysis-pool";
+import { awarenessMessage, syncStep1Message, syncStep2Message, updateMessage } from "./protocol";
+import type { Analyzer } from "./analysis-entries";
 import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recompute";
 import { stalePositions } from "./layout-pruning";
-import { AutoSnapshotPolicy, insertSnapshot, latestSummary, type SnapshotKind } from "./snapshots";
+import { AutoSnapshotPolicy, type SnapshotKind } from "./snapshots";
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
 import { UpdateCheck } from "./update-check";
+import { layoutMap, sourceText } from "../../app/shared/room-document";
 import type { RefusalReason } from "../../app/shared/room-refusal";
 
 export interface RoomTimings {
@@ -59,12 +59,12 @@ const withoutNul = (text: string) => text.replaceAll("\0", "");
 
 type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin;
 
-export class Room {
+export class Room implements RoomPort {
   readonly connections = new Set<Connection>();
   readonly awareness: awarenessProtocol.Awareness;
   /** API calls in progress; a leased room is not unloaded. */
   leases = 0;
-  private readonly awarenessOwners = new Map<number, Connection>();
+  private readonly presenceOwners = new PresenceOwners<Connection>();
   /** Committed updates not yet relayed, and awareness clients changed since the last relay. */
   private readonly outgoing: LoggedUpdate<UpdateOrigin>[] = [];
   private readonly awarenessChanged = new Set<number>();
@@ -90,41 +90,41 @@ export class Room {
   private compacting: Promise<void> | null = null;
   private closed = false;
 
-  static async load(db: Db, pool: AnalysisPool, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
-    const mechanism = await findMechanism(db, mechanismId);
-    if (!mechanism) return null;
-    const stored = await loadDocument(db, mechanismId);
+  static async load(store: RoomStore, analyzer: Analyzer, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
+    const savedSource = await store.savedSource(mechanismId);
+    if (savedSource === null) return null;
+    const stored = await store.loadDocument(mechanismId);
     const doc = new Y.Doc();
     if (stored.state) Y.applyUpdate(doc, stored.state, loadOrigin);
     for (const update of stored.updates) Y.applyUpdate(doc, update, loadOrigin);
     if (!stored.state && stored.updates.length === 0) {
       // The first document is stored before anyone joins: initialising it again on a later load
       // would duplicate the text for clients holding the first one.
-      doc.getText("source").insert(0, mechanism.source);
-      await appendUpdates(db, mechanismId, [Y.encodeStateAsUpdate(doc)]);
+      sourceText(doc).insert(0, savedSource);
+      await store.appendUpdates(mechanismId, [Y.encodeStateAsUpdate(doc)]);
     }
-    return new Room(db, pool, mechanismId, doc, mechanism.source, await latestSummary(db, mechanismId), timings);
+    return new Room(store, analyzer, mechanismId, doc, savedSource, await store.latestSummary(mechanismId), timings);
   }
 
   private constructor(
-    private readonly db: Db,
-    pool: AnalysisPool,
+    private readonly store: RoomStore,
+    analyzer: Analyzer,
     readonly mechanismId: string,
     readonly doc: Y.Doc,
     savedSource: string,
-    lastSnapshot: Awaited<ReturnType<typeof latestSummary>>,
+    lastSnapshot: Awaited<ReturnType<RoomStore["latestSummary"]>>,
     private readonly timings: RoomTimings,
   ) {
-    this.text = doc.getText("source");
+    this.text = sourceText(doc);
     this.check = new UpdateCheck(doc);
     this.documentBytes = Y.encodeStateAsUpdate(doc).byteLength;
     this.awareness = new awarenessProtocol.Awareness(doc);
     this.awareness.setLocalState(null);
     this.awareness.on("update", this.collectAwareness);
-    this.log = new UpdateLog(db, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
-    this.mirror = new SourceMirror(db, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
+    this.log = new UpdateLog(store, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
+    this.mirror = new SourceMirror(store, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
     this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
-    this.recompute = new StructureRecompute(doc, pool, { intervalMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
+    this.recompute = new StructureRecompute(doc, analyzer, { intervalMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
     doc.on("update", (update: Uint8Array, origin: UpdateOrigin) => {
       if (origin === loadOrigin) return;
       this.documentBytes += update.byteLength;
@@ -158,10 +158,12 @@ export class Room {
 
   leave(connection: Connection) {
     this.connections.delete(connection);
-    for (const clientId of connection.awarenessClients) {
-      if (this.awarenessOwners.get(clientId) === connection) this.awarenessOwners.delete(clientId);
-    }
-    awarenessProtocol.removeAwarenessStates(this.awareness, [...connection.awarenessClients], null);
+    awarenessProtocol.removeAwarenessStates(this.awareness, this.presenceOwners.release(connection), null);
+  }
+
+  /** The answer to a member's sync step 1: whatever its state vector lacks. */
+  syncReply(stateVector: Uint8Array): Uint8Array {
+    return syncStep2Message(this.doc, stateVector);
   }
 
   /** Applies an editor's update, or says why not: unreadable (the caller drops the connection) or refused. */
@@ -195,32 +197,24 @@ export class Room {
     try {
       Y.applyUpdate(trial, Y.encodeStateAsUpdate(this.doc));
       Y.applyUpdate(trial, update);
-      return Buffer.byteLength(trial.getText("source").toString()) > MAX_SOURCE_BYTES;
+      return Buffer.byteLength(sourceText(trial).toString()) > MAX_SOURCE_BYTES;
     } finally {
       trial.destroy();
     }
   }
 
   applyClientAwareness(connection: Connection, update: Uint8Array) {
-    let claimed = connection.awarenessClients.size;
     const vetted = vetAwarenessUpdate(update, {
       name: connection.identity.name,
       role: connection.role,
-      mayControl: (clientId) => {
-        if ((this.awarenessOwners.get(clientId) ?? connection) !== connection) return false;
-        if (connection.awarenessClients.has(clientId)) return true;
-        return ++claimed <= MAX_CLIENTS_PER_CONNECTION;
-      },
+      mayControl: this.presenceOwners.mayControl(connection),
     });
     if (!vetted) return;
     if (!connection.presenceBudget.take(vetted.update.byteLength)) {
       connection.presenceDropped();
       return;
     }
-    for (const clientId of vetted.clientIds) {
-      this.awarenessOwners.set(clientId, connection);
-      connection.awarenessClients.add(clientId);
-    }
+    this.presenceOwners.claim(connection, vetted.clientIds);
     awarenessProtocol.applyAwarenessUpdate(this.awareness, vetted.update, connection);
   }
 
@@ -243,7 +237,7 @@ export class Room {
     const latest = this.recompute.latest;
     if (!latest) throw new Error(`no analysis of ${this.mechanismId} to store with the snapshot`);
     const { summary } = latest;
-    const row = await insertSnapshot(this.db, {
+    const row = await this.store.insertSnapshot({
       mechanismId: this.mechanismId,
       kind,
       name,
@@ -315,7 +309,7 @@ export class Room {
 
   /** Merges the log into the stored state; a failure leaves the log as it was (nothing lost). */
   private compact(): Promise<void> {
-    this.compacting ??= compactDocument(this.db, this.mechanismId, () => {
+    this.compacting ??= this.store.compactDocument(this.mechanismId, () => {
       const state = Y.encodeStateAsUpdate(this.doc);
       this.documentBytes = state.byteLength;
       return state;
@@ -353,7 +347,7 @@ export class Room {
   }
 
   private pruneLayout(complexes: string[]) {
-    const layout = this.doc.getMap("layout");
+    const layout = layoutMap(this.doc);
     const stale = stalePositions(layout, complexes);
     if (stale.length > 0) this.doc.transact(() => stale.forEach((key) => layout.delete(key)), analysisOrigin);
   }

@@ -2,16 +2,11 @@
 // ones an editor asks for, and the marks a restore leaves. Each keeps the text, the Yjs state
 // and the invariants, so History can compare versions without re-parsing.
 import { and, desc, eq } from "drizzle-orm";
-import { z } from "zod";
-import { cleanText } from "../../app/shared/fields";
 import { sameStructure, type StructureSummary } from "../../app/shared/version-diff";
 import type { Db } from "../db/client";
 import { snapshots, users } from "../db/schema";
 
 export type SnapshotKind = "auto" | "named" | "restore";
-
-/** The rule for a version's name, shared by the API and the History page. */
-export const snapshotNameField = cleanText("The name").trim().min(1, "Give the version a name.").max(120, "Keep the name under 120 characters.");
 
 export interface NewSnapshot {
   mechanismId: string;

@@ -1,8 +1,7 @@
 // mechanisms.source follows the shared text (at most once per interval while it changes, and on
 // demand), so the JSON API, the CLI and pages that do not join the room always read a recent text,
 // even while co-authors type without a pause.
-import type { Db } from "../db/client";
-import { saveSource } from "../db/mechanisms";
+import type { RoomStore } from "./store";
 import { Pacer } from "./pacer";
 
 export class SourceMirror {
@@ -10,7 +9,7 @@ export class SourceMirror {
   private writing: Promise<void> = Promise.resolve();
 
   constructor(
-    private readonly db: Db,
+    private readonly store: RoomStore,
     private readonly mechanismId: string,
     private saved: string,
     private readonly read: () => string,
@@ -28,7 +27,7 @@ export class SourceMirror {
       const text = this.read();
       if (text === this.saved) return;
       try {
-        await saveSource(this.db, this.mechanismId, text);
+        await this.store.saveSource(this.mechanismId, text);
         this.saved = text;
       } catch (error) {
         console.error(`[collab] saving the text of ${this.mechanismId} failed: ${(error as Error).message}`);

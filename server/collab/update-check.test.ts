@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import * as Y from "yjs";
-import { MAX_LAYOUT_KEYS } from "../../app/shared/room-refusal";
+import { MAX_LAYOUT_KEYS } from "../../app/shared/room-document";
 import { UpdateCheck } from "./update-check";
 
 /** A server document holding some text and analysis; each edit is made on a fresh synced copy. */

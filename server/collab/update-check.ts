@@ -5,7 +5,8 @@
 // The work is proportional to the update, never to the document: each new item's place is read
 // from its parent name, or from its origin, which is in the update or already in the document.
 import * as Y from "yjs";
-import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS, type RefusalReason } from "../../app/shared/room-refusal";
+import { layoutMap, MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS, rootKeys, roomKeys, writtenLayoutPosition, type RoomKey } from "../../app/shared/room-document";
+import type { RefusalReason } from "../../app/shared/room-refusal";
 
 /** Where an item lands: a root type and map key, or somewhere no update may write. */
 type Place = { root: string; key: string | null } | "nested" | "missing" | "discarded";
@@ -16,19 +17,13 @@ interface Entry {
   place?: Place;
 }
 
-const isPosition = (value: unknown): boolean =>
-  typeof value === "object" &&
-  value !== null &&
-  !Array.isArray(value) &&
-  Object.keys(value).length === 2 &&
-  Number.isFinite((value as { x?: unknown }).x) &&
-  Number.isFinite((value as { y?: unknown }).y);
+const isPosition = (value: unknown): boolean => writtenLayoutPosition.safeParse(value).success;
 
 export class UpdateCheck {
-  private readonly roots = new Map<unknown, string>();
+  private readonly roots: Map<unknown, RoomKey>;
 
   constructor(private readonly doc: Y.Doc) {
-    for (const name of ["source", "layout", "analysis"]) this.roots.set(name === "source" ? doc.getText(name) : doc.getMap(name), name);
+    this.roots = rootKeys(doc);
   }
 
   /** Null when the update may be applied; otherwise why not. Throws on an unreadable update. */
@@ -49,7 +44,7 @@ export class UpdateCheck {
       if (struct instanceof Y.Item && struct.id.clock + struct.length > known) fresh.push(entry);
     }
     const newLayoutKeys = new Set<string>();
-    const layout = this.doc.getMap("layout");
+    const layout = layoutMap(this.doc);
     for (const entry of fresh) {
       const place = this.placeOf(entry, byClient);
       if (place === "discarded") continue;
@@ -58,12 +53,12 @@ export class UpdateCheck {
       // Content deleted in the same update still names its parent and key, which are stored.
       const { content } = entry.struct as Y.Item;
       const deleted = content instanceof Y.ContentDeleted;
-      if (place.root === "source") {
+      if (place.root === roomKeys.source) {
         if (place.key !== null) return "shape";
         if (deleted) continue;
         if (!(content instanceof Y.ContentString)) return "shape";
         if (content.str.includes("\0")) return "nul-character";
-      } else if (place.root === "layout") {
+      } else if (place.root === roomKeys.layout) {
         if (place.key === null || place.key.length > MAX_LAYOUT_KEY_CHARS) return "shape";
         if (deleted) continue;
         if (!(content instanceof Y.ContentAny) || !content.arr.every(isPosition)) return "shape";

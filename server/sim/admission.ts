@@ -14,6 +14,7 @@ export interface AdmissionLimits {
 /** The owner already has as many jobs waiting as allowed. */
 export class QueueFullError extends Error {
   override name = "QueueFullError";
+  readonly code = "busy";
   constructor(
     message: string,
     /** Seconds after which a retry may be admitted. */

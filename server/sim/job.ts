@@ -4,12 +4,12 @@
 // text (the structure report, exports, SBML import, parsing a text for a run) travel the same way:
 // none of them may stall the server's event loop.
 
-import { networkEquilibrium, polynomialEquilibrium, type EquilibriumOptions, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
+import { networkEquilibrium, polynomialEquilibrium, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
-import { networkLyapunov, polynomialLyapunov, type LyapunovOptions, type LyapunovResult } from "~/chem/kinetics/lyapunov";
-import type { SimulationSettings } from "~/chem/kinetics/settings";
+import { networkLyapunov, polynomialLyapunov, type LyapunovResult } from "~/chem/kinetics/lyapunov";
 import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
-import { MAX_SWEEP_POINTS, sweepNetwork, type SweepOptions, type SweepResult } from "~/chem/kinetics/sweep";
+import { MAX_SWEEP_POINTS } from "~/chem/limits";
+import { sweepNetwork, type SweepResult } from "~/chem/kinetics/sweep";
 import { analyzeSource, type AnalysisReport } from "~/chem/analysis";
 import { csvTooLarge, stoichiometricMatrixCsv } from "~/chem/exchange/csv";
 import { exportLatex } from "~/chem/exchange/latex";
@@ -18,8 +18,24 @@ import { importSbml, type SbmlImport } from "~/chem/exchange/sbml-import";
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
-import { parseMechanism, parseMechanismWithSettings, type Settings } from "~/chem/parse";
-import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/chem/realize/realize-ode";
+import { parseMechanism, parseMechanismWithSettings } from "~/chem/parse";
+import { realizeOde, type RealizeOdeResult } from "~/chem/realize/realize-ode";
+import { RealizeRequestError } from "~/chem/realize/request-error";
+import {
+  equilibriumSettings,
+  lyapunovSettings,
+  overrides,
+  realizeRequest,
+  simulateSettings,
+  sweepSettings,
+  type EquilibriumSettings,
+  type LyapunovSettings,
+  type Overrides,
+  type RealizeRequest,
+  type SimulateSettings,
+  type SweepSettings,
+} from "~/shared/job-schemas";
+import { firstProblem } from "~/shared/fields";
 
 /**
  * `text` and `odeText` are a mechanism and a polynomial ODE not yet parsed: the worker parses them,
@@ -28,24 +44,19 @@ import { realizeOde, type RealizeOdeRequest, type RealizeOdeResult } from "~/che
 export type DynamicsModel =
   | { kind: "mechanism"; mechanism: Mechanism; network: Network }
   | { kind: "ode"; ode: PolynomialOde }
-  | { kind: "text"; source: string; overrides?: Settings }
+  | { kind: "text"; source: string; overrides?: Overrides }
   | { kind: "odeText"; text: string };
 
 type ParsedModel = Exclude<DynamicsModel, { kind: "text" | "odeText" }>;
 
-type Plain<T> = Omit<T, "signal" | "onProgress">;
-
 export type DynamicsJob =
-  | { kind: "simulate"; model: DynamicsModel; settings: SimulationSettings }
-  | { kind: "lyapunov"; model: DynamicsModel; options: Plain<LyapunovOptions> }
-  | { kind: "equilibrium"; model: DynamicsModel; options: EquilibriumOptions }
-  | { kind: "sweep"; model: DynamicsModel; options: Plain<SweepOptions> };
+  | { kind: "simulate"; model: DynamicsModel; settings: SimulateSettings }
+  | { kind: "lyapunov"; model: DynamicsModel; options: LyapunovSettings }
+  | { kind: "equilibrium"; model: DynamicsModel; options: EquilibriumSettings }
+  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings };
 
-/** A realization request with a time limit for its searches instead of a progress callback. */
-export type RealizationJob = {
-  kind: "realize";
-  request: Omit<RealizeOdeRequest, "equivalents"> & { equivalents?: { timeLimitMs: number } };
-};
+/** A realization request, with the time its searches for equivalents may take together. */
+export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
 
 export type AnalysisJob = { kind: "analyze"; source: string };
 
@@ -82,14 +93,17 @@ export interface JobHooks {
 }
 
 /** Progress is the share of source complexes searched, stage by stage (sparse, dense, weakly reversible). */
-export function runRealizationJob({ request }: RealizationJob, hooks: JobHooks = {}): Promise<RealizeOdeResult> {
+export function runRealizationJob({ request, timeLimitMs }: RealizationJob, hooks: JobHooks = {}): Promise<RealizeOdeResult> {
+  // The job crossed into a worker as untyped data: the API's own schema checks it again here.
+  const checked = realizeRequest.safeParse(request);
+  if (!checked.success) throw new RealizeRequestError(firstProblem(checked.error));
   const stages = 3;
   let stage = -1;
   let name = "";
   return realizeOde({
-    ...request,
-    equivalents: request.equivalents && {
-      ...request.equivalents,
+    ...checked.data,
+    equivalents: checked.data.equivalents && {
+      timeLimitMs,
       onProgress(progress) {
         if (progress.stage !== name) [name, stage] = [progress.stage, stage + 1];
         hooks.onProgress?.((stage + (progress.total ? progress.done / progress.total : 0)) / stages);
@@ -126,6 +140,10 @@ export interface SizeLimits {
 /** A job is bigger, longer or hungrier than this server runs; `limit` says which. */
 export class SimulationLimitError extends Error {
   override name = "SimulationLimitError";
+  /** A run stopped by its time limit met the server's limit; anything else is too large an input. */
+  get code(): "time_limit" | "too_large" {
+    return this.limit === "time" ? "time_limit" : "too_large";
+  }
   constructor(
     message: string,
     readonly limit: "size" | "time" | "memory",
@@ -134,7 +152,25 @@ export class SimulationLimitError extends Error {
   }
 }
 
+/** The job's settings checked by its kind's schema: the CLI and the API checked them already, but a job in a worker arrived as untyped data. */
+function checkSettings(job: DynamicsJob): void {
+  const checked =
+    job.kind === "simulate"
+      ? simulateSettings.safeParse(job.settings)
+      : job.kind === "equilibrium"
+        ? equilibriumSettings.safeParse(job.options)
+        : job.kind === "lyapunov"
+          ? lyapunovSettings.safeParse(job.options)
+          : sweepSettings.safeParse(job.options);
+  if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
+  if (job.model.kind === "text" && job.model.overrides) {
+    const checkedOverrides = overrides.safeParse(job.model.overrides);
+    if (!checkedOverrides.success) throw new SimulationInputError(`overrides: ${firstProblem(checkedOverrides.error)}`);
+  }
+}
+
 export function runJob<J extends DynamicsJob>(job: J, hooks: JobHooks = {}, limits?: SizeLimits): JobResult<J> {
+  checkSettings(job);
   const model = parsedModel(job.model);
   if (limits) checkSize(job, model, limits);
   return dispatch(job, model, hooks) as JobResult<J>;

@@ -2,7 +2,10 @@ import { describe, expect, it } from "vitest";
 import { SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
 import { lorenz, robertson } from "../../tests/fixtures/dynamics/models";
 import { runJob, type DynamicsJob } from "./job";
-import { runInWorker, SimulationLimitError } from "./run-in-worker";
+import { WorkerBudget } from "../worker-budget";
+import { SimulationLimitError, WorkerJobs } from "./run-in-worker";
+
+const { run: runInWorker } = new WorkerJobs(new WorkerBudget());
 
 const longLyapunov: DynamicsJob = { kind: "lyapunov", model: { kind: "ode", ode: lorenz() }, options: { until: 1e7 } };
 

@@ -115,7 +115,7 @@ describe("the local mailbox", () => {
   it("answers only the demo owner's session: 401 signed out, 404 to anyone else", async () => {
     const signedOut = await fetch(`${server.url}/api/dev/mail`);
     expect(signedOut.status).toBe(401);
-    expect(await signedOut.json()).toEqual({ error: expect.any(String) });
+    expect(await signedOut.json()).toEqual({ error: expect.any(String), code: "sign_in_required" });
 
     const someone = await signUp(server.url, "Curious Member");
     expect((await someone.get("/api/dev/mail")).status).toBe(404);

@@ -149,7 +149,7 @@ describe("authorization walk", () => {
   it("gives the API's error shape for bad input", async () => {
     const empty = await clients.owner.json("/api/v1/mechanisms", "POST", { title: "" });
     expect(empty.status).toBe(400);
-    expect(await empty.json()).toEqual({ error: expect.stringContaining("title") });
+    expect(await empty.json()).toEqual({ error: expect.stringContaining("title"), code: "bad_input" });
     const broken = await clients.owner.request("/api/v1/mechanisms", { method: "POST", headers: { "Content-Type": "application/json" }, body: "{" });
     expect(broken.status).toBe(400);
     const unknown = await clients.owner.get("/api/v1/nothing-here");

@@ -60,7 +60,7 @@ describe("analysis of user text under a time limit", { timeout: 120_000 }, () =>
     expect(await slowestHealthCheck(pending)).toBeLessThan(1_000);
     const response = await pending;
     expect(response.status).toBe(503);
-    expect(await response.json()).toEqual({ error: `The analysis took longer than ${LIMIT_MS / 1000} s and was stopped.` });
+    expect(await response.json()).toEqual({ error: `The analysis took longer than ${LIMIT_MS / 1000} s and was stopped.`, code: "time_limit" });
   });
 
   it("the mechanism API and the exports that analyse the text answer 503 too", async () => {
@@ -71,7 +71,7 @@ describe("analysis of user text under a time limit", { timeout: 120_000 }, () =>
     expect((await mechanism).status).toBe(503);
     const latex = await owner.get(`/api/v1/mechanisms/${id}/export?format=latex`);
     expect(latex.status).toBe(503);
-    expect(await latex.json()).toEqual({ error: expect.stringMatching(/longer than 4 s/) });
+    expect(await latex.json()).toEqual({ error: expect.stringMatching(/longer than 4 s/), code: "time_limit" });
   });
 
   it("a live room shows why its text has no analysis, and analyses the next text as usual", async () => {
@@ -135,7 +135,7 @@ describe("simulation workers shared fairly", { timeout: 120_000 }, () => {
       const refused = await busy.json(path, "POST", sweep);
       expect(refused.status).toBe(429);
       expect(Number(refused.headers.get("Retry-After"))).toBeGreaterThan(0);
-      expect(await refused.json()).toEqual({ error: expect.stringMatching(/3 jobs waiting/) });
+      expect(await refused.json()).toEqual({ error: expect.stringMatching(/3 jobs waiting/), code: "busy" });
       // The busy user's waiting jobs do not hold up somebody else's.
       const quick = await other.json("/api/v1/simulations", "POST", { ode: lorenz, settings: { until: 1, samples: 10 } });
       expect(quick.status).toBe(200);

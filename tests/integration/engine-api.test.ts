@@ -37,7 +37,7 @@ describe("POST /api/v1/analyze", () => {
     expect(report.diagnostics.some((d: { severity: string; line: number }) => d.severity === "error" && d.line === 2)).toBe(true);
     const huge = await owner.json("/api/v1/analyze", "POST", { source: "# " + "x".repeat(1024 * 1024 + 10) });
     expect(huge.status).toBe(413);
-    expect(await huge.json()).toEqual({ error: expect.any(String) });
+    expect(await huge.json()).toEqual({ error: expect.any(String), code: "too_large" });
     expect((await new Client(server.url).json("/api/v1/analyze", "POST", { source: "A -> B" })).status).toBe(401);
   });
 

@@ -49,7 +49,7 @@ describe("exchange", () => {
     const before = (await (await owner.get("/api/v1/mechanisms")).json()).mechanisms.length;
     const notXml = await owner.request("/api/v1/mechanisms/import", { method: "POST", headers: { "Content-Type": "application/xml" }, body: "hello" });
     expect(notXml.status).toBe(400);
-    expect(await notXml.json()).toEqual({ error: expect.stringContaining("SBML") });
+    expect(await notXml.json()).toEqual({ error: expect.stringContaining("SBML"), code: "bad_input" });
     const big = await owner.request("/api/v1/mechanisms/import", { method: "POST", headers: { "Content-Type": "application/xml" }, body: "<a>" + "x".repeat(5 * 1024 * 1024) + "</a>" });
     expect(big.status).toBe(413);
     expect((await (await owner.get("/api/v1/mechanisms")).json()).mechanisms.length).toBe(before);

@@ -102,21 +102,48 @@ describe("security headers", () => {
   });
 });
 
+/** Opens a socket and asks it for a WebSocket upgrade at `target`. */
+function sendUpgrade(target: string, base: string, headers: string): net.Socket {
+  const { hostname, port } = new URL(base);
+  const socket = net.connect(Number(port), hostname);
+  socket.write(
+    `GET ${target} HTTP/1.1\r\nHost: ${hostname}:${port}\r\nConnection: Upgrade\r\nUpgrade: websocket\r\n` +
+      `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n${headers}\r\n`,
+  );
+  return socket;
+}
+
 /** A raw upgrade request; resolves with what the server sent once the server closes the socket. */
 function upgradeRequest(target: string, base = server.url, headers = ""): Promise<string> {
-  const { hostname, port } = new URL(base);
   return new Promise((resolve, reject) => {
-    const socket = net.connect(Number(port), hostname);
+    const socket = sendUpgrade(target, base, headers);
     let received = "";
     socket.on("data", (chunk) => (received += chunk.toString()));
     socket.on("error", reject);
     socket.on("close", () => resolve(received));
-    socket.write(
-      `GET ${target} HTTP/1.1\r\nHost: ${hostname}:${port}\r\nConnection: Upgrade\r\nUpgrade: websocket\r\n` +
-        `Sec-WebSocket-Version: 13\r\nSec-WebSocket-Key: dGhlIHNhbXBsZSBub25jZQ==\r\n${headers}\r\n`,
-    );
   });
 }
+
+/** The status line of the answer (the socket is then dropped: an accepted one would stay open). */
+function upgradeStatus(target: string, headers: string): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const socket = sendUpgrade(target, server.url, headers);
+    socket.once("data", (chunk) => {
+      resolve(chunk.toString().split("\r\n")[0]);
+      socket.destroy();
+    });
+    socket.on("error", reject);
+  });
+}
+
+describe("collaboration socket origins", () => {
+  it("admits a page on this host or on PUBLIC_URL, and refuses another site's", async () => {
+    const status = (origin: string) => upgradeStatus(`/collab/${mechanismId}`, `Cookie: ${owner.cookieHeader}\r\nOrigin: ${origin}\r\n`);
+    expect(await status(server.url)).toBe("HTTP/1.1 101 Switching Protocols");
+    expect(await status(PUBLIC_URL)).toBe("HTTP/1.1 101 Switching Protocols");
+    expect(await status(FOREIGN)).toMatch(/^HTTP\/1\.1 403 /);
+  });
+});
 
 describe("WebSocket upgrades off /collab", () => {
   it("answers 404 and closes the socket, for 200 at once", async () => {

@@ -48,7 +48,7 @@ describe("POST /api/v1/realizations", () => {
   it("refuses a shift of an unknown variable and malformed bodies", async () => {
     const unknown = await client.json("/api/v1/realizations", "POST", { ode: lotkaVolterra, shift: { q: 1 } });
     expect(unknown.status).toBe(400);
-    expect(await unknown.json()).toEqual({ error: expect.stringContaining("q") });
+    expect(await unknown.json()).toEqual({ error: expect.stringContaining("q"), code: "bad_input" });
     expect((await client.json("/api/v1/realizations", "POST", { shift: 3 })).status).toBe(400);
   });
 });

@@ -112,7 +112,7 @@ describe("personal access tokens", () => {
     expect((await owner.request(`/api/v1/tokens/${id}`, { method: "DELETE" })).status).toBe(204);
     const after = await fetch(`${server.url}/api/v1/mechanisms`, { headers: bearer });
     expect(after.status).toBe(401);
-    expect(await after.json()).toEqual({ error: expect.stringContaining("revoked") });
+    expect(await after.json()).toEqual({ error: expect.stringContaining("revoked"), code: "sign_in_required" });
   });
 
   it("a viewer's token cannot change what a viewer cannot", async () => {

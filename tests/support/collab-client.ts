@@ -9,6 +9,7 @@ import * as awarenessProtocol from "y-protocols/awareness";
 import * as syncProtocol from "y-protocols/sync";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
+import { analysisMap, sourceText } from "../../app/shared/room-document";
 import { MESSAGE_REFUSED, readRefusal, type RefusalReason } from "../../app/shared/room-refusal";
 
 /** A member's live copy of the room. */
@@ -66,8 +67,8 @@ export function joinRoom(
     doc,
     provider,
     refusals,
-    text: doc.getText("source"),
-    analysis: doc.getMap("analysis"),
+    text: sourceText(doc),
+    analysis: analysisMap(doc),
     synced,
     close() {
       provider.destroy();
@@ -122,8 +123,8 @@ export function followRoom(baseUrl: string, mechanismId: string, cookie: string,
   });
   return {
     doc,
-    text: doc.getText("source"),
-    analysis: doc.getMap("analysis"),
+    text: sourceText(doc),
+    analysis: analysisMap(doc),
     synced,
     close() {
       awareness.destroy();

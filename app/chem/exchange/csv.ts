@@ -2,17 +2,15 @@
 // network, headed `r1: A + B -> C`; fields quoted when they hold a comma, quote or line break.
 // Text cells that a spreadsheet would run as a formula get a leading apostrophe.
 import type { AnalysisReport } from "~/chem/analysis";
+import { MAX_CSV_EXPORT_ENTRIES } from "~/chem/limits";
 import { denseStoichiometricMatrix } from "~/chem/stoichiometry";
 
 /** What the CSV needs from the structure report. */
 export type MatrixReport = Pick<AnalysisReport, "species" | "complexes" | "reactions" | "stoichiometry">;
 
-/** Beyond this many entries (tens of megabytes of text) a spreadsheet is the wrong tool. */
-export const csvEntryLimit = 2_000_000;
-
 export function csvTooLarge({ species, reactions }: Pick<AnalysisReport, "species" | "reactions">): string | null {
   const entries = species.length * reactions.length;
-  return entries > csvEntryLimit ? `The stoichiometric matrix (${species.length} × ${reactions.length}) is too large to export as CSV.` : null;
+  return entries > MAX_CSV_EXPORT_ENTRIES ? `The stoichiometric matrix (${species.length} × ${reactions.length}) is too large to export as CSV.` : null;
 }
 
 export function stoichiometricMatrixCsv(report: MatrixReport): string {

@@ -1,5 +1,5 @@
 import { execFileSync } from "node:child_process";
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import fc from "fast-check";
@@ -62,7 +62,7 @@ describe("LaTeX export", () => {
     expect(latex).toContain("\\title{Autocatalytic dye bleaching}");
     expect(latex).toContain("\\text{init:}\\quad & D + O \\xrightarrow{k_{\\mathrm{init}}} R");
     expect(latex).toContain("\\text{decay:}\\quad & R \\xrightarrow{0.05} \\emptyset");
-    expect(latex).toContain("\\frac{dR}{dt} &= ");
+    expect(latex).toContain("\\frac{d[\\mathrm{R}]}{dt} &= ");
     expect(latex.trimEnd().endsWith("\\end{document}")).toBe(true);
     expectBalanced(latex);
   });
@@ -107,6 +107,34 @@ describe("LaTeX export", () => {
       }),
       { numRuns: 100 },
     );
+  });
+
+  it("breaks a long right-hand side into rows between terms, with numbers as a × 10^n", async () => {
+    const latex = await latexOf(readFileSync("tests/fixtures/oxidation-cell.weave", "utf8"));
+    expect(latex).toContain("s62:}\\quad & Q + Q \\xrightarrow{1.2 \\times 10^{13}} \\mathrm{MQ}");
+    expect(latex).toContain("k_{33} &= 3.15 \\times 10^{16}");
+    const q = latex.slice(latex.indexOf("\\frac{d[\\mathrm{Q}]}{dt} &= "));
+    const rows = q.slice(0, q.indexOf("\\frac{d[", 1)).split(" \\\\\n");
+    expect(rows.length).toBeGreaterThan(1);
+    expect(rows.slice(1, -1).every((row) => row.trimStart().startsWith("&\\quad {}"))).toBe(true);
+    expect(q).toContain("{3 \\times 10^{9}}\\, [\\mathrm{M}][\\mathrm{MQ}]");
+    expect(latex).not.toContain("\\allowbreak");
+  });
+
+  it.skipIf(!pdflatex)("keeps the equations of a 64-step mechanism inside the page", async () => {
+    const folder = mkdtempSync(join(tmpdir(), "mechweave-latex-"));
+    try {
+      writeFileSync(join(folder, "cell.tex"), await latexOf(readFileSync("tests/fixtures/oxidation-cell.weave", "utf8"), "Flow cell"));
+      execFileSync(pdflatex!, ["-interaction=nonstopmode", "-halt-on-error", "-no-shell-escape", `-output-directory=${folder}`, join(folder, "cell.tex")], {
+        cwd: folder,
+        timeout: 60_000,
+        stdio: "pipe",
+      });
+      // TeX reports every line wider than the text as an overfull box.
+      expect(readFileSync(join(folder, "cell.log"), "latin1")).not.toMatch(/Overfull \\hbox/);
+    } finally {
+      rmSync(folder, { recursive: true, force: true });
+    }
   });
 
   it.skipIf(!pdflatex)("compiles with pdflatex", async () => {

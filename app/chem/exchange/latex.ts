@@ -3,8 +3,9 @@
 // writes them (expression.ts); what this module adds is the document around them, text escaping
 // and an ASCII-only result (non-ASCII letters and symbols become LaTeX commands).
 import type { AnalysisReport } from "~/chem/analysis";
-import { lawLatex, numberLatex, rateExpressionLatex, symbolLatex } from "~/chem/expression";
+import { concentrationLatex, lawLatex, numberLatex, rateExpressionLatex, symbolLatex } from "~/chem/expression";
 import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
+import { termBreak } from "~/chem/odes";
 
 /** What the document shows from the structure report. */
 export type LatexReport = Pick<AnalysisReport, "species" | "complexes" | "reactions" | "linkageClasses" | "deficiency" | "odesLatex">;
@@ -18,7 +19,7 @@ export function exportLatex(mechanism: Mechanism, report: LatexReport, { title =
     section("Reaction steps", mechanism.steps.length > 0 ? align(mechanism.steps.map(stepRow)) : "The mechanism has no reaction steps."),
     section("Rate coefficients and concentrations", conditions(mechanism)),
     section("Structure", structureSentence(report)),
-    section("Induced kinetic differential equations", report.species.length > 0 ? align(report.species.map((name) => odeRow(name, report))) : "There are no species."),
+    section("Induced kinetic differential equations", report.species.length > 0 ? align(report.species.flatMap((name) => odeRows(name, report))) : "There are no species."),
   ];
   const document = [
     "\\documentclass[11pt]{article}",
@@ -93,10 +94,33 @@ function structureSentence(report: LatexReport): string {
   );
 }
 
-function odeRow(name: string, report: LatexReport): string {
+/**
+ * An equation as rows of the align*: the right-hand side broken between terms (where the
+ * typeset equation allows a break) so that each row fits the text width of an 11pt article.
+ */
+function odeRows(name: string, report: LatexReport): string[] {
   const equation = report.odesLatex[name];
-  const left = `\\frac{d${symbolLatex(name)}}{dt} = `;
-  return equation.startsWith(left) ? `${left.slice(0, -3)} &= ${equation.slice(left.length)}` : `& ${equation}`;
+  const left = `\\frac{d${concentrationLatex(name, 1)}}{dt} = `;
+  if (!equation.startsWith(left)) return [`& ${equation}`];
+  const lines: string[][] = [[]];
+  for (const term of equation.slice(left.length).split(termBreak)) {
+    const line = lines.at(-1)!;
+    if (line.length > 0 && visibleWidth([...line, term].join(" ")) > rowWidth) lines.push([term]);
+    else line.push(term);
+  }
+  return lines.map((terms, index) => (index === 0 ? `${left.slice(0, -3)} &= ${terms.join(" ")}` : `&\\quad {}${terms.join(" ")}`));
+}
+
+/** Characters of maths a row's right-hand side may hold: 360pt of text width, some 6pt each. */
+const rowWidth = 44;
+
+/** Roughly how many characters wide typeset LaTeX is: every command one symbol, spacing nothing. */
+function visibleWidth(latex: string): number {
+  return latex
+    .replace(/\\(left|right|mathrm|allowbreak|text)(?![A-Za-z])/g, "")
+    .replace(/\\[,;!]/g, "")
+    .replace(/\\[A-Za-z]+/g, "M")
+    .replace(/[{}\s^_]/g, "").length;
 }
 
 // ---- text

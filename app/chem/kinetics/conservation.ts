@@ -1,11 +1,13 @@
-// Linear algebra of the stoichiometric matrix S (variables × rates), in floating point: the
-// conservation laws (the left kernel of S) and an orthonormal basis of the stoichiometric
-// subspace (the column space of S). The structure analysis computes exact integer laws; here a
-// numerical basis in reduced row-echelon form is what Newton's method and eigenvalues need.
+// Linear algebra of the stoichiometric matrix S (variables × rates) for the integrator's
+// analyses: the conservation laws (the left kernel of S) and an orthonormal basis of the
+// stoichiometric subspace (the column space of S). Both are decided exactly (app/chem/linalg) and
+// turned into doubles only at the end, so no tolerance decides how many laws there are.
 
+import { independentRows, reducedNullSpace } from "~/chem/linalg/rational-matrix";
+import * as Q from "~/chem/linalg/rational";
+import type { Rational } from "~/chem/linalg/rational";
+import { SimulationInputError } from "./errors";
 import type { KineticSpec } from "./kinetic-system";
-
-const TOLERANCE = 1e-9;
 
 /** S as rows of variables, columns of rates. */
 export function stoichiometricMatrix(spec: KineticSpec): number[][] {
@@ -23,58 +25,42 @@ export interface ConservationBasis {
 }
 
 /**
- * A basis of {w : wᵀS = 0}: the null space of Sᵀ from its reduced row-echelon form, one law per
- * free column — so each law owns a variable no other law mentions.
+ * A basis of {w : wᵀS = 0} in reduced echelon form, each law leading with 1 on its highest
+ * variable — so each law owns a variable no other law mentions.
  */
 export function conservationBasis(stoichiometry: number[][]): ConservationBasis {
-  const n = stoichiometry.length;
-  const m = n === 0 ? 0 : stoichiometry[0].length;
-  const rows = Array.from({ length: m }, (_, r) => stoichiometry.map((row) => row[r]));
-  const scale = rows.reduce((largest, row) => row.reduce((a, x) => Math.max(a, Math.abs(x)), largest), 1);
-  const pivotColumns: number[] = [];
-  let rank = 0;
-  for (let column = 0; column < n && rank < m; column++) {
-    let best = rank;
-    for (let r = rank + 1; r < m; r++) if (Math.abs(rows[r][column]) > Math.abs(rows[best][column])) best = r;
-    if (Math.abs(rows[best][column]) <= TOLERANCE * scale) continue;
-    [rows[rank], rows[best]] = [rows[best], rows[rank]];
-    const pivot = rows[rank][column];
-    for (let c = 0; c < n; c++) rows[rank][c] /= pivot;
-    for (let r = 0; r < m; r++) {
-      if (r === rank || rows[r][column] === 0) continue;
-      const factor = rows[r][column];
-      for (let c = 0; c < n; c++) rows[r][c] -= factor * rows[rank][c];
-    }
-    pivotColumns.push(column);
-    rank++;
-  }
-  const isPivot = new Set(pivotColumns);
-  const leading = [...Array(n).keys()].filter((c) => !isPivot.has(c));
-  const laws = leading.map((free) => {
-    const law = new Array<number>(n).fill(0);
-    law[free] = 1;
-    pivotColumns.forEach((column, r) => (law[column] = Math.abs(rows[r][free]) <= TOLERANCE ? 0 : -rows[r][free]));
-    return law;
-  });
-  return { laws, leading };
+  const { basis, leading } = reducedNullSpace(exactReactionVectors(stoichiometry), stoichiometry.length);
+  return { laws: basis.map((law) => law.map(Q.toNumber)), leading };
 }
 
-/** Orthonormal columns spanning the column space of S (modified Gram–Schmidt). */
+/** Orthonormal columns spanning the column space of S (modified Gram–Schmidt on independent columns). */
 export function stoichiometricSubspace(stoichiometry: number[][]): number[][] {
   const n = stoichiometry.length;
-  const m = n === 0 ? 0 : stoichiometry[0].length;
   const basis: number[][] = [];
-  for (let r = 0; r < m; r++) {
+  for (const r of independentRows(exactReactionVectors(stoichiometry))) {
     const v = stoichiometry.map((row) => row[r]);
-    const size = Math.hypot(...v);
-    if (size === 0) continue;
     for (const q of basis) {
       const dot = q.reduce((sum, qi, i) => sum + qi * v[i], 0);
       for (let i = 0; i < n; i++) v[i] -= dot * q[i];
     }
     const remaining = Math.hypot(...v);
-    if (remaining <= TOLERANCE * size) continue;
     basis.push(v.map((x) => x / remaining));
   }
   return basis;
+}
+
+/**
+ * The columns of S as exact rows. A network's changes are integers; a polynomial ODE's are the
+ * doubles of its coefficients, read back as the simplest fractions they round from (8/3, 1/10).
+ */
+function exactReactionVectors(stoichiometry: number[][]): Rational[][] {
+  const rates = stoichiometry[0]?.length ?? 0;
+  return Array.from({ length: rates }, (_, r) => stoichiometry.map((row) => exactChange(row[r])));
+}
+
+function exactChange(change: number): Rational {
+  if (change === 0) return Q.ZERO;
+  // An ODE coefficient such as 10^400 parses, but no law or direction can be read from infinity.
+  if (!Number.isFinite(change)) throw new SimulationInputError(`a coefficient of the system is ${change}, beyond the range of double-precision numbers`);
+  return Q.simplestRational(change);
 }

@@ -23,7 +23,7 @@ describe("CSV time courses", () => {
   });
 
   it("refuses files over the size limit", () => {
-    expect(() => readMeasuredCsv("time,A\n" + "0,1\n".repeat(1_500_000))).toThrow(/larger than 5 MB/);
+    expect(() => readMeasuredCsv("time,A\n" + "0,1\n".repeat(1_500_000))).toThrow(/larger than 5 MiB/);
   });
 
   it("measures residuals against a linearly interpolated simulation", () => {

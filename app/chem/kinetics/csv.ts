@@ -5,9 +5,7 @@
 
 import Papa from "papaparse";
 import { fromSpreadsheetText, spreadsheetText } from "~/chem/exchange/csv";
-
-export const MAX_CSV_BYTES = 5 * 1024 * 1024;
-export const MAX_CSV_ROWS = 100_000;
+import { byteSize, MAX_CSV_BYTES, MAX_CSV_ROWS } from "~/chem/limits";
 
 export interface MeasuredCourses {
   time: number[];
@@ -25,7 +23,7 @@ export interface ReadOptions {
 }
 
 export function readMeasuredCsv(text: string, options: ReadOptions = {}): { data: MeasuredCourses; warnings: string[] } {
-  if (new TextEncoder().encode(text).length > MAX_CSV_BYTES) throw new CsvError(`the file is larger than ${MAX_CSV_BYTES / 1024 / 1024} MB`);
+  if (new TextEncoder().encode(text).length > MAX_CSV_BYTES) throw new CsvError(`the file is larger than ${byteSize(MAX_CSV_BYTES)}`);
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: "greedy" });
   const fatal = parsed.errors.find((e) => e.type === "Quotes");
   if (fatal) throw new CsvError(`line ${(fatal.row ?? 0) + 1}: ${fatal.message}`);

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { brusselator, lotkaVolterra, massAction } from "../../../tests/fixtures/dynamics/models";
 import { conservationBasis } from "./conservation";
 import { networkEquilibrium, polynomialEquilibrium } from "./equilibrium";
+import { SimulationInputError } from "./errors";
 
 describe("equilibria", () => {
   it("A ⇌ B ⇌ C settles at the detailed-balance solution, stable within its class", () => {
@@ -41,6 +42,30 @@ describe("equilibria", () => {
     expect(laws).toHaveLength(2);
     const stoichiometry = [[-1, -1, 1, 0], [1, 1, -1, 0], [1, 0, -1, 1]];
     for (const law of laws) for (const column of stoichiometry) expect(law.reduce((s, w, i) => s + w * column[i], 0)).toBeCloseTo(0, 12);
+  });
+
+  it("keeps the law 3x + y of an ODE written in thirds, which its doubles only approximate", () => {
+    // x' = −x/3 + y, y' = x − 3y: 3x' + y' = 0, so 3x + y = 3 from (1, 0), and y = x/3 at rest:
+    // x = 0.9, y = 0.3; within the class the Jacobian's eigenvalue is its trace, −1/3 − 3 = −10/3.
+    const ode = {
+      variables: ["x", "y"],
+      rhs: [
+        [{ coefficient: -1 / 3, exponents: [1, 0] }, { coefficient: 1, exponents: [0, 1] }],
+        [{ coefficient: 1, exponents: [1, 0] }, { coefficient: -3, exponents: [0, 1] }],
+      ],
+      initial: [1, 0],
+    };
+    const result = polynomialEquilibrium(ode, { start: [0.5, 0.5] });
+    expect(result.converged).toBe(true);
+    expect(result.state.x).toBeCloseTo(0.9, 12);
+    expect(result.state.y).toBeCloseTo(0.3, 12);
+    expect(result.eigenvalues).toEqual([{ re: expect.closeTo(-10 / 3, 10), im: 0 }]);
+    expect(result.stability).toBe("stable");
+  });
+
+  it("refuses a coefficient beyond the doubles (10^400 in an ODE text) with a clear message", () => {
+    const ode = { variables: ["x"], rhs: [[{ coefficient: Infinity, exponents: [1] }]], initial: [1] };
+    expect(() => polynomialEquilibrium(ode, { start: [1] })).toThrow(SimulationInputError);
   });
 
   it("the Brusselator's equilibrium (1, 3) is unstable: b = 3 > 1 + a² (Prigogine & Lefever 1968)", () => {

@@ -2,10 +2,13 @@
 // times, sampling through dense output, statistics, cancellation, and the automatic switch from
 // the explicit pair to the stiff method when the explicit pair's stiffness test fires.
 
-import { DormandPrince } from "./dormand-prince";
+import { dormandPrince54 } from "./dormand-prince";
 import { IntegrationFailure, SimulationCancelled } from "./errors";
+import { ExplicitRungeKutta } from "./explicit-runge-kutta";
 import type { OdeSystem } from "./ode-system";
-import { Rodas4 } from "./rosenbrock";
+import { rodas4 } from "./rodas4";
+import { Rosenbrock } from "./rosenbrock";
+import { StepSizeController } from "./step-size-controller";
 import { errorNorm, type Stepper, type Tolerances } from "./stepper";
 
 export type Method = "auto" | "stiff" | "explicit";
@@ -33,7 +36,8 @@ export class Integrator {
   /** When the automatic choice switched to the stiff method, the time it did; null otherwise. */
   switchedAt: number | null = null;
   private stepper: Stepper;
-  private explicit: DormandPrince | null;
+  private controller: StepSizeController;
+  private explicit: ExplicitRungeKutta | null;
   private jacobiansBeforeSwitch = 0;
   private h = 0;
   private readonly maxSteps: number;
@@ -47,12 +51,13 @@ export class Integrator {
     this.y = Float64Array.from(initial);
     this.t = start;
     this.maxSteps = options.maxSteps ?? DEFAULT_MAX_STEPS;
-    this.explicit = options.method === "stiff" ? null : new DormandPrince(system, options);
-    this.stepper = this.explicit ?? new Rodas4(system, options);
+    this.explicit = options.method === "stiff" ? null : new ExplicitRungeKutta(dormandPrince54, system, options);
+    this.stepper = this.explicit ?? new Rosenbrock(rodas4, system, options);
+    this.controller = new StepSizeController(this.stepper.controller);
   }
 
   get method(): "stiff" | "explicit" {
-    return this.stepper instanceof Rodas4 ? "stiff" : "explicit";
+    return this.stepper instanceof Rosenbrock ? "stiff" : "explicit";
   }
 
   get statistics(): StepStatistics {
@@ -88,9 +93,9 @@ export class Integrator {
       const remaining = until - this.t;
       const landing = this.h >= remaining;
       const h = landing ? remaining : this.h;
-      const error = this.stepper.attempt(this.y, h);
+      const error = this.stepper.step(this.y, h);
       const accepted = error <= 1;
-      const proposal = this.stepper.nextStep(h, error, accepted);
+      const proposal = this.controller.next(h, error, accepted);
       if (!accepted) {
         this.rejected++;
         this.h = proposal;
@@ -120,7 +125,8 @@ export class Integrator {
 
   private switchToStiff(): void {
     this.jacobiansBeforeSwitch += this.stepper.jacobians;
-    this.stepper = new Rodas4(this.system, this.options);
+    this.stepper = new Rosenbrock(rodas4, this.system, this.options);
+    this.controller = new StepSizeController(this.stepper.controller);
     this.explicit = null;
     this.switchedAt = this.t;
   }

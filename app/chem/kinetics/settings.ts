@@ -1,35 +1,41 @@
-// The user-facing knobs of a time-course run, their defaults and their sane ranges — shared by
-// the library, the CLI, the worker and the HTTP API so every door refuses the same things.
+// The user-facing knobs of a time-course run, their defaults and their sane ranges — one zod schema
+// shared by the library, the CLI, the worker and the HTTP API (app/shared/job-schemas.ts builds
+// every job kind on it), so every door refuses the same things in the same words.
 
+import { z } from "zod";
+import { MAX_SAMPLES } from "../limits";
 import { SimulationInputError } from "./errors";
 import type { Method } from "./integrator";
 
-export interface SimulationSettings {
-  until: number;
-  samples: number;
-  rtol?: number;
-  atol?: number;
-  method?: Method;
-}
-
-export type ResolvedSettings = Required<SimulationSettings>;
-
 export const DEFAULT_RTOL = 1e-6;
 export const DEFAULT_ATOL = 1e-10;
-export const MAX_SAMPLES = 100_000;
-export const METHODS: readonly Method[] = ["auto", "stiff", "explicit"];
+export const METHODS = ["auto", "stiff", "explicit"] as const satisfies readonly Method[];
+
+/** How an integration is carried out: tolerances and method, shared by every kind of run. */
+export const integrationSettings = z.object({
+  rtol: z.number({ message: "the relative tolerance must be a number" }).min(1e-13, "the relative tolerance must lie in [1e-13, 1)").lt(1, "the relative tolerance must lie in [1e-13, 1)").optional(),
+  atol: z.number({ message: "the absolute tolerance must be a number" }).positive("the absolute tolerance must be a positive number").optional(),
+  method: z.enum(METHODS, { message: `the method must be one of ${METHODS.join(", ")}` }).optional(),
+});
+
+/** The end time of a run. */
+export const untilField = z.number({ message: "the end time must be a number" }).positive("the end time must be a positive number");
+
+/** A whole number of samples from 2 to `max`. */
+export function samplesField(max: number) {
+  const message = `the number of samples must be a whole number from 2 to ${max}`;
+  return z.number({ message }).int(message).min(2, message).max(max, message);
+}
+
+export const simulationSettings = integrationSettings.extend({ until: untilField, samples: samplesField(MAX_SAMPLES) });
+
+export type SimulationSettings = z.infer<typeof simulationSettings>;
+export type ResolvedSettings = Required<SimulationSettings>;
 
 /** What is wrong with the settings, in words, or null when they are usable. */
 export function settingsProblem(settings: SimulationSettings): string | null {
-  const { until, samples, rtol = DEFAULT_RTOL, atol = DEFAULT_ATOL, method = "auto" } = settings;
-  if (!(Number.isFinite(until) && until > 0)) return "the end time must be a positive number";
-  if (!(Number.isInteger(samples) && samples >= 2 && samples <= MAX_SAMPLES)) {
-    return `the number of samples must be a whole number from 2 to ${MAX_SAMPLES}`;
-  }
-  if (!(rtol >= 1e-13 && rtol < 1)) return "the relative tolerance must lie in [1e-13, 1)";
-  if (!(Number.isFinite(atol) && atol > 0)) return "the absolute tolerance must be a positive number";
-  if (!METHODS.includes(method)) return `the method must be one of ${METHODS.join(", ")}`;
-  return null;
+  const parsed = simulationSettings.safeParse(settings);
+  return parsed.success ? null : parsed.error.issues[0].message;
 }
 
 export function resolveSettings(settings: SimulationSettings): ResolvedSettings {

@@ -1,20 +1,20 @@
-// What the integration driver needs from a one-step method: try a step, accept it, interpolate
-// inside it, and propose the next step size from the error estimate (each published method comes
-// with its own controller).
+// What the integration driver needs from a method: try a step, accept it, interpolate inside it,
+// and the step-size controller settings published with it (the driver owns the controller).
+
+import type { ControllerSettings } from "./step-size-controller";
 
 export interface Stepper {
   /** Classical order of the propagated solution (for the initial step size guess). */
   readonly order: number;
-  /** The candidate state after the last `attempt`. */
+  readonly controller: ControllerSettings;
+  /** The candidate state after the last `step`. */
   readonly yNew: Float64Array;
   /** Tries a step of size h from y; returns the error estimate in the tolerance norm (≤ 1 passes). */
-  attempt(y: Float64Array, h: number): number;
-  /** Keeps the last attempt: dense output now covers it; y must then be advanced to `yNew`. */
+  step(y: Float64Array, h: number): number;
+  /** Keeps the last step: dense output now covers it; y must then be advanced to `yNew`. */
   accept(): void;
   /** The state at fraction theta ∈ [0, 1] of the last accepted step. */
   interpolate(theta: number, out: Float64Array): void;
-  /** The next step size after a step of size h with error `error`. */
-  nextStep(h: number, error: number, accepted: boolean): number;
   /** The state was changed from outside (clipping, renormalisation): cached values are stale. */
   invalidate(): void;
   readonly jacobians: number;

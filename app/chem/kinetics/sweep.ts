@@ -7,6 +7,7 @@
 // coefficient of 0 takes its reaction out of the network), so each point rebuilds the network.
 
 import type { Mechanism, Network, Step } from "~/chem/model";
+import { MAX_SWEEP_POINTS } from "~/chem/limits";
 import { buildNetwork } from "~/chem/network";
 import { SimulationCancelled, SimulationInputError } from "./errors";
 import { networkSystem } from "./from-network";
@@ -43,8 +44,6 @@ export interface SweepResult {
   observed: (number | null)[];
   stats: { steps: number; rejected: number; jacobians: number; ms: number };
 }
-
-export const MAX_SWEEP_POINTS = 500;
 
 export function sweepValues(from: number, to: number, points: number, scale: "linear" | "log"): number[] {
   if (!(Number.isInteger(points) && points >= 2 && points <= MAX_SWEEP_POINTS)) {

@@ -2,7 +2,7 @@
 import fc from "fast-check";
 import type { ExactOde } from "./exact";
 import * as P from "./polynomial";
-import * as Q from "./rational";
+import * as Q from "../linalg/rational";
 
 export const VARIABLES = ["a", "b", "c"];
 

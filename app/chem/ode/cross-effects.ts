@@ -6,7 +6,7 @@ import { formatTerm } from "./format";
 import type { EquationSource, SourceSpan } from "./parse";
 import type { ExactTerm } from "./polynomial";
 import { exponentKey, sortedTerms } from "./polynomial";
-import { sign } from "./rational";
+import { sign } from "../linalg/rational";
 
 export interface NegativeCrossEffect {
   /** The variable whose equation holds the term. */

@@ -3,8 +3,8 @@
 import type { PolynomialOde } from "../model";
 import type { Polynomial } from "./polynomial";
 import { toMonomials } from "./polynomial";
-import type { Rational } from "./rational";
-import { toNumber } from "./rational";
+import type { Rational } from "../linalg/rational";
+import { toNumber } from "../linalg/rational";
 
 export interface ExactOde {
   variables: string[];

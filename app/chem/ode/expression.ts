@@ -3,7 +3,7 @@ import type { MathNode } from "mathjs";
 import { lawFunctions } from "../law";
 import * as P from "./polynomial";
 import type { Polynomial } from "./polynomial";
-import * as Q from "./rational";
+import * as Q from "../linalg/rational";
 
 export interface Scope {
   variables: ReadonlyMap<string, number>;

@@ -4,7 +4,7 @@ import { odeArbitrary } from "./arbitrary";
 import { formatOde } from "./format";
 import { parseOde } from "./parse";
 import * as P from "./polynomial";
-import * as Q from "./rational";
+import * as Q from "../linalg/rational";
 import { negativeCrossEffects } from "./cross-effects";
 import { multiplyByMonomial, productOfAllVariables, smallestMultiplier, translate } from "./transform";
 

@@ -2,7 +2,7 @@
 import type { ExactOde } from "./exact";
 import type { ExactTerm, Polynomial } from "./polynomial";
 import { sortedTerms } from "./polynomial";
-import * as Q from "./rational";
+import * as Q from "../linalg/rational";
 
 export function formatMonomial(exponents: readonly number[], variables: readonly string[]): string {
   return exponents.flatMap((e, i) => (e === 0 ? [] : [e === 1 ? variables[i] : `${variables[i]}^${e}`])).join("*");

@@ -2,7 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import { parseOde } from "./parse";
-import { toText } from "./rational";
+import { toText } from "../linalg/rational";
 
 const fixture = (name: string) => readFileSync(`tests/fixtures/ode/${name}`, "utf8");
 

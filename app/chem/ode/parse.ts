@@ -10,7 +10,7 @@ import { NotPolynomial, toPolynomial } from "./expression";
 import type { Scope } from "./expression";
 import * as P from "./polynomial";
 import type { Polynomial } from "./polynomial";
-import * as Q from "./rational";
+import * as Q from "../linalg/rational";
 import { splitSummands } from "./summands";
 import type { Span } from "./summands";
 

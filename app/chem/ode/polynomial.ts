@@ -1,6 +1,6 @@
 // Exact multivariate polynomials: a map from exponent vector to a non-zero rational coefficient.
-import * as Q from "./rational";
-import type { Rational } from "./rational";
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
 import type { Monomial } from "../model";
 
 export interface ExactTerm {

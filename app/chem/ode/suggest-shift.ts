@@ -3,8 +3,8 @@
 // trajectory stays in the shifted orthant.
 import { simulatePolynomialOde } from "../kinetics/simulate";
 import type { PolynomialOde } from "../model";
-import * as Q from "./rational";
-import type { Rational } from "./rational";
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
 
 export interface ShiftSuggestion {
   shift: Record<string, number>;

@@ -7,7 +7,7 @@ import { toPolynomialOde } from "./exact";
 import { formatOde } from "./format";
 import { parseOde } from "./parse";
 import * as P from "./polynomial";
-import * as Q from "./rational";
+import * as Q from "../linalg/rational";
 import { multiplyByMonomial, productOfAllVariables, translate } from "./transform";
 import { roundUpNicely, shiftFromBox } from "./suggest-shift";
 

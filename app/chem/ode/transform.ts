@@ -4,8 +4,8 @@ import { negativeCrossEffects } from "./cross-effects";
 import type { ExactOde } from "./exact";
 import * as P from "./polynomial";
 import type { Polynomial } from "./polynomial";
-import * as Q from "./rational";
-import type { Rational } from "./rational";
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
 
 /**
  * Translation u = x + s: u' = P(u − s), u(0) = x(0) + s. Trajectories are the old ones moved by s,

@@ -9,7 +9,7 @@ import { negativeCrossEffects } from "../ode/cross-effects";
 import type { ExactOde } from "../ode/exact";
 import { parseOde } from "../ode/parse";
 import * as P from "../ode/polynomial";
-import * as Q from "../ode/rational";
+import * as Q from "../linalg/rational";
 import { multiplyByMonomial, productOfAllVariables, translate } from "../ode/transform";
 import { canonicalRealization } from "./canonical";
 import { inducedRhs, maxOrder } from "./mass-action";

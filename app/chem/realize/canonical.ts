@@ -4,7 +4,7 @@
 // negative cross effects.
 import type { ExactOde } from "../ode/exact";
 import { sortedTerms } from "../ode/polynomial";
-import * as Q from "../ode/rational";
+import * as Q from "../linalg/rational";
 import type { MassActionMechanism } from "./mass-action";
 
 export function canonicalRealization(ode: ExactOde): MassActionMechanism {

@@ -2,7 +2,7 @@
 // reactions) and a weakly reversible one, on candidate complexes chosen as the canonical
 // realization's plus any given (e.g. a mechanism's own). One time limit for the three searches.
 import type { ExactOde } from "../ode/exact";
-import type { Rational } from "../ode/rational";
+import type { Rational } from "../linalg/rational";
 import { buildNetwork } from "../network";
 import { parseMechanism } from "../parse";
 import { complexesOf, massActionOf } from "./from-network";

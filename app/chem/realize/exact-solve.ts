@@ -1,33 +1,8 @@
 // Exact linear algebra for the realization search: the solver's floating-point rates are turned
 // into exact rationals that satisfy Y·A_k = M to the last digit.
-import * as Q from "../ode/rational";
-import type { Rational } from "../ode/rational";
-
-/** Some solution of A x = b (free unknowns set to 0) by Gauss–Jordan elimination, or null if none. */
-export function solveLinear(a: readonly Rational[][], b: readonly Rational[]): Rational[] | null {
-  const rows = a.map((row, i) => [...row, b[i]]);
-  const columns = a[0]?.length ?? 0;
-  const pivots: number[] = [];
-  let rank = 0;
-  for (let c = 0; c < columns && rank < rows.length; c++) {
-    const p = rows.findIndex((row, i) => i >= rank && !Q.isZero(row[c]));
-    if (p < 0) continue;
-    [rows[rank], rows[p]] = [rows[p], rows[rank]];
-    const pivot = rows[rank][c];
-    rows[rank] = rows[rank].map((v) => Q.div(v, pivot));
-    for (let i = 0; i < rows.length; i++) {
-      if (i === rank || Q.isZero(rows[i][c])) continue;
-      const factor = rows[i][c];
-      rows[i] = rows[i].map((v, k) => Q.sub(v, Q.mul(factor, rows[rank][k])));
-    }
-    pivots.push(c);
-    rank++;
-  }
-  if (rows.slice(rank).some((row) => !Q.isZero(row[columns]))) return null;
-  const x = new Array<Rational>(columns).fill(Q.ZERO);
-  pivots.forEach((c, i) => (x[c] = rows[i][columns]));
-  return x;
-}
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
+import { solveLinear } from "../linalg/rational-matrix";
 
 /**
  * The exact point nearest (in the least-squares sense) to `approximate` with Σ_k x_k·vectors[k] =

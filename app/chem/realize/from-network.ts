@@ -1,7 +1,7 @@
 // A parsed network as an exact mass-action mechanism, so that its induced ODE can be searched for
 // other realizations. Rates are read as the decimals they were written as.
 import type { Network } from "../model";
-import * as Q from "../ode/rational";
+import * as Q from "../linalg/rational";
 import type { MassActionMechanism } from "./mass-action";
 
 export function massActionOf(network: Network): MassActionMechanism {

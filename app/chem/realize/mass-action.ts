@@ -2,8 +2,8 @@
 // algorithms: complexes as exponent vectors over `species`.
 import * as P from "../ode/polynomial";
 import type { Polynomial } from "../ode/polynomial";
-import * as Q from "../ode/rational";
-import type { Rational } from "../ode/rational";
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
 
 export interface MassActionReaction {
   reactant: number[];

@@ -9,7 +9,7 @@ import { describe, expect, it } from "vitest";
 import { odeArbitrary } from "../ode/arbitrary";
 import { canonicalRealization } from "./canonical";
 import { parseOde } from "../ode/parse";
-import * as Q from "../ode/rational";
+import * as Q from "../linalg/rational";
 import type { MassActionMechanism } from "./mass-action";
 import { inducedRhs } from "./mass-action";
 import { searchRealization } from "./milp";

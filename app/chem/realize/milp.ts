@@ -7,8 +7,8 @@
 // optimum, found far faster. The solver's rates are then snapped to exact rationals.
 import highsLoader from "highs";
 import * as P from "../ode/polynomial";
-import * as Q from "../ode/rational";
-import type { Rational } from "../ode/rational";
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
 import { snapToExact } from "./exact-solve";
 import type { Edge } from "../linkage";
 import type { MassActionMechanism, MassActionReaction } from "./mass-action";

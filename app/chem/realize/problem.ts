@@ -3,8 +3,8 @@
 // complexes with Kirchhoff matrix A_k realizes the ODE iff Y·A_k = M.
 import type { ExactOde } from "../ode/exact";
 import { exponentKey } from "../ode/polynomial";
-import * as Q from "../ode/rational";
-import type { Rational } from "../ode/rational";
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
 import { canonicalRealization } from "./canonical";
 
 export interface RealizationProblem {

@@ -10,7 +10,7 @@ import { formatMonomial, formatOde } from "../ode/format";
 import { parseOde } from "../ode/parse";
 import type { SourceSpan } from "../ode/parse";
 import * as P from "../ode/polynomial";
-import * as Q from "../ode/rational";
+import * as Q from "../linalg/rational";
 import { boundingBox, DEFAULT_HORIZON, suggestShift } from "../ode/suggest-shift";
 import type { Horizon, ShiftSuggestion } from "../ode/suggest-shift";
 import { multiplyByMonomial, productOfAllVariables, smallestMultiplier, translate } from "../ode/transform";

@@ -2,8 +2,8 @@
 // decimal rates only, so each rate is its nearest double (8/3 → 2.6666666666666665).
 import type { Mechanism, Term } from "../model";
 import { printMechanism } from "../print";
-import * as Q from "../ode/rational";
-import type { Rational } from "../ode/rational";
+import * as Q from "../linalg/rational";
+import type { Rational } from "../linalg/rational";
 import type { MassActionMechanism } from "./mass-action";
 
 const terms = (exponents: readonly number[], species: readonly string[]): Term[] =>

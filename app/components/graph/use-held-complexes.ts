@@ -2,14 +2,12 @@
 // shows who holds it; and how this user tells the room about a drag of their own.
 import { useCallback, useEffect, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
+import { presenceFields, readPresence } from "~/shared/room-document";
 
 export interface Holder {
   name: string;
   colour: string;
 }
-
-/** The awareness field naming the complex (its canonical text) this client is dragging. */
-const field = "graphDrag";
 
 export function useHeldComplexes(awareness: Awareness | null): { held: ReadonlyMap<string, Holder>; hold(key: string | null): void } {
   const [held, setHeld] = useState<ReadonlyMap<string, Holder>>(() => new Map());
@@ -30,17 +28,16 @@ export function useHeldComplexes(awareness: Awareness | null): { held: ReadonlyM
     };
   }, [awareness]);
 
-  const hold = useCallback((key: string | null) => awareness?.setLocalStateField(field, key), [awareness]);
+  const hold = useCallback((key: string | null) => awareness?.setLocalStateField(presenceFields.graphDrag, key), [awareness]);
   return { held, hold };
 }
 
 export function heldByOthers(awareness: Pick<Awareness, "getStates" | "clientID">): Map<string, Holder> {
   const held = new Map<string, Holder>();
   awareness.getStates().forEach((state, clientId) => {
-    const key = state[field];
-    const user = state.user as Partial<Holder> | undefined;
-    if (clientId === awareness.clientID || typeof key !== "string" || !user?.name || !user.colour) return;
-    held.set(key, { name: user.name, colour: user.colour });
+    const { user, graphDrag } = readPresence(state);
+    if (clientId === awareness.clientID || typeof graphDrag !== "string" || !user?.colour) return;
+    held.set(graphDrag, { name: user.name, colour: user.colour });
   });
   return held;
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import * as Y from "yjs";
-import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS } from "~/shared/room-refusal";
+import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS } from "~/shared/room-document";
 import { readPositions, writePositions } from "./use-shared-layout";
 
 describe("reading the shared layout", () => {

@@ -2,7 +2,7 @@
 // co-author reads and writes the same map, so all of them see one picture of the graph.
 import { useCallback, useEffect, useState } from "react";
 import type * as Y from "yjs";
-import { MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS } from "~/shared/room-refusal";
+import { layoutPosition, MAX_LAYOUT_KEY_CHARS, MAX_LAYOUT_KEYS } from "~/shared/room-document";
 import type { XY } from "./layout";
 
 export interface SharedLayout {
@@ -50,10 +50,8 @@ export function writePositions(layout: Y.Map<unknown>, entries: Readonly<Record<
 export function readPositions(layout: Y.Map<unknown>): Record<string, XY> {
   const positions: Record<string, XY> = {};
   layout.forEach((value, key) => {
-    const point = value as Partial<XY> | null;
-    if (typeof point?.x === "number" && typeof point.y === "number" && Number.isFinite(point.x) && Number.isFinite(point.y)) {
-      positions[key] = { x: point.x, y: point.y };
-    }
+    const point = layoutPosition.safeParse(value);
+    if (point.success) positions[key] = point.data;
   });
   return positions;
 }

@@ -17,6 +17,6 @@ export async function action(args: Route.ActionArgs) {
   const user = await requireUser(args);
   const { source } = await readJson(args.request, z.object({ source: cleanText("The mechanism text") }));
   const refusal = checkSourceLimits(source);
-  if (refusal) return httpError(413, refusal);
+  if (refusal) return httpError("too_large", refusal);
   return Response.json(await analysisFor({ ...args, owner: jobOwner(args.context, user) }, source));
 }

@@ -16,10 +16,10 @@ export const action = onlyMethods(["GET"], "Use GET with ?format=sbml, latex or 
 export async function loader(args: Route.LoaderArgs) {
   const { mechanism, user } = await requireRole(args, args.params.id, "viewer");
   const format = new URL(args.request.url).searchParams.get("format") ?? "";
-  if (!Object.hasOwn(formats, format)) return httpError(400, "Ask for format=sbml, latex or csv.");
+  if (!Object.hasOwn(formats, format)) return httpError("bad_input", "Ask for format=sbml, latex or csv.");
   const chosen = formats[format as keyof typeof formats];
   const exported = await exportFor({ ...args, owner: jobOwner(args.context, user) }, mechanism.source, format as keyof typeof formats, mechanism.title);
-  if ("refusal" in exported) return httpError(exported.tooLarge ? 413 : 400, exported.refusal);
+  if ("refusal" in exported) return httpError(exported.tooLarge ? "too_large" : "bad_input", exported.refusal);
   const body = exported.body;
   const filename = `${mechanism.title.replace(/[^\w.-]+/g, "-").replace(/^-|-$/g, "") || mechanism.id}.${chosen.extension}`;
   return new Response(body, { headers: { "Content-Type": chosen.type, "Content-Disposition": `attachment; filename="${filename}"` } });

@@ -1,14 +1,15 @@
 // POST /api/v1/mechanisms/import: a multipart `file` field, or the raw XML as the body.
 import { requireUser } from "~/utils/auth.server";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
-import { importSbmlFile, MAX_SBML_BYTES } from "~/utils/import.server";
+import { MAX_SBML_BYTES, MULTIPART_OVERHEAD_BYTES } from "~/chem/limits";
+import { importSbmlFile, oversizedSbmlMessage } from "~/utils/import.server";
 import type { Route } from "./+types/import";
 
 async function readUpload(request: Request): Promise<{ xml: string; filename: string | null }> {
-  if (Number(request.headers.get("Content-Length") ?? 0) > MAX_SBML_BYTES + 64 * 1024) throw httpError(413, "The file is over 4 MiB.");
+  if (Number(request.headers.get("Content-Length") ?? 0) > MAX_SBML_BYTES + MULTIPART_OVERHEAD_BYTES) throw httpError("too_large", oversizedSbmlMessage);
   if ((request.headers.get("Content-Type") ?? "").startsWith("multipart/form-data")) {
     const file = (await request.formData()).get("file");
-    if (!(file instanceof File)) throw httpError(400, "Send the SBML file in a form field named file.");
+    if (!(file instanceof File)) throw httpError("bad_input", "Send the SBML file in a form field named file.");
     return { xml: await file.text(), filename: file.name };
   }
   return { xml: await request.text(), filename: null };

@@ -21,7 +21,7 @@ export async function action(args: Route.ActionArgs) {
     const invitation = await inviteByEmail(args.context, args.request, user, mechanism, input.email, input.role);
     return Response.json({ id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt }, { status: 201 });
   } catch (error) {
-    if (isMembershipError(error)) return httpError(400, error.message);
+    if (isMembershipError(error)) return httpError("bad_input", error.message);
     throw error;
   }
 }

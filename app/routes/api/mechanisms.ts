@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { createMechanism, listMechanismsFor } from "~/utils/mechanisms.server";
 import { requireUser } from "~/utils/auth.server";
-import { cleanText, sourceField, titleField } from "~/shared/fields";
+import { sourceField, summaryField, titleField } from "~/shared/fields";
 import { methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import type { Route } from "./+types/mechanisms";
@@ -12,7 +12,7 @@ export async function loader(args: Route.LoaderArgs) {
   return Response.json({ mechanisms });
 }
 
-const createBody = z.object({ title: titleField, source: sourceField.optional(), summary: cleanText("The summary").max(2000).optional() });
+const createBody = z.object({ title: titleField, source: sourceField.optional(), summary: summaryField.optional() });
 
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return methodNotAllowed(["GET", "POST"], "Use POST to create a mechanism.");

@@ -1,9 +1,9 @@
 import { httpError } from "~/utils/http";
 
 export async function loader() {
-  return httpError(404, "No such API endpoint. See /api for the list.");
+  return httpError("not_found", "No such API endpoint. See /api for the list.");
 }
 
 export async function action() {
-  return httpError(404, "No such API endpoint. See /api for the list.");
+  return httpError("not_found", "No such API endpoint. See /api for the list.");
 }

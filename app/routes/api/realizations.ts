@@ -1,7 +1,8 @@
 import { requireUser } from "~/utils/auth.server";
 import { methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
-import { realizationRequest, runRealization } from "~/utils/realization.server";
+import { realizeRequest } from "~/shared/job-schemas";
+import { runRealization } from "~/utils/realization.server";
 import type { Route } from "./+types/realizations";
 
 const allowed = ["POST"];
@@ -11,6 +12,6 @@ export const loader = onlyMethods(allowed, hint);
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const user = await requireUser(args);
-  const input = await readJson(args.request, realizationRequest);
+  const input = await readJson(args.request, realizeRequest);
   return runRealization(args.request, args.context, user, input);
 }

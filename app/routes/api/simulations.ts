@@ -1,17 +1,9 @@
-import { z } from "zod";
+import { simulateSettings } from "~/shared/job-schemas";
 import { readJson } from "~/utils/json.server";
 import { jobOwner, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
 import { methodNotAllowed, onlyMethods } from "~/utils/http";
 import { requireRole } from "~/utils/permissions.server";
 import type { Route } from "./+types/simulations";
-
-const body = z.object({
-  until: z.number().positive("until must be a positive time."),
-  samples: z.number().int().min(2).max(100_000),
-  rtol: z.number().positive().optional(),
-  atol: z.number().positive().optional(),
-  method: z.enum(["auto", "stiff", "explicit"]).optional(),
-});
 
 const allowed = ["POST"];
 const hint = "Use POST with { until, samples }.";
@@ -21,6 +13,6 @@ export const loader = onlyMethods(allowed, hint);
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const { mechanism, user } = await requireRole(args, args.params.id, "viewer");
-  const settings = await readJson(args.request, body);
+  const settings = await readJson(args.request, simulateSettings);
   return respondWithJob(args.request, args.context, jobOwner(args.context, user), { kind: "simulate", model: modelFromSource(mechanism.source), settings });
 }

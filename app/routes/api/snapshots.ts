@@ -1,7 +1,8 @@
 // GET /api/v1/mechanisms/:id/snapshots — the versions, newest first (viewer);
 // POST { "name" } — names the current version (editor).
 import { z } from "zod";
-import { listSnapshots, snapshotNameField } from "~/utils/mechanisms.server";
+import { snapshotNameField } from "~/shared/fields";
+import { listSnapshots } from "~/utils/mechanisms.server";
 import { httpError, methodNotAllowed } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
@@ -19,6 +20,6 @@ export async function action(args: Route.ActionArgs) {
   const { mechanism, user } = await requireRole(args, args.params.id, "editor");
   const { name } = await readJson(args.request, body);
   const snapshot = await args.context.collab.createNamedSnapshot(mechanism.id, user.id, name);
-  if (!snapshot) return httpError(404, "No mechanism with that id is visible to you.");
+  if (!snapshot) return httpError("not_found", "No mechanism with that id is visible to you.");
   return Response.json({ snapshot: { ...snapshot, kind: "named", name } }, { status: 201 });
 }

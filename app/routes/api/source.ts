@@ -2,7 +2,7 @@
 // everyone in the room sees it at once.
 import { z } from "zod";
 import { MAX_SOURCE_BYTES } from "~/chem/limits";
-import { cleanText } from "~/shared/fields";
+import { cleanText, oversizedSourceMessage } from "~/shared/fields";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
 import { readJson } from "~/utils/json.server";
 import { requireRole } from "~/utils/permissions.server";
@@ -18,7 +18,7 @@ export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "PUT") return methodNotAllowed(allowed, hint);
   const { mechanism, user } = await requireRole(args, args.params.id, "editor");
   const { source } = await readJson(args.request, body);
-  if (Buffer.byteLength(source, "utf8") > MAX_SOURCE_BYTES) return httpError(413, "The mechanism text is over 1 MiB; split it or trim comments.");
-  if (!(await args.context.collab.replaceSource(mechanism.id, source, user.id))) return httpError(404, "No mechanism with that id is visible to you.");
+  if (Buffer.byteLength(source, "utf8") > MAX_SOURCE_BYTES) return httpError("too_large", oversizedSourceMessage);
+  if (!(await args.context.collab.replaceSource(mechanism.id, source, user.id))) return httpError("not_found", "No mechanism with that id is visible to you.");
   return Response.json({ id: mechanism.id, source });
 }

@@ -12,7 +12,7 @@ const uuid = z.guid();
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "DELETE") return methodNotAllowed(allowed, hint);
   const user = await requireUser(args);
-  if (!uuid.safeParse(args.params.id).success) return httpError(400, "That is not a token id: token ids are UUIDs, as GET /api/v1/tokens lists them.");
-  if (!(await revokeApiToken(args.context.db, user.id, args.params.id))) return httpError(404, "No live token with that id.");
+  if (!uuid.safeParse(args.params.id).success) return httpError("bad_input", "That is not a token id: token ids are UUIDs, as GET /api/v1/tokens lists them.");
+  if (!(await revokeApiToken(args.context.db, user.id, args.params.id))) return httpError("not_found", "No live token with that id.");
   return new Response(null, { status: 204 });
 }

@@ -12,11 +12,11 @@ const uuid = z.guid();
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "DELETE") return methodNotAllowed(allowed, hint);
   const { mechanism, user } = await requireRole(args, args.params.id, "owner");
-  if (!uuid.safeParse(args.params.linkId).success) return httpError(400, "That is not a view link id: view link ids are UUIDs, as GET …/view-links lists them.");
+  if (!uuid.safeParse(args.params.linkId).success) return httpError("bad_input", "That is not a view link id: view link ids are UUIDs, as GET …/view-links lists them.");
   try {
     await revokeViewLink(args.context.db, user.id, mechanism.id, args.params.linkId);
   } catch (error) {
-    if (isMembershipError(error)) return httpError(404, error.message);
+    if (isMembershipError(error)) return httpError("not_found", error.message);
     throw error;
   }
   return new Response(null, { status: 204 });

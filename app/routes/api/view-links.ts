@@ -22,7 +22,7 @@ export async function action(args: Route.ActionArgs) {
   const { mechanism, user } = await requireRole(args, args.params.id, "owner");
   const input = await readJson(args.request, body);
   const expiresAt = input.expiresAt ? new Date(input.expiresAt) : undefined;
-  if (expiresAt && expiresAt <= new Date()) return httpError(400, "expiresAt must be in the future.");
+  if (expiresAt && expiresAt <= new Date()) return httpError("bad_input", "expiresAt must be in the future.");
   const link = await makeViewLink(args.context, args.request, user, mechanism.id, { expiresAt, label: input.label });
   return Response.json(link, { status: 201 });
 }

@@ -1,17 +1,12 @@
 // Exact rational numbers on bigints. The realization algebra compares polynomials term by term, so
 // coefficients such as 8/3 or 2.667 must not pass through floating point.
 
+import { gcd } from "./integers";
+
 export interface Rational {
   /** Numerator and denominator in lowest terms; the denominator is always positive. */
   readonly num: bigint;
   readonly den: bigint;
-}
-
-function gcd(a: bigint, b: bigint): bigint {
-  let x = a < 0n ? -a : a;
-  let y = b < 0n ? -b : b;
-  while (y !== 0n) [x, y] = [y, x % y];
-  return x;
 }
 
 export function rational(num: bigint | number, den: bigint | number = 1n): Rational {
@@ -63,6 +58,30 @@ export function parseDecimal(text: string): Rational | null {
 export function fromNumber(value: number): Rational {
   if (!Number.isFinite(value)) throw new RangeError(`not a finite number: ${value}`);
   return parseDecimal(String(value)) as Rational;
+}
+
+/**
+ * The simplest fraction that reads back as this double: the first continued-fraction convergent of
+ * its decimal that does. 0.3333333333333333 is 1/3 and 0.1 is 1/10, so numbers that came from
+ * small fractions (an ODE's 8/3, an integer stoichiometry) become those fractions again.
+ */
+export function simplestRational(value: number): Rational {
+  if (Number.isSafeInteger(value)) return rational(value);
+  const exact = fromNumber(value);
+  if (exact.den === 1n) return exact;
+  let [numerator, denominator] = [exact.num, exact.den];
+  let [h0, h1, k0, k1] = [0n, 1n, 1n, 0n];
+  while (denominator !== 0n) {
+    // Floor division, so negative values expand correctly too.
+    let quotient = numerator / denominator;
+    if (numerator % denominator !== 0n && numerator < 0n) quotient -= 1n;
+    [numerator, denominator] = [denominator, numerator - quotient * denominator];
+    [h0, h1] = [h1, quotient * h1 + h0];
+    [k0, k1] = [k1, quotient * k1 + k0];
+    const convergent = rational(h1, k1);
+    if (toNumber(convergent) === value) return convergent;
+  }
+  return exact;
 }
 
 export function toNumber(a: Rational): number {

@@ -1,7 +1,9 @@
 import fc from "fast-check";
 import { eigs, multiply, transpose } from "mathjs";
 import { describe, expect, it } from "vitest";
-import { ExactSizeLimitError, nullSpace, rank, type SparseVector } from "./exact";
+import { ExactSizeLimitError } from "./fraction-free";
+import { nullSpace, rank } from "./kernel";
+import type { SparseVector } from "./sparse";
 
 function sparse(rows: number[][]): SparseVector[] {
   return rows.map((row) => {

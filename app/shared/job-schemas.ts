@@ -1,0 +1,98 @@
+// One zod schema per job kind — simulate, equilibrium, Lyapunov, sweep, realize — used by the
+// HTTP API (to read bodies), the command line (to check its flags) and the worker (to check what
+// crossed into it), so every door refuses the same input with the same words; the job types are
+// `z.infer` of these. The numbers are the library's limits (app/chem/limits.ts); the shared
+// server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
+import { z } from "zod";
+import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
+import { MAX_COMPLEX_CHARS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { cleanText, odeField, sourceField } from "./fields";
+
+// ── The job kinds ──────────────────────────────────────────────────────────────────────────────
+/** A time course: `{ until, samples, rtol?, atol?, method? }`. */
+export const simulateSettings = simulationSettings;
+
+/** A steady state found by Newton's method, from `start` or from a run to `settleTime`. */
+export const equilibriumSettings = z.object({
+  settleTime: z.number().positive("the settling time must be a positive number").optional(),
+  start: z.array(z.number()).optional(),
+});
+
+/** The largest Lyapunov exponent over `[transient, until]`, renormalising every `interval`. */
+export const lyapunovSettings = integrationSettings.extend({
+  until: untilField,
+  transient: z.number().nonnegative("the transient must be a non-negative time").optional(),
+  interval: z.number().positive("the renormalisation interval must be a positive time").optional(),
+});
+
+/** What a sweep varies. A new kind of target is one more member here and a case in `sweepNetwork`. */
+export const sweepTarget = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("parameter"), name: cleanText("The parameter") }),
+  z.object({ kind: z.literal("initial"), species: cleanText("The species") }),
+  z.object({ kind: z.literal("rate"), reaction: z.number().int().nonnegative() }),
+  /** A step's mass-action coefficient by its label; `backward` for a reversible step's other one. */
+  z.object({ kind: z.literal("step"), label: cleanText("The step label"), direction: z.enum(["forward", "backward"]).optional() }),
+  /** A species held constant (`fixed [B] = …`). */
+  z.object({ kind: z.literal("fixed"), species: cleanText("The species") }),
+]);
+
+/** One observable of one species per value of the target, over a linear or logarithmic range. */
+export const sweepSettings = integrationSettings.extend({
+  until: untilField,
+  samples: samplesField(MAX_SWEEP_SAMPLES),
+  target: sweepTarget,
+  from: z.number().nonnegative("the sweep range must be non-negative numbers"),
+  to: z.number().nonnegative("the sweep range must be non-negative numbers"),
+  points: z.number().int().min(2, `a sweep takes from 2 to ${MAX_SWEEP_POINTS} points`).max(MAX_SWEEP_POINTS, `a sweep takes from 2 to ${MAX_SWEEP_POINTS} points`),
+  scale: z.enum(["linear", "log"]),
+  species: cleanText("The species"),
+  observable: z.enum(["final", "max", "period"]),
+});
+
+/** How to realize a polynomial ODE: transformations first, then the searches for equivalents. */
+const exponentMessage = `a multiplier's exponents are whole numbers from 0 to ${MAX_MULTIPLIER_EXPONENT}`;
+export const realizeSettings = z.object({
+  shift: z.union([z.record(z.string(), z.number()), z.literal("suggested")], { message: 'the shift is { variable: number, … } or "suggested"' }).optional(),
+  multiply: z.union([z.boolean(), z.record(z.string(), z.number().int(exponentMessage).min(0, exponentMessage).max(MAX_MULTIPLIER_EXPONENT, exponentMessage))]).optional(),
+  until: untilField.optional(),
+  equivalents: z.boolean().optional(),
+  complexes: z
+    .array(cleanText("A complex").max(MAX_COMPLEX_CHARS, `Keep each complex under ${MAX_COMPLEX_CHARS} characters.`))
+    .max(MAX_EXTRA_COMPLEXES, `Offer at most ${MAX_EXTRA_COMPLEXES} extra complexes.`)
+    .optional(),
+});
+
+export type SimulateSettings = z.infer<typeof simulateSettings>;
+export type EquilibriumSettings = z.infer<typeof equilibriumSettings>;
+export type LyapunovSettings = z.infer<typeof lyapunovSettings>;
+export type SweepSettings = z.infer<typeof sweepSettings>;
+export type RealizeSettings = z.infer<typeof realizeSettings>;
+
+// ── With the text they run on, as the API takes them ───────────────────────────────────────────
+const overrideValues = z
+  .record(
+    cleanText("The name").max(MAX_OVERRIDE_NAME_CHARS, `Keep each overridden name under ${MAX_OVERRIDE_NAME_CHARS} characters.`),
+    z.number().nonnegative("an overridden value must be a number ≥ 0").finite("an overridden value must be a finite number"),
+  )
+  .refine((values) => Object.keys(values).length <= MAX_OVERRIDES, `At most ${MAX_OVERRIDES} overrides.`);
+
+/** Values that replace the text's parameters and initial concentrations for this run (the CLI's `--set`). */
+export const overrides = z.object({ parameters: overrideValues.default({}), initial: overrideValues.default({}) });
+export type Overrides = z.infer<typeof overrides>;
+
+/** A realization request: the ODE text and how to realize it. */
+export const realizeRequest = realizeSettings.extend({ ode: odeField });
+export type RealizeRequest = z.infer<typeof realizeRequest>;
+
+/** Any dynamics job on a mechanism text, as the Dynamics panel sends it. */
+export const mechanismJobRequest = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("simulate"), source: sourceField, overrides: overrides.optional(), settings: simulateSettings }),
+  z.object({ kind: z.literal("equilibrium"), source: sourceField, overrides: overrides.optional(), options: equilibriumSettings }),
+  z.object({ kind: z.literal("lyapunov"), source: sourceField, overrides: overrides.optional(), options: lyapunovSettings }),
+  z.object({ kind: z.literal("sweep"), source: sourceField, overrides: overrides.optional(), options: sweepSettings }),
+]);
+
+/** A time course of a text that is not a saved mechanism: a polynomial ODE or a mechanism. */
+export const textSimulationRequest = z
+  .object({ ode: odeField.optional(), source: sourceField.optional(), settings: simulateSettings })
+  .refine((b) => (b.ode === undefined) !== (b.source === undefined), "Send either ode or source.");

@@ -1,0 +1,91 @@
+// The hub on the in-memory store: access changes from the audit trail and ended credentials
+// reach open sockets, and API writes and versions go through the live room.
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { sourceText } from "../../app/shared/room-document";
+import { closeCodes, type CollabIdentity } from "./connection";
+import { CollabHub } from "./hub";
+import { inProcessAnalyzer, MemoryCollabStore } from "./in-memory";
+import { join, TestMember } from "./test-member";
+
+let hub: CollabHub | null = null;
+afterEach(async () => {
+  await hub?.close();
+  hub = null;
+});
+
+function setUp(source = "A -> B @ 1\n") {
+  const store = new MemoryCollabStore();
+  store.addMechanism("m1", source);
+  hub = new CollabHub(store, inProcessAnalyzer, { recomputeMs: 5, snapshotQuietMs: 60_000, sourceMirrorMs: 5, roleFeedMs: 10 });
+  return { store, hub };
+}
+
+async function member(hub: CollabHub, identity: CollabIdentity) {
+  const joined = new TestMember(identity);
+  expect(await join(hub, "m1", joined)).toBe(true);
+  joined.sync();
+  return joined;
+}
+
+describe("the collaboration hub on the in-memory store", () => {
+  it("admits nobody to a mechanism that does not exist", async () => {
+    const { hub } = setUp();
+    expect(await join(hub, "missing", new TestMember({ userId: "u", name: "Ada", role: "editor" }))).toBe(false);
+  });
+
+  it("applies role changes from the audit trail: lowered closes with 4001, revoked with 4403, others stay", async () => {
+    const { store, hub } = setUp();
+    for (const [user, role] of [["ada", "editor"], ["ben", "editor"], ["cy", "viewer"]] as const) store.setRole("m1", user, role);
+    const ada = await member(hub, { userId: "ada", name: "Ada", role: "editor" });
+    const ben = await member(hub, { userId: "ben", name: "Ben", role: "editor" });
+    const cy = await member(hub, { userId: "cy", name: "Cy", role: "viewer" });
+    // The feed began after the newest row when the hub was made (before anyone joined): these rows are new to it.
+    const log = vi.spyOn(console, "log").mockImplementation(() => {});
+
+    store.setRole("m1", "ada", "viewer");
+    store.recordRoleChange({ mechanismId: "m1", userId: "ada", action: "change" });
+    store.setRole("m1", "ben", null);
+    store.recordRoleChange({ mechanismId: "m1", userId: "ben", action: "revoke" });
+    await vi.waitFor(() => expect(ada.socket.closedWith?.code).toBe(closeCodes.roleChanged));
+    await vi.waitFor(() => expect(ben.socket.closedWith?.code).toBe(closeCodes.accessRevoked));
+    expect(cy.socket.closedWith).toBeNull();
+    expect(log).toHaveBeenCalledTimes(2);
+    log.mockRestore();
+  });
+
+  it("closes a socket with 4401 once the session or token that opened it ends", async () => {
+    const { store, hub } = setUp();
+    store.sessions.set("s1", "ada");
+    store.tokens.add("t1");
+    const bySession = await member(hub, { userId: "ada", name: "Ada", role: "editor", credential: { sessionId: "s1" } });
+    const byToken = await member(hub, { userId: "ada", name: "Ada", role: "editor", credential: { tokenId: "t1" } });
+    const log = vi.spyOn(console, "log").mockImplementation(() => {});
+
+    store.sessions.delete("s1");
+    await vi.waitFor(() => expect(bySession.socket.closedWith?.code).toBe(closeCodes.signedOut));
+    expect(byToken.socket.closedWith).toBeNull();
+    store.tokens.delete("t1");
+    await vi.waitFor(() => expect(byToken.socket.closedWith?.code).toBe(closeCodes.signedOut));
+    log.mockRestore();
+  });
+
+  it("writes an API text into the live document as one edit, and restores a named version", async () => {
+    const { store, hub } = setUp();
+    const reader = await member(hub, { userId: "vic", name: "Vic", role: "viewer" });
+    const named = await hub.createNamedSnapshot("m1", "ada", "first");
+    expect(named).toMatchObject({ id: expect.any(Number) });
+
+    expect(await hub.replaceSource("m1", "X -> Y @ 3\n", "ada")).toBe(true);
+    expect(store.sources.get("m1")).toBe("X -> Y @ 3\n");
+    await vi.waitFor(() => expect(reader.text).toBe("X -> Y @ 3\n"));
+
+    const restored = await hub.restoreSnapshot("m1", "ada", named!.id);
+    expect(restored).not.toBeNull();
+    await vi.waitFor(() => expect(reader.text).toBe("A -> B @ 1\n"));
+    expect(store.snapshots.map((s) => [s.kind, s.name, s.source])).toEqual([
+      ["named", "first", "A -> B @ 1\n"],
+      ["restore", `Restored #${named!.id}`, "A -> B @ 1\n"],
+    ]);
+    expect(sourceText(reader.doc).toString()).toBe(store.sources.get("m1"));
+  });
+});
