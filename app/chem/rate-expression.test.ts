@@ -124,6 +124,18 @@ describe("rate coefficients as expressions", () => {
     const odes = inducedOdes(buildNetwork(mechanism));
     expect(odes.text.C).toBe("(2000000*T^0.5*exp(-6000/T))*A*B");
     expect(evaluate(odes.text.C, { T: 1000, A: 2, B: 3 })).toBeCloseTo(6 * 2e6 * Math.sqrt(1000) * Math.exp(-6), 3);
-    expect(rateExpressionLatex(forward(arrhenius))).toBe(String.raw`2000000\, {T}^{0.5}\, \exp\left(\frac{-6000}{T}\right)`);
+    expect(rateExpressionLatex(forward(arrhenius))).toBe(String.raw`2 \times 10^{6}\, T^{0.5}\, e^{-6000/T}`);
+    // In the equations the expression's number joins the stoichiometric factor: 2 × 2e6 = 4 × 10^6.
+    const doubled = inducedOdes(buildNetwork(parseMechanism("2 A -> B @ 2.0e6 * T^0.5 * exp(-6000 / T)\nT = 1000").mechanism));
+    expect(doubled.latex.A).toBe(String.raw`\frac{d[\mathrm{A}]}{dt} = -{4 \times 10^{6}}\, T^{0.5}\, e^{-6000/T}\, [\mathrm{A}]^{2}`);
+    expect(doubled.text.A).toBe("-2*(2000000*T^0.5*exp(-6000/T))*A^2");
+  });
+
+  it("typesets fractions stacked on the line and with a slash in an exponent", () => {
+    const latex = (coefficient: string) => rateExpressionLatex(forward(`X -> Y @ ${coefficient}\nT = 300\nk = 2`));
+    expect(latex("k / T")).toBe(String.raw`\frac{k}{T}`);
+    expect(latex("exp(-k / (2 * T))")).toBe(String.raw`e^{-k/\left(2\, T\right)}`);
+    expect(latex("(k / T)^2")).toBe(String.raw`\left(\frac{k}{T}\right)^{2}`);
+    expect(latex("1.5e-7 * sqrt(T) + log(k)")).toBe(String.raw`1.5 \times 10^{-7}\, \sqrt{T} + \ln\left(k\right)`);
   });
 });
