@@ -4,6 +4,9 @@ import { styleTags, tags as t } from "@lezer/highlight";
 export const mechanismHighlighting = styleTags({
   "Species/Name Species/QuotedName": t.variableName,
   "ParameterName/Name": t.constant(t.variableName),
+  "FunctionName/Name": t.function(t.variableName),
+  "ArithOp/...": t.arithmeticOperator,
+  '"(" ")"': t.paren,
   "Label/Name": t.labelName,
   Number: t.number,
   "ForwardArrow ReversibleArrow": t.operator,

@@ -2,14 +2,20 @@
 // the detailed-balance conditions and merged custom laws always agree on notation.
 import type { MathNode } from "mathjs";
 import { readLaw } from "./law";
-import type { ComplexVector, RateFactor } from "./model";
+import type { ComplexVector, RateExpression, RateFactor } from "./model";
 import { readableNumberLatex } from "./numbers";
 import { speciesToken } from "./print";
+import { operandNeedsParentheses, rateExpressionPrecedence } from "./rate-expression";
 
 // ---- plain text (the `.weave` spelling of names, mathjs operators)
 
+/** An expression coefficient is grouped, so that it stays one factor beside others and under powers. */
+function groupedExpression(factor: RateFactor): boolean {
+  return factor.kind === "expression" && factor.expression!.tree.kind !== "call";
+}
+
 function factorText(factor: RateFactor): string {
-  const base = factor.kind === "fixed" ? speciesToken(factor.symbol) : factor.symbol;
+  const base = factor.kind === "fixed" ? speciesToken(factor.symbol) : groupedExpression(factor) ? `(${factor.symbol})` : factor.symbol;
   return factor.power === 1 ? base : `${base}^${factor.power}`;
 }
 
@@ -86,8 +92,46 @@ export function numberLatex(text: string): string {
   return readableNumberLatex(Number(text));
 }
 
-/** One factor of a coefficient with its power: k_{1}, k_{f}^{2}, 10^{-3}. */
+/**
+ * An arithmetic rate coefficient in LaTeX, e.g. 2 \times 10^{6}\, T^{0.5}\, e^{-6000/T}: numbers in
+ * the readable notation, `exp` as a power of e, and a fraction stacked on the line but written
+ * with a slash inside an exponent, where a stacked one would be too small to read.
+ */
+export function rateExpressionLatex(node: RateExpression, inExponent = false): string {
+  const latex = (child: RateExpression) => rateExpressionLatex(child, inExponent);
+  switch (node.kind) {
+    case "number":
+      return numberLatex(String(node.value));
+    case "parameter":
+      return symbolLatex(node.name);
+    case "negate":
+      return rateExpressionPrecedence(node.operand) < 3 ? `-\\left(${latex(node.operand)}\\right)` : `-${latex(node.operand)}`;
+    case "call":
+      if (node.name === "exp") return `e^{${rateExpressionLatex(node.argument, true)}}`;
+      return node.name === "sqrt" ? `\\sqrt{${latex(node.argument)}}` : `\\ln\\left(${latex(node.argument)}\\right)`;
+    case "binary": {
+      if (node.operator === "/" && !inExponent) return `\\frac{${latex(node.left)}}{${latex(node.right)}}`;
+      const side = (which: "left" | "right") => {
+        const written = latex(node[which]);
+        // A base that is more than one symbol (a fraction, a number with its power of ten, a power of e) is grouped.
+        const compoundBase = node.operator === "^" && which === "left" && (node.left.kind === "binary" || /\^|\\times/.test(written));
+        const grouped = operandNeedsParentheses(node, which) || compoundBase;
+        return grouped ? `\\left(${written}\\right)` : written;
+      };
+      if (node.operator === "^") return `${side("left")}^{${rateExpressionLatex(node.right, true)}}`;
+      return `${side("left")}${node.operator === "*" ? "\\, " : node.operator === "/" ? "/" : ` ${node.operator} `}${side("right")}`;
+    }
+  }
+}
+
+/** One factor of a coefficient with its power: k_{1}, k_{f}^{2}, 10^{-3}; an expression as its tree. */
 export function factorLatex(factor: RateFactor): string {
+  if (factor.kind === "expression") {
+    // Beside other factors only a sum needs parentheses: a product, power or call reads as one.
+    const tree = factor.expression!.tree;
+    const latex = rateExpressionLatex(tree);
+    return rateExpressionPrecedence(tree) < 2 ? `\\left(${latex}\\right)` : latex;
+  }
   const base = factor.kind === "value" ? numberLatex(factor.symbol) : symbolLatex(factor.symbol);
   return factor.power === 1 ? base : `${base}^{${factor.power}}`;
 }

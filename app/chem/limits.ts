@@ -29,6 +29,11 @@ export const MAX_SWEEP_POINTS = 500;
 /** Points of one sweep on the shared server (each point is a whole run). Larger sweeps answer 413. */
 export const MAX_SERVER_SWEEP_POINTS = 200;
 
+// ── Overrides of one run ───────────────────────────────────────────────────────────────────────
+/** Parameters and initial concentrations one dynamics request may replace, and the characters of each name. */
+export const MAX_OVERRIDES = 100;
+export const MAX_OVERRIDE_NAME_CHARS = 200;
+
 // ── Files ──────────────────────────────────────────────────────────────────────────────────────
 /** A measured time course read from CSV. */
 export const MAX_CSV_BYTES = 5 * MiB;

@@ -19,8 +19,24 @@ export interface Term {
   species: string;
 }
 
-/** A rate coefficient as written: a literal number or a parameter name. */
-export type RateRef = { kind: "value"; value: number } | { kind: "parameter"; name: string };
+/**
+ * Arithmetic of numbers and parameters that gives a mass-action rate coefficient, such as
+ * `2.0e6 * T^0.5 * exp(-6000 / T)`. Parentheses are implied by the tree.
+ */
+export type RateExpression =
+  | { kind: "number"; value: number }
+  | { kind: "parameter"; name: string }
+  | { kind: "negate"; operand: RateExpression }
+  | { kind: "binary"; operator: "+" | "-" | "*" | "/" | "^"; left: RateExpression; right: RateExpression }
+  | { kind: "call"; name: RateFunction; argument: RateExpression };
+
+export type RateFunction = "exp" | "log" | "sqrt";
+
+/** A rate coefficient as written: a literal number, a parameter name, or an expression of both. */
+export type RateRef =
+  | { kind: "value"; value: number }
+  | { kind: "parameter"; name: string }
+  | { kind: "expression"; expression: RateExpression };
 
 export interface Step {
   label: string | null;
@@ -80,10 +96,12 @@ export interface Reaction {
 /** One factor of a mass-action rate coefficient as the author wrote it. */
 export interface RateFactor {
   /** "value": a literal number; "missing": a stand-in name for a coefficient not given yet. */
-  kind: "parameter" | "value" | "fixed" | "missing";
-  /** The parameter, fixed species or stand-in name, or the number's text. */
+  kind: "parameter" | "value" | "fixed" | "missing" | "expression";
+  /** The parameter, fixed species or stand-in name, the number's text, or the expression's text. */
   symbol: string;
   power: number;
+  /** Kind "expression" only: the tree, and its value at the parameters given (null: it has none). */
+  expression?: { tree: RateExpression; value: number | null };
 }
 
 export interface Network {

@@ -4,6 +4,7 @@ import { massActionText, monomialText } from "./expression";
 import type { SparseVector } from "./linalg/sparse";
 import type { ComplexVector, Mechanism, Network, RateFactor, RateRef, Reaction, Step, Term } from "./model";
 import { speciesToken } from "./print";
+import { evaluateRateExpression, rateExpressionText } from "./rate-expression";
 
 /** One step's contribution to a directed reaction, before duplicates are merged. */
 interface Contribution {
@@ -122,20 +123,25 @@ function contribution(
   const fixedTerms = consumed.filter((term) => term.species in mechanism.fixed);
   const rate = foldedRate(mechanism, step, direction);
   const factors: RateFactor[] = [
-    ref ? rateFactor(ref) : { kind: "missing", symbol: placeholder(step, direction), power: 1 },
+    ref ? rateFactor(ref, mechanism) : { kind: "missing", symbol: placeholder(step, direction), power: 1 },
     ...fixedTerms.map(({ species, coefficient }): RateFactor => ({ kind: "fixed", symbol: species, power: coefficient })),
   ];
   return { from, to, step: stepIndex, rate, factors, law: null };
 }
 
-function rateValue(ref: RateRef, mechanism: Mechanism): number | null {
-  return ref.kind === "value" ? ref.value : (mechanism.parameters[ref.name] ?? null);
+/** The coefficient's number; null when a parameter is missing or an expression has no valid value. */
+export function rateValue(ref: RateRef, mechanism: Mechanism): number | null {
+  if (ref.kind === "value") return ref.value;
+  if (ref.kind === "parameter") return mechanism.parameters[ref.name] ?? null;
+  const evaluation = evaluateRateExpression(ref.expression, mechanism.parameters);
+  return evaluation.ok && evaluation.value >= 0 ? evaluation.value : null;
 }
 
-function rateFactor(ref: RateRef): RateFactor {
-  return ref.kind === "value"
-    ? { kind: "value", symbol: String(ref.value), power: 1 }
-    : { kind: "parameter", symbol: ref.name, power: 1 };
+function rateFactor(ref: RateRef, mechanism: Mechanism): RateFactor {
+  if (ref.kind === "value") return { kind: "value", symbol: String(ref.value), power: 1 };
+  if (ref.kind === "parameter") return { kind: "parameter", symbol: ref.name, power: 1 };
+  const expression = { tree: ref.expression, value: rateValue(ref, mechanism) };
+  return { kind: "expression", symbol: rateExpressionText(ref.expression), power: 1, expression };
 }
 
 /** A readable stand-in name for a coefficient the author has not given yet. */

@@ -14,7 +14,7 @@ import {
   massActionText,
   monomialText,
 } from "./expression";
-import type { Network, RateFactor } from "./model";
+import type { Network, RateExpression, RateFactor } from "./model";
 import { reactionVector } from "./network";
 import { readableNumberLatex } from "./numbers";
 
@@ -87,11 +87,24 @@ function massActionTerm(product: RateFactor[], monomial: string): LatexTerm {
   const held: string[] = [];
   for (const factor of product) {
     if (factor.kind === "value") number *= Number(factor.symbol) ** factor.power;
-    else if (factor.kind === "fixed") held.push(concentrationLatex(factor.symbol, factor.power));
+    else if (factor.kind === "expression" && factor.power === 1) {
+      // An expression's leading number joins the term's number: 2 × 2e6*T^0.5 reads 4 × 10^6 T^0.5.
+      const { value, rest } = leadingNumber(factor.expression!.tree);
+      number *= value;
+      if (rest) named.push(factorLatex({ ...factor, expression: { ...factor.expression!, tree: rest } }));
+    } else if (factor.kind === "fixed") held.push(concentrationLatex(factor.symbol, factor.power));
     else named.push(factorLatex(factor));
   }
   const rest = [named.join(" "), held.join("") + monomial].filter(Boolean).join("\\, ");
   return { number, rest, compound: false };
+}
+
+/** A product's leftmost number and what is left of it: 2e6*T^0.5*exp(…) → 2e6 and T^0.5*exp(…). */
+function leadingNumber(tree: RateExpression): { value: number; rest: RateExpression | null } {
+  if (tree.kind === "number") return { value: tree.value, rest: null };
+  if (tree.kind !== "binary" || tree.operator !== "*") return { value: 1, rest: tree };
+  const { value, rest } = leadingNumber(tree.left);
+  return { value, rest: rest ? { ...tree, left: rest } : tree.right };
 }
 
 function joinText(terms: { change: number; rate: RateWriting }[]): string {

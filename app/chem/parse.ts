@@ -3,8 +3,9 @@
 import { TreeFragment, type SyntaxNode, type Tree } from "@lezer/common";
 import { parser } from "../../grammar/parser";
 import { lawConstants, readLaw } from "./law";
-import type { Diagnostic, Mechanism, ParseResult, RateRef, Severity, Step, Term } from "./model";
+import type { Diagnostic, Mechanism, ParseResult, RateExpression, RateRef, Severity, Step, Term } from "./model";
 import { zeroRateDirections } from "./network";
+import { evaluateRateExpression, isRateFunction, RATE_FUNCTIONS, rateExpressionText } from "./rate-expression";
 
 export { printMechanism } from "./print";
 export { checkSourceLimits } from "./limits";
@@ -56,7 +57,7 @@ function changedRange(before: string, after: string) {
 }
 
 /** Characters that can begin some token of the language; anything else is an unknown character. */
-const tokenStart = /[A-Za-z0-9 \t\r\n"#+@,=:[\]{}<\-→⇌⇄∅]/;
+const tokenStart = /[A-Za-z0-9 \t\r\n"#+@,=:[\]{}<\-→⇌⇄∅*/^()]/;
 
 const statementHint =
   "write a step (X + Y -> 2Y @ k), a parameter (k = 1.0), an initial concentration ([X]0 = 1.5) or a fixed species (fixed [A] = 2.0)";
@@ -94,6 +95,8 @@ class MechanismReader {
   private readonly attemptedParameters = new Set<string>();
   private readonly parameterUses: NameUse[] = [];
   private readonly lawUses: { symbols: string[]; span: Span }[] = [];
+  /** Rate coefficients written as expressions, checked once every parameter is known. */
+  private readonly expressionUses: { expression: RateExpression; span: Span }[] = [];
   private readonly speciesSeen = new Map<string, Span>();
   private readonly initial = new Map<string, Declared>();
   private readonly fixed = new Map<string, Declared>();
@@ -122,6 +125,7 @@ class MechanismReader {
     const mechanism = this.mechanism();
     this.checkNames(mechanism);
     this.checkDuplicateSteps(mechanism);
+    this.checkExpressions(mechanism);
     this.checkZeroRates(mechanism);
     this.diagnostics.sort((a, b) => a.from - b.from || a.to - b.to);
     return { mechanism, diagnostics: this.diagnostics };
@@ -251,6 +255,12 @@ class MechanismReader {
         return "Expected the backward rate coefficient after the comma.";
       case "=":
         return "Expected a number here, such as 1.5 or 2e-3.";
+      case "*":
+      case "/":
+      case "^":
+      case "-":
+      case "(":
+        return "Expected a number, a parameter or a parenthesised expression here.";
       case "{":
       case "LawText":
         return "Expected a rate law closed by }, such as { Vmax*S/(Km + S) }.";
@@ -270,12 +280,17 @@ class MechanismReader {
     if (statement?.name === "Initial") return "Write an initial concentration as [X]0 = 1.5.";
     if (statement?.name === "Fixed") return "Write a fixed species as fixed [A] = 2.0.";
     if (statement?.name === "Parameter") return "Expected the end of the line after the parameter's value.";
-    if (before.parent?.name === "Rate" || before.parent?.parent?.name === "Rate" || before.name === "}") {
+    if (this.insideRate(before) || before.name === "}") {
       return "Expected the end of the line after the rate (a reversible step takes two, separated by a comma).";
     }
     const arrowSeen = statement?.getChild("ForwardArrow") ?? statement?.getChild("ReversibleArrow");
     if (arrowSeen && arrowSeen.from < error.from) return "Expected + or @ and a rate coefficient here.";
     return "Expected + or an arrow (-> or <=>) here.";
+  }
+
+  private insideRate(node: SyntaxNode): boolean {
+    for (let at = node.parent; at && at.name !== "Step"; at = at.parent) if (at.name === "Rate") return true;
+    return false;
   }
 
   private tokenBefore(node: SyntaxNode): SyntaxNode | null {
@@ -428,21 +443,70 @@ class MechanismReader {
   }
 
   private readRate(node: SyntaxNode): RateRef | null {
-    const name = node.getChild("ParameterName");
-    const number = node.getChild("Number");
-    if (!name) return number ? this.readRateValue(number) : null;
-    const parameter = this.text(name);
-    this.parameterUses.push({ name: parameter, from: name.from, to: name.to });
-    if (number) this.declareParameter(parameter, name, number);
-    return { kind: "parameter", name: parameter };
+    const body = node.firstChild;
+    if (!body) return null;
+    if (node.getChild("=")) {
+      const parameter = this.useParameter(body);
+      this.declareParameter(parameter, body, node);
+      return { kind: "parameter", name: parameter };
+    }
+    if (body.name === "Number") {
+      const value = this.readNonNegative(body, "A rate coefficient");
+      return value === null ? null : { kind: "value", value };
+    }
+    if (body.name === "ParameterName") return { kind: "parameter", name: this.useParameter(body) };
+    const expression = this.readExpression(body);
+    if (!expression) return null;
+    this.expressionUses.push({ expression, span: body });
+    return { kind: "expression", expression };
   }
 
-  private readRateValue(node: SyntaxNode): RateRef | null {
-    const value = this.readNonNegative(node, "A rate coefficient");
-    return value === null ? null : { kind: "value", value };
+  private useParameter(node: SyntaxNode): string {
+    const name = this.text(node);
+    this.parameterUses.push({ name, from: node.from, to: node.to });
+    return name;
   }
 
-  private readNonNegative(node: SyntaxNode, what: string): number | null {
+  /** The tree of an arithmetic rate coefficient; null (reported) when it calls an unknown function. */
+  private readExpression(node: SyntaxNode): RateExpression | null {
+    switch (node.name) {
+      case "Number":
+        return { kind: "number", value: Number(this.text(node)) };
+      case "ParameterName":
+        return { kind: "parameter", name: this.useParameter(node) };
+      case "Group":
+        return this.readExpression(node.firstChild!.nextSibling!);
+      case "Negation": {
+        const operand = this.readExpression(node.lastChild!);
+        return operand && { kind: "negate", operand };
+      }
+      case "Call": {
+        const name = this.text(node.getChild("FunctionName")!);
+        const argument = this.readExpression(node.getChild("(")!.nextSibling!);
+        if (!isRateFunction(name)) {
+          this.report("error", node.getChild("FunctionName")!, `${name}() is not a function a rate coefficient may use; use ${RATE_FUNCTIONS.join(", ")}, or a custom rate law in { }.`);
+          return null;
+        }
+        return argument && { kind: "call", name, argument };
+      }
+      case "BinaryExpression": {
+        const left = this.readExpression(node.firstChild!);
+        const operator = this.text(node.getChild("ArithOp")!) as "+" | "-" | "*" | "/" | "^";
+        const right = this.readExpression(node.lastChild!);
+        return left && right && { kind: "binary", operator, left, right };
+      }
+    }
+    return null;
+  }
+
+  /** A declared value: the statement's number with the minus sign before it, if any. */
+  private signedValue(statement: SyntaxNode, what: string): number | null {
+    const number = statement.getChild("Number")!;
+    const sign = number.prevSibling?.name === "-" ? number.prevSibling : null;
+    return this.readNonNegative({ from: (sign ?? number).from, to: number.to }, what);
+  }
+
+  private readNonNegative(node: Span, what: string): number | null {
     const text = this.text(node);
     const value = Number(text);
     if (!Number.isFinite(value)) {
@@ -458,12 +522,13 @@ class MechanismReader {
 
   private readParameter(node: SyntaxNode): void {
     const name = node.getChild("ParameterName")!;
-    this.declareParameter(this.text(name), name, node.getChild("Number")!);
+    this.declareParameter(this.text(name), name, node);
   }
 
-  private declareParameter(name: string, at: SyntaxNode, number: SyntaxNode): void {
+  /** `statement` holds the name's `= value` (a parameter line, or a rate declared inline). */
+  private declareParameter(name: string, at: SyntaxNode, statement: SyntaxNode): void {
     this.attemptedParameters.add(name);
-    const value = this.readNonNegative(number, `The value of ${name}`);
+    const value = this.signedValue(statement, `The value of ${name}`);
     if (value === null) return;
     const earlier = this.parameters.get(name);
     if (earlier) {
@@ -476,7 +541,7 @@ class MechanismReader {
   private readDeclaration(node: SyntaxNode, into: Map<string, Declared>, what: string): void {
     const speciesNode = node.getChild("Species")!;
     const species = this.readSpecies(speciesNode);
-    const value = this.readNonNegative(node.getChild("Number")!, `A concentration`);
+    const value = this.signedValue(node, "A concentration");
     if (value === null) return;
     const earlier = into.get(species);
     if (earlier) {
@@ -583,6 +648,20 @@ class MechanismReader {
         this.report("warning", step, "With its fixed species held constant this step changes no concentration; the structure leaves it out.");
       }
     });
+  }
+
+  /** An expression must have a value at the parameters given, and it must not be negative. */
+  private checkExpressions(mechanism: Mechanism): void {
+    for (const { expression, span } of this.expressionUses) {
+      const evaluation = evaluateRateExpression(expression, mechanism.parameters);
+      if (!evaluation.ok) {
+        if (evaluation.problem) this.report("error", span, `This rate coefficient has no value: ${evaluation.problem}`);
+      } else if (evaluation.value < 0) {
+        const negativeNumber = expression.kind === "negate" && expression.operand.kind === "number";
+        const value = negativeNumber ? "" : ` ${Number(evaluation.value.toPrecision(6))}`;
+        this.report("error", span, `A rate coefficient cannot be negative; ${rateExpressionText(expression)} is${value}.`);
+      }
+    }
   }
 
   /** The network leaves out what never runs (see buildNetwork); the author is told on the step's line. */

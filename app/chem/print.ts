@@ -1,5 +1,6 @@
 // Canonical `.weave` text of a mechanism: what parseMechanism reads back into the same network.
 import type { Mechanism, RateRef, Step, Term } from "./model";
+import { rateExpressionText } from "./rate-expression";
 
 const identifier = /^[A-Za-z][A-Za-z0-9_]*$/;
 
@@ -39,5 +40,6 @@ function printRates(step: Step): string {
 }
 
 function printRate(rate: RateRef): string {
+  if (rate.kind === "expression") return rateExpressionText(rate.expression);
   return rate.kind === "value" ? String(rate.value) : rate.name;
 }

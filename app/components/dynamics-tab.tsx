@@ -1,6 +1,7 @@
 // The Dynamics panel: time courses of the live text, with progress and cancel, measured data
 // overlaid with residuals, a phase portrait, equilibrium and stability, the largest Lyapunov
-// exponent, and one-parameter sweeps. Every run happens on the server, in a worker thread.
+// exponent, and one-parameter sweeps. Every run happens on the server, in a worker thread, on the
+// text with the panel's overrides (`T=1100`, `[A]0=2e-3`) in place of the values it declares.
 import { useMemo, useState } from "react";
 import type * as Y from "yjs";
 import type { AnalysisReport } from "~/chem/analysis";
@@ -10,6 +11,8 @@ import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { SweepResult } from "~/chem/kinetics/sweep";
 import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
+import { readOverrides } from "~/chem/overrides";
+import { parseMechanism, type Settings } from "~/chem/parse";
 import { mechanismNames } from "~/editor/complete";
 import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
@@ -17,6 +20,9 @@ import { JobStatus } from "./dynamics/job-status";
 import { useDynamicsJob } from "./dynamics/use-dynamics-job";
 
 const dynamicsUrl = (mechanismId: string) => `/api/v1/mechanisms/${mechanismId}/dynamics`;
+
+/** The text and overrides every job of the panel runs on. */
+type JobInput = () => { source: string; overrides?: Settings };
 
 interface Props {
   mechanismId: string;
@@ -33,6 +39,11 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
   const [logTime, setLogTime] = useState(false);
   const [measured, setMeasured] = useState<MeasuredCourses | null>(null);
   const [csvNote, setCsvNote] = useState<string | null>(null);
+  const [overrides, setOverrides] = useState<string[]>([]);
+  const input: JobInput = () => {
+    const read = readOverrides(overrides);
+    return read.ok && overrides.length > 0 ? { source: text(), overrides: read.settings } : { source: text() };
+  };
 
   const result = simulation.result;
   const fit = useMemo(() => (result && measured ? residuals(measured, result) : null), [result, measured]);
@@ -62,12 +73,14 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
         Simulated dynamics model the chemistry as written. They do not replace experimental hazard assessment, local rules or licensed practice.
       </p>
 
+      <OverridesCard overrides={overrides} onChange={setOverrides} />
+
       <section className="card p-4">
         <form
           className="flex flex-wrap items-end gap-3"
           onSubmit={(e) => {
             e.preventDefault();
-            void simulation.run({ kind: "simulate", source: text(), settings: { until, samples, method } });
+            void simulation.run({ kind: "simulate", ...input(), settings: { until, samples, method } });
           }}
         >
           <NumberField label="Until time" value={until} onChange={setUntil} min={1e-9} />
@@ -121,10 +134,10 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
       )}
 
       <div className="grid gap-4 lg:grid-cols-2">
-        <EquilibriumCard mechanismId={mechanismId} text={text} settleTime={until} />
-        <LyapunovCard mechanismId={mechanismId} text={text} />
+        <EquilibriumCard mechanismId={mechanismId} input={input} settleTime={until} />
+        <LyapunovCard mechanismId={mechanismId} input={input} />
       </div>
-      <SweepCard mechanismId={mechanismId} text={text} report={report} until={until} />
+      <SweepCard mechanismId={mechanismId} text={text} input={input} report={report} until={until} />
     </div>
   );
 }
@@ -154,14 +167,14 @@ function ResidualTable({ fit }: { fit: ReturnType<typeof residuals> }) {
   );
 }
 
-function EquilibriumCard({ mechanismId, text, settleTime }: { mechanismId: string; text: () => string; settleTime: number }) {
+function EquilibriumCard({ mechanismId, input, settleTime }: { mechanismId: string; input: JobInput; settleTime: number }) {
   const job = useDynamicsJob<EquilibriumResult>(dynamicsUrl(mechanismId));
   const r = job.result;
   return (
     <section className="card p-4">
       <div className="flex items-center justify-between">
         <h3>Equilibrium and stability</h3>
-        <button className="btn" disabled={job.running} onClick={() => job.run({ kind: "equilibrium", source: text(), options: { settleTime } })}>Find</button>
+        <button className="btn" disabled={job.running} onClick={() => job.run({ kind: "equilibrium", ...input(), options: { settleTime } })}>Find</button>
       </div>
       <JobStatus job={job} />
       {r && (
@@ -183,7 +196,7 @@ function EquilibriumCard({ mechanismId, text, settleTime }: { mechanismId: strin
   );
 }
 
-function LyapunovCard({ mechanismId, text }: { mechanismId: string; text: () => string }) {
+function LyapunovCard({ mechanismId, input }: { mechanismId: string; input: JobInput }) {
   const job = useDynamicsJob<LyapunovResult>(dynamicsUrl(mechanismId));
   const [until, setUntil] = useState(500);
   const r = job.result;
@@ -196,7 +209,7 @@ function LyapunovCard({ mechanismId, text }: { mechanismId: string; text: () => 
           {job.running ? (
             <button className="btn btn-danger" onClick={job.cancel}>Cancel</button>
           ) : (
-            <button className="btn" onClick={() => job.run({ kind: "lyapunov", source: text(), options: { until } })}>Estimate</button>
+            <button className="btn" onClick={() => job.run({ kind: "lyapunov", ...input(), options: { until } })}>Estimate</button>
           )}
         </div>
       </div>
@@ -218,15 +231,40 @@ function LyapunovCard({ mechanismId, text }: { mechanismId: string; text: () => 
   );
 }
 
-const observableNames = { final: "final value", max: "maximum", period: "period" } as const;
-
-/** "parameter:k1" → "k1", "initial:S" → "[S]0": the swept quantity as the chart names it. */
-function sweepTargetLabel(target: string): string {
-  const [kind, name] = target.split(":");
-  return kind === "initial" ? `[${name}]0` : (name ?? target);
+/**
+ * What a sweep can vary, as "kind:name" choices: initial values, parameters, held species, and each
+ * labelled mass-action step's coefficient (a reversible step's backward one as "step:LABEL:backward").
+ */
+function sweepTargets(source: string, species: string[]): string[] {
+  const { mechanism } = parseMechanism(source);
+  const steps = mechanism.steps.filter((step) => step.label !== null && step.law === null);
+  return [
+    ...species.map((name) => `initial:${name}`),
+    ...mechanismNames(source).parameters.map((name) => `parameter:${name}`),
+    ...Object.keys(mechanism.fixed).map((name) => `fixed:${name}`),
+    ...steps.flatMap((step) => (step.reversible ? [`step:${step.label}`, `step:${step.label}:backward`] : [`step:${step.label}`])),
+  ];
 }
 
-function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; text: () => string; report: AnalysisReport | null; until: number }) {
+function sweepTarget(choice: string) {
+  const [kind, name, direction] = choice.split(":");
+  if (kind === "initial" || kind === "fixed") return { kind, species: name };
+  if (kind === "step") return { kind, label: name, direction: direction === "backward" ? "backward" : "forward" };
+  return { kind: "parameter", name };
+}
+
+const observableNames = { final: "final value", max: "maximum", period: "period" } as const;
+
+/** "parameter:k1" → "k1", "initial:S" → "[S]0", "fixed:B" → "[B]", "step:r2:backward" → "k of r2 (backward)": the swept quantity as the chart names it. */
+function sweepTargetLabel(target: string): string {
+  const [kind, name, direction] = target.split(":");
+  if (kind === "initial") return `[${name}]0`;
+  if (kind === "fixed") return `[${name}]`;
+  if (kind === "step") return direction === "backward" ? `k of ${name} (backward)` : `k of ${name}`;
+  return name ?? target;
+}
+
+function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: string; text: () => string; input: JobInput; report: AnalysisReport | null; until: number }) {
   const job = useDynamicsJob<SweepResult>(dynamicsUrl(mechanismId));
   const species = report?.species ?? [];
   const [target, setTarget] = useState("");
@@ -236,19 +274,16 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
   const [points, setPoints] = useState(20);
   const [scale, setScale] = useState<"linear" | "log">("log");
   const [observable, setObservable] = useState<"final" | "max" | "period">("final");
-  // Rate coefficient names are not in the report; they are read off the text when the picker opens.
-  const [parameters, setParameters] = useState<string[]>([]);
-  const targets = [...species.map((s) => `initial:${s}`), ...parameters.map((name) => `parameter:${name}`)];
+  // Parameters, held species and labels are not in the report; they are read off the text when the picker opens.
+  const [targets, setTargets] = useState<string[]>(() => species.map((s) => `initial:${s}`));
   const chosenTarget = target || targets[0] || "";
   const chosenSpecies = observed || species[0] || "";
 
   function start() {
-    const [kind, name] = chosenTarget.split(":");
-    const sweepTarget = kind === "initial" ? { kind: "initial", species: name } : { kind: "parameter", name };
     void job.run({
       kind: "sweep",
-      source: text(),
-      options: { until, samples: 400, target: sweepTarget, from, to, points, scale, species: chosenSpecies, observable },
+      ...input(),
+      options: { until, samples: 400, target: sweepTarget(chosenTarget), from, to, points, scale, species: chosenSpecies, observable },
     });
   }
 
@@ -258,7 +293,7 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
       <div className="mt-2 flex flex-wrap items-end gap-3 text-sm">
         <label>
           <span className="label">Vary</span>
-          <input className="field w-44 py-1.5" list="sweep-targets" value={chosenTarget} onChange={(e) => setTarget(e.target.value)} onFocus={() => setParameters(mechanismNames(text()).parameters)} placeholder="initial:S or parameter:k1" />
+          <input className="field w-44 py-1.5" list="sweep-targets" value={chosenTarget} onChange={(e) => setTarget(e.target.value)} onFocus={() => setTargets(sweepTargets(text(), species))} placeholder="parameter:T or fixed:B" />
           <datalist id="sweep-targets">{targets.map((t) => <option key={t} value={t} />)}</datalist>
         </label>
         <NumberField label="From" value={from} onChange={setFrom} />
@@ -280,7 +315,10 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
         </label>
         {job.running ? <button className="btn btn-danger" onClick={job.cancel}>Cancel</button> : <button className="btn" onClick={start} disabled={!chosenTarget}>Sweep</button>}
       </div>
-      <p className="mt-1 text-xs text-muted">Vary an initial concentration (initial:NAME) or a named rate coefficient (parameter:NAME); each point simulates to the time set above.</p>
+      <p className="mt-1 text-xs text-muted">
+        Vary an initial concentration (initial:NAME), a parameter such as a temperature (parameter:T), a held species (fixed:NAME) or a labelled
+        step&apos;s rate coefficient (step:LABEL); each point simulates to the time set above.
+      </p>
       <JobStatus job={job} />
       {job.result && (
         <div className="mt-3">
@@ -295,6 +333,48 @@ function SweepCard({ mechanismId, text, report, until }: { mechanismId: string; 
           />
         </div>
       )}
+    </section>
+  );
+}
+
+/** Values that replace the text's own for every run of the panel; the text itself is not changed. */
+function OverridesCard({ overrides, onChange }: { overrides: string[]; onChange: (next: string[]) => void }) {
+  const [draft, setDraft] = useState("");
+  const [problem, setProblem] = useState<string | null>(null);
+  function add() {
+    const read = readOverrides([draft]);
+    if (!read.ok) {
+      setProblem(read.message);
+      return;
+    }
+    setProblem(null);
+    onChange([...overrides, draft.trim()]);
+    setDraft("");
+  }
+  return (
+    <section className="card p-4" data-testid="overrides">
+      <form
+        className="flex flex-wrap items-end gap-3 text-sm"
+        onSubmit={(e) => {
+          e.preventDefault();
+          add();
+        }}
+      >
+        <label>
+          <span className="label">Overrides</span>
+          <input className="field w-44 py-1.5 font-mono" value={draft} onChange={(e) => setDraft(e.target.value)} placeholder="T=1100 or [A]0=2e-3" aria-label="New override" />
+        </label>
+        <button className="btn" type="submit" disabled={!draft.trim()}>Add</button>
+        <ul className="flex flex-wrap gap-2">
+          {overrides.map((each, index) => (
+            <li key={`${each}-${index}`} className="pill border border-line font-mono">
+              {each}{" "}
+              <button type="button" aria-label={`Remove ${each}`} onClick={() => onChange(overrides.filter((_, i) => i !== index))}>×</button>
+            </li>
+          ))}
+        </ul>
+      </form>
+      <p className="mt-1 text-xs text-muted">{problem ?? "Every run below uses these values in place of the text's; the text is not changed."}</p>
     </section>
   );
 }

@@ -12,6 +12,7 @@ import { syntaxTree } from "@codemirror/language";
 import type { SyntaxNode } from "@lezer/common";
 import { parseMechanism } from "~/chem/parse";
 import { speciesToken } from "~/chem/print";
+import { rateExpressionParameters } from "~/chem/rate-expression";
 
 export type NameKind = "species" | "parameter" | "both";
 
@@ -26,7 +27,10 @@ export function mechanismNames(source: string): MechanismNames {
   const { mechanism } = parseMechanism(source);
   const parameters = new Set(Object.keys(mechanism.parameters));
   for (const step of mechanism.steps) {
-    for (const rate of [step.forward, step.backward]) if (rate?.kind === "parameter") parameters.add(rate.name);
+    for (const rate of [step.forward, step.backward]) {
+      if (rate?.kind === "parameter") parameters.add(rate.name);
+      if (rate?.kind === "expression") for (const name of rateExpressionParameters(rate.expression)) parameters.add(name);
+    }
   }
   return { species: mechanism.species, fixed: Object.keys(mechanism.fixed), parameters: [...parameters] };
 }

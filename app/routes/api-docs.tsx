@@ -27,6 +27,15 @@ const endpoints: Endpoint[] = [
   { method: "GET", path: "/api/v1/mechanisms/:id/snapshots", role: "viewer", what: "Versions, newest first.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID/snapshots` },
   { method: "POST", path: "/api/v1/mechanisms/:id/snapshots", role: "editor", what: "Name the current version: { name }.", example: (o) => `curl ${auth} ${json} -d '{"name":"before review"}' ${o}/api/v1/mechanisms/ID/snapshots` },
   { method: "POST", path: "/api/v1/mechanisms/:id/simulations", role: "viewer", what: "Simulate: { until, samples, rtol?, atol?, method? } → { t, series, stats }. method is auto, stiff or explicit.", example: (o) => `curl ${auth} ${json} -d '{"until":50,"samples":101}' ${o}/api/v1/mechanisms/ID/simulations` },
+  {
+    method: "POST",
+    path: "/api/v1/mechanisms/:id/dynamics",
+    role: "viewer",
+    what:
+      "Run a dynamics job on a text: kind simulate, equilibrium, lyapunov or sweep, with optional overrides { parameters: { T: 1100 }, initial: { A: 2e-3 } } replacing values of the text. A sweep's target is { kind: \"parameter\", name }, { kind: \"initial\", species }, { kind: \"fixed\", species } (a held species), { kind: \"step\", label, direction? } or { kind: \"rate\", reaction }.",
+    example: (o) =>
+      `curl ${auth} ${json} -d '{"kind":"sweep","source":"A -> B @ 1e3*exp(-3000/T)\\nT = 300\\n[A]0 = 1","overrides":{"parameters":{"T":350}},"options":{"until":1,"samples":50,"target":{"kind":"parameter","name":"T"},"from":300,"to":600,"points":4,"scale":"linear","species":"A","observable":"final"}}' ${o}/api/v1/mechanisms/ID/dynamics`,
+  },
   { method: "GET", path: "/api/v1/mechanisms/:id/export?format=sbml|latex|csv", role: "viewer", what: "SBML Level 3 Core, a LaTeX document, or the stoichiometric matrix as CSV.", example: (o) => `curl ${auth} -o mechanism.xml "${o}/api/v1/mechanisms/ID/export?format=sbml"` },
   { method: "POST", path: "/api/v1/mechanisms/import", role: "signed in", what: "Import an SBML file (multipart field file, or the raw XML as the body).", example: (o) => `curl ${auth} -F file=@model.xml ${o}/api/v1/mechanisms/import` },
   { method: "POST", path: "/api/v1/mechanisms/:id/invitations", role: "owner", what: "Invite by e-mail: { email, role }.", example: (o) => `curl ${auth} ${json} -d '{"email":"colleague@example.test","role":"editor"}' ${o}/api/v1/mechanisms/ID/invitations` },

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import type { z } from "zod";
 import { settingsProblem } from "~/chem/kinetics/settings";
-import { MAX_ODE_BYTES, MAX_SAMPLES, MAX_SOURCE_BYTES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { MAX_ODE_BYTES, MAX_OVERRIDES, MAX_SAMPLES, MAX_SOURCE_BYTES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { firstProblem } from "./fields";
 import {
   equilibriumSettings,
@@ -72,6 +72,9 @@ describe("sweep", () => {
     expect(problem(sweepSettings, { ...sweep, target: { kind: "rate", reaction: 0 } })).toBeNull();
     expect(problem(sweepSettings, { ...sweep, target: { kind: "rate", reaction: -1 } })).toMatch(/^target\.reaction: /);
     expect(problem(sweepSettings, { ...sweep, target: { kind: "parameter", name: "k\u00001" } })).toMatch(/U\+0000/);
+    expect(problem(sweepSettings, { ...sweep, target: { kind: "fixed", species: "F" } })).toBeNull();
+    expect(problem(sweepSettings, { ...sweep, target: { kind: "step", label: "r3", direction: "backward" } })).toBeNull();
+    expect(problem(sweepSettings, { ...sweep, target: { kind: "step", label: "r3", direction: "sideways" } })).toMatch(/^target\.direction: /);
   });
 
   it("bounds points and samples per point", () => {
@@ -102,6 +105,15 @@ describe("requests with their text", () => {
     expect(mechanismJobRequest.parse({ kind: "sweep", source: "A -> B @ k1 = 1", options: sweep }).kind).toBe("sweep");
     expect(problem(mechanismJobRequest, { kind: "simulate", source: "A -> B", settings: { until: 1, samples: 1 } })).toMatch(/^settings\.samples: /);
     expect(problem(mechanismJobRequest, { kind: "bifurcation", source: "A -> B", options: {} })).not.toBeNull();
+  });
+
+  it("takes overrides of parameters and initial values with every kind, within their limits", () => {
+    const simulate = { kind: "simulate", source: "A -> B @ k\nk = 1", settings: { until: 1, samples: 3 } };
+    expect(mechanismJobRequest.parse({ ...simulate, overrides: { parameters: { k: 2 } } })).toMatchObject({ overrides: { parameters: { k: 2 }, initial: {} } });
+    expect(problem(mechanismJobRequest, { kind: "equilibrium", source: "A -> B @ 1", overrides: { initial: { A: 1 } }, options: {} })).toBeNull();
+    expect(problem(mechanismJobRequest, { ...simulate, overrides: { parameters: { k: -1 } } })).toMatch(/^overrides\.parameters\.k: .*≥ 0/);
+    const many = Object.fromEntries(Array.from({ length: MAX_OVERRIDES + 1 }, (_, i) => [`k${i}`, 1]));
+    expect(problem(mechanismJobRequest, { ...simulate, overrides: { parameters: many } })).toBe(`overrides.parameters: At most ${MAX_OVERRIDES} overrides.`);
   });
 
   it("a text simulation takes an ODE or a mechanism, not both, each within its size", () => {

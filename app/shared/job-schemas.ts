@@ -5,7 +5,7 @@
 // server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
 import { z } from "zod";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
-import { MAX_COMPLEX_CHARS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { MAX_COMPLEX_CHARS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
@@ -30,6 +30,10 @@ export const sweepTarget = z.discriminatedUnion("kind", [
   z.object({ kind: z.literal("parameter"), name: cleanText("The parameter") }),
   z.object({ kind: z.literal("initial"), species: cleanText("The species") }),
   z.object({ kind: z.literal("rate"), reaction: z.number().int().nonnegative() }),
+  /** A step's mass-action coefficient by its label; `backward` for a reversible step's other one. */
+  z.object({ kind: z.literal("step"), label: cleanText("The step label"), direction: z.enum(["forward", "backward"]).optional() }),
+  /** A species held constant (`fixed [B] = …`). */
+  z.object({ kind: z.literal("fixed"), species: cleanText("The species") }),
 ]);
 
 /** One observable of one species per value of the target, over a linear or logarithmic range. */
@@ -65,16 +69,27 @@ export type SweepSettings = z.infer<typeof sweepSettings>;
 export type RealizeSettings = z.infer<typeof realizeSettings>;
 
 // ── With the text they run on, as the API takes them ───────────────────────────────────────────
+const overrideValues = z
+  .record(
+    cleanText("The name").max(MAX_OVERRIDE_NAME_CHARS, `Keep each overridden name under ${MAX_OVERRIDE_NAME_CHARS} characters.`),
+    z.number().nonnegative("an overridden value must be a number ≥ 0").finite("an overridden value must be a finite number"),
+  )
+  .refine((values) => Object.keys(values).length <= MAX_OVERRIDES, `At most ${MAX_OVERRIDES} overrides.`);
+
+/** Values that replace the text's parameters and initial concentrations for this run (the CLI's `--set`). */
+export const overrides = z.object({ parameters: overrideValues.default({}), initial: overrideValues.default({}) });
+export type Overrides = z.infer<typeof overrides>;
+
 /** A realization request: the ODE text and how to realize it. */
 export const realizeRequest = realizeSettings.extend({ ode: odeField });
 export type RealizeRequest = z.infer<typeof realizeRequest>;
 
 /** Any dynamics job on a mechanism text, as the Dynamics panel sends it. */
 export const mechanismJobRequest = z.discriminatedUnion("kind", [
-  z.object({ kind: z.literal("simulate"), source: sourceField, settings: simulateSettings }),
-  z.object({ kind: z.literal("equilibrium"), source: sourceField, options: equilibriumSettings }),
-  z.object({ kind: z.literal("lyapunov"), source: sourceField, options: lyapunovSettings }),
-  z.object({ kind: z.literal("sweep"), source: sourceField, options: sweepSettings }),
+  z.object({ kind: z.literal("simulate"), source: sourceField, overrides: overrides.optional(), settings: simulateSettings }),
+  z.object({ kind: z.literal("equilibrium"), source: sourceField, overrides: overrides.optional(), options: equilibriumSettings }),
+  z.object({ kind: z.literal("lyapunov"), source: sourceField, overrides: overrides.optional(), options: lyapunovSettings }),
+  z.object({ kind: z.literal("sweep"), source: sourceField, overrides: overrides.optional(), options: sweepSettings }),
 ]);
 
 /** A time course of a text that is not a saved mechanism: a polynomial ODE or a mechanism. */

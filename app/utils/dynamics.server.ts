@@ -4,11 +4,15 @@
 import type { AppLoadContext } from "react-router";
 import type { DynamicsModel, WorkerJob } from "../../server/sim/job";
 import { codeOf, type ErrorCode } from "~/shared/error-codes";
+import type { Overrides } from "~/shared/job-schemas";
 import { httpError } from "./http";
 
-/** The mechanism text as a dynamics model; the worker parses it (a 400 names its first error). */
-export function modelFromSource(source: string): DynamicsModel {
-  return { kind: "text", source };
+/**
+ * The mechanism text as a dynamics model; the worker parses it (a 400 names its first error).
+ * `overrides` replace parameters and initial concentrations, as the CLI's `--set` does.
+ */
+export function modelFromSource(source: string, overrides?: Overrides): DynamicsModel {
+  return overrides ? { kind: "text", source, overrides } : { kind: "text", source };
 }
 
 /** A polynomial ODE text as a dynamics model; the worker parses it (a 400 names its first error). */

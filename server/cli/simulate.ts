@@ -11,6 +11,7 @@ import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { Diagnostic, ParseResult } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
+import { readOverride } from "~/chem/overrides";
 import { parseMechanismWithSettings, type Settings } from "~/chem/parse";
 import { simulateSettings } from "~/shared/job-schemas";
 import { runJob, type DynamicsModel } from "../sim/job";
@@ -24,13 +25,9 @@ export const SETTINGS_FLAG = { set: "settings" } as const;
 
 /** `NAME=VALUE` sets a parameter, `[X]0=VALUE` an initial concentration; VALUE a number ≥ 0. */
 function addSetting(settings: Settings, text: string): void {
-  const match = /^(?:\[(?:"([^"]+)"|([A-Za-z][A-Za-z0-9_]*))\]0|([A-Za-z][A-Za-z0-9_]*))=(.*)$/.exec(text);
-  if (!match) throw new UsageError(`--set takes NAME=VALUE or [SPECIES]0=VALUE, not "${text}"`);
-  const [, quoted, species, parameter, valueText] = match;
-  const value = Number(valueText);
-  if (valueText.trim() === "" || !Number.isFinite(value) || value < 0) throw new UsageError(`--set ${text}: the value must be a number ≥ 0`);
-  if (parameter) settings.parameters[parameter] = value;
-  else settings.initial[quoted ?? species] = value;
+  const reading = readOverride(text);
+  if (!reading.ok) throw new UsageError(`--set: ${reading.message}`);
+  settings[reading.into][reading.name] = reading.value;
 }
 
 /** Reads `FILE --name value … --switch`; every flag must be declared, every value well-formed. */

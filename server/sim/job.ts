@@ -18,17 +18,19 @@ import { importSbml, type SbmlImport } from "~/chem/exchange/sbml-import";
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
-import { parseMechanism } from "~/chem/parse";
+import { parseMechanism, parseMechanismWithSettings } from "~/chem/parse";
 import { realizeOde, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { RealizeRequestError } from "~/chem/realize/request-error";
 import {
   equilibriumSettings,
   lyapunovSettings,
+  overrides,
   realizeRequest,
   simulateSettings,
   sweepSettings,
   type EquilibriumSettings,
   type LyapunovSettings,
+  type Overrides,
   type RealizeRequest,
   type SimulateSettings,
   type SweepSettings,
@@ -42,7 +44,7 @@ import { firstProblem } from "~/shared/fields";
 export type DynamicsModel =
   | { kind: "mechanism"; mechanism: Mechanism; network: Network }
   | { kind: "ode"; ode: PolynomialOde }
-  | { kind: "text"; source: string }
+  | { kind: "text"; source: string; overrides?: Overrides }
   | { kind: "odeText"; text: string };
 
 type ParsedModel = Exclude<DynamicsModel, { kind: "text" | "odeText" }>;
@@ -161,6 +163,10 @@ function checkSettings(job: DynamicsJob): void {
           ? lyapunovSettings.safeParse(job.options)
           : sweepSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
+  if (job.model.kind === "text" && job.model.overrides) {
+    const checkedOverrides = overrides.safeParse(job.model.overrides);
+    if (!checkedOverrides.success) throw new SimulationInputError(`overrides: ${firstProblem(checkedOverrides.error)}`);
+  }
 }
 
 export function runJob<J extends DynamicsJob>(job: J, hooks: JobHooks = {}, limits?: SizeLimits): JobResult<J> {
@@ -179,7 +185,8 @@ function parsedModel(model: DynamicsModel): ParsedModel {
     return { kind: "ode", ode: parsed.ode };
   }
   if (model.kind !== "text") return model;
-  const parsed = parseMechanism(model.source);
+  const parsed = model.overrides ? parseMechanismWithSettings(model.source, model.overrides) : { ...parseMechanism(model.source), unknown: [] };
+  if (parsed.unknown.length > 0) throw new SimulationInputError(`The override ${parsed.unknown[0]} names no parameter or species of the mechanism`);
   const error = parsed.diagnostics.find((d) => d.severity === "error");
   if (error) throw new SimulationInputError(`Fix the mechanism first: line ${error.line}, column ${error.column}: ${error.message}`);
   return { kind: "mechanism", mechanism: parsed.mechanism, network: buildNetwork(parsed.mechanism) };

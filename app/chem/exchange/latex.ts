@@ -3,7 +3,7 @@
 // writes them (expression.ts); what this module adds is the document around them, text escaping
 // and an ASCII-only result (non-ASCII letters and symbols become LaTeX commands).
 import type { AnalysisReport } from "~/chem/analysis";
-import { concentrationLatex, lawLatex, numberLatex, symbolLatex } from "~/chem/expression";
+import { concentrationLatex, lawLatex, numberLatex, rateExpressionLatex, symbolLatex } from "~/chem/expression";
 import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
 import { termBreak } from "~/chem/odes";
 
@@ -67,6 +67,7 @@ function arrow(step: Step): string {
 }
 
 function rateLatex(rate: RateRef): string {
+  if (rate.kind === "expression") return rateExpressionLatex(rate.expression);
   return rate.kind === "value" ? numberLatex(String(rate.value)) : symbolLatex(rate.name);
 }
 

@@ -65,6 +65,12 @@ export interface SbmlReaction {
   law: SbmlKineticLaw | null;
 }
 
+/** A value set at the start by math (`symbol` = math); math is null until read. */
+export interface SbmlInitialAssignment {
+  symbol: string;
+  math: MathNode | null;
+}
+
 export interface SbmlModel {
   level: number;
   version: number;
@@ -74,6 +80,7 @@ export interface SbmlModel {
   species: SbmlSpecies[];
   parameters: SbmlParameter[];
   reactions: SbmlReaction[];
+  initialAssignments: SbmlInitialAssignment[];
   /** Model components present in the file that Mechweave does not read (rules, events, …). */
   unread: string[];
 }
@@ -96,7 +103,6 @@ const level2DefaultUnits = ["substance", "volume", "area", "length", "time"];
 
 /** Lists a model may hold that carry meaning Mechweave cannot represent. */
 const unreadLists: Record<string, string> = {
-  listOfInitialAssignments: "initial assignments",
   listOfRules: "rules",
   listOfConstraints: "constraints",
   listOfEvents: "events",
@@ -125,7 +131,8 @@ export function readSbml(text: string): SbmlReading {
 
 /** A kinetic law's MathML, read once every model-wide id is known. */
 interface PendingMath {
-  reaction: string;
+  /** What holds the math, for messages: "The kinetic law of reaction r1". */
+  owner: string;
   element: XmlElement;
   locals: Set<string>;
   assign: (node: MathNode) => void;
@@ -142,6 +149,7 @@ class SbmlReader {
   private readonly baseUnits: Set<string>;
   private readonly functions = new Map<string, Lambda>();
   private readonly pendingMath: PendingMath[] = [];
+  private readonly assignedSymbols = new Set<string>();
 
   constructor(
     private readonly level: number,
@@ -171,6 +179,7 @@ class SbmlReader {
     const species = listed(element, "listOfSpecies", "species").map((each) => this.species(each));
     const parameters = listed(element, "listOfParameters", "parameter").map((each) => this.parameter(each));
     const reactions = listed(element, "listOfReactions", "reaction").map((each) => this.reaction(each));
+    const initialAssignments = listed(element, "listOfInitialAssignments", "initialAssignment").map((each) => this.initialAssignment(each));
     this.checkSpeciesReferences(species, compartments, reactions);
     for (const each of [element, ...listed(element, "listOfSpecies", "species")]) this.conversionFactor(each);
     for (const pending of this.pendingMath) this.resolveMath(pending);
@@ -183,7 +192,7 @@ class SbmlReader {
     ];
     return {
       ok: true,
-      model: { level: this.level, version: this.version, id, name: element.attributes.name ?? null, compartments, species, parameters, reactions, unread },
+      model: { level: this.level, version: this.version, id, name: element.attributes.name ?? null, compartments, species, parameters, reactions, initialAssignments, unread },
     };
   }
 
@@ -301,6 +310,18 @@ class SbmlReader {
     return { id, name: element.attributes.name ?? null, reversible, reactants, products, modifiers, law: lawElement ? this.kineticLaw(lawElement, id) : null };
   }
 
+  private initialAssignment(element: XmlElement): SbmlInitialAssignment {
+    const symbol = this.required(element, "symbol");
+    const assignment: SbmlInitialAssignment = { symbol, math: null };
+    if (symbol && !this.ids.has(symbol)) this.errors.push(`${describe(element)}: its symbol ${symbol} is not defined in the model.`);
+    if (symbol && this.assignedSymbols.has(symbol)) this.errors.push(`${describe(element)}: ${symbol} has more than one initial assignment.`);
+    this.assignedSymbols.add(symbol);
+    const math = child(element, "math");
+    if (!math) this.errors.push(`${describe(element)}: it has no <math>.`);
+    else this.pendingMath.push({ owner: `The initial assignment to ${symbol}`, element: math, locals: new Set(), assign: (node) => (assignment.math = node) });
+    return assignment;
+  }
+
   private kineticLaw(element: XmlElement, reaction: string): SbmlKineticLaw {
     const localParameters = new Map<string, number | null>();
     const [list, item] = this.level === 3 ? ["listOfLocalParameters", "localParameter"] : ["listOfParameters", "parameter"];
@@ -314,7 +335,7 @@ class SbmlReader {
     const sboTerm = element.attributes.sboTerm ?? null;
     const law: SbmlKineticLaw = { math: null, sboTerm, localParameters };
     const math = child(element, "math");
-    if (math) this.pendingMath.push({ reaction, element: math, locals: new Set(localParameters.keys()), assign: (node) => (law.math = node) });
+    if (math) this.pendingMath.push({ owner: `The kinetic law of reaction ${reaction}`, element: math, locals: new Set(localParameters.keys()), assign: (node) => (law.math = node) });
     return law;
   }
 
@@ -358,10 +379,10 @@ class SbmlReader {
     }
   }
 
-  private resolveMath({ reaction, element, locals, assign }: PendingMath): void {
+  private resolveMath({ owner, element, locals, assign }: PendingMath): void {
     const reading = readMathml(element, this.functions);
     if (!reading.ok) {
-      this.errors.push(`The kinetic law of reaction ${reaction} cannot be read: ${reading.message}.`);
+      this.errors.push(`${owner} cannot be read: ${reading.message}.`);
       return;
     }
     const unknown = new Set<string>();
@@ -369,7 +390,7 @@ class SbmlReader {
       if (isSymbolNode(node) && path !== "fn" && !locals.has(node.name) && !this.ids.has(node.name)) unknown.add(node.name);
     });
     for (const name of unknown) {
-      this.errors.push(`The kinetic law of reaction ${reaction} uses ${name}, which is neither a local parameter nor defined in the model.`);
+      this.errors.push(`${owner} uses ${name}, which is neither a local parameter nor defined in the model.`);
     }
     assign(reading.node);
   }

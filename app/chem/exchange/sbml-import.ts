@@ -1,6 +1,7 @@
 // SBML (Level 3 Core, or Level 2) to `.weave` text. Mass-action kinetic laws become rate coefficients (a model
 // parameter by name, a literal or local parameter as its number); any other law is kept as a custom
-// law with a warning. Either the whole file is translated or nothing is: the result is parsed back
+// law with a warning. A mass-action coefficient that is a parameter set by an initial assignment
+// of plain arithmetic (numbers, parameters, + - * / ^, exp, ln, sqrt) is read as that expression. Either the whole file is translated or nothing is: the result is parsed back
 // and any error refuses the import.
 import { ConstantNode, SymbolNode, isSymbolNode } from "mathjs";
 import { checkSourceLimits } from "~/chem/limits";
@@ -8,6 +9,7 @@ import type { Mechanism, RateRef, Step, Term } from "~/chem/model";
 import { parseMechanism, printMechanism } from "~/chem/parse";
 import { KineticLawReader, stoichiometryOf, withoutCompartmentFactors, type KineticLawReading, type SbmlCoefficient } from "./kinetic-law";
 import { NameAllocator, isWeaveIdentifier, toWeaveIdentifier } from "./names";
+import { rateExpressionOf } from "./rate-expression-math";
 import { readSbml, type SbmlModel, type SbmlReaction, type SbmlSpecies } from "./sbml-document";
 
 export type SbmlImport = { source: string; warnings: string[]; title?: string } | { errors: string[] };
@@ -39,6 +41,8 @@ class Translation {
   private readonly laws: Map<SbmlReaction, KineticLawReading>;
   /** Species that are a reactant or product somewhere. */
   private readonly inReactions: Set<string>;
+  /** Parameters whose initial assignment became a step's coefficient expression. */
+  private readonly assignmentsUsed = new Set<string>();
 
   constructor(private readonly model: SbmlModel) {
     this.compartments = new Set(model.compartments.map((each) => each.id));
@@ -53,6 +57,7 @@ class Translation {
     const used = this.nameSpecies();
     const steps = this.model.reactions.flatMap((reaction) => this.step(reaction) ?? []);
     if (this.errors.length > 0) return { errors: this.errors };
+    this.settleAssignments();
 
     const fixed: Record<string, number> = {};
     const initial: Record<string, number> = {};
@@ -206,9 +211,29 @@ class Translation {
   }
 
   private rate(coefficient: SbmlCoefficient): RateRef {
-    return coefficient.kind === "parameter"
-      ? { kind: "parameter", name: this.parameterNames.get(coefficient.id)! }
-      : { kind: "value", value: coefficient.value };
+    if (coefficient.kind === "value") return { kind: "value", value: coefficient.value };
+    const assignment = this.model.initialAssignments.find((each) => each.symbol === coefficient.id);
+    const expression = assignment?.math ? rateExpressionOf(assignment.math, (id) => this.parameterNames.get(id) ?? null) : null;
+    if (expression) {
+      this.assignmentsUsed.add(coefficient.id);
+      return { kind: "expression", expression };
+    }
+    return { kind: "parameter", name: this.parameterNames.get(coefficient.id)! };
+  }
+
+  /**
+   * A parameter that only carried an expression into kinetic laws is not a parameter of the
+   * mechanism; any other initial assignment is not read, and the author is told.
+   */
+  private settleAssignments(): void {
+    const inCustomLaws = this.symbolsInLaws((reading) => reading.kind === "custom");
+    for (const id of this.assignmentsUsed) {
+      if (!inCustomLaws.has(id)) delete this.parameters[this.parameterNames.get(id)!];
+    }
+    const unread = this.model.initialAssignments.filter((each) => !this.assignmentsUsed.has(each.symbol)).map((each) => each.symbol);
+    if (unread.length > 0) {
+      this.warnings.push(`Not imported: the initial assignments to ${unread.join(", ")}; their values as given in the file are used.`);
+    }
   }
 
   /**

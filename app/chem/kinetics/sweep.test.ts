@@ -67,3 +67,31 @@ describe("sweeping a parameter", () => {
     expect(result.observed[1]).toBeCloseTo(4 / 5, 6);
   });
 });
+
+describe("sweeping a temperature, a held species and a step's coefficient", () => {
+  const sweep = (source: string, target: Parameters<typeof sweepNetwork>[2]["target"], range: [number, number], species: string, observable: "final" | "period", until: number, samples = 2) => {
+    const { mechanism, diagnostics } = parseMechanism(source);
+    expect(diagnostics.filter((d) => d.severity === "error")).toEqual([]);
+    return sweepNetwork(mechanism, buildNetwork(mechanism), { target, from: range[0], to: range[1], points: 3, scale: "linear", species, observable, until, samples, rtol: 1e-10, atol: 1e-14 });
+  };
+
+  it("T in an Arrhenius coefficient: A(t) = A₀·exp(−k(T)·t) at each temperature", () => {
+    const k = (T: number) => 1e3 * Math.exp(-3000 / T);
+    const result = sweep("A -> B @ 1e3 * exp(-3000 / T)\nT = 300\n[A]0 = 1", { kind: "parameter", name: "T" }, [500, 700], "A", "final", 0.1);
+    result.observed.forEach((a, i) => expect(a! / Math.exp(-k(result.values[i]) * 0.1)).toBeCloseTo(1, 6));
+  });
+
+  it("the Brusselator's held B: no oscillation below the Hopf point B = 1 + A² = 2, oscillation above", () => {
+    const source = "fixed [A] = 1\nfixed [B] = 1.5\nA -> X @ 1\n2X + Y -> 3X @ 1\nB + X -> Y + D @ 1\nX -> E @ 1\nfixed [D] = 0\nfixed [E] = 0\n[X]0 = 1\n[Y]0 = 1";
+    const result = sweep(source, { kind: "fixed", species: "B" }, [1.5, 3], "X", "period", 120, 3001);
+    expect(result.observed[0]).toBeNull();
+    expect(result.observed[2]).toBeGreaterThan(6);
+  });
+
+  it("a step's coefficient by label, either direction: B(∞)/A(∞) = kf/kb", () => {
+    const result = sweep("r1: A <=> B @ kf = 1, 2\n[A]0 = 1", { kind: "step", label: "r1", direction: "backward" }, [1, 3], "B", "final", 40);
+    result.observed.forEach((b, i) => expect(b).toBeCloseTo(1 / (1 + result.values[i]), 6));
+    expect(() => sweep("A -> B @ 1", { kind: "step", label: "r9" }, [1, 2], "B", "final", 1)).toThrow(/no step labelled r9/);
+    expect(() => sweep("r1: A -> B @ 1", { kind: "fixed", species: "A" }, [1, 2], "B", "final", 1)).toThrow(/no held \(fixed\) species A/);
+  });
+});

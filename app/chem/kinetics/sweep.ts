@@ -1,11 +1,12 @@
-// One-parameter sweeps: vary a reaction's rate coefficient, a parameter or a species' initial
-// concentration over a linear or logarithmic range and record one observable of one species per
-// value — its final value, its maximum, or its period when the course settles into sustained
-// oscillation. For a reaction or an initial value the system is compiled once and each point only
-// changes a number; a parameter may enter several coefficients and laws (and a coefficient of 0
-// takes its reaction out of the network), so each point rebuilds the network and recompiles.
+// One-parameter sweeps: vary a reaction's rate coefficient, a step's coefficient (by label), a
+// parameter (a temperature T in expression coefficients included), a held species' concentration
+// or a species' initial concentration over a linear or logarithmic range and record one observable
+// of one species per value — its final value, its maximum, or its period when the course settles
+// into sustained oscillation. For a reaction or an initial value the system is compiled once and
+// each point only changes a number; the others may enter several coefficients and laws (and a
+// coefficient of 0 takes its reaction out of the network), so each point rebuilds the network.
 
-import type { Mechanism, Network } from "~/chem/model";
+import type { Mechanism, Network, Step } from "~/chem/model";
 import { MAX_SWEEP_POINTS } from "~/chem/limits";
 import { buildNetwork } from "~/chem/network";
 import { SimulationCancelled, SimulationInputError } from "./errors";
@@ -18,7 +19,11 @@ import { simulateSystem } from "./simulate";
 export type SweepTarget =
   | { kind: "rate"; reaction: number }
   | { kind: "parameter"; name: string }
-  | { kind: "initial"; species: string };
+  | { kind: "initial"; species: string }
+  /** A step's mass-action coefficient, whatever it was written as; `backward` for a reversible step's other one. */
+  | { kind: "step"; label: string; direction?: "forward" | "backward" }
+  /** A species held constant (`fixed [B] = …`). */
+  | { kind: "fixed"; species: string };
 export type Observable = "final" | "max" | "period";
 
 export interface SweepOptions extends SimulationSettings {
@@ -77,17 +82,8 @@ export function sweepNetwork(mechanism: Mechanism, network: Network, options: Sw
 
 /** The system to simulate at each value of the target. */
 function pointSystems(target: SweepTarget, mechanism: Mechanism, network: Network): (value: number) => OdeSystem {
-  if (target.kind === "parameter") {
-    if (!(target.name in mechanism.parameters)) throw new SimulationInputError(`there is no parameter ${target.name} to vary`);
-    // The network is built anew: the value folds into every coefficient that uses the parameter,
-    // and a reaction left out while its coefficient was 0 comes back (and the reverse).
-    return (value) => {
-      const varied = { ...mechanism, parameters: { ...mechanism.parameters, [target.name]: value } };
-      return networkSystem(varied, buildNetwork(varied));
-    };
-  }
-  const system = networkSystem(mechanism, network);
   if (target.kind === "initial") {
+    const system = networkSystem(mechanism, network);
     const index = system.names.indexOf(target.species);
     if (index < 0) throw new SimulationInputError(`there is no species ${target.species} to vary`);
     return (value) => {
@@ -95,13 +91,47 @@ function pointSystems(target: SweepTarget, mechanism: Mechanism, network: Networ
       return system;
     };
   }
-  const reaction = network.reactions[target.reaction];
-  if (!reaction) throw new SimulationInputError(`there is no reaction ${target.reaction} to vary`);
-  if (reaction.law !== null) throw new SimulationInputError("a step with a custom rate law has no rate coefficient to vary");
-  // Monomials are numbered over the mass-action reactions in network order (see from-network.ts).
-  const monomial = network.reactions.slice(0, target.reaction).filter((r) => r.law === null).length;
+  if (target.kind === "rate") {
+    const reaction = network.reactions[target.reaction];
+    if (!reaction) throw new SimulationInputError(`there is no reaction ${target.reaction} to vary`);
+    if (reaction.law !== null) throw new SimulationInputError("a step with a custom rate law has no rate coefficient to vary");
+    const system = networkSystem(mechanism, network);
+    // Monomials are numbered over the mass-action reactions in network order (see from-network.ts).
+    const monomial = network.reactions.slice(0, target.reaction).filter((r) => r.law === null).length;
+    return (value) => {
+      system.coefficients[monomial] = value;
+      return system;
+    };
+  }
+  // The network is built anew: the value folds into every coefficient that uses it, and a
+  // reaction left out while its coefficient was 0 comes back (and the reverse).
+  const varied = variedMechanism(target, mechanism);
   return (value) => {
-    system.coefficients[monomial] = value;
-    return system;
+    const point = varied(value);
+    return networkSystem(point, buildNetwork(point));
   };
+}
+
+/** For targets that change the mechanism itself: the mechanism at each value. */
+function variedMechanism(target: Extract<SweepTarget, { kind: "parameter" | "fixed" | "step" }>, mechanism: Mechanism): (value: number) => Mechanism {
+  switch (target.kind) {
+    case "parameter":
+      if (!(target.name in mechanism.parameters)) throw new SimulationInputError(`there is no parameter ${target.name} to vary`);
+      return (value) => ({ ...mechanism, parameters: { ...mechanism.parameters, [target.name]: value } });
+    case "fixed":
+      if (!(target.species in mechanism.fixed)) throw new SimulationInputError(`there is no held (fixed) species ${target.species} to vary`);
+      return (value) => ({ ...mechanism, fixed: { ...mechanism.fixed, [target.species]: value } });
+    case "step": {
+      const index = mechanism.steps.findIndex((step) => step.label === target.label);
+      if (index < 0) throw new SimulationInputError(`there is no step labelled ${target.label} to vary`);
+      const step = mechanism.steps[index];
+      if (step.law !== null) throw new SimulationInputError("a step with a custom rate law has no rate coefficient to vary");
+      const direction = target.direction ?? "forward";
+      if (direction === "backward" && !step.reversible) throw new SimulationInputError(`step ${target.label} is irreversible: it has no backward coefficient`);
+      return (value) => {
+        const changed: Step = { ...step, [direction]: { kind: "value", value } };
+        return { ...mechanism, steps: mechanism.steps.map((each, i) => (i === index ? changed : each)) };
+      };
+    }
+  }
 }

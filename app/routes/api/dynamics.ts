@@ -14,6 +14,6 @@ export const loader = onlyMethods(allowed, hint);
 export async function action(args: Route.ActionArgs) {
   if (args.request.method !== "POST") return methodNotAllowed(allowed, hint);
   const { user } = await requireViewAccess(args, args.params.id);
-  const { source, ...job } = await readJson(args.request, mechanismJobRequest);
-  return respondWithJob(args.request, args.context, jobOwner(args.context, user), { ...job, model: modelFromSource(source) });
+  const { source, overrides, ...job } = await readJson(args.request, mechanismJobRequest);
+  return respondWithJob(args.request, args.context, jobOwner(args.context, user), { ...job, model: modelFromSource(source, overrides) });
 }
