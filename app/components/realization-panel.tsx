@@ -1,6 +1,7 @@
 // "From ODE to mechanism": the polynomial ODE with its negative cross effects marked, the
-// transformations on offer (the smallest multiplier is the one for the ODE as last realized, so
-// it can change once a shift is applied), and the resulting mechanism. Presentational: the route runs
+// transformations on offer (the smallest multiplier is the one for the ODE shifted as last
+// realized, or by the suggested shift when none was applied), and the resulting mechanism with the
+// end time its own clock needs. Presentational: the route runs
 // realizeOde and passes the result; choices come back through the callbacks.
 import { useState } from "react";
 import type { CrossEffectReport, RealizeOdeResult } from "~/chem/realize/realize-ode";
@@ -39,6 +40,8 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
     result.transformations.some((t) => t.kind === "multiplication") ? "all" : "none",
   );
   const smallest = result.suggestedMultiplier;
+  // Offered for the suggested shift when none was applied: choosing it turns that shift on.
+  const smallestNeedsShift = !applied && Boolean(result.suggestedShift);
   const [complexes, setComplexes] = useState("");
   const given = result.original ?? { kinetic: result.kinetic, negativeCrossEffects: result.negativeCrossEffects };
   const errors = result.diagnostics.filter((d) => d.severity === "error");
@@ -86,12 +89,22 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
               {(
                 [
                   ["none", "no multiplication"],
-                  ...(smallest ? [["smallest", `${monomialText(smallest)} — the smallest that removes every negative cross effect`]] : []),
+                  ...(smallest
+                    ? [["smallest", `${monomialText(smallest)} — the smallest that removes every negative cross effect${smallestNeedsShift ? " after the suggested translation" : ""}`]]
+                    : []),
                   ["all", `${variables.join("*")} — the product of all variables`],
                 ] as [MultiplierChoice, string][]
               ).map(([value, label]) => (
                 <label key={value} className="mt-1 flex items-center gap-2">
-                  <input type="radio" name="multiplier" checked={multiplier === value} onChange={() => setMultiplier(value)} />
+                  <input
+                    type="radio"
+                    name="multiplier"
+                    checked={multiplier === value}
+                    onChange={() => {
+                      setMultiplier(value);
+                      if (value === "smallest" && smallestNeedsShift) setTranslateOn(true);
+                    }}
+                  />
                   {label}
                 </label>
               ))}
@@ -129,6 +142,12 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
               text={result.mechanism}
               onOpen={onOpenMechanism}
             />
+          )}
+          {result.mechanism && result.clock?.suggestedUntil != null && (
+            <p className="mt-2 text-sm" data-testid="realization-clock">
+              On its own clock (dt = {result.clock.multiplier} · ds), simulate this mechanism until s ={" "}
+              {Number(result.clock.suggestedUntil.toPrecision(2))} to cover the ODE&apos;s 0 ≤ t ≤ {result.clock.originalUntil}.
+            </p>
           )}
           {result.mechanism && onSearchEquivalents && (
             <div className="mt-5 flex flex-wrap items-end gap-3">

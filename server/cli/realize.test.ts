@@ -35,6 +35,17 @@ describe("mechweave realize", () => {
     expect(pairs(out.negativeCrossEffects)).toEqual([{ equation: "y", term: "-x*z" }]);
     expect(out.negativeCrossEffects[0].spans[0]).toMatchObject({ line: 7, column: 6 });
     for (const v of ["x", "y", "z"]) expect(out.boundingBox[v].min + out.suggestedShift[v]).toBeGreaterThan(0);
+    // The multiplier is for the shifted ODE, where x' and z' have cross effects too.
+    expect(out.suggestedMultiplier).toEqual({ x: 1, y: 1, z: 1 });
+  });
+
+  it("Lorenz in words: the multiplier goes with the suggested shift, and the mechanism's clock is explained", async () => {
+    const plain = await realize(fixture("lorenz.ode"));
+    expect(plain.stdout).toContain("smallest multiplier: --multiply=x*y*z (with the suggested shift)");
+    const { code, stdout } = await realize(fixture("lorenz.ode"), "--shift", "--multiply");
+    expect(code).toBe(0);
+    expect(stdout).toMatch(/note: The mechanism runs on another clock: its time s and the ODE's time t satisfy dt = x\*y\*z · ds/);
+    expect(stdout).toMatch(/\n# .*Simulate it until s = 0\.00\d+ to cover the ODE's 0 ≤ t ≤ 50/);
   });
 
   it("Lorenz shifted and multiplied: order five, and the mechanism's ODE is the transformed ODE", async () => {
@@ -43,6 +54,9 @@ describe("mechweave realize", () => {
     const out = JSON.parse(stdout);
     expect(out).toMatchObject({ kinetic: true, maxOrder: 5, negativeCrossEffects: [], original: { kinetic: false } });
     expect(out.notes.join(" ")).toContain("only supported numerically, not proved");
+    expect(out.clock).toMatchObject({ multiplier: "x*y*z", originalUntil: 50, basis: "trajectory" });
+    expect(out.clock.suggestedUntil).toBeGreaterThan(0);
+    expect(out.clock.suggestedUntil).toBeLessThan(1);
     const transformed = parseOde(out.transformedOde).exact!;
     const read = parseMechanism(out.mechanism);
     expect(read.diagnostics).toEqual([]);

@@ -132,7 +132,8 @@ function readable(result: RealizeOdeResult, file: string): string {
   lines.push(result.kinetic ? "kinetic" : "not kinetic");
   for (const e of result.negativeCrossEffects) lines.push(`  negative cross effect in ${e.equation}': ${e.term}`);
   if (result.suggestedMultiplier) {
-    lines.push(`smallest multiplier: --multiply=${Object.entries(result.suggestedMultiplier).map(([v, e]) => (e === 1 ? v : `${v}^${e}`)).join("*")}`);
+    const shifted = result.transformations.some((t) => t.kind === "translation") ? "" : result.suggestedShift ? " (with the suggested shift)" : "";
+    lines.push(`smallest multiplier: --multiply=${Object.entries(result.suggestedMultiplier).map(([v, e]) => (e === 1 ? v : `${v}^${e}`)).join("*")}${shifted}`);
   }
   if (result.suggestedShift) {
     lines.push(`suggested shift: --shift ${Object.entries(result.suggestedShift).map(([v, s]) => `${v}=${s}`).join(",")}`);

@@ -17,10 +17,14 @@ it("turns the Lorenz system into a mechanism and opens it", async () => {
   await expect.poll(() => page.locator("text=Not kinetic").count(), { timeout: 20_000 }).toBeGreaterThan(0);
   expect(await page.locator("li", { hasText: "in y" }).innerText()).toContain("x*z");
 
+  // The smallest multiplier is the one for the shifted ODE, where every equation has a cross effect.
+  expect(await page.locator("[role=radiogroup]").innerText()).toContain("x*y*z — the smallest that removes every negative cross effect after the suggested translation");
   await page.check("text=Translate x → x + s");
   await page.check("text=the product of all variables");
   await page.click("button:text-is('Apply')");
   await expect.poll(() => page.locator("text=Open as a new mechanism").count(), { timeout: 30_000 }).toBeGreaterThan(0);
+  // The multiplied mechanism runs on its own clock, with an end time to match.
+  expect(await page.locator("[data-testid=realization-clock]").innerText()).toMatch(/dt = x\*y\*z · ds\), simulate this mechanism until s = 0\.00\d+/);
   // Side by side: the original and the realization, mapped back, on one chart.
   await page.locator("[data-testid=realization-check] button", { hasText: "Compare" }).click();
   await expect.poll(() => page.locator("[data-testid=realization-check] [data-testid=time-course-chart] canvas").count(), { timeout: 30_000 }).toBeGreaterThan(0);

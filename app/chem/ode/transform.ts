@@ -28,8 +28,9 @@ export function translate(ode: ExactOde, shift: readonly Rational[]): ExactOde {
 
 /**
  * Multiplies every right-hand side by the monomial x^exponents. In the positive orthant this is a
- * change of time scale (dτ = x^a dt): the orbits are the same, traversed at another speed. Once
- * x^a contains every variable, every term contains x_i, so there is no negative cross effect left.
+ * change of time scale (dt = x^a ds, s the new time; see time-scale.ts): the orbits are the same,
+ * traversed at another speed. Once x^a contains every variable, every term contains x_i, so there
+ * is no negative cross effect left.
  */
 export function multiplyByMonomial(ode: ExactOde, exponents: readonly number[]): ExactOde {
   const factor = P.fromTerms([{ exponents: [...exponents], coefficient: Q.ONE }]);

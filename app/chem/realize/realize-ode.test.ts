@@ -3,6 +3,12 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { analyzeSource } from "../analysis";
+import { buildNetwork } from "../network";
+import { parseMechanism } from "../parse";
+import { simulateNetwork, simulatePolynomialOde } from "../kinetics/simulate";
+import { negativeCrossEffects } from "../ode/cross-effects";
+import { toPolynomialOde } from "../ode/exact";
+import { parseOde } from "../ode/parse";
 import { equivalentRealizationsOfMechanism } from "./equivalents";
 import { realizeOde, RealizeRequestError } from "./realize-ode";
 
@@ -23,15 +29,48 @@ describe("realizeOde", () => {
     expect(result.notes.join("\n")).toContain("leaves it (in x, y");
   });
 
-  it("suggests the smallest multiplier, and a smaller multiplier gives lower-order steps", async () => {
-    // Rössler's only negative cross effects are in x', so multiplying by x alone removes them.
+  it("suggests the smallest multiplier for the shift asked for, and a smaller multiplier gives lower-order steps", async () => {
+    // Unshifted, Rössler's only negative cross effects are in x', so multiplying by x alone removes
+    // them; the shift it would be offered brings cross effects in every equation.
     const rossler = readFileSync("tests/fixtures/ode/rossler.ode", "utf8");
-    const plain = await realizeOde({ ode: rossler });
-    expect(plain.suggestedMultiplier).toEqual({ x: 1 });
+    expect((await realizeOde({ ode: rossler })).suggestedMultiplier).toEqual({ x: 1, y: 1, z: 1 });
+    const unshifted = await realizeOde({ ode: rossler, shift: { x: 0, y: 0, z: 0 } });
+    expect(unshifted.suggestedMultiplier).toEqual({ x: 1 });
     const byX = await realizeOde({ ode: rossler, multiply: { x: 1 } });
     const byAll = await realizeOde({ ode: rossler, multiply: true });
     expect(byX).toMatchObject({ kinetic: true, maxOrder: 3 });
     expect(byAll).toMatchObject({ kinetic: true, maxOrder: 5 });
+  });
+
+  it("offers for Lorenz the multiplier that removes every negative cross effect after the proposed shift", async () => {
+    // Before the shift only y' has one (-x*z), so "y" alone would leave -70*y in x' and two in z'.
+    const offered = await realizeOde({ ode: lorenz });
+    expect(offered.suggestedMultiplier).toEqual({ x: 1, y: 1, z: 1 });
+    const applied = await realizeOde({ ode: lorenz, shift: offered.suggestedShift!, multiply: offered.suggestedMultiplier });
+    const transformed = parseOde(applied.transformedOde!).exact!;
+    expect(negativeCrossEffects(transformed)).toEqual([]);
+    expect(applied.kinetic).toBe(true);
+  });
+
+  it("carries the clock: the mechanism at the suggested end time is where the shifted ODE is at its horizon", async () => {
+    // Over 0 ≤ t ≤ 1 Lorenz is not yet chaotic, so the two end states can be compared.
+    const result = await realizeOde({ ode: lorenz, shift: "suggested", multiply: true, until: 1 });
+    expect(result.clock).toMatchObject({ multiplier: "x*y*z", originalUntil: 1, basis: "trajectory" });
+    expect(result.mechanism).toMatch(/^# The mechanism runs on another clock: .* dt = x\*y\*z · ds.* until s = /m);
+    const shifted = await realizeOde({ ode: lorenz, shift: result.suggestedShift!, until: 1 });
+    const ode = simulatePolynomialOde(toPolynomialOde(parseOde(shifted.transformedOde!).exact!), { until: 1, samples: 2, rtol: 1e-10, atol: 1e-10 });
+    const { mechanism } = parseMechanism(result.mechanism!);
+    const run = simulateNetwork(mechanism, buildNetwork(mechanism), { until: result.clock!.suggestedUntil!, samples: 2, rtol: 1e-10, atol: 1e-10 });
+    for (const v of ["x", "y", "z"]) expect(run.series[v][1]).toBeCloseTo(ode.series[v][1], 2);
+  });
+
+  it("suggests an end time at which the realized Lorenz mechanism runs through", async () => {
+    const result = await realizeOde({ ode: lorenz, shift: "suggested", multiply: true });
+    expect(result.clock!.suggestedUntil).toBeGreaterThan(0.001);
+    expect(result.clock!.suggestedUntil).toBeLessThan(0.02);
+    const { mechanism } = parseMechanism(result.mechanism!);
+    const run = simulateNetwork(mechanism, buildNetwork(mechanism), { until: result.clock!.suggestedUntil!, samples: 2 });
+    expect(run.series.x.every(Number.isFinite)).toBe(true);
   });
 
   it("rejects a shift of a variable the ODE does not have", async () => {

@@ -13,6 +13,7 @@ import * as P from "../ode/polynomial";
 import * as Q from "../linalg/rational";
 import { boundingBox, DEFAULT_HORIZON, suggestShift } from "../ode/suggest-shift";
 import type { Horizon, ShiftSuggestion } from "../ode/suggest-shift";
+import { rescaledHorizon } from "../ode/time-scale";
 import { multiplyByMonomial, productOfAllVariables, smallestMultiplier, translate } from "../ode/transform";
 import { readComplexes } from "./candidate-complexes";
 import { canonicalRealization } from "./canonical";
@@ -58,8 +59,13 @@ export interface RealizeOdeResult {
   /** Offered whenever the given ODE is not kinetic or a suggested shift was asked for. */
   suggestedShift?: Record<string, number> | null;
   boundingBox?: Record<string, { min: number; max: number }>;
-  /** When the (translated) ODE still has negative cross effects: the lowest-degree monomial that removes them. */
+  /**
+   * When the ODE still has negative cross effects after the translation asked for (or, when none was
+   * asked for, after the suggested one): the lowest-degree monomial that removes them.
+   */
   suggestedMultiplier?: Record<string, number>;
+  /** After a multiplication: the mechanism runs on another clock (see ode/time-scale.ts). */
+  clock?: Clock;
   transformations: (
     | { kind: "translation"; shift: Record<string, number> }
     | { kind: "multiplication"; monomial: string; exponents: Record<string, number> }
@@ -68,6 +74,17 @@ export interface RealizeOdeResult {
   /** Plain statements of what the transformations do and do not establish. */
   notes: string[];
   equivalents?: EquivalentRealizations;
+}
+
+/** The multiplied system's time s and the ODE's time t satisfy dt = multiplier · ds. */
+export interface Clock {
+  multiplier: string;
+  /** The ODE's horizon (the `until` of the request, default 50). */
+  originalUntil: number;
+  /** The mechanism's end time that covers it; null when no positive multiplier value is known. */
+  suggestedUntil: number | null;
+  /** How suggestedUntil was found: along the simulated trajectory, or from the initial state alone. */
+  basis: "trajectory" | "initial state" | null;
 }
 
 export { RealizeRequestError };
@@ -90,7 +107,7 @@ export async function realizeOde(request: RealizeOdeRequest): Promise<RealizeOde
   const horizon = { ...DEFAULT_HORIZON, until: request.until ?? DEFAULT_HORIZON.until };
 
   const suggestion = givenEffects.length > 0 || request.shift === "suggested" ? offerShift(given, horizon, request, result) : null;
-  const { ode, shift } = transform(given, request, suggestion, result);
+  const { ode, shift } = transform(given, request, suggestion, horizon, result);
   const transformed = result.transformations.length > 0;
   if (transformed) {
     const box = suggestion?.box ?? boundingBoxOrNull(given, horizon);
@@ -141,7 +158,7 @@ function offerShift(given: ExactOde, horizon: Horizon, request: RealizeOdeReques
 }
 
 /** Applies the translation, then the multiplication, recording each and the smallest multiplier. */
-function transform(given: ExactOde, request: RealizeOdeRequest, suggestion: ShiftSuggestion | null, result: RealizeOdeResult) {
+function transform(given: ExactOde, request: RealizeOdeRequest, suggestion: ShiftSuggestion | null, horizon: Horizon, result: RealizeOdeResult) {
   let ode = given;
   let shift = given.variables.map(() => Q.ZERO);
   if (request.shift !== undefined) {
@@ -149,12 +166,17 @@ function transform(given: ExactOde, request: RealizeOdeRequest, suggestion: Shif
     ode = translate(ode, shift);
     result.transformations.push({ kind: "translation", shift: Object.fromEntries(given.variables.map((v, i) => [v, Q.toNumber(shift[i])])) });
   }
-  if (negativeCrossEffects(ode).length > 0) {
-    const smallest = smallestMultiplier(ode);
+  // A shift brings cross effects of its own (Lorenz: none in x' before, -70 after), so the
+  // multiplier is offered for the ODE the user will multiply: the shifted one, by the shift
+  // asked for or else the one suggested alongside.
+  const toMultiply = request.shift === undefined && suggestion ? translate(given, suggestion.exact) : ode;
+  if (negativeCrossEffects(toMultiply).length > 0) {
+    const smallest = smallestMultiplier(toMultiply);
     result.suggestedMultiplier = Object.fromEntries(ode.variables.flatMap((v, i) => (smallest[i] ? [[v, smallest[i]]] : [])));
   }
   if (request.multiply) {
     const exponents = request.multiply === true ? productOfAllVariables(ode) : exponentVector(ode, request.multiply);
+    result.clock = clock(ode, exponents, horizon.until);
     ode = multiplyByMonomial(ode, exponents);
     const monomial = formatMonomial(exponents, ode.variables);
     result.transformations.push({
@@ -164,9 +186,30 @@ function transform(given: ExactOde, request: RealizeOdeRequest, suggestion: Shif
     });
     result.notes.push(
       `Multiplying by ${monomial}, positive inside the positive orthant, changes only the time scale there: the orbits are the same, traversed at another speed. Outside the orthant the two systems differ.`,
+      clockNote(result.clock),
     );
   }
   return { ode, shift };
+}
+
+/** The multiplied system's clock, with the end time that covers the (translated) ODE's horizon. */
+function clock(ode: ExactOde, exponents: number[], until: number): Clock {
+  const horizon = rescaledHorizon(ode, exponents, until);
+  return { multiplier: formatMonomial(exponents, ode.variables), originalUntil: until, suggestedUntil: horizon?.until ?? null, basis: horizon?.basis ?? null };
+}
+
+/** An end time as a person would type it (two significant digits; the JSON keeps the full value). */
+const readableTime = (t: number) => String(Number(t.toPrecision(2)));
+
+/** The clock in words, for the notes, the CLI and the mechanism's heading. */
+function clockNote({ multiplier, originalUntil, suggestedUntil, basis }: Clock): string {
+  const relation = `The mechanism runs on another clock: its time s and the ODE's time t satisfy dt = ${multiplier} · ds, so one unit of s covers ${multiplier} units of t.`;
+  if (suggestedUntil === null) return `${relation} No end time could be estimated: the multiplier is not positive at the initial state.`;
+  const how =
+    basis === "trajectory"
+      ? `the integral of dt / (${multiplier}) along the simulated trajectory`
+      : `${originalUntil} divided by ${multiplier} at the initial state, a rough estimate since the trajectory could not be followed inside the orthant`;
+  return `${relation} Simulate it until s = ${readableTime(suggestedUntil)} to cover the ODE's 0 ≤ t ≤ ${originalUntil} (${how}).`;
 }
 
 function shiftVector(ode: ExactOde, shift: Record<string, number>) {
@@ -213,7 +256,8 @@ function heading(result: RealizeOdeResult): string {
       ? `translation by ${Object.entries(t.shift).map(([v, s]) => `${v} → ${v} + ${s}`).join(", ")}`
       : `multiplication by ${t.monomial}`,
   );
-  return `canonical realization: one step per term of the ODE${steps.length ? ` after ${steps.join(" and ")}` : ""}`;
+  const title = `canonical realization: one step per term of the ODE${steps.length ? ` after ${steps.join(" and ")}` : ""}`;
+  return result.clock ? `${title}\n${clockNote(result.clock)}` : title;
 }
 
 const degree = (ode: ExactOde) => Math.max(0, ...ode.rhs.flatMap((p) => [...p.values()].map((t) => P.totalDegree(t.exponents))));
