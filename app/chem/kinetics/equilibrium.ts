@@ -30,7 +30,7 @@ export interface Eigenvalue {
 }
 
 /** Where the Newton run that found an equilibrium began. */
-export type StartKind = "given" | "settled" | "random";
+export type StartKind = "given" | "settled" | "initial" | "random";
 
 export interface Equilibrium {
   state: Record<string, number>;
@@ -47,8 +47,8 @@ export interface Equilibrium {
 
 /**
  * The top-level fields describe the first equilibrium found (from the given start, else from the
- * settled state, else from a random start), as before several were searched for; `equilibria`
- * lists every distinct one.
+ * settled state, the initial state or a random start), as before several were searched for;
+ * `equilibria` lists every distinct one.
  */
 export interface EquilibriumResult {
   converged: boolean;
@@ -67,7 +67,7 @@ export interface EquilibriumResult {
 }
 
 export interface EquilibriumOptions {
-  /** A starting point tried first; the end of a simulation to `settleTime` is always tried too. */
+  /** A starting point tried first; the end of a simulation to `settleTime` and the initial state follow. */
   start?: ArrayLike<number>;
   settleTime?: number;
   maxIterations?: number;
@@ -100,6 +100,7 @@ function specEquilibrium(spec: KineticSpec, options: EquilibriumOptions): Equili
   const starts: { kind: StartKind; point: Float64Array }[] = [];
   if (given) starts.push({ kind: "given", point: given });
   if (settled) starts.push({ kind: "settled", point: settled });
+  starts.push({ kind: "initial", point: Float64Array.from(system.initial) });
   const randomCount = options.randomStarts ?? (system.names.length <= 30 ? 12 : system.names.length <= 150 ? 3 : 0);
   const interior = [settled, system.initial, given].find((point) => point && point.every((x) => x > 0)) ?? null;
   starts.push(...randomClassPoints(problem, interior, randomCount, options.seed ?? DEFAULT_SEED).map((point) => ({ kind: "random" as const, point })));
@@ -108,10 +109,11 @@ function specEquilibrium(spec: KineticSpec, options: EquilibriumOptions): Equili
   let firstIterations = 0;
   for (const { kind, point } of starts) {
     for (let run = 0; run <= RERUNS_PER_START && roots.length < MAX_EQUILIBRIA; run++) {
-      const outcome = deflatedNewton(problem, point, roots.map((root) => root.y), maxIterations);
+      const outcome = deflatedNewton(problem, point, roots.map((root) => root.y), maxIterations, kind === "random" && system.nonNegative);
       if (kind === starts[0].kind && run === 0) firstIterations = outcome.iterations;
-      if (!outcome.root || roots.some((root) => sameState(root.y, outcome.root!, problem.scale))) break;
-      roots.push({ y: outcome.root, kind, iterations: outcome.iterations });
+      const root = outcome.root;
+      if (!root || roots.some((known) => sameState(known.y, root, problem.scale)) || onBoundaryContinuum(problem, root)) break;
+      roots.push({ y: root, kind, iterations: outcome.iterations });
     }
   }
 
@@ -177,16 +179,19 @@ function classProblem(system: OdeSystem, stoichiometry: number[][], points: (Arr
   };
 }
 
-/** f with the led variables' equations replaced by the laws; returns max |out|. */
+/**
+ * f with the led variables' equations replaced by the laws; returns the Euclidean norm of `out`,
+ * the measure every Newton step is a descent direction for.
+ */
 function classResidual(p: ClassProblem, y: Float64Array, out: Float64Array): number {
   p.system.rhs(y, p.f);
-  let size = 0;
+  let squares = 0;
   for (let i = 0; i < y.length; i++) {
     const l = p.replaced.get(i);
     out[i] = l === undefined ? p.f[i] : dot(p.laws[l], y) - p.totals[l];
-    size = Math.max(size, Math.abs(out[i]));
+    squares += out[i] ** 2;
   }
-  return size;
+  return Math.sqrt(squares);
 }
 
 /** The Newton step −J⁻¹g of the class residual g at y, or null where J is singular. */
@@ -207,12 +212,18 @@ function newtonStep(p: ClassProblem, y: Float64Array, g: Float64Array): Float64A
  * and shift 1, distances relative to each root's size), the deflated Newton step is the plain one
  * times 1/(1 − d·∇η/η).
  */
-function deflatedNewton(p: ClassProblem, start: Float64Array, roots: Float64Array[], maxIterations: number): { root: Float64Array | null; iterations: number } {
+function deflatedNewton(
+  p: ClassProblem,
+  start: Float64Array,
+  roots: Float64Array[],
+  maxIterations: number,
+  positiveOnly: boolean,
+): { root: Float64Array | null; iterations: number } {
   const n = start.length;
   const { nonNegative } = p.system;
   let y = Float64Array.from(start, (x) => (nonNegative ? Math.max(x, 0) : x));
   let g = new Float64Array(n);
-  let merit = deflation(p, roots, y).eta * classResidual(p, y, g);
+  let merit = deflation(p, roots, y, positiveOnly).eta * classResidual(p, y, g);
   for (let iterations = 1; iterations <= maxIterations; iterations++) {
     if (!Number.isFinite(merit)) break;
     const step = newtonStep(p, y, g);
@@ -221,20 +232,23 @@ function deflatedNewton(p: ClassProblem, start: Float64Array, roots: Float64Arra
     if (step.every((d, i) => Math.abs(d) <= 1e-10 * (Math.abs(y[i]) + 1e-6 * p.scale))) {
       return { root: Float64Array.from(y, (x, i) => (nonNegative ? Math.max(x + step[i], 0) : x + step[i])), iterations };
     }
-    const { gradient } = deflation(p, roots, y);
+    const { gradient } = deflation(p, roots, y, positiveOnly);
     const tau = 1 / (1 - dot(gradient, step));
-    const scaled = Number.isFinite(tau) && tau > 0 ? tau : 1;
+    const scaled = Number.isFinite(tau) ? tau : 1;
     const trial = new Float64Array(n);
     const trialResidual = new Float64Array(n);
     let accepted = false;
-    // Halve the step until the deflated residual falls; never cross into negative concentrations.
+    // Halve the step until the deflated residual falls. Concentrations move as Newton's method in
+    // their logarithms would (y·exp(d/y) agrees with y + d to first order): they never turn
+    // negative, and a step does not drop a search onto the boundary of the orthant at once.
     for (let lambda = 1; lambda > 1e-10 && !accepted; lambda /= 2) {
       for (let i = 0; i < n; i++) {
-        const next = y[i] + lambda * scaled * step[i];
-        trial[i] = nonNegative && next < 0 ? y[i] * 0.01 : next;
+        const change = lambda * scaled * step[i];
+        if (!nonNegative) trial[i] = y[i] + change;
+        else trial[i] = y[i] > 0 ? y[i] * Math.exp(Math.min(change / y[i], 20)) : Math.max(change, 0);
       }
       const size = classResidual(p, trial, trialResidual);
-      const trialMerit = deflation(p, roots, trial).eta * size;
+      const trialMerit = deflation(p, roots, trial, positiveOnly).eta * size;
       if (trialMerit < (1 - 1e-4 * lambda) * merit || size === 0) {
         accepted = true;
         merit = trialMerit;
@@ -247,10 +261,21 @@ function deflatedNewton(p: ClassProblem, start: Float64Array, roots: Float64Arra
   return { root: null, iterations: maxIterations };
 }
 
-/** η(y) and ∇η/η for the known roots. */
-function deflation(p: ClassProblem, roots: Float64Array[], y: Float64Array): { eta: number; gradient: Float64Array } {
+/**
+ * η(y) and ∇η/η for the known roots; for a search of positive equilibria also for the faces
+ * y_i = 0 of the orthant, with a factor s/y_i + 1 each (power 1: a rate multiplied by a monomial
+ * vanishes on a face to first order, and this undoes exactly that), so that Newton's method is not
+ * drawn to a face where every point is at rest.
+ */
+function deflation(p: ClassProblem, roots: Float64Array[], y: Float64Array, positiveOnly: boolean): { eta: number; gradient: Float64Array } {
   const gradient = new Float64Array(y.length);
   let eta = 1;
+  if (positiveOnly) {
+    for (let i = 0; i < y.length; i++) {
+      eta *= p.scale / y[i] + 1;
+      gradient[i] -= p.scale / (y[i] * (p.scale + y[i]));
+    }
+  }
   for (const root of roots) {
     const weights = Array.from(root, (r) => Math.abs(r) + 1e-3 * p.scale);
     let distance = 0;
@@ -260,6 +285,20 @@ function deflation(p: ClassProblem, roots: Float64Array[], y: Float64Array): { e
     for (let i = 0; i < y.length; i++) gradient[i] -= (2 * (y[i] - root[i])) / weights[i] ** 2 / (distance * (1 + distance));
   }
   return { eta, gradient };
+}
+
+/**
+ * A root on the boundary of the orthant where the Jacobian in the class is singular: one point of
+ * a continuum of boundary equilibria (a mechanism multiplied by a monomial is at rest wherever the
+ * monomial vanishes), not worth reporting point by point.
+ */
+function onBoundaryContinuum(p: ClassProblem, y: Float64Array): boolean {
+  if (!p.system.nonNegative || y.every((x) => x > 1e-12 * p.scale)) return false;
+  p.system.jacobian(y, p.jacobian);
+  const eigenvalues = classEigenvalues(p.jacobian, y.length, p.subspace);
+  if (!eigenvalues || eigenvalues.length === 0) return false;
+  const size = Math.max(...eigenvalues.map((e) => Math.hypot(e.re, e.im)));
+  return eigenvalues.some((e) => Math.hypot(e.re, e.im) <= 1e-9 * size);
 }
 
 function sameState(a: Float64Array, b: Float64Array, scale: number): boolean {
@@ -356,10 +395,13 @@ function classEigenvalues(jacobian: Float64Array, n: number, basis: number[][]):
       return sum;
     }),
   );
+  // mathjs's iteration judges convergence in absolute terms and fails on entries of 10^5 (a
+  // mechanism multiplied by a monomial), so it sees the matrix scaled to entries of at most 1.
+  const size = Math.max(...reduced.flat().map(Math.abs)) || 1;
   try {
-    const { values } = eigs(reduced, { eigenvectors: false });
+    const { values } = eigs(reduced.map((row) => row.map((x) => x / size)), { eigenvectors: false });
     return (values as unknown as (number | { re: number; im: number })[]).map((v) =>
-      typeof v === "number" ? { re: v, im: 0 } : { re: v.re, im: v.im },
+      typeof v === "number" ? { re: v * size, im: 0 } : { re: v.re * size, im: v.im * size },
     );
   } catch {
     return null;
