@@ -13,6 +13,7 @@ import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { mechanismNames } from "~/editor/complete";
 import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
+import { EquilibriumList } from "./dynamics/equilibria";
 import { JobStatus } from "./dynamics/job-status";
 import { useDynamicsJob } from "./dynamics/use-dynamics-job";
 
@@ -160,25 +161,11 @@ function EquilibriumCard({ mechanismId, text, settleTime }: { mechanismId: strin
   return (
     <section className="card p-4">
       <div className="flex items-center justify-between">
-        <h3>Equilibrium and stability</h3>
+        <h3>Equilibria and stability</h3>
         <button className="btn" disabled={job.running} onClick={() => job.run({ kind: "equilibrium", source: text(), options: { settleTime } })}>Find</button>
       </div>
       <JobStatus job={job} />
-      {r && (
-        <div className="mt-3 space-y-2 text-sm" data-testid="equilibrium">
-          <p>{r.summary}</p>
-          <table className="w-full text-xs">
-            <tbody>
-              {Object.entries(r.state).map(([name, value]) => (
-                <tr key={name} className="border-t border-line"><td className="py-0.5 font-medium">{name}</td><td className="font-mono">{value.toPrecision(6)}</td></tr>
-              ))}
-            </tbody>
-          </table>
-          <p className="text-xs text-muted">
-            Eigenvalues in the compatibility class: {r.eigenvalues.map((e) => (e.im ? `${e.re.toPrecision(3)} ± ${Math.abs(e.im).toPrecision(3)}i` : e.re.toPrecision(3))).join(", ") || "none"}
-          </p>
-        </div>
-      )}
+      {r && <EquilibriumList result={r} />}
     </section>
   );
 }
