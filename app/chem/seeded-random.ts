@@ -1,5 +1,6 @@
 // A small deterministic random generator (mulberry32, public domain), for sample points that must
-// be the same on every run: concentrations to compare two rate laws at, starts of a root search.
+// be the same on every run: concentrations to compare two rate laws at, starts of a root search,
+// the generated networks of tests and benchmarks.
 
 /** Uniform numbers in [0, 1), the same sequence for the same seed. */
 export function seededRandom(seed: number): () => number {

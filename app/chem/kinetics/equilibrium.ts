@@ -101,16 +101,18 @@ function specEquilibrium(spec: KineticSpec, options: EquilibriumOptions): Equili
   if (given) starts.push({ kind: "given", point: given });
   if (settled) starts.push({ kind: "settled", point: settled });
   starts.push({ kind: "initial", point: Float64Array.from(system.initial) });
-  const randomCount = options.randomStarts ?? (system.names.length <= 30 ? 12 : system.names.length <= 150 ? 3 : 0);
+  // Each Newton iteration factors an n × n matrix: large systems get fewer starts and no reruns.
+  const large = system.names.length > 150;
+  const randomCount = options.randomStarts ?? (system.names.length <= 30 ? 12 : large ? 0 : 3);
   const interior = [settled, system.initial, given].find((point) => point && point.every((x) => x > 0)) ?? null;
   starts.push(...randomClassPoints(problem, interior, randomCount, options.seed ?? DEFAULT_SEED).map((point) => ({ kind: "random" as const, point })));
 
   const roots: { y: Float64Array; kind: StartKind; iterations: number }[] = [];
-  let firstIterations = 0;
+  let firstIterations: number | null = null;
   for (const { kind, point } of starts) {
-    for (let run = 0; run <= RERUNS_PER_START && roots.length < MAX_EQUILIBRIA; run++) {
+    for (let run = 0; run <= (large ? 0 : RERUNS_PER_START) && roots.length < MAX_EQUILIBRIA; run++) {
       const outcome = deflatedNewton(problem, point, roots.map((root) => root.y), maxIterations, kind === "random" && system.nonNegative);
-      if (kind === starts[0].kind && run === 0) firstIterations = outcome.iterations;
+      firstIterations ??= outcome.iterations;
       const root = outcome.root;
       if (!root || roots.some((known) => sameState(known.y, root, problem.scale)) || onBoundaryContinuum(problem, root)) break;
       roots.push({ y: root, kind, iterations: outcome.iterations });
@@ -121,9 +123,9 @@ function specEquilibrium(spec: KineticSpec, options: EquilibriumOptions): Equili
   const classDimension = problem.subspace.length;
   const first = equilibria[0];
   if (!first) {
-    const y = starts[0]?.point ?? system.initial;
+    const y = starts[0].point;
     return {
-      converged: false, state: stateOf(system, y), residual: rhsSize(system, y), iterations: firstIterations, positive: false,
+      converged: false, state: stateOf(system, y), residual: rhsSize(system, y), iterations: firstIterations ?? 0, positive: false,
       eigenvalues: [], stability: null, equilibria, classDimension, starts: starts.length,
       summary: `No equilibrium was found: Newton's method did not converge from any of ${starts.length} starting points in the compatibility class. Try a longer settling run or another guess.`,
     };
