@@ -37,6 +37,8 @@ describe("published networks", () => {
       [0, 1, 1, 1],
     ]);
     expect(report.massConserving).toBe(true);
+    // The class of [E]0 = 1e-6, [S]0 = 1e-3 (worked by hand): E + C = 1e-6 and S + C + P = 1e-3, on a plane.
+    expect(report.compatibilityClass).toEqual({ dimension: 2, totals: [1e-6, 1e-3] });
     expect(report.theorems.deficiencyZero.applies).toBe(true);
     expect(report.theorems.deficiencyZero.conclusion).toMatch(/no steady state with every concentration positive/);
     expect(report.odes).toEqual({

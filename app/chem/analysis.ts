@@ -25,6 +25,12 @@ export interface AnalysisReport {
   reversible: boolean;
   weaklyReversible: boolean;
   conservationLaws: number[][];
+  /**
+   * The compatibility class of the initial state, where every simulation of it stays: the
+   * dimension of the stoichiometric subspace (= rank) and the total each conservation law fixes,
+   * its value at the initial concentrations (in the order of `conservationLaws`).
+   */
+  compatibilityClass: { dimension: number; totals: number[] };
   massConserving: boolean;
   theorems: { deficiencyZero: TheoremVerdict; deficiencyOne: TheoremVerdict };
   odes: Record<string, string>;
@@ -106,6 +112,10 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     reversible,
     weaklyReversible,
     conservationLaws,
+    compatibilityClass: {
+      dimension: stoichiometricRank,
+      totals: conservationLaws.map((law) => law.reduce((total, weight, i) => total + weight * (mechanism.initial[species[i]] ?? 0), 0)),
+    },
     massConserving: await hasPositiveConservationLaw(conservationLaws, species.length),
     theorems: { deficiencyZero: deficiencyZeroTheorem(facts), deficiencyOne: deficiencyOneTheorem(facts) },
     odes: odes.text,

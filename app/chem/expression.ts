@@ -167,8 +167,9 @@ export function combinationText(weights: number[], species: string[]): string {
   return combination(weights, species.map(speciesToken), "");
 }
 
+/** The same over concentrations in brackets: "[E] + [C]". */
 export function combinationLatex(weights: number[], species: string[]): string {
-  return combination(weights, species.map(symbolLatex), "\\,");
+  return combination(weights, species.map((name) => concentrationLatex(name, 1)), "\\,");
 }
 
 function combination(weights: number[], names: string[], space: string): string {

@@ -16,6 +16,7 @@ import { parseMechanism, type Settings } from "~/chem/parse";
 import { mechanismNames } from "~/editor/complete";
 import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
+import { EquilibriumList } from "./dynamics/equilibria";
 import { JobStatus } from "./dynamics/job-status";
 import { useDynamicsJob } from "./dynamics/use-dynamics-job";
 
@@ -173,25 +174,11 @@ function EquilibriumCard({ mechanismId, input, settleTime }: { mechanismId: stri
   return (
     <section className="card p-4">
       <div className="flex items-center justify-between">
-        <h3>Equilibrium and stability</h3>
+        <h3>Equilibria and stability</h3>
         <button className="btn" disabled={job.running} onClick={() => job.run({ kind: "equilibrium", ...input(), options: { settleTime } })}>Find</button>
       </div>
       <JobStatus job={job} />
-      {r && (
-        <div className="mt-3 space-y-2 text-sm" data-testid="equilibrium">
-          <p>{r.summary}</p>
-          <table className="w-full text-xs">
-            <tbody>
-              {Object.entries(r.state).map(([name, value]) => (
-                <tr key={name} className="border-t border-line"><td className="py-0.5 font-medium">{name}</td><td className="font-mono">{value.toPrecision(6)}</td></tr>
-              ))}
-            </tbody>
-          </table>
-          <p className="text-xs text-muted">
-            Eigenvalues in the compatibility class: {r.eigenvalues.map((e) => (e.im ? `${e.re.toPrecision(3)} ± ${Math.abs(e.im).toPrecision(3)}i` : e.re.toPrecision(3))).join(", ") || "none"}
-          </p>
-        </div>
-      )}
+      {r && <EquilibriumList result={r} />}
     </section>
   );
 }

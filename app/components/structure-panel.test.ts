@@ -28,6 +28,15 @@ describe("StructurePanel", () => {
     expect(html).toContain('title="k1 = 2.5×10¹³"');
   });
 
+  it("writes each conserved total of the initial state and names the compatibility class", async () => {
+    const report = await analyzeSource("A + B <=> AB @ 1e6, 1\n[A]0 = 3e-6\n[B]0 = 1e-6");
+    const html = renderToString(createElement(StructurePanel, { report }));
+    // The laws [A] + [AB] and [B] + [AB], at 3×10⁻⁶ and 10⁻⁶ (worked by hand).
+    expect(html).toContain("[\\mathrm{A}] + [\\mathrm{AB}] = 3 \\times 10^{-6}");
+    expect(html).toContain("[\\mathrm{B}] + [\\mathrm{AB}] = 10^{-6}");
+    expect(html).toMatch(/moves? the 3 concentrations in only 1 independent direction.*2 totals above keep their initial values/);
+  });
+
   it("renders an empty mechanism without failing", async () => {
     const html = renderToString(createElement(StructurePanel, { report: await analyzeSource("") }));
     expect(html).toContain("There are no reactions yet");

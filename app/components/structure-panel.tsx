@@ -7,7 +7,7 @@ import { useMemo, type ReactNode } from "react";
 import type { AnalysisReport } from "~/chem/analysis";
 import { denseStoichiometricMatrix } from "~/chem/stoichiometry";
 import { combinationLatex } from "~/chem/expression";
-import { readableNumberText } from "~/chem/numbers";
+import { readableNumberLatex, readableNumberText } from "~/chem/numbers";
 import type { TheoremVerdict } from "~/chem/theorems";
 
 /** Typesetting thousands of formulas would stall the page; beyond this many the rest are counted. */
@@ -45,12 +45,17 @@ export function StructurePanel({ report }: { report: AnalysisReport }) {
       )}
 
       {species.length > 0 && (
-        <Section title="Conservation laws">
+        <Section title="Conservation laws and the compatibility class">
           {report.conservationLaws.length === 0 ? (
             <p className="text-sm text-muted">None: the reactions can change every combination of concentrations.</p>
           ) : (
-            <Formulas latex={report.conservationLaws.map((law) => `${combinationLatex(law, species)} = \\text{const}`)} />
+            <Formulas
+              latex={report.conservationLaws.map((law, k) => `${combinationLatex(law, species)} = ${readableNumberLatex(report.compatibilityClass.totals[k], 4)}`)}
+            />
           )}
+          <p className="mt-2 text-sm" data-testid="compatibility-class">
+            {compatibilityClassText(report)}
+          </p>
           <p className="mt-2 text-sm">
             {report.massConserving
               ? "A conservation law gives every species a positive weight: total mass is conserved and concentrations stay bounded."
@@ -93,6 +98,16 @@ export function StructurePanel({ report }: { report: AnalysisReport }) {
       )}
     </section>
   );
+}
+
+function compatibilityClassText(report: AnalysisReport): string {
+  const { dimension, totals } = report.compatibilityClass;
+  const n = report.species.length;
+  const directions = `${dimension} independent direction${dimension === 1 ? "" : "s"}`;
+  if (totals.length === 0) {
+    return `The reactions move the concentrations in ${directions}, as many as there are species: no total is fixed, and the simulation may reach any non-negative state the kinetics lead to.`;
+  }
+  return `The simulation stays in the compatibility class of its initial state: the reactions move the ${n} concentrations in only ${directions} (the stoichiometric subspace), so the ${totals.length === 1 ? "total above keeps its initial value" : `${totals.length} totals above keep their initial values`}. Equilibria are searched for within this class.`;
 }
 
 function Stat({ label, value, emphasis }: { label: string; value: number; emphasis?: boolean }) {

@@ -22,7 +22,7 @@ const json = `-H "Content-Type: application/json"`;
 const endpoints: Endpoint[] = [
   { method: "GET", path: "/api/v1/mechanisms", role: "signed in", what: "The mechanisms you can see, with your role.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms` },
   { method: "POST", path: "/api/v1/mechanisms", role: "signed in", what: "Create a mechanism: { title, source? }.", example: (o) => `curl ${auth} ${json} -d '{"title":"Ozone draft","source":"O3 -> O2 + O @ k1 = 0.1"}' ${o}/api/v1/mechanisms` },
-  { method: "GET", path: "/api/v1/mechanisms/:id", role: "viewer", what: "Title, summary, source, your role and the full structure analysis.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID` },
+  { method: "GET", path: "/api/v1/mechanisms/:id", role: "viewer", what: "Title, summary, source, your role and the full structure analysis (with compatibilityClass: the dimension of the stoichiometric subspace and each conservation law's total at the initial state).", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID` },
   { method: "PUT", path: "/api/v1/mechanisms/:id/source", role: "editor", what: "Replace the text; applied through the live document, so everyone in the room sees it.", example: (o) => `curl -X PUT ${auth} ${json} -d '{"source":"A -> B @ 1"}' ${o}/api/v1/mechanisms/ID/source` },
   { method: "GET", path: "/api/v1/mechanisms/:id/snapshots", role: "viewer", what: "Versions, newest first.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID/snapshots` },
   { method: "POST", path: "/api/v1/mechanisms/:id/snapshots", role: "editor", what: "Name the current version: { name }.", example: (o) => `curl ${auth} ${json} -d '{"name":"before review"}' ${o}/api/v1/mechanisms/ID/snapshots` },
@@ -32,7 +32,7 @@ const endpoints: Endpoint[] = [
     path: "/api/v1/mechanisms/:id/dynamics",
     role: "viewer",
     what:
-      "Run a dynamics job on a text: kind simulate, equilibrium, lyapunov or sweep, with optional overrides { parameters: { T: 1100 }, initial: { A: 2e-3 } } replacing values of the text. A sweep's target is { kind: \"parameter\", name }, { kind: \"initial\", species }, { kind: \"fixed\", species } (a held species), { kind: \"step\", label, direction? } or { kind: \"rate\", reaction }.",
+      "Run a dynamics job on a text: kind simulate, equilibrium, lyapunov or sweep, with optional overrides { parameters: { T: 1100 }, initial: { A: 2e-3 } } replacing values of the text. A sweep's target is { kind: \"parameter\", name }, { kind: \"initial\", species }, { kind: \"fixed\", species } (a held species), { kind: \"step\", label, direction? } or { kind: \"rate\", reaction }. Equilibrium options { settleTime?, start? }: Newton's method in the compatibility class of the initial state from several starts (start, the end of a settling run, the initial state, seeded random points), each root deflated so none is found twice → { converged, state, eigenvalues, stability, summary, … } for the first one found, equilibria: [{ state, residual, positive, eigenvalues, stability, summary, foundFrom }] for every distinct one, classDimension and starts.",
     example: (o) =>
       `curl ${auth} ${json} -d '{"kind":"sweep","source":"A -> B @ 1e3*exp(-3000/T)\\nT = 300\\n[A]0 = 1","overrides":{"parameters":{"T":350}},"options":{"until":1,"samples":50,"target":{"kind":"parameter","name":"T"},"from":300,"to":600,"points":4,"scale":"linear","species":"A","observable":"final"}}' ${o}/api/v1/mechanisms/ID/dynamics`,
   },

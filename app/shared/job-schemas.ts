@@ -12,7 +12,7 @@ import { cleanText, odeField, sourceField } from "./fields";
 /** A time course: `{ until, samples, rtol?, atol?, method? }`. */
 export const simulateSettings = simulationSettings;
 
-/** A steady state found by Newton's method, from `start` or from a run to `settleTime`. */
+/** Steady states by Newton's method in the class, from `start`, a run to `settleTime`, the initial state and random points. */
 export const equilibriumSettings = z.object({
   settleTime: z.number().positive("the settling time must be a positive number").optional(),
   start: z.array(z.number()).optional(),

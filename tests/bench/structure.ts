@@ -3,16 +3,7 @@
 // 100-step mechanism under 5 ms. Run: npx tsx tests/bench/structure.ts
 import { analyzeSource } from "~/chem/analysis";
 import { loadSolver } from "~/chem/conservation";
-
-/** Small deterministic generator so every run measures the same networks. */
-function random(seed: number): () => number {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from "~/chem/seeded-random";
 
 /**
  * A mechanism shaped like real ones: species take part in steps with nearby species (a pathway,
@@ -20,7 +11,7 @@ function random(seed: number): () => number {
  * rate coefficients. `reactions` counts directed reactions (a reversible step gives two).
  */
 export function generatedMechanism(reactions: number, species: number, { seed = 1, reversibleShare = 0.35 } = {}): string {
-  const next = random(seed);
+  const next = seededRandom(seed);
   const pick = (centre: number) => `S${1 + ((centre + Math.floor(next() * 12) + species) % species)}`;
   const lines: string[] = [];
   let count = 0;

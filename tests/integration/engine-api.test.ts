@@ -89,3 +89,22 @@ describe("POST /api/v1/mechanisms/:id/simulations", () => {
     expect((await missing.json()).error).toMatch(/rate/i);
   });
 });
+
+describe("POST /api/v1/mechanisms/:id/dynamics, kind equilibrium", () => {
+  it("lists every equilibrium of a bistable network in its class, with stability, beside the old fields", async () => {
+    // x' = −(x − 1)(x − 2)(x − 3) as mass action (worked by hand): stable 1 and 3, unstable 2.
+    const source = "2X -> 3X @ 6\n3X -> 2X @ 1\n0 -> X @ 6\nX -> 0 @ 11\n[X]0 = 0.5\n";
+    const response = await viewer.json(`/api/v1/mechanisms/${mechanismId}/dynamics`, "POST", { kind: "equilibrium", source, options: {} });
+    expect(response.status).toBe(200);
+    const result = await response.json();
+    expect(result).toMatchObject({ converged: true, stability: "stable", classDimension: 1 });
+    expect(result.state.X).toBeCloseTo(1, 8);
+    const found = result.equilibria.map((e: { state: { X: number }; stability: string }) => [Math.round(e.state.X * 1e6) / 1e6, e.stability]);
+    expect(found.sort()).toEqual([[1, "stable"], [2, "unstable"], [3, "stable"]]);
+  });
+
+  it("reports the analysis's compatibility class: E + C and S + C + P at their initial totals", async () => {
+    const report = await (await owner.json("/api/v1/analyze", "POST", { source: michaelisMenten })).json();
+    expect(report.compatibilityClass).toEqual({ dimension: 2, totals: [0.1, 1] });
+  });
+});

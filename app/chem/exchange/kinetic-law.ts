@@ -14,6 +14,7 @@ import {
   type MathNode,
 } from "mathjs";
 import type { SbmlModel, SbmlReaction, SbmlSpeciesReference } from "./sbml-document";
+import { seededRandom } from "~/chem/seeded-random";
 
 /** A rate coefficient as the file gives it: a model parameter, or a number (literals and local parameters). */
 export type SbmlCoefficient = { kind: "parameter"; id: string } | { kind: "value"; value: number };
@@ -300,16 +301,4 @@ function monomial(point: Scope, references: SbmlSpeciesReference[]): number {
   let product = 1;
   for (const [species, power] of stoichiometryOf(references)) product *= point.get(species)! ** power;
   return product;
-}
-
-/** mulberry32: a small deterministic generator, enough to pick sample concentrations. */
-function seededRandom(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }

@@ -1,4 +1,7 @@
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
+import { buildNetwork } from "~/chem/network";
+import { parseMechanism } from "~/chem/parse";
 import { brusselator, lotkaVolterra, massAction } from "../../../tests/fixtures/dynamics/models";
 import { conservationBasis } from "./conservation";
 import { networkEquilibrium, polynomialEquilibrium } from "./equilibrium";
@@ -81,5 +84,52 @@ describe("equilibria", () => {
     expect(result.state.x).toBeCloseTo(1, 10);
     expect(result.stability).toBe("undecided");
     expect(result.eigenvalues.map((e) => Math.abs(e.im))).toEqual([expect.closeTo(1, 8), expect.closeTo(1, 8)]);
+  });
+
+  it("Schlögl's bistable network has two stable equilibria and an unstable one between them", () => {
+    // Schlögl's second model (Z. Physik 253 (1972) 147), A + 2X ⇌ 3X, B ⇌ X, with [A] and [B]
+    // held and folded into the coefficients: x' = 6x² − x³ + 6 − 11x = −(x − 1)(x − 2)(x − 3).
+    // Hand-worked: roots 1, 2, 3; f'(x) = −3x² + 12x − 11 is −2, 1, −2 there.
+    const { mechanism, network } = massAction(
+      ["X"],
+      [
+        [{ X: 2 }, { X: 3 }, 6],
+        [{ X: 3 }, { X: 2 }, 1],
+        [{}, { X: 1 }, 6],
+        [{ X: 1 }, {}, 11],
+      ],
+      { X: 0.5 },
+    );
+    const result = networkEquilibrium(mechanism, network);
+    const found = [...result.equilibria].sort((a, b) => a.state.X - b.state.X);
+    expect(found.map((e) => e.state.X)).toEqual([expect.closeTo(1, 10), expect.closeTo(2, 10), expect.closeTo(3, 10)]);
+    expect(found.map((e) => e.stability)).toEqual(["stable", "unstable", "stable"]);
+    expect(found.map((e) => e.eigenvalues[0].re)).toEqual([expect.closeTo(-2, 8), expect.closeTo(1, 8), expect.closeTo(-2, 8)]);
+    // From X = 0.5 the simulation settles at the lower stable state, which the top-level fields keep.
+    expect(result.state.X).toBeCloseTo(1, 10);
+    expect(result.summary).toMatch(/^3 distinct equilibria.*2 stable, 1 unstable/);
+    expect(result.classDimension).toBe(1);
+  });
+
+  it("finds all three equilibria of the realized Lorenz mechanism, though its simulation gives up", () => {
+    // The mechanism is our realization of Lorenz's x' = 10(y − x), y' = x(28 − z) − y,
+    // z' = xy − 8z/3 shifted by (21, 28, 3.8) and multiplied by xyz. Lorenz (J. Atmos. Sci. 20
+    // (1963) 130) gives the equilibria (0, 0, 0) and (±√(β(ρ−1)), ±√(β(ρ−1)), ρ − 1) = (±√72, ±√72, 27).
+    const { mechanism } = parseMechanism(readFileSync("tests/fixtures/lorenz-realized.weave", "utf8"));
+    const result = networkEquilibrium(mechanism, buildNetwork(mechanism));
+    const positive = result.equilibria.filter((e) => e.positive).sort((a, b) => a.state.x - b.state.x);
+    const r = Math.sqrt(72);
+    const expected = [
+      [21 - r, 28 - r, 30.8],
+      [21, 28, 3.8],
+      [21 + r, 28 + r, 30.8],
+    ];
+    expect(positive).toHaveLength(3);
+    positive.forEach((e, k) => {
+      expect([e.state.x, e.state.y, e.state.z]).toEqual(expected[k].map((v) => expect.closeTo(v, 8)));
+      // With ρ = 28 > 24.74 all three are unstable (Lorenz 1963), and multiplying by the positive xyz keeps the signs.
+      expect(e.stability).toBe("unstable");
+    });
+    expect(result.converged).toBe(true);
   });
 });

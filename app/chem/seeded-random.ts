@@ -1,0 +1,15 @@
+// A small deterministic random generator (mulberry32, public domain), for sample points that must
+// be the same on every run: concentrations to compare two rate laws at, starts of a root search,
+// the generated networks of tests and benchmarks.
+
+/** Uniform numbers in [0, 1), the same sequence for the same seed. */
+export function seededRandom(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
