@@ -47,7 +47,7 @@ async function overflow(page: Page): Promise<{ panel: number; page: number }> {
 describe.each([1280, 390])("at %i px wide", (width) => {
   it("keeps every typeset equation inside the page, concentrations in brackets", async () => {
     const page = await openTab(width, "Structure");
-    await expect.poll(() => page.locator("section[aria-label=Structure] .katex").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(28);
+    await expect.poll(() => page.locator("section[aria-label=Structure] .katex").count(), { timeout: 120_000 }).toBeGreaterThanOrEqual(28);
     const { panel, page: window } = await overflow(page);
     // A pixel for sub-pixel rounding.
     expect(panel).toBeLessThanOrEqual(1);
@@ -76,7 +76,7 @@ it("simulates and labels the axes with distinct ticks, linear and log", async ()
   await page.fill("label:has-text('Until time') input", "0.002");
   await page.click("button:text-is('Simulate')");
   const chart = page.locator("[data-testid=time-course-chart]").first();
-  await expect.poll(() => chart.getAttribute("data-y-ticks"), { timeout: 60_000 }).toBeTruthy();
+  await expect.poll(() => chart.getAttribute("data-y-ticks"), { timeout: 180_000 }).toBeTruthy();
   const ticks = async (axis: "x" | "y") => ((await chart.getAttribute(`data-${axis}-ticks`)) ?? "").split(" | ");
 
   const xs = await ticks("x");
@@ -112,11 +112,11 @@ it("simulates and labels the axes with distinct ticks, linear and log", async ()
   await page.fill("label:has-text('Points') input", "4");
   await page.click("button:text-is('Sweep')");
   const sweep = page.locator("[data-testid=time-course-chart]").nth(1);
-  await expect.poll(() => sweep.getAttribute("data-x-ticks"), { timeout: 60_000 }).toBeTruthy();
+  await expect.poll(() => sweep.getAttribute("data-x-ticks"), { timeout: 180_000 }).toBeTruthy();
   await sweep.scrollIntoViewIfNeeded();
   const box = (await sweep.locator(".u-over").boundingBox())!;
   await page.mouse.move(box.x + box.width / 3, box.y + box.height / 2);
   await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
   await expect.poll(() => page.locator("[data-testid=chart-legend]").nth(1).innerText()).toMatch(/k3 = \d/);
   await sweep.locator("xpath=ancestor::section[1]").screenshot({ path: `${shots}/sweep.png` });
-}, 240_000);
+}, 480_000);
