@@ -68,7 +68,7 @@ describe.each([1280, 390])("at %i px wide", (width) => {
     expect(starts.length).toBeGreaterThan(1);
     expect(Math.min(...starts.slice(1))).toBeGreaterThan(starts[0] + 10);
     await equations.screenshot({ path: `${shots}/equations-${width}.png` });
-  }, 120_000);
+  }, 240_000);
 });
 
 it("simulates and labels the axes with distinct ticks, linear and log", async () => {
