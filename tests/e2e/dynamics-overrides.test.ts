@@ -36,4 +36,12 @@ it("runs a simulation with an override and sweeps a held species", { timeout: 12
   await page.click("button:text-is('Sweep')");
   await page.waitForFunction(() => document.querySelectorAll(".uplot canvas").length >= 2);
   expect(JSON.parse(bodies[1]).options.target).toEqual({ kind: "fixed", species: "F" });
+
+  // The sweep's hover label names the swept quantity.
+  const sweep = page.locator("[data-testid=time-course-chart]").nth(1);
+  await sweep.scrollIntoViewIfNeeded();
+  const box = (await sweep.locator(".u-over").boundingBox())!;
+  await page.mouse.move(box.x + box.width / 3, box.y + box.height / 2);
+  await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+  await expect.poll(() => page.locator("[data-testid=chart-legend]").nth(1).innerText()).toMatch(/\[F\] = \d/);
 });
