@@ -9,6 +9,7 @@ import { CsvError, readMeasuredCsv, residuals, simulationCsv, type MeasuredCours
 import type { EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
+import { readableNumberText } from "~/chem/numbers";
 import type { SweepResult } from "~/chem/kinetics/sweep";
 import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { readOverrides } from "~/chem/overrides";
@@ -111,7 +112,7 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
             </div>
             <p className="mt-2 text-xs text-muted">
               {result.stats.steps} steps ({result.stats.rejected} rejected, {result.stats.jacobians} Jacobians) in {result.stats.ms.toFixed(0)} ms
-              with the {result.method} method{result.switchedAt !== null ? `, switched to stiff at t = ${result.switchedAt.toPrecision(3)}` : ""}.
+              with the {result.method} method{result.switchedAt !== null ? `, switched to stiff at t = ${readableNumberText(result.switchedAt)}` : ""}.
               Drag to zoom, double-click to reset; click a name to hide or show it.
             </p>
             <div className="mt-3 flex flex-wrap items-center gap-3">
@@ -161,7 +162,7 @@ function ResidualTable({ fit }: { fit: ReturnType<typeof residuals> }) {
       </thead>
       <tbody>
         {Object.entries(fit).map(([name, r]) => (
-          <tr key={name} className="border-t border-line"><td className="py-1 font-medium">{name}</td><td>{r.points}</td><td>{Number.isNaN(r.rms) ? "—" : r.rms.toPrecision(3)}</td></tr>
+          <tr key={name} className="border-t border-line"><td className="py-1 font-medium">{name}</td><td>{r.points}</td><td>{Number.isNaN(r.rms) ? "—" : readableNumberText(r.rms)}</td></tr>
         ))}
       </tbody>
     </table>
@@ -204,13 +205,13 @@ function LyapunovCard({ mechanismId, input }: { mechanismId: string; input: JobI
       {r && (
         <div className="mt-3 text-sm">
           <p>
-            λ₁ ≈ <strong className="font-mono">{r.largest.toPrecision(4)}</strong> {r.converged ? "(the running estimate settled)" : "(not yet settled: integrate longer)"}
+            λ₁ ≈ <strong className="font-mono">{readableNumberText(r.largest, 4)}</strong> {r.converged ? "(the running estimate settled)" : "(not yet settled: integrate longer)"}
           </p>
           <p className="mt-1 text-xs text-muted">
             {r.largest > 0.01 && r.converged
               ? "A positive exponent: nearby trajectories separate exponentially — a numerical sign of chaos, not a proof."
               : "No sign of exponential separation of nearby trajectories."}{" "}
-            {r.renormalisations} renormalisations after a transient of {r.transient.toPrecision(3)}.
+            {r.renormalisations} renormalisations after a transient of {readableNumberText(r.transient)}.
           </p>
         </div>
       )}
