@@ -1,4 +1,4 @@
-// Choosing a new password from a mailed link: signs in afresh and ends every other session.
+// Choosing a new password from a mailed link: signs in afresh, ends every other session and revokes the access tokens.
 // A dead link is answered with data and 404, not thrown, so a failed POST still shows its reason.
 import { data, Form, Link, useNavigation } from "react-router";
 import { lookUpEmailToken, resetPassword, signUpForm } from "~/utils/accounts.server";
@@ -39,7 +39,7 @@ export default function ResetPassword({ loaderData, actionData }: Route.Componen
   return (
     <AuthCard
       title="Choose a new password"
-      lead={`For ${loaderData.email}. Every other session of this account is signed out.`}
+      lead={`For ${loaderData.email}. Every other session of this account is signed out and its access tokens are revoked.`}
       footer={<Link to="/sign-in">Back to sign-in</Link>}
     >
       <Form method="post" className="space-y-4">

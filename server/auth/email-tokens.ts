@@ -4,7 +4,7 @@
 import { and, desc, eq, isNull } from "drizzle-orm";
 import type { Db } from "../db/client";
 import { grantWaitingSeats } from "../db/invitations";
-import { emailTokens, failedSignIns, sessions, users } from "../db/schema";
+import { apiTokens, emailTokens, failedSignIns, sessions, users } from "../db/schema";
 import { toAuthUser, type AuthUser } from "./authenticator";
 import { hashPassword } from "./password";
 import { hashSecret, newSecret } from "./secrets";
@@ -83,7 +83,10 @@ export function verifyAddress(db: Db, token: string) {
   return redeem(db, token, "verify");
 }
 
-/** Sets the new password, ends every session of the account and clears its failed sign-ins. */
+/**
+ * Sets the new password, ends every session, revokes every access token (one an intruder minted
+ * must not outlive the reset that locks them out) and clears the account's failed sign-ins.
+ */
 export async function resetPassword(db: Db, token: string, password: string) {
   // Look before hashing: a dead link should not cost an Argon2 run.
   const found = await lookUpEmailToken(db, token, "reset");
@@ -92,6 +95,7 @@ export async function resetPassword(db: Db, token: string, password: string) {
   return redeem(db, token, "reset", async (tx, user) => {
     await tx.update(users).set({ passwordHash }).where(eq(users.id, user.id));
     await tx.delete(sessions).where(eq(sessions.userId, user.id));
+    await tx.update(apiTokens).set({ revokedAt: new Date() }).where(and(eq(apiTokens.userId, user.id), isNull(apiTokens.revokedAt)));
     await tx.delete(failedSignIns).where(eq(failedSignIns.email, user.email));
   });
 }

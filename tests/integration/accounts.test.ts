@@ -215,9 +215,12 @@ describe("e-mail verification", () => {
 });
 
 describe("password reset", () => {
-  it("mails an hour-long single-use link without telling who has an account, and ends the other sessions", async () => {
+  it("mails an hour-long single-use link without telling who has an account, ends the other sessions and revokes the access tokens", async () => {
     const account = await signUpUnconfirmed(server.url, "Forgetful");
     const elsewhere = await signIn(server.url, account.email, "correct horse battery");
+    const { token } = await (await elsewhere.json("/api/v1/tokens", "POST", { name: "lab script" })).json();
+    const withToken = () => fetch(`${server.url}/api/v1/mechanisms`, { headers: { Authorization: `Bearer ${token}` } });
+    expect((await withToken()).status).toBe(200);
 
     const known = await new Client(server.url).post("/forgot-password", { email: account.email });
     const unknown = await new Client(server.url).post("/forgot-password", { email: "nobody.here@example.test" });
@@ -243,8 +246,9 @@ describe("password reset", () => {
     expect(reset.headers.get("Location")).toBe("/dashboard");
     expect((await reader.get("/dashboard")).status).toBe(200);
 
-    // Every other session is over; the old password is dead, the new one works.
+    // Every other session is over, every access token revoked; the old password is dead, the new one works.
     expect((await elsewhere.get("/dashboard")).status).toBe(302);
+    expect((await withToken()).status).toBe(401);
     expect((await new Client(server.url).post("/sign-in", { email: account.email, password: "correct horse battery" })).status).toBe(401);
     await signIn(server.url, account.email, "a brand new passphrase");
     // The link works once, and it proved the mailbox: the address counts as confirmed.
