@@ -55,6 +55,8 @@ export async function createApp({ projectRoot, services, vite, trustProxy }: App
 }
 
 const stateChanging = new Set(["POST", "PUT", "PATCH", "DELETE"]);
+const served = new Set(["GET", "HEAD", ...stateChanging]);
+const allow = [...served].join(", ");
 
 /**
  * Headers for every response, and the cross-site check: a browser names the page a request
@@ -64,6 +66,13 @@ const stateChanging = new Set(["POST", "PUT", "PATCH", "DELETE"]);
 function door(publicOrigin: string | null) {
   return (req: express.Request, res: express.Response, next: express.NextFunction) => {
     res.set({ "X-Frame-Options": "DENY", "X-Content-Type-Options": "nosniff" });
+    // The router would run a page's loader for any other method; we answer them here. OPTIONS gets
+    // no CORS headers, so another site's preflight fails, as the same-site policy wants.
+    if (!served.has(req.method)) {
+      res.set("Allow", allow);
+      if (req.method === "OPTIONS") return res.status(204).end();
+      return res.status(statusOf("method_not_allowed")).json(errorBody("method_not_allowed", `${req.method} is not served here.`));
+    }
     const origin = req.get("Origin");
     if (stateChanging.has(req.method) && origin !== undefined && !isOwnOrigin(origin, req.get("Host"), publicOrigin)) {
       const message = "Requests from other sites cannot change anything here.";

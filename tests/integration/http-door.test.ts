@@ -186,6 +186,18 @@ describe("wrong methods on API routes", () => {
     expect(response.headers.get("Allow")).toBe(allowed.join(", "));
     expect(typeof (await response.json()).error).toBe("string");
   });
+
+  it("answers OPTIONS with an empty 204 and no CORS grant, and other methods with 405, without running a page", async () => {
+    for (const path of ["/api/v1/mechanisms", `/mechanisms/${mechanismId}`, "/dashboard"]) {
+      const options = await owner.request(path, { method: "OPTIONS", headers: { Origin: FOREIGN } });
+      expect(options.status).toBe(204);
+      expect(options.headers.get("Access-Control-Allow-Origin")).toBeNull();
+      expect(await options.text()).toBe("");
+      const odd = await owner.request(path, { method: "PROPFIND" });
+      expect(odd.status).toBe(405);
+      expect(await odd.json()).toEqual({ error: "PROPFIND is not served here.", code: "method_not_allowed" });
+    }
+  });
 });
 
 describe("odd inputs", () => {
