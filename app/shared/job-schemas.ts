@@ -35,6 +35,7 @@ export const sweepTarget = z.discriminatedUnion("kind", [
   /** A species held constant (`fixed [B] = …`). */
   z.object({ kind: z.literal("fixed"), species: cleanText("The species") }),
 ]);
+export type SweepTarget = z.infer<typeof sweepTarget>;
 
 /** One observable of one species per value of the target, over a linear or logarithmic range. */
 export const sweepSettings = integrationSettings.extend({

@@ -7,6 +7,8 @@
 // coefficient of 0 takes its reaction out of the network), so each point rebuilds the network.
 
 import type { Mechanism, Network, Step } from "~/chem/model";
+// What a sweep varies has one definition: the zod schema every door checks it with.
+import type { SweepTarget } from "~/shared/job-schemas";
 import { MAX_SWEEP_POINTS } from "~/chem/limits";
 import { buildNetwork } from "~/chem/network";
 import { SimulationCancelled, SimulationInputError } from "./errors";
@@ -16,14 +18,6 @@ import { oscillationPeriod } from "./oscillation";
 import type { SimulationSettings } from "./settings";
 import { simulateSystem } from "./simulate";
 
-export type SweepTarget =
-  | { kind: "rate"; reaction: number }
-  | { kind: "parameter"; name: string }
-  | { kind: "initial"; species: string }
-  /** A step's mass-action coefficient, whatever it was written as; `backward` for a reversible step's other one. */
-  | { kind: "step"; label: string; direction?: "forward" | "backward" }
-  /** A species held constant (`fixed [B] = …`). */
-  | { kind: "fixed"; species: string };
 export type Observable = "final" | "max" | "period";
 
 export interface SweepOptions extends SimulationSettings {
