@@ -19,8 +19,7 @@ export function RealizationCheck({ ode, result, variables }: { ode: string; resu
   function compare() {
     const settings = { until, samples: 1000, rtol: 1e-8, atol: 1e-10 };
     void original.run({ ode, settings });
-    // On the multiplied clock the same stretch of orbit takes τ ≈ t / M(start); run a margin longer.
-    void realized.run({ source: result.mechanism, settings: { ...settings, until: until / startMultiplier(result, variables), samples: 4000 } });
+    void realized.run({ source: result.mechanism, settings: { ...settings, until: realizedUntil(result, variables, until), samples: 4000 } });
   }
 
   const mapped = realized.result ? undoTransformations(realized.result, variables, result.transformations) : null;
@@ -56,6 +55,17 @@ export function RealizationCheck({ ode, result, variables }: { ode: string; resu
       )}
     </section>
   );
+}
+
+/**
+ * How long to run the realization to cover the ODE's 0..until on its own clock: the larger of
+ * until / M(start) and the clock's estimate along the trajectory (scaled to this horizon), with a
+ * margin; the chart trims what lies beyond.
+ */
+function realizedUntil(result: RealizeOdeResult, variables: string[], until: number): number {
+  const estimates = [until / startMultiplier(result, variables)];
+  if (result.clock?.suggestedUntil != null) estimates.push((result.clock.suggestedUntil * until) / result.clock.originalUntil);
+  return 1.05 * Math.max(...estimates);
 }
 
 /** The multiplier at the (shifted) start, which sets the realization's clock speed there. */

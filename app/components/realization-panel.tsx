@@ -4,6 +4,7 @@
 // end time its own clock needs. Presentational: the route runs
 // realizeOde and passes the result; choices come back through the callbacks.
 import { useState } from "react";
+import { readableNumberText } from "~/chem/numbers";
 import type { CrossEffectReport, RealizeOdeResult } from "~/chem/realize/realize-ode";
 import type { EquivalentRealization } from "~/chem/realize/equivalents";
 
@@ -146,7 +147,7 @@ export function RealizationPanel({ ode, result, variables, busy, onApply, onSear
           {result.mechanism && result.clock?.suggestedUntil != null && (
             <p className="mt-2 text-sm" data-testid="realization-clock">
               On its own clock (dt = {result.clock.multiplier} · ds), simulate this mechanism until s ={" "}
-              {Number(result.clock.suggestedUntil.toPrecision(2))} to cover the ODE&apos;s 0 ≤ t ≤ {result.clock.originalUntil}.
+              {readableNumberText(result.clock.suggestedUntil, 2)} to cover the ODE&apos;s 0 ≤ t ≤ {result.clock.originalUntil}.
             </p>
           )}
           {result.mechanism && onSearchEquivalents && (

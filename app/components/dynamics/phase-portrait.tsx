@@ -1,5 +1,6 @@
 // A phase portrait: one species against another along the simulated trajectory.
 import { useState } from "react";
+import { readableNumberText } from "~/chem/numbers";
 
 export function PhasePortrait({ series }: { series: Record<string, number[]> }) {
   const names = Object.keys(series);
@@ -32,8 +33,8 @@ export function PhasePortrait({ series }: { series: Record<string, number[]> }) 
         <path d={path} fill="none" stroke="var(--mw-accent)" strokeWidth="1.6" />
         <circle cx={px(xs[0])} cy={py(ys[0])} r="4" fill="var(--mw-signal)"><title>start</title></circle>
         <circle cx={px(xs.at(-1)!)} cy={py(ys.at(-1)!)} r="4" fill="var(--mw-accent)"><title>end</title></circle>
-        <text x={w / 2} y={h - 8} textAnchor="middle" fontSize="12" fill="var(--mw-muted)">{x} ({x0.toPrecision(3)} – {x1.toPrecision(3)})</text>
-        <text x={12} y={h / 2} textAnchor="middle" fontSize="12" fill="var(--mw-muted)" transform={`rotate(-90 12 ${h / 2})`}>{y} ({y0.toPrecision(3)} – {y1.toPrecision(3)})</text>
+        <text x={w / 2} y={h - 8} textAnchor="middle" fontSize="12" fill="var(--mw-muted)">{x} ({readableNumberText(x0, 3)} – {readableNumberText(x1, 3)})</text>
+        <text x={12} y={h / 2} textAnchor="middle" fontSize="12" fill="var(--mw-muted)" transform={`rotate(-90 12 ${h / 2})`}>{y} ({readableNumberText(y0, 3)} – {readableNumberText(y1, 3)})</text>
       </svg>
     </figure>
   );
