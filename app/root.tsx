@@ -71,10 +71,10 @@ const navigation = [
 function Header({ user }: { user: { name: string; email: string; verified: boolean } | null }) {
   return (
     <header className="border-b border-line bg-surface/80 backdrop-blur">
-      <div className="mx-auto flex h-14 max-w-[96rem] items-center gap-6 px-6">
+      <div className="mx-auto flex min-h-14 max-w-[96rem] flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2 sm:px-6">
         <Link to={user ? "/dashboard" : "/"} className="flex items-center gap-2 text-ink no-underline">
           <Logo />
-          <span className="text-base font-semibold tracking-tight">Mechweave</span>
+          <span className="hidden text-base font-semibold tracking-tight sm:inline">Mechweave</span>
         </Link>
         {user && (
           <nav className="flex gap-4 text-sm">
@@ -90,7 +90,7 @@ function Header({ user }: { user: { name: string; email: string; verified: boole
           {user ? (
             <>
               {!user.verified && <Link to="/verify-email" className="text-danger">Confirm your e-mail</Link>}
-              <span className="text-muted" title={user.email}>{user.name}</span>
+              <span className="hidden text-muted sm:inline" title={user.email}>{user.name}</span>
               <Form method="post" action="/sign-out">
                 <button className="btn" type="submit">Sign out</button>
               </Form>

@@ -64,7 +64,7 @@ export default function Dashboard({ loaderData, actionData }: Route.ComponentPro
         <div className="flex flex-wrap items-start gap-2">
         <Form method="post" className="flex items-start gap-2">
           <div>
-            <input className="field w-72" name="title" placeholder="Title of a new mechanism" aria-label="Title of a new mechanism" required maxLength={200} />
+            <input className="field w-56 sm:w-72" name="title" placeholder="Title of a new mechanism" aria-label="Title of a new mechanism" required maxLength={200} />
             {failed?.error && <p className="mt-1 text-xs text-danger">{failed.error}</p>}
           </div>
           <button className="btn btn-primary" type="submit" disabled={busy}>New mechanism</button>
