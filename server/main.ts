@@ -57,8 +57,10 @@ const services = {
   mailCatcher,
   dynamics: { run: jobs.run },
   instance: instanceId,
-  collab: attachCollaboration(server, {
+  collab: await attachCollaboration(server, {
     db: database.db,
+    databaseUrl,
+    instance: instanceId,
     identify: identifyCaller(database.db, sessions),
     workers,
     timings: hubTimings(env),
