@@ -6,7 +6,7 @@ import fc from "fast-check";
 import * as Y from "yjs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { collabUrl, eventually, joinRoom, storedDocument, type RoomClient } from "../support/collab-client";
-import { signUp, type Client } from "../support/http";
+import { addMember, createMechanism, memberUserId, signUp, type Client } from "../support/http";
 import { startInstance, startTestServer, type TestServer } from "../support/server";
 
 // Access changes must arrive by NOTIFY: the timers that would also find them are set far beyond
@@ -34,23 +34,6 @@ function join(server: TestServer, client: Client, id: string): RoomClient {
   return room;
 }
 
-async function mechanism(owner: Client, source: string) {
-  const response = await owner.json("/api/v1/mechanisms", "POST", { title: "Across instances", source });
-  expect(response.status).toBe(201);
-  return ((await response.json()) as { id: string }).id;
-}
-
-async function member(owner: Client, id: string, role: "editor" | "viewer", name: string) {
-  const person = await signUp(first.url, name);
-  expect((await owner.post(`/m/${id}/members`, { intent: "add", email: person.email, role })).status).toBe(200);
-  return person;
-}
-
-async function userIdOf(owner: Client, id: string, email: string) {
-  const page = await (await owner.get(`/m/${id}/members`)).text();
-  return page.slice(page.indexOf(`member-${email}`)).match(/name="userId" value="([0-9a-f-]{36})"/)![1];
-}
-
 /** Yjs clients that wrote into the document other than the members' own: the servers' documents. */
 function serverWriters(doc: Y.Doc, members: RoomClient[]): number[] {
   const own = new Set([0, ...members.map((m) => m.doc.clientID)]);
@@ -69,8 +52,8 @@ describe("a room across two instances", () => {
 
   it("converges: random edits on both instances, with members reconnecting to either, end in one text, the stored one", async () => {
     const owner = await signUp(first.url, "Instances Owner");
-    const id = await mechanism(owner, "A -> B @ 1\n");
-    const editor = await member(owner, id, "editor", "Instances Editor");
+    const id = await createMechanism(owner, "A -> B @ 1\n", "Across instances");
+    const editor = await addMember(owner, id, "editor", "Instances Editor");
     const servers = [first, second];
     const rooms = [join(first, owner, id), join(second, editor, id), join(second, owner, id), join(first, editor, id)];
     await Promise.all(rooms.map((r) => r.synced));
@@ -107,8 +90,8 @@ describe("a room across two instances", () => {
 
   it("analyses once per change: only the leader writes the analysis", async () => {
     const owner = await signUp(first.url, "Leader Owner");
-    const id = await mechanism(owner, "A -> B @ 1\n");
-    const editor = await member(owner, id, "editor", "Follower Editor");
+    const id = await createMechanism(owner, "A -> B @ 1\n", "Across instances");
+    const editor = await addMember(owner, id, "editor", "Follower Editor");
     // The first instance loads the room first and so leads it.
     const atFirst = join(first, owner, id);
     await atFirst.synced;
@@ -131,27 +114,27 @@ describe("a room across two instances", () => {
 
   it("closes a socket on the second instance when the role changes through the first", async () => {
     const owner = await signUp(first.url, "Revoking Owner");
-    const id = await mechanism(owner, "A -> B\n");
-    const leaver = await member(owner, id, "editor", "Leaving Editor");
-    const lowered = await member(owner, id, "editor", "Lowered Editor");
+    const id = await createMechanism(owner, "A -> B\n", "Across instances");
+    const leaver = await addMember(owner, id, "editor", "Leaving Editor");
+    const lowered = await addMember(owner, id, "editor", "Lowered Editor");
     const leaverRoom = join(second, leaver, id);
     const loweredRoom = join(second, lowered, id);
     await Promise.all([leaverRoom.synced, loweredRoom.synced]);
 
     const closed = new Promise<number>((resolve) => leaverRoom.provider.on("closed", (event: { code: number }) => resolve(event.code)));
-    await owner.post(`/m/${id}/members`, { intent: "remove", userId: await userIdOf(owner, id, leaver.email) });
+    await owner.post(`/m/${id}/members`, { intent: "remove", userId: await memberUserId(owner, id, leaver.email) });
     expect(await closed).toBe(4403);
 
     const reconnecting = new Promise<number | undefined>((resolve) => loweredRoom.provider.on("connection-close", (event: CloseEvent | null) => resolve(event?.code)));
-    await owner.post(`/m/${id}/members`, { intent: "change", userId: await userIdOf(owner, id, lowered.email), role: "viewer" });
+    await owner.post(`/m/${id}/members`, { intent: "change", userId: await memberUserId(owner, id, lowered.email), role: "viewer" });
     expect(await reconnecting).toBe(4001);
   }, 60_000);
 
   // Last: it kills the first instance.
   it("hands the room to the other instance when its leader is killed, losing no acknowledged edit", async () => {
     const owner = await signUp(first.url, "Crashing Owner");
-    const id = await mechanism(owner, "A -> B @ 1\n");
-    const witnessUser = await member(owner, id, "viewer", "Crash Witness");
+    const id = await createMechanism(owner, "A -> B @ 1\n", "Across instances");
+    const witnessUser = await addMember(owner, id, "viewer", "Crash Witness");
     const typist = join(first, owner, id);
     await typist.synced;
     await eventually("the first analysis", () => typist.analysis.get("reactions") === 1);

@@ -39,7 +39,9 @@ function launch(databaseUrl: string, extraEnv: Record<string, string>, port = 0)
 }
 
 function waitExit(child: ChildProcess) {
-  return new Promise<void>((resolve) => (child.exitCode !== null ? resolve() : child.once("exit", () => resolve())));
+  // A process killed by a signal keeps exitCode null.
+  const exited = child.exitCode !== null || child.signalCode !== null;
+  return new Promise<void>((resolve) => (exited ? resolve() : child.once("exit", () => resolve())));
 }
 
 export interface TestServerOptions {
