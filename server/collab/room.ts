@@ -120,6 +120,8 @@ export class Room implements RoomPort, LinkedRoom {
   private loggedRows = 0;
   private lastEditorId: string | null = null;
   private compacting: Promise<void> | null = null;
+  /** Counts `follow()` calls, so a `lead()` under way notices one. */
+  private followed = 0;
   private closed = false;
 
   /** A follower until `lead()`. */
@@ -191,9 +193,11 @@ export class Room implements RoomPort, LinkedRoom {
   /** This instance now leads the room: it analyses, takes versions, compacts and mirrors the text. */
   async lead() {
     if (this.leading || this.closed) return;
+    const term = this.followed;
     // Another leader may have stored versions since this room loaded.
     const lastSnapshot = await this.store.latestSummary(this.mechanismId);
-    if (this.leading || this.closed) return;
+    // Told to follow meanwhile (the lock went with a lost connection): this lead is void.
+    if (this.leading || this.closed || term !== this.followed) return;
     this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: this.timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
     // Built from the document as it is now, which holds the last leader's analysis.
     this.recompute = new StructureRecompute(this.doc, this.analyzer, { intervalMs: this.timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
@@ -203,6 +207,7 @@ export class Room implements RoomPort, LinkedRoom {
 
   /** Another instance leads now (or may: this one lost its link to the database). */
   follow() {
+    this.followed++;
     this.recompute?.dispose();
     this.snapshots?.dispose();
     this.recompute = null;
