@@ -16,10 +16,11 @@ const settings = { COLLAB_ROLE_FEED_MS: "600000", COLLAB_ROLE_SWEEP_MS: "600000"
 let first: Awaited<ReturnType<typeof startTestServer>>;
 let second: TestServer;
 const open: RoomClient[] = [];
+// Two server processes start one after the other (each applies migrations to an empty database).
 beforeAll(async () => {
   first = await startTestServer(settings);
   second = await startInstance(first.databaseUrl, settings);
-});
+}, 300_000);
 afterEach(() => {
   for (const client of open.splice(0)) client.close();
 });
