@@ -5,7 +5,7 @@
 import fc from "fast-check";
 import * as Y from "yjs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import { collabUrl, eventually, joinRoom, storedDocument, type RoomClient } from "../support/collab-client";
+import { collabUrl, eventually, joinRoom, storedDocument, typeAtRandom, type RoomClient } from "../support/collab-client";
 import { addMember, createMechanism, memberUserId, signUp, type Client } from "../support/http";
 import { startInstance, startTestServer, type TestServer } from "../support/server";
 
@@ -143,14 +143,7 @@ describe("a room across two instances", () => {
     await witness.synced;
 
     let typing = true;
-    const typed = (async () => {
-      let edits = 0;
-      for (; typing && edits < 5000; edits++) {
-        typist.text.insert(Math.floor(Math.random() * (typist.text.length + 1)), "XY+ \n"[edits % 5]);
-        await sleep(Math.floor(Math.random() * 4));
-      }
-      return edits;
-    })();
+    const typed = typeAtRandom(typist.text, () => typing);
     const grown = witness.text.length + 30 + Math.floor(Math.random() * 30);
     await eventually("typing acknowledged to the witness on the other instance", () => witness.text.length >= grown, 30_000);
     await first.crash();
