@@ -28,6 +28,8 @@ export interface AppServices {
   mailCatcher: MailCatcher | null;
   /** The live collaboration rooms: role changes, API writes to the text, versions. */
   collab: CollabHub;
+  /** This process's name among the instances on the database (server/instance.ts). */
+  instance: string;
 }
 
 export interface RequestContext extends AppServices {

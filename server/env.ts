@@ -85,6 +85,8 @@ const schema = z.object({
   COLLAB_ROLE_SWEEP_MS: integer(10).optional(),
   /** Sockets that miss a ping for this long are dropped. */
   COLLAB_HEARTBEAT_MS: integer(10).optional(),
+  /** How often an instance following a room tries to lead it (its leader may have died). */
+  COLLAB_LEADER_RETRY_MS: integer(10).optional(),
 });
 
 export type Env = z.infer<typeof schema>;
@@ -137,6 +139,7 @@ export function hubTimings(env: Env): Partial<HubTimings> {
     roleFeedMs: env.COLLAB_ROLE_FEED_MS,
     roleSweepMs: env.COLLAB_ROLE_SWEEP_MS,
     heartbeatMs: env.COLLAB_HEARTBEAT_MS,
+    leaderRetryMs: env.COLLAB_LEADER_RETRY_MS,
     analysisTimeoutMs: env.ANALYSIS_TIME_LIMIT_MS,
   });
 }

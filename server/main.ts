@@ -11,6 +11,7 @@ import { attachCollaboration } from "./collab/endpoint";
 import { identifyCaller } from "./collab/identify";
 import { applyMigrations, connect, ensureDatabase } from "./db/client";
 import { hubTimings, jobSettings, publicOrigin, readEnv, signInSettings } from "./env";
+import { instanceId } from "./instance";
 import { startMailCatcher } from "./mail/catcher";
 import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
@@ -55,8 +56,11 @@ const services = {
   publicOrigin: origin,
   mailCatcher,
   dynamics: { run: jobs.run },
-  collab: attachCollaboration(server, {
+  instance: instanceId,
+  collab: await attachCollaboration(server, {
     db: database.db,
+    databaseUrl,
+    instance: instanceId,
     identify: identifyCaller(database.db, sessions),
     workers,
     timings: hubTimings(env),

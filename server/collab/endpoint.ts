@@ -12,6 +12,7 @@ import type { CollabIdentity } from "./connection";
 import { AnalysisPool } from "./analysis-pool";
 import { CollabHub, defaultTimings, type HubTimings } from "./hub";
 import { postgresCollabStore } from "./postgres-store";
+import { PostgresRoomBus } from "./room-bus";
 
 export type Identify = (request: IncomingMessage, mechanismId: string) => Promise<CollabIdentity | null>;
 
@@ -27,6 +28,10 @@ export class UpgradeRefusal extends Error {
 
 export interface CollaborationOptions {
   db: Db;
+  /** The database again, for the instance's own connection to the others (room-bus.ts). */
+  databaseUrl: string;
+  /** This process's name among the instances (server/instance.ts). */
+  instance: string;
   /** Who is asking for this mechanism, with which role; null refuses with 404. */
   identify: Identify;
   timings?: Partial<HubTimings>;
@@ -54,9 +59,14 @@ function refuse(socket: Duplex, status: number, message: string) {
   );
 }
 
-export function attachCollaboration(server: Server, options: CollaborationOptions): CollabHub {
+export async function attachCollaboration(server: Server, options: CollaborationOptions): Promise<CollabHub> {
   const analysisTimeoutMs = options.timings?.analysisTimeoutMs ?? defaultTimings.analysisTimeoutMs;
-  const hub = new CollabHub(postgresCollabStore(options.db), new AnalysisPool(analysisTimeoutMs, options.workers.analysisThreads), options.timings);
+  const hub = new CollabHub(
+    postgresCollabStore(options.db, options.instance),
+    new AnalysisPool(analysisTimeoutMs, options.workers.analysisThreads),
+    options.timings,
+    await PostgresRoomBus.connect(options.databaseUrl, options.instance),
+  );
 
   /** A browser always sends Origin; it must be this site (blocks cross-site socket hijacking). */
   function sameOrigin(request: IncomingMessage): boolean {

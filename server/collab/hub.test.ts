@@ -1,10 +1,13 @@
 // The hub on the in-memory store: access changes from the audit trail and ended credentials
-// reach open sockets, and API writes and versions go through the live room.
+// reach open sockets, API writes and versions go through the live room, and of two instances
+// holding a room only the leader analyses and compacts.
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { sourceText } from "../../app/shared/room-document";
+import * as Y from "yjs";
+import { analysisMap, sourceText } from "../../app/shared/room-document";
 import { closeCodes, type CollabIdentity } from "./connection";
 import { CollabHub } from "./hub";
 import { inProcessAnalyzer, MemoryCollabStore } from "./in-memory";
+import { soloBus } from "./room-bus";
 import { join, TestMember } from "./test-member";
 
 let hub: CollabHub | null = null;
@@ -89,3 +92,45 @@ describe("the collaboration hub on the in-memory store", () => {
     expect(sourceText(reader.doc).toString()).toBe(store.sources.get("m1"));
   });
 });
+
+describe("two instances holding one room, on the in-memory store", () => {
+  it("leaves the upkeep to the leader, whose compaction keeps a follower's edits it never heard of", async () => {
+    const store = new MemoryCollabStore();
+    store.addMechanism("m1", "A -> B @ 1\n");
+    const timings = { recomputeMs: 5, snapshotQuietMs: 60_000, sourceMirrorMs: 5 };
+    const leaderHub = new CollabHub(store, inProcessAnalyzer, timings, soloBus("leader"));
+    let followerAnalyses = 0;
+    const counting = { analyze: (source: string) => (followerAnalyses++, inProcessAnalyzer.analyze(source)), stop() {} };
+    // No announcements reach either hub: the leader learns of the follower's rows only by compacting.
+    const followerHub = new CollabHub(store, counting, timings, { ...soloBus("follower"), tryLead: async () => false });
+    const log = vi.spyOn(console, "log").mockImplementation(() => {});
+    try {
+      const ada = await member(leaderHub, { userId: "ada", name: "Ada", role: "editor" });
+      await vi.waitFor(() => expect(analysisMap(ada.doc).get("reactions")).toBe(1));
+      const ben = await member(followerHub, { userId: "ben", name: "Ben", role: "editor" });
+      await vi.waitFor(() => expect(ben.text).toBe("A -> B @ 1\n"));
+
+      ben.edit((doc) => sourceText(doc).insert(sourceText(doc).length, "C -> D @ 2\n"));
+      await vi.waitFor(() => expect(replay(store.updatesOf("m1")).getText("source").toString()).toContain("C -> D"));
+      expect(followerAnalyses).toBe(0);
+
+      await leaderHub.close();
+      const compacted = store.states.get("m1")!;
+      expect(store.updatesOf("m1")).toEqual([]);
+      expect(replay([compacted]).getText("source").toString()).toBe("A -> B @ 1\nC -> D @ 2\n");
+      // The follower stores what it holds, and compacts nothing.
+      await followerHub.close();
+      expect(store.states.get("m1")).toBe(compacted);
+      expect(followerAnalyses).toBe(0);
+    } finally {
+      log.mockRestore();
+      await Promise.all([leaderHub.close(), followerHub.close()]);
+    }
+  });
+});
+
+function replay(updates: Uint8Array[]): Y.Doc {
+  const doc = new Y.Doc();
+  for (const update of updates) Y.applyUpdate(doc, update);
+  return doc;
+}

@@ -1,10 +1,13 @@
 // All live rooms of the process, in one place: loading on first use, unloading when idle, and
-// the operations routes call (role changes, API writes, versions).
+// the operations routes call (role changes, API writes, versions). Each room is linked to the
+// other instances holding it through the bus (room-link.ts).
 import type { WebSocket } from "ws";
 import type { Analyzer } from "./analysis-entries";
 import { closeCodes, Connection, type CollabIdentity } from "./connection";
 import { RoleChangeFeed, type RoleChange } from "./role-feed";
 import { Room, type RoomTimings } from "./room";
+import { soloBus, type AccessChange, type RoomBus } from "./room-bus";
+import { RoomLink } from "./room-link";
 import type { CollabStore } from "./store";
 
 export interface HubTimings extends RoomTimings {
@@ -18,6 +21,8 @@ export interface HubTimings extends RoomTimings {
   heartbeatMs: number;
   /** An analysis of a room's text running longer is stopped; the room shows why. */
   analysisTimeoutMs: number;
+  /** How often a follower tries to lead a room, should its leader die without a word. */
+  leaderRetryMs: number;
 }
 
 export const defaultTimings: HubTimings = {
@@ -30,10 +35,12 @@ export const defaultTimings: HubTimings = {
   roleSweepMs: 30_000,
   heartbeatMs: 30_000,
   analysisTimeoutMs: 20_000,
+  leaderRetryMs: 1000,
 };
 
 export class CollabHub {
   private readonly rooms = new Map<string, Promise<Room | null>>();
+  private readonly links = new Map<string, RoomLink>();
   private readonly unloading = new Map<string, Promise<void>>();
   private readonly idleTimers = new Map<string, NodeJS.Timeout>();
   private readonly intervals: NodeJS.Timeout[];
@@ -41,12 +48,14 @@ export class CollabHub {
   private readonly roleFeed: RoleChangeFeed;
   private readonly connections = new Set<Connection>();
   private checkingCredentials = false;
+  private credentialsAgain = false;
 
-  /** The hub owns `analysis` from here on: closing the hub stops it. */
+  /** The hub owns `analysis` and `bus` from here on: closing the hub stops them. */
   constructor(
     private readonly store: CollabStore,
     private readonly analysis: Analyzer,
     timings: Partial<HubTimings> = {},
+    private readonly bus: RoomBus = soloBus(),
   ) {
     this.timings = { ...defaultTimings, ...timings };
     this.intervals = [
@@ -58,6 +67,8 @@ export class CollabHub {
     for (const interval of this.intervals) interval.unref();
     this.roleFeed = new RoleChangeFeed(store, (change) => this.applyRoleChange(change));
     this.roleFeed.start(this.timings.roleFeedMs);
+    // Any instance's change reaches this one's sockets at once; the timers above are the safety net.
+    bus.onAccessChange((change: AccessChange) => void (change === "roles" ? this.roleFeed.readNow() : this.checkCredentials()));
   }
 
   /**
@@ -96,6 +107,7 @@ export class CollabHub {
     this.rooms.delete(mechanismId);
     this.clearIdle(mechanismId);
     room?.abandon();
+    await this.unlink(mechanismId);
   }
 
   /** Admits an authenticated socket; `accept` completes the WebSocket handshake. False if no such mechanism. */
@@ -128,13 +140,14 @@ export class CollabHub {
     await Promise.all(ids.map((id) => this.unload(id)));
     await Promise.all(this.unloading.values());
     this.analysis.stop();
+    await this.bus.close();
   }
 
   private async room(mechanismId: string): Promise<Room | null> {
     await this.unloading.get(mechanismId);
     let loading = this.rooms.get(mechanismId);
     if (!loading) {
-      loading = Room.load(this.store, this.analysis, mechanismId, this.timings);
+      loading = this.load(mechanismId);
       this.rooms.set(mechanismId, loading);
       loading.then(
         (room) => (room ? this.scheduleUnloadIfIdle(room) : this.rooms.delete(mechanismId)),
@@ -142,6 +155,33 @@ export class CollabHub {
       );
     }
     return loading;
+  }
+
+  /** Joins the other instances holding the room before loading it, then tries to lead it. */
+  private async load(mechanismId: string): Promise<Room | null> {
+    const link = new RoomLink(this.bus, this.store, mechanismId, this.timings.leaderRetryMs);
+    try {
+      const room = await Room.load(this.store, this.analysis, mechanismId, this.timings, {
+        publishPresence: (updates) => this.bus.publishPresence(mechanismId, updates),
+      });
+      if (!room) {
+        await link.close();
+        return null;
+      }
+      this.links.set(mechanismId, link);
+      await link.attach(room);
+      return room;
+    } catch (error) {
+      await link.close();
+      throw error;
+    }
+  }
+
+  /** After the room has closed: its leadership (if any) goes to another instance. */
+  private async unlink(mechanismId: string) {
+    const link = this.links.get(mechanismId);
+    this.links.delete(mechanismId);
+    await link?.close();
   }
 
   private async withRoom<T>(mechanismId: string, task: (room: Room) => Promise<T>): Promise<T | null> {
@@ -179,6 +219,7 @@ export class CollabHub {
     const closing = loading
       .then((room) => room?.close())
       .catch((error: Error) => console.error(`[collab] unloading ${mechanismId} failed: ${error.stack}`))
+      .then(() => this.unlink(mechanismId))
       .finally(() => this.unloading.delete(mechanismId));
     this.unloading.set(mechanismId, closing);
     await closing;
@@ -219,8 +260,14 @@ export class CollabHub {
   }
 
   private async checkCredentials() {
-    if (this.checkingCredentials || this.connections.size === 0) return;
+    if (this.checkingCredentials) {
+      // A credential may have ended after the running check read it.
+      this.credentialsAgain = true;
+      return;
+    }
+    if (this.connections.size === 0) return;
     this.checkingCredentials = true;
+    this.credentialsAgain = false;
     try {
       for (const connection of await this.store.endedCredentials(this.connections)) {
         console.log(`[collab] ${connection.describe()}: credential ended; closing`);
@@ -232,6 +279,7 @@ export class CollabHub {
       console.error(`[collab] checking credentials failed: ${(error as Error).message}`);
     } finally {
       this.checkingCredentials = false;
+      if (this.credentialsAgain) void this.checkCredentials();
     }
   }
 

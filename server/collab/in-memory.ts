@@ -8,7 +8,7 @@ import { analysisEntries, type Analyzer } from "./analysis-entries";
 import type { CollabIdentity } from "./connection";
 import type { RoleChange } from "./role-feed";
 import type { NewSnapshot } from "./snapshots";
-import { MechanismGone, type CollabStore, type RoleChangeRow, type StoredDocument } from "./store";
+import { MechanismGone, type CollabStore, type LiveDocument, type RoleChangeRow, type StoredDocument } from "./store";
 
 /** The same entries the worker threads produce, computed here (no incremental parse, no cache). */
 export const inProcessAnalyzer: Analyzer = {
@@ -67,20 +67,31 @@ export class MemoryCollabStore implements CollabStore {
   }
 
   async loadDocument(mechanismId: string): Promise<StoredDocument> {
-    return { state: this.states.get(mechanismId) ?? null, updates: this.updatesOf(mechanismId) };
+    const rows = this.updates.filter((row) => row.mechanismId === mechanismId);
+    return { state: this.states.get(mechanismId) ?? null, updates: rows.map((row) => row.update), ids: rows.map((row) => row.id) };
   }
 
+  /** One process holds every room here: nobody else is told. */
   async appendUpdates(mechanismId: string, updates: Uint8Array[]) {
-    if (updates.length === 0) return;
+    if (updates.length === 0) return [];
     if (!this.sources.has(mechanismId)) throw new MechanismGone(`mechanism ${mechanismId} was deleted`);
-    for (const update of updates) this.updates.push({ id: ++this.lastId, mechanismId, update });
+    return updates.map((update) => {
+      this.updates.push({ id: ++this.lastId, mechanismId, update });
+      return this.lastId;
+    });
   }
 
-  async compactDocument(mechanismId: string, encodeState: () => Uint8Array) {
+  async committedUpdates(mechanismId: string, first: number, last: number): Promise<StoredDocument> {
+    const rows = this.updates.filter((row) => row.mechanismId === mechanismId && row.id >= first && row.id <= last);
+    return { state: null, updates: rows.map((row) => row.update), ids: rows.map((row) => row.id) };
+  }
+
+  async compactDocument(mechanismId: string, live: LiveDocument) {
     const covered = this.updates.filter((row) => row.mechanismId === mechanismId);
     if (covered.length === 0) return 0;
     const throughUpdate = covered[covered.length - 1].id;
-    this.states.set(mechanismId, encodeState());
+    const missing = covered.filter((row) => !live.holds(row.id)).map((row) => row.update);
+    this.states.set(mechanismId, live.encode(missing, throughUpdate));
     this.updates.splice(0, this.updates.length, ...this.updates.filter((row) => row.mechanismId !== mechanismId || row.id > throughUpdate));
     return covered.length;
   }

@@ -32,7 +32,7 @@ describe("update log", () => {
     const owner = await createUser(database.db, { name: "Log Owner", email: "log-owner@example.test", password: "weave-test-password" });
     const mechanism = await createMechanism(database.db, owner.id, { title: "Log" });
     const doc = new Y.Doc();
-    const log = new UpdateLog<null>(postgresCollabStore(database.db), mechanism.id, { committed() {}, mechanismGone() {} });
+    const log = new UpdateLog<null>(postgresCollabStore(database.db, "persistence-test"), mechanism.id, { committed() {}, mechanismGone() {} });
     doc.on("update", (update: Uint8Array) => log.append({ update, origin: null }));
     const text = doc.getText("source");
 
@@ -46,9 +46,11 @@ describe("update log", () => {
       }
       typing = false;
     })();
+    // Every row was applied to this document before it was inserted.
+    const wholeDocument = { holds: () => true, encode: () => Y.encodeStateAsUpdate(doc) };
     let compactions = 0;
     while (typing) {
-      await compactDocument(database.db, mechanism.id, () => Y.encodeStateAsUpdate(doc));
+      await compactDocument(database.db, mechanism.id, wholeDocument);
       compactions++;
       await sleep(2);
     }
@@ -62,7 +64,7 @@ describe("update log", () => {
     for (const update of stored.updates) Y.applyUpdate(reloaded, update);
     expect(reloaded.getText("source").toString()).toBe(text.toString());
 
-    await compactDocument(database.db, mechanism.id, () => Y.encodeStateAsUpdate(doc));
+    await compactDocument(database.db, mechanism.id, wholeDocument);
     const client = new pg.Client(databaseUrl);
     await client.connect();
     const { rows } = await client.query("select count(*)::int as n from doc_updates where mechanism_id = $1", [mechanism.id]);

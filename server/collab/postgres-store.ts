@@ -5,16 +5,18 @@ import type { Db } from "../db/client";
 import { findMechanism, roleOf, saveSource } from "../db/mechanisms";
 import { roleChanges } from "../db/schema";
 import { endedCredentials } from "./credentials";
-import { appendUpdates, compactDocument, loadDocument } from "./persistence";
+import { appendUpdates, committedUpdates, compactDocument, loadDocument } from "./persistence";
 import { findSnapshot, insertSnapshot, latestSummary } from "./snapshots";
 import type { CollabStore } from "./store";
 
-export function postgresCollabStore(db: Db): CollabStore {
+/** `instance` signs the announcements of this process's appends, so it skips its own. */
+export function postgresCollabStore(db: Db, instance: string): CollabStore {
   return {
     savedSource: async (mechanismId) => (await findMechanism(db, mechanismId))?.source ?? null,
     loadDocument: (mechanismId) => loadDocument(db, mechanismId),
-    appendUpdates: (mechanismId, updates) => appendUpdates(db, mechanismId, updates),
-    compactDocument: (mechanismId, encodeState) => compactDocument(db, mechanismId, encodeState),
+    appendUpdates: (mechanismId, updates) => appendUpdates(db, mechanismId, updates, instance),
+    committedUpdates: (mechanismId, first, last) => committedUpdates(db, mechanismId, first, last),
+    compactDocument: (mechanismId, live) => compactDocument(db, mechanismId, live),
     saveSource: (mechanismId, source) => saveSource(db, mechanismId, source),
     latestSummary: (mechanismId) => latestSummary(db, mechanismId),
     insertSnapshot: (snapshot) => insertSnapshot(db, snapshot),

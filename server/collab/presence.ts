@@ -132,6 +132,16 @@ export class PresenceOwners<Member> {
     }
   }
 
+  /** Forgets these clients of the member (others' claims stay). */
+  releaseClients(member: Member, clientIds: number[]) {
+    const own = this.clientsOf.get(member);
+    for (const clientId of clientIds) {
+      if (this.ownerOf.get(clientId) !== member) continue;
+      this.ownerOf.delete(clientId);
+      own?.delete(clientId);
+    }
+  }
+
   /** Forgets the member; returns the clients it spoke for, whose states the room removes. */
   release(member: Member): number[] {
     const own = [...(this.clientsOf.get(member) ?? [])];

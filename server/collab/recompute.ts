@@ -10,6 +10,7 @@ import { analysisMap, sourceText } from "../../app/shared/room-document";
 import { summarizeStructure, type StructureSummary } from "../../app/shared/version-diff";
 import type { Analyzer } from "./analysis-entries";
 import { Pacer } from "./pacer";
+import { peerOrigin } from "./update-log";
 
 /** The transaction origin of the server's own writes into the document. */
 export const analysisOrigin = Symbol("mechweave-analysis");
@@ -57,10 +58,20 @@ export class StructureRecompute {
       const revision = Number(this.analysis.get(analysisFields.revision)) || 0;
       this.latest = { source: this.text.toString(), summary: summarizeStructure(stored), complexes: stored.complexes, revision };
     }
-    this.analysis.observe((event) => {
-      if (event.transaction.origin !== analysisOrigin) this.repair([...event.keysChanged]);
-    });
+    this.analysis.observe(this.watch);
   }
+
+  /**
+   * Writes into the map not the server's are put right. Another instance's writes (peerOrigin)
+   * are a former leader's analysis, left alone unless they delete: two instances leading for a
+   * moment must not rewrite each other's values without end.
+   */
+  private readonly watch = (event: Y.YMapEvent<unknown>) => {
+    const { origin } = event.transaction;
+    if (origin === analysisOrigin) return;
+    if (origin === peerOrigin && ![...event.changes.keys.values()].some((change) => change.action === "delete")) return;
+    this.repair([...event.keysChanged]);
+  };
 
   /** True when the stored analysis belongs to a different text, or there is none in today's form. */
   get stale(): boolean {
@@ -82,9 +93,11 @@ export class StructureRecompute {
     await this.enqueue(false);
   }
 
+  /** Stops for good: this instance no longer leads, or the room is closing. */
   dispose() {
     this.disposed = true;
     this.pacer.dispose();
+    this.analysis.unobserve(this.watch);
   }
 
   /** Rewrites keys a client changed, with the server's values. */

@@ -16,6 +16,7 @@ export class RoleChangeFeed {
   private lastSeen: number | null = null;
   private timer: NodeJS.Timeout | null = null;
   private reading = false;
+  private again = false;
 
   constructor(
     private readonly store: Pick<CollabStore, "lastRoleChangeId" | "roleChangesAfter">,
@@ -28,14 +29,23 @@ export class RoleChangeFeed {
     this.timer.unref();
   }
 
+  /** Reads new rows now (another instance wrote one); a read under way is followed by one more. */
+  readNow() {
+    void this.poll();
+  }
+
   stop() {
     if (this.timer) clearInterval(this.timer);
     this.timer = null;
   }
 
   private async poll() {
-    if (this.reading) return;
+    if (this.reading) {
+      this.again = true;
+      return;
+    }
     this.reading = true;
+    this.again = false;
     try {
       if (this.lastSeen === null) {
         this.lastSeen = await this.store.lastRoleChangeId();
@@ -49,6 +59,7 @@ export class RoleChangeFeed {
       console.error(`[collab] reading role changes failed: ${(error as Error).message}`);
     } finally {
       this.reading = false;
+      if (this.again) void this.poll();
     }
   }
 }

@@ -1,11 +1,15 @@
-// One mechanism's live shared document on the server: the only copy of the room state, its
-// connections and presence, and the services that keep it durable and analysed.
+// One mechanism's live shared document in this instance: its copy of the room state, its
+// connections and presence, and the services that keep it durable and analysed. Other instances
+// may hold the same room (room-link.ts): their stored edits and presence arrive here and are
+// relayed like local ones, and only the leader analyses, takes versions, compacts and mirrors.
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { MAX_SOURCE_BYTES } from "../../app/chem/limits";
 import { closeCodes, type Connection, type RoomPort } from "./connection";
-import type { RoomStore } from "./store";
-import { UpdateLog, type LoggedUpdate } from "./update-log";
+import type { RoomStore, StoredDocument } from "./store";
+import { HeldRows } from "./held-rows";
+import type { LinkedRoom } from "./room-link";
+import { peerOrigin, UpdateLog, type LoggedUpdate } from "./update-log";
 import { PresenceOwners, vetAwarenessUpdate } from "./presence";
 import { Pacer } from "./pacer";
 import { awarenessMessage, syncStep1Message, syncStep2Message, updateMessage } from "./protocol";
@@ -38,6 +42,29 @@ export class ServiceEdit {
 /** Applying stored updates while loading: nothing to log or relay. */
 const loadOrigin = Symbol("mechweave-load");
 
+/** What the room tells the other instances holding it (room-bus.ts). */
+export interface RoomPeers {
+  /** Presence of local members, one awareness update per client. */
+  publishPresence(updates: Uint8Array[]): void;
+}
+
+export const noPeers: RoomPeers = { publishPresence() {} };
+
+/**
+ * The first document of a mechanism is written by a fixed Yjs client, so two instances loading a
+ * new mechanism at once write the very same items, which Yjs merges into one text.
+ */
+const FIRST_DOCUMENT_CLIENT = 0;
+
+function firstDocument(source: string): Uint8Array {
+  const doc = new Y.Doc();
+  doc.clientID = FIRST_DOCUMENT_CLIENT;
+  sourceText(doc).insert(0, source);
+  const update = Y.encodeStateAsUpdate(doc);
+  doc.destroy();
+  return update;
+}
+
 /**
  * Relays of document updates are paced by what they cost: the interval is a few times the last
  * relay's sending time, and at most 16 ms. Sending to a pair of editors takes microseconds, so
@@ -57,17 +84,19 @@ const AWARENESS_RELAY_MS = 40;
 
 const withoutNul = (text: string) => text.replaceAll("\0", "");
 
-type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin;
+type UpdateOrigin = Connection | ServiceEdit | typeof analysisOrigin | typeof loadOrigin | typeof peerOrigin;
 
-export class Room implements RoomPort {
+export class Room implements RoomPort, LinkedRoom {
   readonly connections = new Set<Connection>();
   readonly awareness: awarenessProtocol.Awareness;
   /** API calls in progress; a leased room is not unloaded. */
   leases = 0;
-  private readonly presenceOwners = new PresenceOwners<Connection>();
-  /** Committed updates not yet relayed, and awareness clients changed since the last relay. */
+  /** Clients of other instances' members are owned by `peerOrigin`: no local member may speak for them. */
+  private readonly presenceOwners = new PresenceOwners<Connection | typeof peerOrigin>();
+  /** Committed updates not yet relayed, and awareness clients changed since the last relay (those of local members also go to the other instances). */
   private readonly outgoing: LoggedUpdate<UpdateOrigin>[] = [];
   private readonly awarenessChanged = new Set<number>();
+  private readonly presenceToShare = new Set<number>();
   // A class joining (and so renewing its presence) at once, or twenty editors typing, then cost
   // each member a message per interval instead of one per change.
   private readonly updatePacer = new Pacer(
@@ -78,61 +107,76 @@ export class Room implements RoomPort {
   private readonly awarenessPacer = new Pacer(AWARENESS_RELAY_MS, () => this.relayAwareness());
   private readonly text: Y.Text;
   private readonly log: UpdateLog<UpdateOrigin>;
-  private readonly recompute: StructureRecompute;
-  private readonly snapshots: AutoSnapshotPolicy;
+  private readonly held = new HeldRows();
+  /** The leader's upkeep; null while another instance leads. */
+  private recompute: StructureRecompute | null = null;
+  private snapshots: AutoSnapshotPolicy | null = null;
   private readonly mirror: SourceMirror;
   private readonly check: UpdateCheck;
   /** An upper estimate of the encoded document, exact after each count. */
   private documentBytes: number;
-  /** Logged since the last compaction: refused edits are not logged, but replaced text is. */
+  /** Logged since the last compaction (by any instance): refused edits are not logged, but replaced text is. */
   private loggedBytes = 0;
+  private loggedRows = 0;
   private lastEditorId: string | null = null;
   private compacting: Promise<void> | null = null;
+  /** Counts `follow()` calls, so a `lead()` under way notices one. */
+  private followed = 0;
   private closed = false;
 
-  static async load(store: RoomStore, analyzer: Analyzer, mechanismId: string, timings: RoomTimings): Promise<Room | null> {
+  /** A follower until `lead()`. */
+  static async load(store: RoomStore, analyzer: Analyzer, mechanismId: string, timings: RoomTimings, peers: RoomPeers = noPeers): Promise<Room | null> {
     const savedSource = await store.savedSource(mechanismId);
     if (savedSource === null) return null;
     const stored = await store.loadDocument(mechanismId);
     const doc = new Y.Doc();
     if (stored.state) Y.applyUpdate(doc, stored.state, loadOrigin);
     for (const update of stored.updates) Y.applyUpdate(doc, update, loadOrigin);
+    const held = [...stored.ids];
     if (!stored.state && stored.updates.length === 0) {
       // The first document is stored before anyone joins: initialising it again on a later load
       // would duplicate the text for clients holding the first one.
-      sourceText(doc).insert(0, savedSource);
-      await store.appendUpdates(mechanismId, [Y.encodeStateAsUpdate(doc)]);
+      const first = firstDocument(savedSource);
+      Y.applyUpdate(doc, first, loadOrigin);
+      held.push(...(await store.appendUpdates(mechanismId, [first])));
     }
-    return new Room(store, analyzer, mechanismId, doc, savedSource, await store.latestSummary(mechanismId), timings);
+    return new Room(store, analyzer, mechanismId, doc, savedSource, held, timings, peers);
   }
 
   private constructor(
     private readonly store: RoomStore,
-    analyzer: Analyzer,
+    private readonly analyzer: Analyzer,
     readonly mechanismId: string,
     readonly doc: Y.Doc,
     savedSource: string,
-    lastSnapshot: Awaited<ReturnType<RoomStore["latestSummary"]>>,
+    heldRows: number[],
     private readonly timings: RoomTimings,
+    private readonly peers: RoomPeers,
   ) {
+    this.held.add(heldRows);
     this.text = sourceText(doc);
     this.check = new UpdateCheck(doc);
     this.documentBytes = Y.encodeStateAsUpdate(doc).byteLength;
     this.awareness = new awarenessProtocol.Awareness(doc);
     this.awareness.setLocalState(null);
     this.awareness.on("update", this.collectAwareness);
-    this.log = new UpdateLog(store, mechanismId, { committed: (batch) => this.relayCommitted(batch), mechanismGone: () => this.abandon() });
+    this.log = new UpdateLog(store, mechanismId, { committed: (batch, ids) => this.relayCommitted(batch, ids), mechanismGone: () => this.abandon() });
     this.mirror = new SourceMirror(store, mechanismId, savedSource, () => this.text.toString(), timings.sourceMirrorMs);
-    this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
-    this.recompute = new StructureRecompute(doc, analyzer, { intervalMs: timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
     doc.on("update", (update: Uint8Array, origin: UpdateOrigin) => {
       if (origin === loadOrigin) return;
       this.documentBytes += update.byteLength;
+      if (origin === peerOrigin) {
+        // Stored already by the instance that accepted it.
+        this.outgoing.push({ update, origin });
+        this.updatePacer.request();
+        return;
+      }
       if (origin instanceof ServiceEdit) this.lastEditorId = origin.userId;
       else if (origin !== analysisOrigin) this.lastEditorId = origin.identity.userId ?? this.lastEditorId;
       this.log.append({ update, origin });
     });
     this.text.observe(() => {
+      if (!this.recompute) return;
       this.recompute.schedule();
       this.mirror.changed();
     });
@@ -140,8 +184,55 @@ export class Room implements RoomPort {
     // stored before the room refused it; such a text loses its NULs once, as the server's edit.
     const loaded = this.text.toString();
     if (loaded.includes("\0")) doc.transact(() => replaceText(this.text, withoutNul(loaded)), analysisOrigin);
+  }
+
+  get leading(): boolean {
+    return this.recompute !== null;
+  }
+
+  /** This instance now leads the room: it analyses, takes versions, compacts and mirrors the text. */
+  async lead() {
+    if (this.leading || this.closed) return;
+    const term = this.followed;
+    // Another leader may have stored versions since this room loaded.
+    const lastSnapshot = await this.store.latestSummary(this.mechanismId);
+    // Told to follow meanwhile (the lock went with a lost connection): this lead is void.
+    if (this.leading || this.closed || term !== this.followed) return;
+    this.snapshots = new AutoSnapshotPolicy(lastSnapshot, { quietMs: this.timings.snapshotQuietMs, due: () => void this.autoSnapshot() });
+    // Built from the document as it is now, which holds the last leader's analysis.
+    this.recompute = new StructureRecompute(this.doc, this.analyzer, { intervalMs: this.timings.recomputeMs, analyzed: (result) => this.analyzed(result) });
     if (this.recompute.stale) this.recompute.schedule();
-    if (this.text.toString() !== savedSource) void this.mirror.flush();
+    void this.mirror.flush();
+  }
+
+  /** Another instance leads now (or may: this one lost its link to the database). */
+  follow() {
+    this.followed++;
+    this.recompute?.dispose();
+    this.snapshots?.dispose();
+    this.recompute = null;
+    this.snapshots = null;
+  }
+
+  /** Rows other instances stored: applied (and so relayed), each at most once in effect. */
+  applyStored(stored: StoredDocument) {
+    if (this.closed) return;
+    this.held.add(stored.ids);
+    const updates = stored.state ? [stored.state, ...stored.updates] : stored.updates;
+    if (updates.length === 0) return;
+    Y.applyUpdate(this.doc, updates.length === 1 ? updates[0] : Y.mergeUpdates(updates), peerOrigin);
+    this.counted(stored.ids.length, stored.updates);
+  }
+
+  applyPeerPresence(updates: Uint8Array[]) {
+    if (this.closed) return;
+    for (const update of updates) {
+      try {
+        awarenessProtocol.applyAwarenessUpdate(this.awareness, update, peerOrigin);
+      } catch (error) {
+        console.warn(`[collab] unreadable presence from another instance in ${this.mechanismId}: ${(error as Error).message}`);
+      }
+    }
   }
 
   get idle(): boolean {
@@ -231,11 +322,12 @@ export class Room implements RoomPort {
     await this.mirror.flush();
   }
 
-  /** Stores the current version; the analysis is brought up to date with the text first. */
+  /**
+   * Stores the current version. The leader brings its analysis up to date with the text first; a
+   * follower analyses the text for the version alone, leaving the room's analysis to the leader.
+   */
   async recordSnapshot(kind: SnapshotKind, name: string | null, authorId: string | null) {
-    await this.recompute.flush();
-    const latest = this.recompute.latest;
-    if (!latest) throw new Error(`no analysis of ${this.mechanismId} to store with the snapshot`);
+    const latest = await this.currentAnalysis();
     const { summary } = latest;
     const row = await this.store.insertSnapshot({
       mechanismId: this.mechanismId,
@@ -246,27 +338,38 @@ export class Room implements RoomPort {
       summary,
       authorId,
     });
-    this.snapshots.stored(summary);
+    this.snapshots?.stored(summary);
     return row;
   }
 
-  /** Unload: the last analysis, a due snapshot, every update, the text mirror, one compaction. */
+  private async currentAnalysis(): Promise<{ source: string; summary: AnalysisResult["summary"] }> {
+    if (!this.recompute) {
+      const source = this.text.toString();
+      return { source, summary: (await this.analyzer.analyze(source)).summary };
+    }
+    await this.recompute.flush();
+    const latest = this.recompute.latest;
+    if (!latest) throw new Error(`no analysis of ${this.mechanismId} to store with the snapshot`);
+    return latest;
+  }
+
+  /** Unload: every update; the leader also stores the last analysis, a due snapshot, the text mirror and one compaction. */
   async close() {
     if (this.closed) return;
     this.closed = true;
     this.stopRelays();
     for (const connection of this.connections) connection.close(closeCodes.goingAway, "room closing");
+    const leading = this.leading;
     try {
-      await this.recompute.flush();
-      if (this.snapshots.pending) await this.autoSnapshot();
+      await this.recompute?.flush();
+      if (this.snapshots?.pending) await this.autoSnapshot();
     } finally {
-      this.recompute.dispose();
-      this.snapshots.dispose();
+      this.follow();
     }
     await this.log.flushed();
-    await this.mirror.flush();
+    if (leading) await this.mirror.flush();
     this.mirror.dispose();
-    await this.compact();
+    if (leading) await this.compact();
     this.doc.destroy();
   }
 
@@ -276,19 +379,25 @@ export class Room implements RoomPort {
     this.closed = true;
     this.stopRelays();
     for (const connection of this.connections) connection.close(closeCodes.mechanismGone, "mechanism deleted");
-    this.recompute.dispose();
-    this.snapshots.dispose();
+    this.follow();
     this.mirror.dispose();
     this.doc.destroy();
   }
 
-  private relayCommitted(batch: LoggedUpdate<UpdateOrigin>[]) {
+  private relayCommitted(batch: LoggedUpdate<UpdateOrigin>[], ids: number[]) {
+    this.held.add(ids);
     this.outgoing.push(...batch);
     this.updatePacer.request();
-    for (const { update } of batch) this.loggedBytes += update.byteLength;
+    this.counted(ids.length, batch.map((entry) => entry.update));
+  }
+
+  /** Counts rows logged by any instance; the leader compacts every so many. */
+  private counted(rows: number, updates: Uint8Array[]) {
+    this.loggedRows += rows;
+    for (const update of updates) this.loggedBytes += update.byteLength;
     // Text pasted and deleted again leaves the document small but its log rows large.
-    if (this.log.appendedSinceCompaction >= this.timings.compactEvery || this.loggedBytes >= MAX_DOCUMENT_BYTES) {
-      this.log.appendedSinceCompaction = 0;
+    if (this.leading && (this.loggedRows >= this.timings.compactEvery || this.loggedBytes >= MAX_DOCUMENT_BYTES)) {
+      this.loggedRows = 0;
       this.loggedBytes = 0;
       void this.compact();
     }
@@ -309,11 +418,17 @@ export class Room implements RoomPort {
 
   /** Merges the log into the stored state; a failure leaves the log as it was (nothing lost). */
   private compact(): Promise<void> {
-    this.compacting ??= this.store.compactDocument(this.mechanismId, () => {
-      const state = Y.encodeStateAsUpdate(this.doc);
-      this.documentBytes = state.byteLength;
-      return state;
-    })
+    this.compacting ??= this.store
+      .compactDocument(this.mechanismId, {
+        holds: (id) => this.held.holds(id),
+        encode: (missing, throughUpdate) => {
+          if (missing.length > 0) Y.applyUpdate(this.doc, Y.mergeUpdates(missing), peerOrigin);
+          const state = Y.encodeStateAsUpdate(this.doc);
+          this.documentBytes = state.byteLength;
+          this.held.forgetThrough(throughUpdate);
+          return state;
+        },
+      })
       .then(
         () => undefined,
         (error: Error) => console.error(`[collab] compacting ${this.mechanismId} failed: ${error.message}`),
@@ -322,17 +437,28 @@ export class Room implements RoomPort {
     return this.compacting;
   }
 
-  private readonly collectAwareness = (changes: { added: number[]; updated: number[]; removed: number[] }) => {
-    for (const clientId of [...changes.added, ...changes.updated, ...changes.removed]) this.awarenessChanged.add(clientId);
+  private readonly collectAwareness = (changes: { added: number[]; updated: number[]; removed: number[] }, origin: unknown) => {
+    const fromPeer = origin === peerOrigin;
+    if (fromPeer) this.presenceOwners.claim(peerOrigin, [...changes.added, ...changes.updated]);
+    // Gone from another instance, or timed out here after that instance stopped renewing it.
+    this.presenceOwners.releaseClients(peerOrigin, changes.removed);
+    for (const clientId of [...changes.added, ...changes.updated, ...changes.removed]) {
+      this.awarenessChanged.add(clientId);
+      if (!fromPeer) this.presenceToShare.add(clientId);
+    }
     if (this.awarenessChanged.size > 0) this.awarenessPacer.request();
   };
 
   private relayAwareness() {
     const clients = [...this.awarenessChanged];
     this.awarenessChanged.clear();
-    if (clients.length === 0) return;
-    const message = awarenessMessage(awarenessProtocol.encodeAwarenessUpdate(this.awareness, clients));
-    for (const connection of this.connections) connection.send(message);
+    if (clients.length > 0) {
+      const message = awarenessMessage(awarenessProtocol.encodeAwarenessUpdate(this.awareness, clients));
+      for (const connection of this.connections) connection.send(message);
+    }
+    const shared = [...this.presenceToShare];
+    this.presenceToShare.clear();
+    if (shared.length > 0) this.peers.publishPresence(shared.map((clientId) => awarenessProtocol.encodeAwarenessUpdate(this.awareness, [clientId])));
   }
 
   private stopRelays() {
@@ -341,7 +467,7 @@ export class Room implements RoomPort {
   }
 
   private analyzed(result: AnalysisResult) {
-    this.snapshots.observe(result.summary);
+    this.snapshots?.observe(result.summary);
     // A text with errors may hide complexes of a line being typed: their positions stay.
     if (result.summary.errors === 0) this.pruneLayout(result.complexes);
   }
@@ -354,9 +480,9 @@ export class Room implements RoomPort {
 
   private async autoSnapshot() {
     try {
-      await this.recompute.flush();
-      const latest = this.recompute.latest;
-      if (!latest || !this.snapshots.wants(latest.summary)) return;
+      await this.recompute?.flush();
+      const latest = this.recompute?.latest;
+      if (!latest || !this.snapshots?.wants(latest.summary)) return;
       await this.recordSnapshot("auto", null, this.lastEditorId);
     } catch (error) {
       console.error(`[collab] automatic snapshot of ${this.mechanismId} failed: ${(error as Error).message}`);

@@ -7,10 +7,22 @@ import type { CollabIdentity } from "./connection";
 import type { RoleChange } from "./role-feed";
 import type { NewSnapshot } from "./snapshots";
 
-/** The stored shared document: the compacted state and the updates logged since. */
+/** The stored shared document: the compacted state and the updates logged since, with their row ids. */
 export interface StoredDocument {
   state: Uint8Array | null;
   updates: Uint8Array[];
+  ids: number[];
+}
+
+/** The live copy of a document that a compaction stores in place of its logged rows. */
+export interface LiveDocument {
+  /** True when the logged row `rowId` is already applied to the live document. */
+  holds(rowId: number): boolean;
+  /**
+   * Applies `missing` (rows committed by other instances whose announcement has not arrived yet)
+   * and encodes the whole document, which then covers every row through `throughUpdate`.
+   */
+  encode(missing: Uint8Array[], throughUpdate: number): Uint8Array;
 }
 
 /** An append found the mechanism deleted under its live room: nothing more can be stored. */
@@ -23,13 +35,18 @@ export interface RoomStore {
   /** The mechanism's saved text, or null when there is no such mechanism. */
   savedSource(mechanismId: string): Promise<string | null>;
   loadDocument(mechanismId: string): Promise<StoredDocument>;
-  /** Stores the updates as one commit, all or none; rejects with MechanismGone once the mechanism is deleted. */
-  appendUpdates(mechanismId: string, updates: Uint8Array[]): Promise<void>;
   /**
-   * Stores `encodeState()` as the compacted state and drops the logged updates it covers; updates
-   * appended meanwhile stay. Resolves with how many were dropped.
+   * Stores the updates as one commit, all or none, and announces them to the other instances;
+   * resolves with their row ids, and rejects with MechanismGone once the mechanism is deleted.
    */
-  compactDocument(mechanismId: string, encodeState: () => Uint8Array): Promise<number>;
+  appendUpdates(mechanismId: string, updates: Uint8Array[]): Promise<number[]>;
+  /** Rows `first`…`last` that another instance announced, with the compacted state if it covers part of them. */
+  committedUpdates(mechanismId: string, first: number, last: number): Promise<StoredDocument>;
+  /**
+   * Stores the live document as the compacted state and drops the logged updates it covers;
+   * updates appended meanwhile stay. Resolves with how many were dropped.
+   */
+  compactDocument(mechanismId: string, live: LiveDocument): Promise<number>;
   /** Mirrors the live text into the mechanism's row. */
   saveSource(mechanismId: string, source: string): Promise<void>;
   latestSummary(mechanismId: string): Promise<StructureSummary | null>;

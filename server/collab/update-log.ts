@@ -1,6 +1,12 @@
 // Every accepted update of a live document is stored before it is relayed (persistence.ts says why).
 import { MechanismGone, type RoomStore } from "./store";
 
+/**
+ * The origin of rows another instance stored (room-link.ts reads them): applied and relayed, never
+ * logged again.
+ */
+export const peerOrigin = Symbol("mechweave-peer");
+
 export interface LoggedUpdate<Origin> {
   update: Uint8Array;
   origin: Origin;
@@ -18,13 +24,13 @@ export class UpdateLog<Origin> {
   private chain: Promise<void> = Promise.resolve();
   private drainScheduled = false;
   private lost = false;
-  appendedSinceCompaction = 0;
 
   constructor(
     private readonly store: RoomStore,
     private readonly mechanismId: string,
     private readonly hooks: {
-      committed(batch: LoggedUpdate<Origin>[]): void;
+      /** The batch is stored, as the rows `ids`. */
+      committed(batch: LoggedUpdate<Origin>[], ids: number[]): void;
       /** The mechanism was deleted under the live room: nothing more can be stored. */
       mechanismGone(): void;
     },
@@ -47,23 +53,22 @@ export class UpdateLog<Origin> {
     this.drainScheduled = false;
     while (this.pending.length > 0 && !this.lost) {
       const batch = this.pending.splice(0, MAX_BATCH);
-      if (!(await this.stored(batch))) return;
-      this.appendedSinceCompaction += batch.length;
-      this.hooks.committed(batch);
+      const ids = await this.stored(batch);
+      if (!ids) return;
+      this.hooks.committed(batch, ids);
     }
   }
 
-  private async stored(batch: LoggedUpdate<Origin>[]): Promise<boolean> {
+  private async stored(batch: LoggedUpdate<Origin>[]): Promise<number[] | null> {
     for (let attempt = 1; ; attempt++) {
       try {
-        await this.store.appendUpdates(this.mechanismId, batch.map((e) => e.update));
-        return true;
+        return await this.store.appendUpdates(this.mechanismId, batch.map((e) => e.update));
       } catch (error) {
         if (error instanceof MechanismGone) {
           this.lost = true;
           this.pending = [];
           this.hooks.mechanismGone();
-          return false;
+          return null;
         }
         if (attempt === 1 || attempt % 20 === 0) {
           console.error(`[collab] storing ${batch.length} update(s) of ${this.mechanismId} failed (attempt ${attempt}), retrying: ${(error as Error).message}`);

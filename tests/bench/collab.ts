@@ -7,19 +7,15 @@
 // across processes on the system clock (see collab-members.ts).
 // Run after a build (npm run build): npx tsx tests/bench/collab.ts
 import { fork, type ChildProcess } from "node:child_process";
-import { readdirSync, readFileSync, rmSync } from "node:fs";
+import { readdirSync, readFileSync } from "node:fs";
 import os from "node:os";
-import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { applyMigrations, connect, ensureDatabase } from "../../server/db/client";
-import { clusterDir, startEmbeddedPostgres } from "../../server/postgres/embedded";
-import { TEMPLATE_DATABASE } from "../support/database";
 import { signUp, type Client } from "../support/http";
 import { startTestServer } from "../support/server";
+import { summary, withBenchCluster } from "./bench-support";
 import type { Command, Report } from "./collab-members";
 import { generatedMechanism } from "./structure";
 
-const projectRoot = path.resolve(import.meta.dirname, "../..");
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 /** Keystrokes land in a trailing comment: each costs a recompute but keeps the structure. */
 const TYPING_LINE = "# notes: ";
@@ -68,17 +64,6 @@ function serverCpuMs(): number {
     }
   }
   return Number.NaN;
-}
-
-function percentile(sorted: number[], p: number): number {
-  return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))];
-}
-
-function summary(label: string, samples: number[], target: number) {
-  const sorted = [...samples].sort((a, b) => a - b);
-  const [p50, p95] = [percentile(sorted, 50), percentile(sorted, 95)];
-  const verdict = p95 < target ? "meets" : "MISSES";
-  console.log(`  ${label.padEnd(56)} n=${String(sorted.length).padStart(6)}  p50 ${p50.toFixed(1).padStart(6)} ms  p95 ${p95.toFixed(1).padStart(6)} ms  (${verdict} p95 < ${target} ms)`);
 }
 
 interface Scenario {
@@ -207,21 +192,7 @@ async function run(baseUrl: string) {
 const progress = (message: string) => process.stderr.write(`[bench ${new Date().toISOString().slice(11, 19)}] ${message}\n`);
 
 async function main() {
-  const baseDir = clusterDir(projectRoot, `postgres-bench-${process.pid}`);
-  const postgres = await startEmbeddedPostgres(baseDir, 55480);
-  // An interrupted run still stops its cluster (the server and the clients die with this process).
-  for (const signal of ["SIGINT", "SIGTERM"] as const) {
-    process.once(signal, () => {
-      postgres.stop();
-      rmSync(baseDir, { recursive: true, force: true });
-      process.exit(1);
-    });
-  }
-  try {
-    const template = connect(await ensureDatabase(postgres.adminUrl, TEMPLATE_DATABASE));
-    await applyMigrations(template.db, projectRoot);
-    await template.close();
-    process.env.MW_TEST_ADMIN_URL = postgres.adminUrl;
+  await withBenchCluster("bench", 55480, async () => {
     // Served as in production (warm workers, no development checks).
     const server = await startTestServer({ NODE_ENV: "production" });
     try {
@@ -229,10 +200,7 @@ async function main() {
     } finally {
       await server.dispose();
     }
-  } finally {
-    postgres.stop();
-    rmSync(baseDir, { recursive: true, force: true });
-  }
+  });
 }
 
 await main();

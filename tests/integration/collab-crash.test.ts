@@ -5,7 +5,7 @@
 import pg from "pg";
 import * as Y from "yjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { eventually, joinRoom, storedDocument } from "../support/collab-client";
+import { eventually, joinRoom, storedDocument, typeAtRandom } from "../support/collab-client";
 import { signUp } from "../support/http";
 import { startTestServer } from "../support/server";
 
@@ -14,21 +14,6 @@ beforeAll(async () => {
   server = await startTestServer();
 });
 afterAll(() => server?.dispose());
-
-const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-
-function typeAtRandom(text: Y.Text, running: () => boolean): Promise<number> {
-  return (async () => {
-    let edits = 0;
-    for (; running() && edits < 5000; edits++) {
-      const at = Math.floor(Math.random() * (text.length + 1));
-      if (Math.random() < 0.8 || text.length === 0) text.insert(at, "XY+ \n"[Math.floor(Math.random() * 5)]);
-      else text.delete(Math.min(at, text.length - 1), 1);
-      await sleep(Math.floor(Math.random() * 4));
-    }
-    return edits;
-  })();
-}
 
 describe("durability", () => {
   it("keeps every acknowledged update through kill -9, and takes back what clients still hold", async () => {

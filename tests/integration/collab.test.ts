@@ -9,7 +9,7 @@ import * as Y from "yjs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { roomAnalysisReader } from "../../app/shared/analysis-map";
 import { eventually, joinRoom, rawSocket, storedDocument, type RoomClient } from "../support/collab-client";
-import { Client, signUp } from "../support/http";
+import { addMember, Client, createMechanism, memberUserId, signUp } from "../support/http";
 import { startTestServer } from "../support/server";
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
@@ -30,25 +30,6 @@ function join(client: Client, id: string): RoomClient {
   return room;
 }
 
-async function mechanism(owner: Client, source = "") {
-  const response = await owner.json("/api/v1/mechanisms", "POST", { title: "Shared mechanism", source });
-  expect(response.status).toBe(201);
-  return ((await response.json()) as { id: string }).id;
-}
-
-async function member(owner: Client, id: string, role: "editor" | "viewer", name: string) {
-  const person = await signUp(server.url, name);
-  const response = await owner.post(`/m/${id}/members`, { intent: "add", email: person.email, role });
-  expect(response.status).toBe(200);
-  return person;
-}
-
-async function userIdOf(owner: Client, id: string, email: string) {
-  const page = await (await owner.get(`/m/${id}/members`)).text();
-  const row = page.slice(page.indexOf(`member-${email}`));
-  return row.match(/name="userId" value="([0-9a-f-]{36})"/)![1];
-}
-
 /** An outer awareness message (type 1) from `client` for one awareness client id, with `states`. */
 function encodeAwareness(client: RoomClient, clientId: number, states: Map<number, Record<string, unknown>>): Uint8Array {
   const message = encoding.createEncoder();
@@ -62,8 +43,8 @@ const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 describe("live co-editing", () => {
   it("converges: concurrent random edits by three editors end in one text, the one the server stored", async () => {
     const owner = await signUp(server.url, "Converging Owner");
-    const id = await mechanism(owner, "A -> B @ 1\n");
-    const others = await Promise.all([member(owner, id, "editor", "Editor One"), member(owner, id, "editor", "Editor Two")]);
+    const id = await createMechanism(owner, "A -> B @ 1\n");
+    const others = await Promise.all([addMember(owner, id, "editor", "Editor One"), addMember(owner, id, "editor", "Editor Two")]);
     const rooms = [owner, ...others].map((c) => join(c, id));
     await Promise.all(rooms.map((r) => r.synced));
 
@@ -93,7 +74,7 @@ describe("live co-editing", () => {
 
   it("refuses the upgrade to strangers, signed-out callers and unknown mechanisms", async () => {
     const owner = await signUp(server.url, "Private Owner");
-    const id = await mechanism(owner, "X -> Y\n");
+    const id = await createMechanism(owner, "X -> Y\n");
     const stranger = await signUp(server.url, "Stranger");
     expect(await rawSocket(server.url, id, stranger.cookieHeader)).toEqual({ refused: 404 });
     expect(await rawSocket(server.url, id, "")).toEqual({ refused: 401 });
@@ -105,8 +86,8 @@ describe("live co-editing", () => {
 
   it("gives viewers the document but drops every update they send", async () => {
     const owner = await signUp(server.url, "Teaching Owner");
-    const id = await mechanism(owner, "S -> P @ 2\n");
-    const viewer = await member(owner, id, "viewer", "Curious Viewer");
+    const id = await createMechanism(owner, "S -> P @ 2\n");
+    const viewer = await addMember(owner, id, "viewer", "Curious Viewer");
     const editorRoom = join(owner, id);
     const viewerRoom = join(viewer, id);
     await Promise.all([editorRoom.synced, viewerRoom.synced]);
@@ -154,9 +135,9 @@ describe("live co-editing", () => {
 
   it("applies a revoked or lowered role at once", async () => {
     const owner = await signUp(server.url, "Strict Owner");
-    const id = await mechanism(owner, "A -> B\n");
-    const editor = await member(owner, id, "editor", "Soon Viewer");
-    const leaver = await member(owner, id, "editor", "Soon Gone");
+    const id = await createMechanism(owner, "A -> B\n");
+    const editor = await addMember(owner, id, "editor", "Soon Viewer");
+    const leaver = await addMember(owner, id, "editor", "Soon Gone");
     const ownerRoom = join(owner, id);
     const editorRoom = join(editor, id);
     const leaverRoom = join(leaver, id);
@@ -166,12 +147,12 @@ describe("live co-editing", () => {
     await eventually("the editor's line to arrive", () => ownerRoom.text.toString().includes("B -> C"));
 
     const closed = new Promise<number>((resolve) => leaverRoom.provider.on("closed", (event: { code: number }) => resolve(event.code)));
-    await owner.post(`/m/${id}/members`, { intent: "remove", userId: await userIdOf(owner, id, leaver.email) });
+    await owner.post(`/m/${id}/members`, { intent: "remove", userId: await memberUserId(owner, id, leaver.email) });
     expect(await closed).toBe(4403);
     expect(await rawSocket(server.url, id, leaver.cookieHeader)).toEqual({ refused: 404 });
 
     const lowered = new Promise<number | undefined>((resolve) => editorRoom.provider.on("connection-close", (event: CloseEvent | null) => resolve(event?.code)));
-    await owner.post(`/m/${id}/members`, { intent: "change", userId: await userIdOf(owner, id, editor.email), role: "viewer" });
+    await owner.post(`/m/${id}/members`, { intent: "change", userId: await memberUserId(owner, id, editor.email), role: "viewer" });
     expect(await lowered).toBe(4001);
     await eventually("the lowered editor to reconnect", () => editorRoom.provider.synced && editorRoom.provider.wsconnected);
     editorRoom.text.insert(0, "# after the change\n");
@@ -185,8 +166,8 @@ describe("live co-editing", () => {
 
   it("shares presence under the name and role the server knows, never another client's", async () => {
     const owner = await signUp(server.url, "Real Owner");
-    const id = await mechanism(owner, "A -> B\n");
-    const viewer = await member(owner, id, "viewer", "Real Viewer");
+    const id = await createMechanism(owner, "A -> B\n");
+    const viewer = await addMember(owner, id, "viewer", "Real Viewer");
     const ownerRoom = join(owner, id);
     const viewerRoom = join(viewer, id);
     await Promise.all([ownerRoom.synced, viewerRoom.synced]);
@@ -213,7 +194,7 @@ describe("live co-editing", () => {
 
   it("lets a view-link visitor watch, and closes the socket when the link is revoked", async () => {
     const owner = await signUp(server.url, "Lecturer");
-    const id = await mechanism(owner, "A <=> B @ 1, 2\n");
+    const id = await createMechanism(owner, "A <=> B @ 1, 2\n");
     const created = await owner.json(`/api/v1/mechanisms/${id}/view-links`, "POST", {});
     expect(created.status).toBe(201);
     const link = (await created.json()) as { id: string; url: string };
@@ -237,8 +218,8 @@ describe("live co-editing", () => {
 
   it("refuses an edit over 1 MiB with a message, keeps the connection, and keeps what is typed after a resync", async () => {
     const owner = await signUp(server.url, "Paster");
-    const id = await mechanism(owner, "A -> B\n");
-    const editor = await member(owner, id, "editor", "Big Paster");
+    const id = await createMechanism(owner, "A -> B\n");
+    const editor = await addMember(owner, id, "editor", "Big Paster");
     const ownerRoom = join(owner, id);
     const pasterRoom = join(editor, id);
     await Promise.all([ownerRoom.synced, pasterRoom.synced]);
@@ -264,7 +245,7 @@ describe("live co-editing", () => {
 
   it("refuses other top-level types, analysis keys, misshapen positions and NUL, saying why and keeping the connection", async () => {
     const owner = await signUp(server.url, "Shape Keeper");
-    const id = await mechanism(owner, "A -> B\n");
+    const id = await createMechanism(owner, "A -> B\n");
     const ownerRoom = join(owner, id);
     await ownerRoom.synced;
     await eventually("the first analysis", () => ownerRoom.analysis.has("deficiency"));
@@ -299,7 +280,7 @@ describe("live co-editing", () => {
 
   it("takes NUL out of a text stored before the room refused it, so the mirror and named versions save", async () => {
     const owner = await signUp(server.url, "Old Data Owner");
-    const id = await mechanism(owner, "");
+    const id = await createMechanism(owner, "");
     const old = new Y.Doc();
     old.getText("source").insert(0, "A\0 -> B\0\n");
     const db = new pg.Client(server.databaseUrl);
@@ -319,7 +300,7 @@ describe("live co-editing", () => {
 
   it("caps a view-link guest's presence ids, state size and rate", async () => {
     const owner = await signUp(server.url, "Presence Host");
-    const id = await mechanism(owner, "A -> B\n");
+    const id = await createMechanism(owner, "A -> B\n");
     const link = (await (await owner.json(`/api/v1/mechanisms/${id}/view-links`, "POST", {})).json()) as { url: string };
     const guest = new Client(server.url);
     await guest.get(new URL(link.url).pathname);
@@ -355,7 +336,7 @@ describe("live co-editing", () => {
 
   it("closes a socket within seconds of its token being revoked, its session signed out or deleted", async () => {
     const owner = await signUp(server.url, "Leaving Owner");
-    const id = await mechanism(owner, "A -> B\n");
+    const id = await createMechanism(owner, "A -> B\n");
     const created = await owner.json("/api/v1/tokens", "POST", { name: "live script" });
     expect(created.status).toBe(201);
     const token = (await created.json()) as { id: string; token: string };
@@ -393,8 +374,8 @@ describe("live co-editing", () => {
 
   it("recomputes the structure into the analysis map with a growing revision", async () => {
     const owner = await signUp(server.url, "Analyst");
-    const id = await mechanism(owner, "X + Y -> 2Y @ 1\n");
-    const viewer = await member(owner, id, "viewer", "Watcher");
+    const id = await createMechanism(owner, "X + Y -> 2Y @ 1\n");
+    const viewer = await addMember(owner, id, "viewer", "Watcher");
     const ownerRoom = join(owner, id);
     const viewerRoom = join(viewer, id);
     await Promise.all([ownerRoom.synced, viewerRoom.synced]);
@@ -433,8 +414,8 @@ describe("live co-editing", () => {
 
   it("writes PUT source through the live document, with the API's statuses", async () => {
     const owner = await signUp(server.url, "Scripter");
-    const id = await mechanism(owner, "A -> B\n");
-    const viewer = await member(owner, id, "viewer", "Script Viewer");
+    const id = await createMechanism(owner, "A -> B\n");
+    const viewer = await addMember(owner, id, "viewer", "Script Viewer");
     const stranger = await signUp(server.url, "Outsider");
     const room = join(viewer, id);
     await room.synced;
@@ -457,7 +438,7 @@ describe("live co-editing", () => {
 
   it("drops the layout positions of complexes long gone from the text, keeping those in it", async () => {
     const owner = await signUp(server.url, "Tidy Layout");
-    const id = await mechanism(owner, "A + B -> C @ 1\n");
+    const id = await createMechanism(owner, "A + B -> C @ 1\n");
     const room = join(owner, id);
     await room.synced;
     const layout = room.doc.getMap("layout");
@@ -472,7 +453,7 @@ describe("live co-editing", () => {
 
   it("keeps the stored text within a second or so of co-authors who type without a pause", async () => {
     const owner = await signUp(server.url, "Steady Typist");
-    const id = await mechanism(owner, "A -> B\n");
+    const id = await createMechanism(owner, "A -> B\n");
     const room = join(owner, id);
     await room.synced;
     const stored = async () => {
@@ -496,8 +477,8 @@ describe("live co-editing", () => {
 
   it("keeps versions on structural change, names them, and restores one as a new change", async () => {
     const owner = await signUp(server.url, "Historian");
-    const id = await mechanism(owner, "A -> B @ 1\n");
-    const viewer = await member(owner, id, "viewer", "History Viewer");
+    const id = await createMechanism(owner, "A -> B @ 1\n");
+    const viewer = await addMember(owner, id, "viewer", "History Viewer");
     const room = join(owner, id);
     await room.synced;
     type Listing = { snapshots: { id: number; kind: string; name: string | null; author: string | null; summary: { species: number; deficiency: number } }[] };

@@ -134,6 +134,18 @@ export function followRoom(baseUrl: string, mechanismId: string, cookie: string,
   };
 }
 
+/** Types single characters (and deletes a few) at random places until `running` says stop; resolves with the count. */
+export async function typeAtRandom(text: Y.Text, running: () => boolean): Promise<number> {
+  let edits = 0;
+  for (; running() && edits < 5000; edits++) {
+    const at = Math.floor(Math.random() * (text.length + 1));
+    if (Math.random() < 0.8 || text.length === 0) text.insert(at, "XY+ \n"[Math.floor(Math.random() * 5)]);
+    else text.delete(Math.min(at, text.length - 1), 1);
+    await new Promise((resolve) => setTimeout(resolve, Math.floor(Math.random() * 4)));
+  }
+  return edits;
+}
+
 /** Polls until `check` holds; fails with `what` after `timeoutMs`. */
 export async function eventually(what: string, check: () => boolean | Promise<boolean>, timeoutMs = 10_000): Promise<void> {
   const deadline = Date.now() + timeoutMs;

@@ -114,3 +114,24 @@ export async function signUpUnconfirmed(baseUrl: string, name = "Test Chemist"):
   if (response.status !== 302 && response.status !== 204) throw new Error(`sign-up failed: ${response.status} ${await response.text()}`);
   return client;
 }
+
+/** A new mechanism of `owner`'s, made through the API; its id. */
+export async function createMechanism(owner: Client, source = "", title = "Shared mechanism"): Promise<string> {
+  const response = await owner.json("/api/v1/mechanisms", "POST", { title, source });
+  if (response.status !== 201) throw new Error(`creating a mechanism failed: ${response.status} ${await response.text()}`);
+  return ((await response.json()) as { id: string }).id;
+}
+
+/** A fresh account added to the mechanism by its owner, with `role`. */
+export async function addMember(owner: Client, id: string, role: "editor" | "viewer", name: string) {
+  const person = await signUp(owner.baseUrl, name);
+  const response = await owner.post(`/m/${id}/members`, { intent: "add", email: person.email, role });
+  if (response.status !== 200) throw new Error(`adding ${person.email} failed: ${response.status}`);
+  return person;
+}
+
+/** A member's user id, as the members page shows it to the owner. */
+export async function memberUserId(owner: Client, id: string, email: string): Promise<string> {
+  const page = await (await owner.get(`/m/${id}/members`)).text();
+  return page.slice(page.indexOf(`member-${email}`)).match(/name="userId" value="([0-9a-f-]{36})"/)![1];
+}

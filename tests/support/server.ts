@@ -39,7 +39,9 @@ function launch(databaseUrl: string, extraEnv: Record<string, string>, port = 0)
 }
 
 function waitExit(child: ChildProcess) {
-  return new Promise<void>((resolve) => (child.exitCode !== null ? resolve() : child.once("exit", () => resolve())));
+  // A process killed by a signal keeps exitCode null.
+  const exited = child.exitCode !== null || child.signalCode !== null;
+  return new Promise<void>((resolve) => (exited ? resolve() : child.once("exit", () => resolve())));
 }
 
 export interface TestServerOptions {
@@ -49,14 +51,29 @@ export interface TestServerOptions {
 
 export async function startTestServer(extraEnv: Record<string, string> = {}, options: TestServerOptions = {}): Promise<TestServer & { dispose(): Promise<void> }> {
   const database = await createTestDatabase();
-  const serverDatabaseUrl = options.databaseUrl?.(database.url) ?? database.url;
-  let current = launch(serverDatabaseUrl, extraEnv);
+  const server = await startInstance(options.databaseUrl?.(database.url) ?? database.url, extraEnv);
+  return {
+    ...server,
+    databaseUrl: database.url,
+    async dispose() {
+      await server.stop();
+      await database.drop();
+    },
+  };
+}
+
+/**
+ * One more server process on an existing database (another app instance beside a test server);
+ * start instances one after another, as each applies migrations and seeds an empty database.
+ */
+export async function startInstance(databaseUrl: string, extraEnv: Record<string, string> = {}): Promise<TestServer> {
+  let current = launch(databaseUrl, extraEnv);
   const url = await current.ready;
   const port = Number(new URL(url).port);
   let logs = "";
-  const server = {
+  return {
     url,
-    databaseUrl: database.url,
+    databaseUrl,
     async stop() {
       current.child.kill("SIGTERM");
       await waitExit(current.child);
@@ -67,14 +84,9 @@ export async function startTestServer(extraEnv: Record<string, string> = {}, opt
     },
     async restart() {
       logs += current.output();
-      current = launch(serverDatabaseUrl, extraEnv, port);
+      current = launch(databaseUrl, extraEnv, port);
       await current.ready;
     },
     logs: () => logs + current.output(),
-    async dispose() {
-      await server.stop();
-      await database.drop();
-    },
   };
-  return server;
 }
