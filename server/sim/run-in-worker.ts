@@ -6,11 +6,11 @@
 
 import { Worker } from "node:worker_threads";
 import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
-import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
-import { RealizeRequestError } from "~/chem/realize/request-error";
+import { SimulationCancelled } from "~/chem/kinetics/errors";
 import { typescriptWorkerSource } from "../typescript-worker";
 import type { WorkerBudget } from "../worker-budget";
 import { Admission } from "./admission";
+import { rebuildError } from "./job-errors";
 import { isTextJob, SimulationLimitError, type JobResult, type SizeLimits, type WorkerJob } from "./job";
 import type { WorkerMessage, WorkerRequest } from "./worker";
 
@@ -49,12 +49,6 @@ export interface RunOptions {
   /** Whose job this is (a user id, or a guest's address): the per-user cap counts by it. */
   owner?: string;
 }
-
-const rebuilt: Record<string, new (message: string) => Error> = {
-  SimulationInputError,
-  IntegrationFailure,
-  RealizeRequestError,
-};
 
 const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.meta.url));
 
@@ -172,8 +166,7 @@ export class WorkerJobs {
         if (message.type === "ready") return;
         if (message.type === "progress") onProgress?.(message.fraction);
         else if (message.type === "result") finish(true, () => resolve(message.result as JobResult<J>));
-        else if (message.name === "SimulationLimitError") finish(true, () => reject(new SimulationLimitError(message.message, message.limit as "size")));
-        else finish(true, () => reject(new (rebuilt[message.name] ?? Error)(message.message)));
+        else finish(true, () => reject(rebuildError(message)));
       };
       const onError = (error: Error) => {
         const outOfMemory = (error as NodeJS.ErrnoException).code === "ERR_WORKER_OUT_OF_MEMORY";
