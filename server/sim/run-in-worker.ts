@@ -7,7 +7,7 @@
 import { Worker } from "node:worker_threads";
 import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { SimulationCancelled } from "~/chem/kinetics/errors";
-import { typescriptWorkerSource } from "../typescript-worker";
+import { workerScript } from "../worker-script";
 import type { WorkerBudget } from "../worker-budget";
 import { Admission } from "./admission";
 import { rebuildError } from "./job-errors";
@@ -50,7 +50,7 @@ export interface RunOptions {
   owner?: string;
 }
 
-const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.meta.url));
+const entry = workerScript(new URL("./worker.ts", import.meta.url), "job-thread.js");
 
 export interface JobRunnerOptions {
   /** Default limits of every job (a job's own options may lower or raise them); DEFAULT_LIMITS elsewhere. */
@@ -116,7 +116,7 @@ export class WorkerJobs {
       reused.ref();
       return reused;
     }
-    const worker = new Worker(workerBootstrap, { eval: true, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
+    const worker = new Worker(entry.script, { eval: entry.eval, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
     this.loaded.set(worker, new Promise((resolve) => worker.once("message", (message: WorkerMessage) => message.type === "ready" && resolve())));
     // While idle nobody else listens: an idle worker that dies just leaves the pool.
     worker.on("error", () => undefined);
