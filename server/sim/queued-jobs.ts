@@ -94,6 +94,8 @@ export class QueuedJobs {
         fail: (error) => settle(() => reject(error)),
       });
     });
+    // A cancel may reject it while the job is still being stored, before anyone awaits it.
+    result.catch(() => undefined);
     try {
       await boss.send(DYNAMICS_QUEUE, { job } satisfies QueuedJobData, {
         id,

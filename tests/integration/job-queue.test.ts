@@ -20,7 +20,6 @@ beforeAll(async () => {
   worker = await startTestWorker(server.databaseUrl, { WORKER_THREADS: "1" });
 }, 120_000);
 afterAll(async () => {
-  (await import("node:fs")).writeFileSync("/tmp/x/server.log", server.logs() + "\n-----worker\n" + worker.logs());
   await worker?.stop();
   await server?.dispose();
 });
