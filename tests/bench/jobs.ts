@@ -4,6 +4,7 @@
 // callers at once; each job belongs to a caller of its own, so the per-user caps stay out of it.
 // Own PostgreSQL cluster and database. Run after a build (npm run build): npx tsx tests/bench/jobs.ts
 import { spawn } from "node:child_process";
+import { once } from "node:events";
 import { existsSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -76,6 +77,7 @@ async function main() {
       const worker = await startWorkerProcess(databaseUrl, budget.cores);
       await report("queue, consumed by a worker process", queued.run);
       worker.kill("SIGTERM");
+      await once(worker, "exit");
     } else console.log("(no build/mechweave-worker.js: run npm run build for the worker-process row)");
     await queue.close();
   } finally {
