@@ -24,6 +24,8 @@ interface Waiter {
   /** Reads the job's state and settles the caller's promise if it is over. */
   check(): void;
   fail(error: unknown): void;
+  /** Starts reading the job's state every POLL_MS, once it is stored. */
+  poll(): void;
 }
 
 export class QueuedJobs {
@@ -64,6 +66,7 @@ export class QueuedJobs {
     const id = randomUUID();
     const result = new Promise<unknown>((resolve, reject) => {
       let settled = false;
+      let poll: NodeJS.Timeout | undefined;
       const settle = (outcome: () => void) => {
         if (settled) return;
         settled = true;
@@ -86,12 +89,12 @@ export class QueuedJobs {
         settle(() => reject(new SimulationCancelled()));
         void boss.cancel(DYNAMICS_QUEUE, id).then(() => events.publish({ type: "cancel", id }), () => undefined);
       };
-      const poll = setInterval(() => void check(), POLL_MS);
       signal?.addEventListener("abort", cancel, { once: true });
       this.waiters.set(id, {
         progress: (fraction) => settled || onProgress?.(fraction),
         check: () => void check(),
         fail: (error) => settle(() => reject(error)),
+        poll: () => void (poll ??= setInterval(() => void check(), POLL_MS)),
       });
     });
     // A cancel may reject it while the job is still being stored, before anyone awaits it.
@@ -109,6 +112,7 @@ export class QueuedJobs {
     // A caller that left while the job was being stored cancels it now that it exists.
     if (signal?.aborted) void boss.cancel(DYNAMICS_QUEUE, id).catch(() => undefined);
     else void events.publish({ type: "submitted" });
+    this.waiters.get(id)?.poll();
     return result;
   }
 }
