@@ -6,7 +6,7 @@ ensureDependencies();
 ensureDebianPackage("postgresql", "/usr/lib/postgresql");
 build();
 
-const server = spawn(process.execPath, ["--import", "tsx", "server/main.ts"], {
+const server = spawn(process.execPath, ["build/mechweave-server.js"], {
   cwd: projectRoot,
   stdio: "inherit",
   env: { NODE_ENV: "production", ...process.env },

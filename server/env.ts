@@ -47,6 +47,8 @@ const schema = z.object({
   ANALYSIS_TIME_LIMIT_MS: integer(100).default(20_000),
 
   // Worker threads and jobs (server/sim/run-in-worker.ts, server/collab/analysis-pool.ts).
+  /** "off": this app instance only puts jobs in the queue, and `npm run worker` processes run them. */
+  JOBS: z.enum(["on", "off"]).default("on"),
   /** Worker threads each pool (jobs, room analyses) may use at once. */
   WORKER_THREADS: integer(1).optional(),
   /** Wall-clock limit per simulation or realization job, queueing excluded. */

@@ -16,6 +16,9 @@ import { startMailCatcher } from "./mail/catcher";
 import { createMailer } from "./mail/mailer";
 import { clusterDir, startEmbeddedPostgres, type EmbeddedPostgres } from "./postgres/embedded";
 import { sessionSecrets } from "./secret";
+import { JobConsumer } from "./sim/job-consumer";
+import { JobQueue } from "./sim/job-queue";
+import { QueuedJobs } from "./sim/queued-jobs";
 import { WorkerJobs } from "./sim/run-in-worker";
 import { DEMO_PASSWORD, demoAccounts, seedDemoIfEmpty } from "./seed/demo";
 import { WorkerBudget } from "./worker-budget";
@@ -46,6 +49,9 @@ const sessions = createSessionStore(database.db, sessionSecrets(projectRoot, env
 // One budget of cores for every worker thread: the rooms' analyses and the API's jobs.
 const workers = new WorkerBudget(env.WORKER_THREADS);
 const jobs = new WorkerJobs(workers, jobSettings(env));
+// Dynamics jobs go through the queue in the database, so any instance or worker may run them.
+const queue = await JobQueue.open(databaseUrl);
+const consumer = env.JOBS === "on" ? new JobConsumer(queue, jobs, { lanes: workers.jobsAtOnce, ranOn: instanceId }).start() : null;
 const services = {
   db: database.db,
   sessions,
@@ -55,7 +61,7 @@ const services = {
   mailer,
   publicOrigin: origin,
   mailCatcher,
-  dynamics: { run: jobs.run },
+  dynamics: { run: new QueuedJobs(queue, jobs, jobSettings(env)).run },
   instance: instanceId,
   collab: await attachCollaboration(server, {
     db: database.db,
@@ -95,6 +101,8 @@ async function shutdown() {
   await Promise.race([services.collab.close(), new Promise((resolve) => setTimeout(resolve, 10_000))]);
   server.closeAllConnections();
   await new Promise((resolve) => server.close(resolve));
+  await consumer?.stop();
+  await queue.close();
   await vite?.close();
   await database.close();
   await mailCatcher?.close();

@@ -74,7 +74,7 @@ export default function ApiDocs({ loaderData }: Route.ComponentProps) {
         limit, 20 s unless the operator sets <code>ANALYSIS_TIME_LIMIT_MS</code>. Simulations, sweeps and realizations run one per user at a
         time with up to three more waiting; asked with <code>Accept: application/x-ndjson</code>, they answer <code>{`{ "queued": n }`}</code>{" "}
         lines while waiting, then <code>{`{ "progress": f }`}</code> lines, then <code>{`{ "result": … }`}</code> or{" "}
-        <code>{`{ "error": "…", "code": "…" }`}</code>.
+        <code>{`{ "error": "…", "code": "…" }`}</code>. Their result's <code>stats.ranOn</code> names the server process that ran it.
       </p>
       <p className="mt-2 max-w-3xl text-sm text-muted">
         Limits: a JSON body up to {byteSize(MAX_JSON_BODY_BYTES)}, a mechanism text up to {byteSize(MAX_SOURCE_BYTES)}, an ODE up to{" "}

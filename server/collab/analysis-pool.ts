@@ -1,10 +1,10 @@
 // The worker threads that analyse texts for every room of the process. A long analysis (a
 // network of thousands of reactions) then never delays keystrokes relayed by the event loop.
 import { Worker } from "node:worker_threads";
-import { typescriptWorkerSource } from "../typescript-worker";
+import { workerScript } from "../worker-script";
 import type { AnalysisEntries, AnalysisResponse, Analyzer } from "./analysis-entries";
 
-const bootstrap = typescriptWorkerSource(new URL("./analysis-worker.ts", import.meta.url));
+const entry = workerScript(new URL("./analysis-worker.ts", import.meta.url), "analysis-thread.js");
 
 const WARM_UP_SOURCE = "A + B <=> C @ 1, 2\nC -> D + B @ 3\n";
 
@@ -56,7 +56,7 @@ class AnalysisThread {
 
   private ensure(): Worker {
     if (this.worker) return this.worker;
-    const worker = new Worker(bootstrap, { eval: true });
+    const worker = new Worker(entry.script, { eval: entry.eval });
     worker.unref();
     worker.on("message", (response: AnalysisResponse | "ready") => {
       if (this.worker !== worker) return;

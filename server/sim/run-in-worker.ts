@@ -6,11 +6,11 @@
 
 import { Worker } from "node:worker_threads";
 import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
-import { IntegrationFailure, SimulationCancelled, SimulationInputError } from "~/chem/kinetics/errors";
-import { RealizeRequestError } from "~/chem/realize/request-error";
-import { typescriptWorkerSource } from "../typescript-worker";
+import { SimulationCancelled } from "~/chem/kinetics/errors";
+import { workerScript } from "../worker-script";
 import type { WorkerBudget } from "../worker-budget";
 import { Admission } from "./admission";
+import { rebuildError } from "./job-errors";
 import { isTextJob, SimulationLimitError, type JobResult, type SizeLimits, type WorkerJob } from "./job";
 import type { WorkerMessage, WorkerRequest } from "./worker";
 
@@ -50,13 +50,7 @@ export interface RunOptions {
   owner?: string;
 }
 
-const rebuilt: Record<string, new (message: string) => Error> = {
-  SimulationInputError,
-  IntegrationFailure,
-  RealizeRequestError,
-};
-
-const workerBootstrap = typescriptWorkerSource(new URL("./worker.ts", import.meta.url));
+const entry = workerScript(new URL("./worker.ts", import.meta.url), "job-thread.js");
 
 export interface JobRunnerOptions {
   /** Default limits of every job (a job's own options may lower or raise them); DEFAULT_LIMITS elsewhere. */
@@ -122,7 +116,7 @@ export class WorkerJobs {
       reused.ref();
       return reused;
     }
-    const worker = new Worker(workerBootstrap, { eval: true, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
+    const worker = new Worker(entry.script, { eval: entry.eval, resourceLimits: { maxOldGenerationSizeMb: heapMb } });
     this.loaded.set(worker, new Promise((resolve) => worker.once("message", (message: WorkerMessage) => message.type === "ready" && resolve())));
     // While idle nobody else listens: an idle worker that dies just leaves the pool.
     worker.on("error", () => undefined);
@@ -172,8 +166,7 @@ export class WorkerJobs {
         if (message.type === "ready") return;
         if (message.type === "progress") onProgress?.(message.fraction);
         else if (message.type === "result") finish(true, () => resolve(message.result as JobResult<J>));
-        else if (message.name === "SimulationLimitError") finish(true, () => reject(new SimulationLimitError(message.message, message.limit as "size")));
-        else finish(true, () => reject(new (rebuilt[message.name] ?? Error)(message.message)));
+        else finish(true, () => reject(rebuildError(message)));
       };
       const onError = (error: Error) => {
         const outOfMemory = (error as NodeJS.ErrnoException).code === "ERR_WORKER_OUT_OF_MEMORY";

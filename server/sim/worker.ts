@@ -3,12 +3,13 @@
 
 import { parentPort } from "node:worker_threads";
 import { isTextJob, runJob, runRealizationJob, runTextJob, type SizeLimits, type WorkerJob } from "./job";
+import { errorRecord, type ErrorRecord } from "./job-errors";
 
 export type WorkerMessage =
   | { type: "ready" }
   | { type: "progress"; fraction: number }
   | { type: "result"; result: unknown }
-  | { type: "error"; name: string; message: string; limit?: string };
+  | ({ type: "error" } & ErrorRecord);
 
 export interface WorkerRequest {
   job: WorkerJob;
@@ -28,7 +29,6 @@ async function run({ job, limits }: WorkerRequest) {
     const result = job.kind === "realize" ? await runRealizationJob(job, hooks) : isTextJob(job) ? await runTextJob(job) : runJob(job, hooks, limits);
     post({ type: "result", result });
   } catch (error) {
-    const { name, message } = error instanceof Error ? error : new Error(String(error));
-    post({ type: "error", name, message, limit: (error as { limit?: string }).limit });
+    post({ type: "error", ...errorRecord(error) });
   }
 }

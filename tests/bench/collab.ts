@@ -57,7 +57,7 @@ function serverCpuMs(): number {
     try {
       const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
       const fields = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
-      if (Number(fields[1]) !== process.pid || !readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("server/main.ts")) continue;
+      if (Number(fields[1]) !== process.pid || !readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("build/mechweave-server.js")) continue;
       return ((Number(fields[11]) + Number(fields[12])) * 1000) / 100;
     } catch {
       continue;

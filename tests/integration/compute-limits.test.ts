@@ -1,9 +1,9 @@
 // Nothing a user sends freezes the server: every analysis of user text runs in a worker under a
 // time limit (HTTP and live rooms alike), and one user cannot hold every simulation worker.
-import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, joinRoom } from "../support/collab-client";
-import { signUp, type Client } from "../support/http";
+import { signUp } from "../support/http";
+import { expectFairShare } from "../support/long-jobs";
 import { startTestServer } from "../support/server";
 
 const LIMIT_MS = 4_000;
@@ -92,55 +92,5 @@ describe("analysis of user text under a time limit", { timeout: 120_000 }, () =>
 });
 
 describe("simulation workers shared fairly", { timeout: 120_000 }, () => {
-  const lorenz = readFileSync(new URL("../fixtures/ode/lorenz.ode", import.meta.url), "utf8");
-  // Lotka–Volterra cycles at a tight tolerance, 200 times over: it holds a worker for a minute.
-  const oscillator = "X -> 2X @ 1\nX + Y -> 2Y @ 1\nY -> 0 @ 1\n[X]0 = 1\n[Y]0 = 0.5\n";
-  const options = { until: 1e4, rtol: 1e-12, samples: 100, target: { kind: "rate", reaction: 0 }, from: 0.5, to: 2, points: 200, scale: "linear", species: "X", observable: "max" };
-  const sweep = { kind: "sweep", source: oscillator, options };
-
-  function streamed(client: Client, path: string, signal: AbortSignal) {
-    return client.request(path, {
-      method: "POST",
-      headers: { "Content-Type": "application/json", Accept: "application/x-ndjson" },
-      body: JSON.stringify(sweep),
-      signal,
-    });
-  }
-
-  async function firstLine(response: Response): Promise<unknown> {
-    const reader = response.body!.pipeThrough(new TextDecoderStream()).getReader();
-    let buffer = "";
-    while (!buffer.includes("\n")) {
-      const { value, done } = await reader.read();
-      if (done) break;
-      buffer += value;
-    }
-    return JSON.parse(buffer.slice(0, buffer.indexOf("\n")));
-  }
-
-  it("runs one job per user, queues three more with their places, refuses a fifth with 429, and lets others through", async () => {
-    const busy = await signUp(server.url, "Busy Chemist");
-    const other = await signUp(server.url, "Other Chemist");
-    const { id } = await (await busy.json("/api/v1/mechanisms", "POST", { title: "Oscillator", source: oscillator })).json();
-    const path = `/api/v1/mechanisms/${id}/dynamics`;
-    const cancel = new AbortController();
-    try {
-      const running = await streamed(busy, path, cancel.signal);
-      expect(running.status).toBe(200);
-      expect(await firstLine(running)).toEqual({ progress: expect.any(Number) });
-      for (const place of [1, 2, 3]) {
-        const queued = await streamed(busy, path, cancel.signal);
-        expect(await firstLine(queued)).toEqual({ queued: place });
-      }
-      const refused = await busy.json(path, "POST", sweep);
-      expect(refused.status).toBe(429);
-      expect(Number(refused.headers.get("Retry-After"))).toBeGreaterThan(0);
-      expect(await refused.json()).toEqual({ error: expect.stringMatching(/3 jobs waiting/), code: "busy" });
-      // The busy user's waiting jobs do not hold up somebody else's.
-      const quick = await other.json("/api/v1/simulations", "POST", { ode: lorenz, settings: { until: 1, samples: 10 } });
-      expect(quick.status).toBe(200);
-    } finally {
-      cancel.abort();
-    }
-  });
+  it("runs one job per user, queues three more with their places, refuses a fifth with 429, and lets others through", () => expectFairShare(server.url));
 });

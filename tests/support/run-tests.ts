@@ -6,6 +6,7 @@ import { rmSync } from "node:fs";
 import path from "node:path";
 import { applyMigrations, connect, ensureDatabase } from "../../server/db/client";
 import { clusterDir, startEmbeddedPostgres } from "../../server/postgres/embedded";
+import { JobQueue } from "../../server/sim/job-queue";
 import { TEMPLATE_DATABASE } from "./database";
 
 const projectRoot = path.resolve(import.meta.dirname, "../..");
@@ -13,9 +14,12 @@ const baseDir = clusterDir(projectRoot, `postgres-test-${process.pid}`);
 const postgres = await startEmbeddedPostgres(baseDir, 55432);
 let exitCode = 1;
 try {
-  const template = connect(await ensureDatabase(postgres.adminUrl, TEMPLATE_DATABASE));
+  const templateUrl = await ensureDatabase(postgres.adminUrl, TEMPLATE_DATABASE);
+  const template = connect(templateUrl);
   await applyMigrations(template.db, projectRoot);
   await template.close();
+  // The job queue's tables too, so the many test servers do not each create them.
+  await (await JobQueue.open(templateUrl)).close();
 
   exitCode = await new Promise<number>((resolve) => {
     const vitest = spawn(process.execPath, [path.join(projectRoot, "node_modules/vitest/vitest.mjs"), "run", ...process.argv.slice(2)], {

@@ -1,5 +1,7 @@
 // A real Mechweave server process on a free port, against its own database, seeded with the demo
-// workspace: its owner is the one account that may read the local mail catcher.
+// workspace: its owner is the one account that may read the local mail catcher. Servers and job
+// workers run from the bundles in build/ that `npm test` builds first, as `npm run serve` and
+// `npm run worker` do.
 import { spawn, type ChildProcess } from "node:child_process";
 import path from "node:path";
 import { createTestDatabase } from "./database";
@@ -18,24 +20,30 @@ export interface TestServer {
   logs(): string;
 }
 
-function launch(databaseUrl: string, extraEnv: Record<string, string>, port = 0) {
-  const child = spawn(process.execPath, ["--import", "tsx", "server/main.ts"], {
+/** Starts `bundle` and resolves with the first group of `ready` in its output. */
+function spawnBundle(bundle: string, env: Record<string, string>, ready: RegExp) {
+  const child = spawn(process.execPath, [path.join("build", bundle)], {
     cwd: projectRoot,
-    env: { ...process.env, NODE_ENV: "test", DATABASE_URL: databaseUrl, PORT: String(port), HOST: "127.0.0.1", SEED_DEMO: "1", ...extraEnv },
+    env: { ...process.env, NODE_ENV: "test", ...env },
     stdio: ["ignore", "pipe", "pipe"],
   });
   let output = "";
-  const ready = new Promise<string>((resolve, reject) => {
+  const started = new Promise<string>((resolve, reject) => {
     const onData = (chunk: Buffer) => {
       output += chunk.toString();
-      const match = output.match(/listening on (http:\/\/[\d.]+:\d+)/);
+      const match = output.match(ready);
       if (match) resolve(match[1]);
     };
     child.stdout!.on("data", onData);
     child.stderr!.on("data", (chunk: Buffer) => (output += chunk.toString()));
-    child.on("exit", (code) => reject(new Error(`server exited (${code}) before listening:\n${output}`)));
+    child.on("exit", (code) => reject(new Error(`${bundle} exited (${code}) before it was ready:\n${output}`)));
   });
-  return { child, ready, output: () => output };
+  return { child, ready: started, output: () => output };
+}
+
+function launch(databaseUrl: string, extraEnv: Record<string, string>, port = 0) {
+  const env = { DATABASE_URL: databaseUrl, PORT: String(port), HOST: "127.0.0.1", SEED_DEMO: "1", ...extraEnv };
+  return spawnBundle("mechweave-server.js", env, /listening on (http:\/\/[\d.]+:\d+)/);
 }
 
 function waitExit(child: ChildProcess) {
@@ -88,5 +96,26 @@ export async function startInstance(databaseUrl: string, extraEnv: Record<string
       await current.ready;
     },
     logs: () => logs + current.output(),
+  };
+}
+
+export interface TestWorker {
+  /** The instance id it printed (`worker ready: ID`). */
+  id: string;
+  stop(): Promise<void>;
+  logs(): string;
+}
+
+/** A `npm run worker` process on a test server's database. */
+export async function startTestWorker(databaseUrl: string, extraEnv: Record<string, string> = {}): Promise<TestWorker> {
+  const worker = spawnBundle("mechweave-worker.js", { DATABASE_URL: databaseUrl, ...extraEnv }, /worker ready: (\S+)/);
+  const id = await worker.ready;
+  return {
+    id,
+    async stop() {
+      worker.child.kill("SIGTERM");
+      await waitExit(worker.child);
+    },
+    logs: worker.output,
   };
 }
