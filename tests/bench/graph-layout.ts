@@ -3,7 +3,7 @@
 // of 60 and 500 steps: time, overlapping node pairs and the picture's size.
 // Run: npx tsx tests/bench/graph-layout.ts
 import { readFileSync } from "node:fs";
-import ELK from "elkjs/lib/elk.bundled.js";
+import ELK, { type ElkNode } from "elkjs/lib/elk.bundled.js";
 import { analyzeSource } from "~/chem/analysis";
 import { complexLabel } from "~/components/graph/graph-model";
 import { estimateNodeSize, placeComplexes, type Size, type XY } from "~/components/graph/layout";
@@ -23,7 +23,7 @@ async function elkPlacement(report: Report): Promise<Record<string, XY>> {
   const classes = await Promise.all(
     report.linkageClasses.map(async (members) => {
       const inClass = new Set(members);
-      const graph = await elk.layout({
+      const graph: ElkNode = await elk.layout({
         id: "root",
         layoutOptions: { "elk.algorithm": "layered", "elk.direction": "RIGHT", "elk.spacing.nodeNode": "28", "elk.layered.spacing.nodeNodeBetweenLayers": "72" },
         children: members.map((index) => ({ id: String(index), ...sizeOf(keys[index]) })),
