@@ -17,6 +17,14 @@ export interface Neighbourhood {
   reactions: ReadonlySet<number>;
 }
 
+/** What the graph stresses: the focused neighbourhood (all else dims) and the caret's step. */
+export interface Emphasis {
+  focus: Neighbourhood | null;
+  caret: Neighbourhood | null;
+  /** Changes whenever the reader focuses something, so the view can centre on it. */
+  focusKey: string;
+}
+
 /** Where the caret is in the text: the step's label, and its line for a step without one. */
 export interface CaretStep {
   label: string | null;

@@ -27,3 +27,10 @@ export function classBoxCorner(corners: readonly XY[]): XY {
   if (corners.length === 0) return { x: 0, y: 0 };
   return { x: Math.min(...corners.map(({ x }) => x)), y: Math.min(...corners.map(({ y }) => y)) };
 }
+
+/**
+ * A class is known by the text of its first complex, not by its number, so a class stays folded
+ * while edits elsewhere renumber the classes.
+ */
+export const classKey = (report: Pick<ComplexGraphReport, "complexes" | "linkageClasses">, classIndex: number) =>
+  report.complexes[Math.min(...report.linkageClasses[classIndex])];
