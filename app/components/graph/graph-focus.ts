@@ -1,7 +1,10 @@
 // Search and focus: what a reader can look for in the graph (a species or a step, by name or label),
 // and the neighbourhood a found item lights up — its steps, their reactions and complexes, and the
 // species they touch — while the rest is dimmed. Pure functions of the analysis report.
+import type { CaretStep } from "~/components/editor/caret-step";
 import type { ComplexGraphReport } from "./graph-model";
+
+export type { CaretStep };
 
 export type FocusTarget = { kind: "species" | "step"; index: number };
 
@@ -23,12 +26,6 @@ export interface Emphasis {
   caret: Neighbourhood | null;
   /** Changes whenever the reader focuses something, so the view can centre on it. */
   focusKey: string;
-}
-
-/** Where the caret is in the text: the step's label, and its line for a step without one. */
-export interface CaretStep {
-  label: string | null;
-  line: number;
 }
 
 const shownMatches = 12;
