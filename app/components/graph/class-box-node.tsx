@@ -28,6 +28,8 @@ export function ClassBoxView({ data }: NodeProps<ClassBoxNode>) {
         boxShadow: data.lit ? litHalo : undefined,
       }}
       title={`${data.description}: click to unfold`}
+      data-lit={data.lit || undefined}
+      data-dim={data.dim || undefined}
       data-testid="class-box"
     >
       <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />

@@ -62,6 +62,8 @@ export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
         outline: data.heldBy ? `2px dashed ${data.heldBy.colour}` : undefined,
         outlineOffset: 3,
       }}
+      data-lit={data.lit || undefined}
+      data-dim={data.dim || undefined}
       title={data.heldBy ? `${data.description}, moved by ${data.heldBy.name}` : data.description}
     >
       {data.heldBy && (

@@ -19,6 +19,8 @@ export function SpeciesNodeView({ data, selected }: NodeProps<SpeciesNode>) {
       className="rounded-full border-[1.5px] border-ink/60 bg-raised px-3 font-mono text-[13.5px] leading-[31px] whitespace-nowrap text-ink"
       style={{ opacity: data.dim ? 0.25 : 1, boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : data.lit ? litHalo : undefined }}
       title={data.description}
+      data-lit={data.lit || undefined}
+      data-dim={data.dim || undefined}
     >
       <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       {data.label}
@@ -30,7 +32,7 @@ export function SpeciesNodeView({ data, selected }: NodeProps<SpeciesNode>) {
 export function StepNodeView({ data, selected }: NodeProps<StepNode>) {
   const colour = selected ? "var(--mw-accent)" : data.lit ? "var(--mw-signal)" : "var(--mw-muted)";
   return (
-    <div className="relative h-3.5 w-3.5 rounded-[3px]" style={{ background: colour, opacity: data.dim ? 0.2 : 1 }} title={data.description}>
+    <div className="relative h-3.5 w-3.5 rounded-[3px]" style={{ background: colour, opacity: data.dim ? 0.2 : 1 }} title={data.description} data-lit={data.lit || undefined} data-dim={data.dim || undefined}>
       <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       <span className="absolute top-1/2 left-[18px] -translate-y-1/2 font-mono text-[11px] leading-none whitespace-nowrap" style={{ color: data.lit ? "var(--mw-signal)" : "var(--mw-muted)" }}>
         {data.label}
