@@ -113,8 +113,8 @@ describe.each([64, 500])("at %i steps", (steps) => {
     await page.waitForSelector("[data-testid=species-step-graph] .react-flow__node", { timeout: 120_000 });
     await settled(page);
     await page.screenshot({ path: `${shots}/species-steps-${steps}.png` });
-    await page.fill("[data-testid=graph-search]", "Rd");
-    await page.getByRole("option").first().dispatchEvent("mousedown");
+    await page.fill("[data-testid=graph-search]", "R");
+    await page.getByRole("option").filter({ hasText: "species" }).first().dispatchEvent("mousedown");
     await expect.poll(() => graph(page).locator(".react-flow__node [data-lit]").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
     await settled(page);
     await page.screenshot({ path: `${shots}/species-steps-${steps}-focus.png` });
@@ -123,7 +123,7 @@ describe.each([64, 500])("at %i steps", (steps) => {
 
   it("folds and unfolds classes, and lights the step under the editor's caret", { timeout: 240_000 }, async () => {
     const page = await openGraph(steps);
-    await page.getByRole("button", { name: "Fold all" }).click();
+    await page.getByRole("button", { name: "Fold all", exact: true }).click();
     const classes = Number((await page.locator("[data-testid=folding]").innerText()).match(/of (\d+) classes/)![1]);
     await expect.poll(() => page.locator("[data-testid=class-box]").count()).toBe(classes);
     expect(await page.locator("[data-testid=class-box]").first().innerText()).toMatch(/class \d+ · \d+ complex/);

@@ -24,9 +24,9 @@ import { type CaretStep, caretStepIndex, type Emphasis, type FocusTarget, neighb
 import { GraphLegend } from "./graph-legend";
 import { buildGraphModel, type ComplexGraphReport, type GraphModel } from "./graph-model";
 import { GraphToolbar, type GraphView } from "./graph-toolbar";
-import type { XY } from "./layout";
+import { estimateNodeSize, type XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
-import { classBoxCorner, classBoxLabel, classKey } from "./linkage-groups";
+import { classBoxCorner, classBoxLabel, classKey, estimateClassBoxSize } from "./linkage-groups";
 import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
 import { SpeciesStepGraph } from "./species-step-graph";
 import { useComplexPositions } from "./use-complex-positions";
@@ -341,6 +341,9 @@ function buildNodes(
         id: complex.key,
         type: "complex",
         ariaLabel: complex.description,
+        // Used for fitting before the browser has measured the box (never, for one off screen).
+        initialWidth: estimateNodeSize(complex.label).width,
+        initialHeight: estimateNodeSize(complex.label).height,
         position: old?.dragging ? old.position : (positions[complex.key] ?? old?.position ?? { x: 0, y: 0 }),
         data: {
           label: complex.label,
@@ -366,6 +369,8 @@ function buildNodes(
         id,
         type: "classBox",
         draggable: false,
+        initialWidth: estimateClassBoxSize(label).width,
+        initialHeight: estimateClassBoxSize(label).height,
         ariaLabel: `Linkage class ${classIndex + 1}, ${members.length} complexes, folded`,
         position: classBoxCorner(corners),
         data: { label, classIndex, colours: linkageClassColours(classIndex), description: `Linkage class ${classIndex + 1}: ${members.map((member) => report.complexes[member]).join(", ")}`, lit: old?.data.lit, dim: old?.data.dim },

@@ -47,7 +47,7 @@ export function keepUnchanged<T extends { id: string }>(previous: readonly T[], 
  * alone, so a room watching someone type is not shaken at every keystroke.
  */
 export function FitWhileUntouched({ touched, fitOptions }: { touched: boolean; fitOptions: FitOptions }) {
-  const initialized = useNodesInitialized();
+  const initialized = useDrawable();
   const { fitView, getNodes, getNodesBounds, getViewport } = useReactFlow();
   const nodeIds = useStore((state) => [...state.nodeLookup.keys()].join("\n"));
   const width = useStore((state) => state.width);
@@ -71,9 +71,21 @@ export function FitWhileUntouched({ touched, fitOptions }: { touched: boolean; f
       (bounds.x + bounds.width) * zoom + x <= width &&
       (bounds.y + bounds.height) * zoom + y <= height;
     // A picture held at its least readable zoom is larger than the view by design.
-    if (!inside && zoom > (fitOptions.minZoom ?? 0)) void fitView({ ...fitOptions, duration: 250 });
+    const heldAtLeast = fitOptions.minZoom !== undefined && Math.abs(zoom - fitOptions.minZoom) < 1e-3;
+    if (!inside && !heldAtLeast) void fitView({ ...fitOptions, duration: 250 });
   }, [initialized, touched, nodeIds, width, height, fitView, getNodes, getNodesBounds, getViewport, fitOptions]);
   return null;
+}
+
+/**
+ * Whether the nodes can be fitted: all measured, or, when only what is on screen is drawn (and so
+ * measured), present with the sizes estimated for them (`initialWidth`, `initialHeight`).
+ */
+function useDrawable(): boolean {
+  const measured = useNodesInitialized();
+  // Every node of ours carries estimated sizes, so looking at one tells about all.
+  const estimated = useStore((state) => state.nodeLookup.values().next().value?.initialWidth !== undefined);
+  return measured || estimated;
 }
 
 export function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: string } }) {
@@ -108,12 +120,12 @@ export function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: str
  * just added them), and hands the view to the reader.
  */
 export function CentreOnFocus({ focusKey, ids, onCentred }: { focusKey: string; ids: string[]; onCentred(): void }) {
-  const initialized = useNodesInitialized();
+  const drawable = useDrawable();
   const { fitView, getNode } = useReactFlow();
   const done = useRef("");
   useEffect(() => {
-    if (!focusKey || done.current === focusKey || !initialized || ids.length === 0) return;
-    if (!ids.every((id) => getNode(id)?.measured?.width)) return;
+    if (!focusKey || done.current === focusKey || !drawable || ids.length === 0) return;
+    if (!ids.every((id) => getNode(id))) return;
     done.current = focusKey;
     onCentred();
     void fitView({ nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, duration: 300 });

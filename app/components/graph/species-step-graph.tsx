@@ -6,7 +6,7 @@ import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, keepUnchanged, them
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
 import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
-import { buildSpeciesStepModel, speciesNodeId, stepNodeId } from "./species-step-model";
+import { buildSpeciesStepModel, estimateSpeciesStepSize, speciesNodeId, stepNodeId } from "./species-step-model";
 import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
 import { useSpeciesStepLayout } from "./use-species-step-layout";
 
@@ -14,7 +14,8 @@ type SpeciesStepNode = SpeciesNode | StepNode;
 
 const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
 const edgeTypes = { reaction: ReactionEdgeView };
-const fitOptions = { padding: 0.1, maxZoom: 1.15 };
+/** Never fitted smaller than labels can be read: a large picture opens on its middle, to pan or search. */
+const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: 0.7 };
 
 export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphReport | null; emphasis: Emphasis }) {
   const model = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
@@ -35,6 +36,8 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
           id: node.id,
           type: node.kind,
           ariaLabel: node.description,
+          initialWidth: estimateSpeciesStepSize(node).width,
+          initialHeight: estimateSpeciesStepSize(node).height,
           position: old?.position ?? positions[node.id] ?? { x: 0, y: 0 },
           data: { label: node.label, description: node.description },
         } as SpeciesStepNode;

@@ -21,8 +21,10 @@ export function useLinkageFolding(report: ComplexGraphReport | null): LinkageFol
     setKeys(new Set([...startsFolded(report)].map((index) => classKey(report, index))));
   }, [report, keys]);
 
+  // Before the effect above has stored the starting keys, the first report is already drawn folded.
   const folded = useMemo(() => {
-    if (!report || !keys) return new Set<number>();
+    if (!report) return new Set<number>();
+    if (!keys) return startsFolded(report);
     return new Set(report.linkageClasses.flatMap((_, index) => (keys.has(classKey(report, index)) ? [index] : [])));
   }, [report, keys]);
 
