@@ -27,7 +27,7 @@ import { GraphToolbar, type GraphView } from "./graph-toolbar";
 import { estimateNodeSize, type XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
 import { classBoxCorner, classBoxLabel, classKey, estimateClassBoxSize } from "./linkage-groups";
-import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
+import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
 import { SpeciesStepGraph } from "./species-step-graph";
 import { useComplexPositions } from "./use-complex-positions";
 import { useHeldComplexes } from "./use-held-complexes";
@@ -74,8 +74,8 @@ const edgeTypes = { reaction: ReactionEdgeView };
 
 /** Drags reach co-authors at most this often; the final position is always written. */
 const dragWriteInterval = 80;
-/** The least zoom of a fit while classes are folded: node labels stay at 9 px or more. */
-const readableZoom = 0.7;
+/** The least zoom of a fit while classes are folded: node labels at 10 px, rate labels still shown. */
+const readableZoom = edgeLabelZoom;
 const classBoxPrefix = "class:";
 
 export function ComplexGraph(props: ComplexGraphProps) {

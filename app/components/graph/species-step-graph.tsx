@@ -5,7 +5,7 @@ import { useEffect, useId, useMemo, useState } from "react";
 import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, keepUnchanged, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
-import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
+import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
 import { buildSpeciesStepModel, estimateSpeciesStepSize, speciesNodeId, stepNodeId } from "./species-step-model";
 import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
 import { useSpeciesStepLayout } from "./use-species-step-layout";
@@ -15,7 +15,7 @@ type SpeciesStepNode = SpeciesNode | StepNode;
 const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
 const edgeTypes = { reaction: ReactionEdgeView };
 /** Never fitted smaller than labels can be read: a large picture opens on its middle, to pan or search. */
-const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: 0.7 };
+const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: edgeLabelZoom };
 
 export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphReport | null; emphasis: Emphasis }) {
   const model = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
