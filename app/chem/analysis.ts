@@ -5,7 +5,7 @@ import { detailedBalance, type DetailedBalance } from "./detailed-balance";
 import { nullSpace, rank } from "./linalg/kernel";
 import type { SparseVector } from "./linalg/sparse";
 import { analyzeLinkage } from "./linkage";
-import type { Diagnostic, Network, ParseResult } from "./model";
+import type { Diagnostic, Mechanism, Network, ParseResult, Term } from "./model";
 import { buildNetwork, reactionVector } from "./network";
 import { inducedOdes } from "./odes";
 import { checkSourceLimits, parseMechanism } from "./parse";
@@ -47,6 +47,18 @@ export interface AnalysisReport {
   fixedSpecies: Record<string, number>;
   /** Named rate coefficients and their values: the typeset equations keep the names. */
   parameters: Record<string, number>;
+  /** The steps as written, for the graph's species–step view, search and the step under the caret. */
+  steps: StepSummary[];
+}
+
+/** One step of the text: its species as [species index, coefficient] (fixed species left out). */
+export interface StepSummary {
+  label: string | null;
+  line: number;
+  reactants: [number, number][];
+  products: [number, number][];
+  /** Indices into `reactions` this step contributes to (none when only fixed species change). */
+  reactions: number[];
 }
 
 export async function analyzeSource(source: string): Promise<AnalysisReport> {
@@ -128,7 +140,30 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     customLaws,
     fixedSpecies: mechanism.fixed,
     parameters: mechanism.parameters,
+    steps: stepSummaries(mechanism, network),
   };
+}
+
+function stepSummaries(mechanism: Mechanism, network: Network): StepSummary[] {
+  const speciesIndex = new Map(network.species.map((name, index) => [name, index]));
+  const reactionsOf = mechanism.steps.map((): number[] => []);
+  network.reactions.forEach((reaction, index) => reaction.steps.forEach((step) => reactionsOf[step].push(index)));
+  // A + A is one entry of coefficient 2, as in the complex.
+  const indexed = (terms: Term[]): [number, number][] => {
+    const totals = new Map<number, number>();
+    for (const { species, coefficient } of terms) {
+      const index = speciesIndex.get(species);
+      if (index !== undefined) totals.set(index, (totals.get(index) ?? 0) + coefficient);
+    }
+    return [...totals];
+  };
+  return mechanism.steps.map((step, index) => ({
+    label: step.label,
+    line: step.line,
+    reactants: indexed(step.reactants),
+    products: indexed(step.products),
+    reactions: reactionsOf[index],
+  }));
 }
 
 /**

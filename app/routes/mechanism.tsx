@@ -7,7 +7,7 @@ import { deleteMechanism, renameMechanism } from "~/utils/mechanisms.server";
 import { atLeast } from "~/shared/roles";
 import { layoutMap, sourceText } from "~/shared/room-document";
 import { CollabEditor, type CollabEditorHandle } from "~/components/editor/collab-editor";
-import { ComplexGraph } from "~/components/graph/complex-graph";
+import { type CaretStep, ComplexGraph } from "~/components/graph/complex-graph";
 import { Presence } from "~/components/presence";
 import { RolePill } from "~/components/role-pill";
 import { StructurePanel } from "~/components/structure-panel";
@@ -61,6 +61,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   const room = useRoom(mechanism.id, { user, readOnly: !canEdit, role });
   const editor = useRef<CollabEditorHandle>(null);
   const [tab, setTab] = useState<Tab>("Graph");
+  const [caretStep, setCaretStep] = useState<CaretStep | null>(null);
   const source = useMemo(() => (room.doc ? sourceText(room.doc) : null), [room.doc]);
   const layout = useMemo(() => (room.doc ? layoutMap(room.doc) : null), [room.doc]);
   const report = room.analysis.report ?? null;
@@ -101,7 +102,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
           </div>
           {/* Before the room connects, the saved text stands in so the page is never blank. */}
           {source ? (
-            <CollabEditor ref={editor} source={source} awareness={room.awareness} readOnly={!canEdit} notice={room.notice} className="min-h-0 flex-1" />
+            <CollabEditor ref={editor} source={source} awareness={room.awareness} readOnly={!canEdit} notice={room.notice} onCaretStep={setCaretStep} className="min-h-0 flex-1" />
           ) : (
             <pre className="flex-1 overflow-auto p-4 text-sm leading-relaxed text-muted" data-testid="source">{mechanism.source}</pre>
           )}
@@ -130,6 +131,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               canEdit={canEdit}
               synced={room.synced}
               awareness={room.awareness}
+              caretStep={caretStep}
               className="h-[36rem]"
               onSelect={(selection) => editor.current?.highlight(source ? stepRangesFor(source.toString(), selection) : [])}
             />

@@ -23,6 +23,7 @@ import { mechanismLinter } from "~/editor/lint";
 import { mechanism } from "~/editor/mechanism-language";
 import { editorTheme } from "./editor-theme";
 import type { RoomNotice } from "~/utils/use-room";
+import { type CaretStep, caretStepListener } from "./caret-step";
 import { linkedRanges, showLinkedRanges, type TextRange } from "./linked-ranges";
 import { textLimits } from "./text-limits";
 
@@ -45,9 +46,14 @@ export interface CollabEditorProps {
   label?: string;
   /** The room's latest refusal of an edit, shown like the editor's own. */
   notice?: RoomNotice | null;
+  /** Hears which step the caret is in whenever that changes (the graph lights it up). */
+  onCaretStep?: (step: CaretStep | null) => void;
 }
 
-export function CollabEditor({ source, awareness, readOnly, ref, className, label = "Mechanism text", notice }: CollabEditorProps) {
+export function CollabEditor({ source, awareness, readOnly, ref, className, label = "Mechanism text", notice, onCaretStep }: CollabEditorProps) {
+  // Read through a ref, so a new callback each render does not rebuild the editor.
+  const caretListener = useRef(onCaretStep);
+  caretListener.current = onCaretStep;
   const host = useRef<HTMLDivElement>(null);
   const view = useRef<EditorView | null>(null);
   // Why the last change was refused or altered, until dismissed or the next one.
@@ -66,7 +72,10 @@ export function CollabEditor({ source, awareness, readOnly, ref, className, labe
       parent: host.current,
       state: EditorState.create({
         doc: source.toString(),
-        extensions: editorExtensions({ source, awareness, undoManager, readOnly, label, notify: setMessage }),
+        extensions: [
+          editorExtensions({ source, awareness, undoManager, readOnly, label, notify: setMessage }),
+          caretStepListener((step) => caretListener.current?.(step)),
+        ],
       }),
     });
     view.current = editor;

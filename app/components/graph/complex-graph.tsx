@@ -1,5 +1,8 @@
-// The complex graph of a mechanism, shared live: node positions live in the room's `layout` map,
-// complexes nobody has placed yet are laid out by dagre, and dragging a node moves it for everyone.
+// The graph of a mechanism, in two views. The complex graph is shared live: node positions live in
+// the room's `layout` map, complexes nobody has placed yet are laid out by dagre, and dragging a
+// node moves it for everyone; linkage classes fold into one box each (a reader's own choice). The
+// species–step view is the reader's own picture. Both find and focus a species or a step, and light
+// up the step under the editor's caret.
 import "@xyflow/react/dist/style.css";
 import {
   applyNodeChanges,
@@ -10,23 +13,28 @@ import {
   type NodeChange,
   ReactFlow,
   ReactFlowProvider,
-  useNodesInitialized,
-  useReactFlow,
-  useStore,
 } from "@xyflow/react";
-import { type CSSProperties, useEffect, useId, useMemo, useRef, useState } from "react";
+import { useEffect, useId, useMemo, useRef, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import type * as Y from "yjs";
+import { ClassBoxView, type ClassBoxNode } from "./class-box-node";
 import { ComplexNodeView, type ComplexNode } from "./complex-node";
+import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, type FitOptions, keepUnchanged, themeVariables } from "./graph-canvas";
+import { type CaretStep, caretStepIndex, type Emphasis, type FocusTarget, neighbourhood, searchEntries } from "./graph-focus";
 import { GraphLegend } from "./graph-legend";
 import { buildGraphModel, type ComplexGraphReport, type GraphModel } from "./graph-model";
-import type { XY } from "./layout";
+import { GraphToolbar, type GraphView } from "./graph-toolbar";
+import { estimateNodeSize, type XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
-import { ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
+import { classBoxCorner, classBoxLabel, classKey, estimateClassBoxSize } from "./linkage-groups";
+import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
+import { SpeciesStepGraph } from "./species-step-graph";
 import { useComplexPositions } from "./use-complex-positions";
 import { useHeldComplexes } from "./use-held-complexes";
+import { type LinkageFolding, useLinkageFolding } from "./use-linkage-folding";
 
 export type { ComplexGraphReport } from "./graph-model";
+export type { CaretStep } from "./graph-focus";
 
 export interface GraphSelection {
   kind: "complex" | "reaction";
@@ -46,6 +54,8 @@ export interface ComplexGraphProps {
   /** The room's awareness: with it, a box a co-author is dragging shows who holds it. */
   awareness?: Awareness | null;
   onSelect?: (selection: GraphSelection | null) => void;
+  /** The step under the editor's caret: its reactions and complexes are lit. */
+  caretStep?: CaretStep | null;
   className?: string;
   /** How far fitting may zoom in; a projector lets the graph fill the screen. */
   fitMaxZoom?: number;
@@ -57,27 +67,16 @@ interface Chosen {
   id: string;
 }
 
-const nodeTypes = { complex: ComplexNodeView };
+type GraphNode = ComplexNode | ClassBoxNode;
+
+const nodeTypes = { complex: ComplexNodeView, classBox: ClassBoxView };
 const edgeTypes = { reaction: ReactionEdgeView };
 
 /** Drags reach co-authors at most this often; the final position is always written. */
 const dragWriteInterval = 80;
-
-// React Flow's own colours, pointed at Mechweave's theme variables so both themes just work.
-const themeVariables = {
-  "--xy-background-color": "var(--mw-canvas)",
-  "--xy-background-pattern-color": "var(--mw-line)",
-  "--xy-edge-stroke": "var(--mw-muted)",
-  "--xy-edge-stroke-selected": "var(--mw-accent)",
-  "--xy-node-boxshadow-selected": "none",
-  "--xy-controls-button-background-color": "var(--mw-raised)",
-  "--xy-controls-button-background-color-hover": "var(--mw-accent-soft)",
-  "--xy-controls-button-color": "var(--mw-ink)",
-  "--xy-controls-button-color-hover": "var(--mw-accent)",
-  "--xy-controls-button-border-color": "var(--mw-line)",
-  "--xy-controls-box-shadow": "0 1px 2px rgb(0 0 0 / 0.12)",
-  "--xy-attribution-background-color": "transparent",
-} as CSSProperties;
+/** The least zoom of a fit while classes are folded: node labels at 10 px, rate labels still shown. */
+const readableZoom = edgeLabelZoom;
+const classBoxPrefix = "class:";
 
 export function ComplexGraph(props: ComplexGraphProps) {
   // React Flow measures the DOM; render it in the browser only and keep server markup a plain box.
@@ -85,21 +84,79 @@ export function ComplexGraph(props: ComplexGraphProps) {
   useEffect(() => setMounted(true), []);
   return (
     <div className={`flex h-full min-h-80 flex-col ${props.className ?? ""}`} data-testid="complex-graph">
-      {mounted && (
-        <ReactFlowProvider>
-          <SharedComplexGraph {...props} />
-        </ReactFlowProvider>
-      )}
+      {mounted && <GraphWorkspace {...props} />}
     </div>
   );
 }
 
-function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null, onSelect, fitMaxZoom = 1.15 }: ComplexGraphProps) {
-  const fitOptions = useMemo(() => ({ padding: 0.2, maxZoom: fitMaxZoom }), [fitMaxZoom]);
+function GraphWorkspace(props: ComplexGraphProps) {
+  const { report, caretStep = null } = props;
+  const [view, setView] = useState<GraphView>("complexes");
+  // Held by kind and name, so the focus survives edits that renumber species and steps.
+  const [focused, setFocused] = useState<{ kind: FocusTarget["kind"]; name: string; at: number } | null>(null);
+  const entries = useMemo(() => (report ? searchEntries(report) : []), [report]);
+  const focusEntry = focused ? (entries.find(({ kind, name }) => kind === focused.kind && name === focused.name) ?? null) : null;
+  const folding = useLinkageFolding(report);
+  const caretIndex = report ? caretStepIndex(report, caretStep) : null;
+
+  const emphasis = useMemo<Emphasis>(
+    () => ({
+      focus: report && focusEntry ? neighbourhood(report, focusEntry) : null,
+      caret: report && caretIndex !== null ? neighbourhood(report, { kind: "step", index: caretIndex }) : null,
+      focusKey: focusEntry ? `${focusEntry.kind}:${focusEntry.name}:${focused?.at}` : "",
+    }),
+    [report, focusEntry, caretIndex, focused?.at],
+  );
+
+  const focus = (target: FocusTarget | null) => {
+    const entry = target && entries.find(({ kind, index }) => kind === target.kind && index === target.index);
+    setFocused(entry ? { kind: entry.kind, name: entry.name, at: Date.now() } : null);
+    if (!entry || !report) return;
+    // A focused neighbourhood is never hidden inside a folded class.
+    const classOf = new Map(report.linkageClasses.flatMap((members, index) => members.map((member) => [member, index] as const)));
+    folding.unfold([...neighbourhood(report, entry).complexes].flatMap((complex) => classOf.get(complex) ?? []));
+  };
+
+  return (
+    <>
+      <GraphToolbar
+        view={view}
+        onView={setView}
+        entries={entries}
+        focus={focusEntry}
+        onFocus={focus}
+        folding={
+          view === "complexes" && report
+            ? { folded: folding.folded.size, classes: report.linkageClasses.length, foldAll: folding.foldAll, unfoldAll: folding.unfoldAll }
+            : undefined
+        }
+      />
+      <ReactFlowProvider key={view}>
+        {view === "complexes" ? (
+          <SharedComplexGraph {...props} folding={folding} emphasis={emphasis} />
+        ) : (
+          <SpeciesStepGraph report={report} emphasis={emphasis} />
+        )}
+      </ReactFlowProvider>
+    </>
+  );
+}
+
+function SharedComplexGraph({
+  report,
+  layout,
+  canEdit,
+  synced,
+  awareness = null,
+  onSelect,
+  fitMaxZoom = 1.15,
+  folding,
+  emphasis,
+}: ComplexGraphProps & { folding: LinkageFolding; emphasis: Emphasis }) {
   const model = useMemo(() => (report ? buildGraphModel(report) : null), [report]);
   const positions = useComplexPositions(report, layout, { canEdit, synced });
   const { held, hold } = useHeldComplexes(awareness);
-  const [nodes, setNodes] = useState<ComplexNode[]>([]);
+  const [nodes, setNodes] = useState<GraphNode[]>([]);
   // Held by id (complex text), not index, so the same complex stays selected while the text changes.
   const [selected, setSelected] = useState<Chosen | null>(null);
   const lastWrite = useRef(new Map<string, number>());
@@ -107,39 +164,68 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
   const [viewTouched, setViewTouched] = useState(false);
   const markerBase = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
   const marker = useMemo(() => ({ normal: markerBase, selected: `${markerBase}-selected` }), [markerBase]);
+  const folded = folding.folded;
+
+  // A large mechanism starts folded: the first fit shows what is unfolded, at a readable size.
+  const startedFolded = useRef<boolean | null>(null);
+  if (startedFolded.current === null && model) startedFolded.current = folded.size > 0;
+  const fitOptions = useMemo((): FitOptions => {
+    const plain = { padding: 0.2, maxZoom: fitMaxZoom };
+    if (!startedFolded.current || !model) return plain;
+    const unfolded = model.nodes.filter((node) => !folded.has(node.linkageClass)).map((node) => ({ id: node.key }));
+    return { ...plain, minZoom: readableZoom, nodes: unfolded.length > 0 ? unfolded : undefined };
+  }, [fitMaxZoom, model, folded]);
 
   // Shared positions flow into the nodes, except for a node this user is dragging right now.
   useEffect(() => {
-    setNodes((previous) => buildNodes(model, positions.all, previous));
-  }, [model, positions.all]);
+    setNodes((previous) => buildNodes(model, report, folded, positions.all, previous));
+  }, [model, report, folded, positions.all]);
 
   const previousEdges = useRef<ReactionEdge[]>([]);
   const edges = useMemo(() => {
-    const built = (model?.edges ?? []).map((edge): ReactionEdge => ({
-      id: edge.id,
-      type: "reaction",
-      source: edge.source,
-      target: edge.target,
-      selected: selected?.kind === "reaction" && selected.id === edge.id,
-      ariaLabel: edge.description,
-      data: { bend: edge.bend, label: edge.label, description: edge.description, marker },
-    }));
+    const classOf = new Map(model?.nodes.map((node) => [node.key, node.linkageClass]));
+    const built = (model?.edges ?? [])
+      .filter((edge) => !folded.has(classOf.get(edge.source) ?? -1))
+      .map((edge): ReactionEdge => ({
+        id: edge.id,
+        type: "reaction",
+        source: edge.source,
+        target: edge.target,
+        selected: selected?.kind === "reaction" && selected.id === edge.id,
+        ariaLabel: edge.description,
+        data: {
+          bend: edge.bend,
+          label: edge.label,
+          description: edge.description,
+          marker,
+          lit: Boolean(emphasis.caret?.reactions.has(edge.index) || emphasis.focus?.reactions.has(edge.index)),
+          dim: Boolean(emphasis.focus && !emphasis.focus.reactions.has(edge.index)),
+        },
+      }));
     previousEdges.current = keepUnchanged(previousEdges.current, built, sameEdge);
     return previousEdges.current;
-  }, [model, selected, marker]);
+  }, [model, folded, selected, marker, emphasis]);
 
-  // Selection and co-authors' holds are laid over the nodes last; a node keeps its object when
-  // neither changed, so React Flow does not redraw it.
-  const shownNodes = useMemo(
-    () =>
-      nodes.map((node) => {
-        const chosen = selected?.kind === "complex" && selected.id === node.id;
-        const heldBy = held.get(node.id);
-        if (Boolean(node.selected) === chosen && node.data.heldBy === heldBy) return node;
-        return { ...node, selected: chosen, data: { ...node.data, heldBy } };
-      }),
-    [nodes, selected, held],
-  );
+  // Selection, co-authors' holds and emphasis are laid over the nodes last; a node keeps its
+  // object when none changed, so React Flow does not redraw it.
+  const shownNodes = useMemo(() => {
+    const lit = (complexes: readonly number[]) =>
+      complexes.some((complex) => emphasis.caret?.complexes.has(complex) || emphasis.focus?.complexes.has(complex));
+    const dim = (complexes: readonly number[]) => Boolean(emphasis.focus) && !complexes.some((complex) => emphasis.focus?.complexes.has(complex));
+    const indexOf = new Map(model?.nodes.map((node) => [node.key, node.index]));
+    return nodes.map((node): GraphNode => {
+      const members = node.type === "classBox" ? (report?.linkageClasses[node.data.classIndex] ?? []) : [indexOf.get(node.id) ?? -1];
+      const emphasised = { lit: lit(members), dim: dim(members) };
+      if (node.type === "classBox") {
+        if (node.data.lit === emphasised.lit && node.data.dim === emphasised.dim) return node;
+        return { ...node, data: { ...node.data, ...emphasised } };
+      }
+      const chosen = selected?.kind === "complex" && selected.id === node.id;
+      const heldBy = held.get(node.id);
+      if (Boolean(node.selected) === chosen && node.data.heldBy === heldBy && node.data.lit === emphasised.lit && node.data.dim === emphasised.dim) return node;
+      return { ...node, selected: chosen, data: { ...node.data, heldBy, ...emphasised } };
+    });
+  }, [nodes, selected, held, emphasis, model, report]);
 
   // Clicks and the keyboard (Enter on a focused node or arrow) both arrive as React Flow's select
   // changes; a ref lets repeated reports of one choice reach the page once.
@@ -156,12 +242,12 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
         : model.edges.find((edge) => edge.id === next.id)?.index;
     if (index !== undefined) onSelect({ kind: next.kind, index });
   };
-  const pickFrom = (kind: Chosen["kind"], changes: (NodeChange<ComplexNode> | EdgeChange<ReactionEdge>)[]) => {
-    const picked = changes.find((change) => change.type === "select" && change.selected);
+  const pickFrom = (kind: Chosen["kind"], changes: (NodeChange<GraphNode> | EdgeChange<ReactionEdge>)[]) => {
+    const picked = changes.find((change) => change.type === "select" && change.selected && !change.id.startsWith(classBoxPrefix));
     if (picked?.type === "select") select({ kind, id: picked.id });
   };
 
-  const onNodesChange = (changes: NodeChange<ComplexNode>[]) => {
+  const onNodesChange = (changes: NodeChange<GraphNode>[]) => {
     pickFrom("complex", changes);
     // Selection is ours (it mirrors into the text); React Flow keeps only geometry.
     const geometry = changes.filter((change) => change.type === "position" || change.type === "dimensions");
@@ -170,7 +256,7 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
     const now = Date.now();
     const moved: Record<string, XY> = {};
     for (const change of geometry) {
-      if (change.type !== "position" || !change.position) continue;
+      if (change.type !== "position" || !change.position || change.id.startsWith(classBoxPrefix)) continue;
       const finished = !change.dragging;
       if (finished || now - (lastWrite.current.get(change.id) ?? 0) >= dragWriteInterval) {
         moved[change.id] = change.position;
@@ -192,13 +278,14 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
     <>
       <div className="relative min-h-0 flex-1">
         <ArrowheadMarkers ids={marker} />
-        <ReactFlow<ComplexNode, ReactionEdge>
+        <ReactFlow<GraphNode, ReactionEdge>
           nodes={shownNodes}
           edges={edges}
           nodeTypes={nodeTypes}
           edgeTypes={edgeTypes}
           onNodesChange={onNodesChange}
           onEdgesChange={(changes) => pickFrom("reaction", changes)}
+          onNodeClick={(_, node) => node.type === "classBox" && folding.unfold([node.data.classIndex])}
           onPaneClick={() => select(null)}
           onNodeDragStart={(_, node) => hold(node.id)}
           onNodeDragStop={() => hold(null)}
@@ -212,8 +299,8 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
           deleteKeyCode={null}
           selectionKeyCode={null}
           multiSelectionKeyCode={null}
-          // Past a few hundred complexes, drawing only what is on screen keeps pan and zoom smooth.
-          onlyRenderVisibleElements={model.nodes.length > 250}
+          // Past a few hundred nodes, drawing only what is on screen keeps pan and zoom smooth.
+          onlyRenderVisibleElements={shownNodes.length > 250}
           fitView
           fitViewOptions={fitOptions}
           minZoom={0.1}
@@ -224,56 +311,84 @@ function SharedComplexGraph({ report, layout, canEdit, synced, awareness = null,
           <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
           <Controls showInteractive={false} position="bottom-left" />
           <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
+          <CentreOnFocus
+            focusKey={emphasis.focusKey}
+            ids={model.nodes.filter((node) => emphasis.focus?.complexes.has(node.index)).map((node) => node.key)}
+            onCentred={() => setViewTouched(true)}
+          />
         </ReactFlow>
       </div>
-      <GraphLegend linkageClassCount={model.linkageClassCount} fixedSpecies={Object.keys(report?.fixedSpecies ?? {})} />
+      <GraphLegend linkageClassCount={model.linkageClassCount} folded={folded.size} fixedSpecies={Object.keys(report?.fixedSpecies ?? {})} />
     </>
   );
 }
 
-function buildNodes(model: GraphModel | null, positions: Readonly<Record<string, XY>>, previous: ComplexNode[]): ComplexNode[] {
-  if (!model) return [];
+function buildNodes(
+  model: GraphModel | null,
+  report: ComplexGraphReport | null,
+  folded: ReadonlySet<number>,
+  positions: Readonly<Record<string, XY>>,
+  previous: GraphNode[],
+): GraphNode[] {
+  if (!model || !report) return [];
   const before = new Map(previous.map((node) => [node.id, node]));
-  const built = model.nodes.map((complex): ComplexNode => {
-    const old = before.get(complex.key);
-    return {
-      ...old,
-      id: complex.key,
-      type: "complex",
-      ariaLabel: complex.description,
-      position: old?.dragging ? old.position : (positions[complex.key] ?? old?.position ?? { x: 0, y: 0 }),
-      data: {
-        label: complex.label,
-        colours: linkageClassColours(complex.linkageClass),
-        terminal: complex.terminal,
-        description: complex.description,
-        appeared: previous.length > 0 && !old,
+  const complexes = model.nodes
+    .filter((complex) => !folded.has(complex.linkageClass))
+    .map((complex): ComplexNode => {
+      const old = before.get(complex.key) as ComplexNode | undefined;
+      return {
+        ...old,
+        id: complex.key,
+        type: "complex",
+        ariaLabel: complex.description,
+        // Used for fitting before the browser has measured the box (never, for one off screen).
+        initialWidth: estimateNodeSize(complex.label).width,
+        initialHeight: estimateNodeSize(complex.label).height,
+        position: old?.dragging ? old.position : (positions[complex.key] ?? old?.position ?? { x: 0, y: 0 }),
+        data: {
+          label: complex.label,
+          colours: linkageClassColours(complex.linkageClass),
+          terminal: complex.terminal,
+          description: complex.description,
+          appeared: previous.length > 0 && !old,
+          lit: old?.data.lit,
+          dim: old?.data.dim,
+        },
+      };
+    });
+  const boxes = [...folded].flatMap((classIndex): ClassBoxNode[] => {
+    const members = report.linkageClasses[classIndex];
+    if (!members) return [];
+    const id = `${classBoxPrefix}${classKey(report, classIndex)}`;
+    const label = classBoxLabel(classIndex, members.length);
+    const old = before.get(id) as ClassBoxNode | undefined;
+    const corners = members.flatMap((member) => positions[report.complexes[member]] ?? []);
+    return [
+      {
+        ...old,
+        id,
+        type: "classBox",
+        draggable: false,
+        initialWidth: estimateClassBoxSize(label).width,
+        initialHeight: estimateClassBoxSize(label).height,
+        ariaLabel: `Linkage class ${classIndex + 1}, ${members.length} complexes, folded`,
+        position: classBoxCorner(corners),
+        data: { label, classIndex, colours: linkageClassColours(classIndex), description: `Linkage class ${classIndex + 1}: ${members.map((member) => report.complexes[member]).join(", ")}`, lit: old?.data.lit, dim: old?.data.dim },
       },
-    };
+    ];
   });
-  return keepUnchanged(previous, built, sameNode);
+  return keepUnchanged(previous, [...complexes, ...boxes], sameNode);
 }
 
-/**
- * Hands React Flow the previous object wherever nothing it draws has changed: it re-renders only
- * the nodes and arrows whose objects are new, which keeps a large graph responsive while co-authors
- * type and drag.
- */
-function keepUnchanged<T extends { id: string }>(previous: readonly T[], built: T[], same: (old: T, next: T) => boolean): T[] {
-  const before = new Map(previous.map((item) => [item.id, item]));
-  return built.map((item) => {
-    const old = before.get(item.id);
-    return old && same(old, item) ? old : item;
-  });
-}
-
-const sameNode = (old: ComplexNode, next: ComplexNode) =>
+const sameNode = (old: GraphNode, next: GraphNode) =>
+  old.type === next.type &&
   old.position.x === next.position.x &&
   old.position.y === next.position.y &&
   old.data.label === next.data.label &&
-  old.data.terminal === next.data.terminal &&
   old.data.description === next.data.description &&
-  old.data.colours.fill === next.data.colours.fill;
+  old.data.colours.fill === next.data.colours.fill &&
+  old.data.colours.rim === next.data.colours.rim &&
+  (old.type !== "complex" || next.type !== "complex" || old.data.terminal === next.data.terminal);
 
 const sameEdge = (old: ReactionEdge, next: ReactionEdge) =>
   old.source === next.source &&
@@ -283,62 +398,6 @@ const sameEdge = (old: ReactionEdge, next: ReactionEdge) =>
   old.data?.bend === next.data?.bend &&
   old.data?.label === next.data?.label &&
   old.data?.description === next.data?.description &&
-  old.data?.marker === next.data?.marker;
-
-/**
- * Fits the graph when it is first drawn, and again (gliding) whenever a complex lands outside the
- * view, unless the reader has taken the view. Complexes that come and go inside it leave the zoom
- * alone, so a room watching someone type is not shaken at every keystroke.
- */
-function FitWhileUntouched({ touched, fitOptions }: { touched: boolean; fitOptions: { padding: number; maxZoom: number } }) {
-  const initialized = useNodesInitialized();
-  const { fitView, getNodes, getNodesBounds, getViewport } = useReactFlow();
-  const nodeIds = useStore((state) => [...state.nodeLookup.keys()].join("\n"));
-  const width = useStore((state) => state.width);
-  const height = useStore((state) => state.height);
-  const fitted = useRef(false);
-  useEffect(() => {
-    if (!initialized || touched) return;
-    if (!fitted.current) {
-      fitted.current = true;
-      void fitView(fitOptions);
-      return;
-    }
-    const bounds = getNodesBounds(getNodes());
-    const { x, y, zoom } = getViewport();
-    const inside =
-      bounds.x * zoom + x >= 0 &&
-      bounds.y * zoom + y >= 0 &&
-      (bounds.x + bounds.width) * zoom + x <= width &&
-      (bounds.y + bounds.height) * zoom + y <= height;
-    if (!inside) void fitView({ ...fitOptions, duration: 250 });
-  }, [initialized, touched, nodeIds, width, height, fitView, getNodes, getNodesBounds, getViewport, fitOptions]);
-  return null;
-}
-
-function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: string } }) {
-  return (
-    <svg className="absolute h-0 w-0" aria-hidden="true">
-      <defs>
-        {[
-          [ids.normal, "var(--mw-muted)"],
-          [ids.selected, "var(--mw-accent)"],
-        ].map(([id, colour]) => (
-          <marker
-            key={id}
-            id={id}
-            viewBox="0 0 10 10"
-            refX="9"
-            refY="5"
-            markerWidth="9"
-            markerHeight="9"
-            markerUnits="userSpaceOnUse"
-            orient="auto-start-reverse"
-          >
-            <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
-          </marker>
-        ))}
-      </defs>
-    </svg>
-  );
-}
+  old.data?.marker === next.data?.marker &&
+  old.data?.lit === next.data?.lit &&
+  old.data?.dim === next.data?.dim;

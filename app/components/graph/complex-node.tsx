@@ -1,5 +1,6 @@
-// One complex as a box: tinted by its linkage class, with a double rim when it belongs to a
-// terminal strong linkage class, and a dashed ring with a name while a co-author drags it.
+// One complex as a box: tinted by its linkage class (rim pattern too, once hues repeat), with a
+// double rim when it belongs to a terminal strong linkage class, and a dashed ring with a name
+// while a co-author drags it.
 import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
 import { useEffect, useRef } from "react";
 import type { ClassColours } from "./linkage-colours";
@@ -14,15 +15,21 @@ export type ComplexNodeData = {
   appeared?: boolean;
   /** The co-author dragging this complex right now, if any. */
   heldBy?: Holder;
+  /** Outside the focused neighbourhood: drawn faint. */
+  dim?: boolean;
+  /** Part of the step under the caret, or the focused item's neighbourhood. */
+  lit?: boolean;
 };
 
 export type ComplexNode = Node<ComplexNodeData, "complex">;
 
 // Arrows are drawn centre to centre (see edge-geometry), so handles exist only because React Flow
 // attaches edges to them; they stay invisible and cannot start a connection.
-const hiddenHandle = { opacity: 0, pointerEvents: "none", width: 1, height: 1, minWidth: 0, minHeight: 0, border: 0 } as const;
+export const hiddenHandle = { opacity: 0, pointerEvents: "none", width: 1, height: 1, minWidth: 0, minHeight: 0, border: 0 } as const;
 
 const plainRim = 1.5;
+/** The step under the caret and a focused neighbourhood glow in the signal colour, apart from selection's accent. */
+export const litHalo = "0 0 0 4px color-mix(in oklab, var(--mw-signal) 55%, transparent)";
 const terminalRim = 4;
 
 export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
@@ -46,14 +53,17 @@ export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
       style={{
         background: data.colours.fill,
         borderColor: data.colours.outline,
-        borderStyle: data.terminal ? "double" : "solid",
+        borderStyle: data.terminal ? "double" : data.colours.rim,
         borderWidth: rim,
         padding: `${6 - inset}px ${14 - inset}px`,
         // A soft halo, not a second line: a crisp ring would read as the terminal double rim.
-        boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : undefined,
+        boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : data.lit ? litHalo : undefined,
+        opacity: data.dim ? 0.25 : 1,
         outline: data.heldBy ? `2px dashed ${data.heldBy.colour}` : undefined,
         outlineOffset: 3,
       }}
+      data-lit={data.lit || undefined}
+      data-dim={data.dim || undefined}
       title={data.heldBy ? `${data.description}, moved by ${data.heldBy.name}` : data.description}
     >
       {data.heldBy && (

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { analyzeSource } from "~/chem/analysis";
 import { buildGraphModel, rateText } from "./graph-model";
 import { edgeCurve } from "./edge-geometry";
-import { linkageClassColours } from "./linkage-colours";
+import { distinctClassColours, linkageClassColours } from "./linkage-colours";
 
 // X <=> 2X, X + Y -> 2Y, Y -> 0
 const report = {
@@ -76,9 +76,12 @@ describe("reaction curves", () => {
 });
 
 describe("linkage class colours", () => {
-  it("differ for every class of a large network", () => {
-    const bases = Array.from({ length: 30 }, (_, index) => linkageClassColours(index).base);
-    expect(new Set(bases).size).toBe(30);
+  it("differ, tint or rim, for every class of a large network", () => {
+    expect(distinctClassColours).toBeGreaterThanOrEqual(90);
+    const looks = Array.from({ length: distinctClassColours }, (_, index) => linkageClassColours(index)).map(({ base, rim }) => `${base} ${rim}`);
+    expect(new Set(looks).size).toBe(distinctClassColours);
+    // Once the hues come round, the rim changes first.
+    expect([0, 10, 20].map((index) => linkageClassColours(index).rim)).toEqual(["solid", "dashed", "dotted"]);
   });
 
   it("mix with the theme so they follow light and dark", () => {

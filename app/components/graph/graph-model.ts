@@ -1,5 +1,6 @@
 // From an analysis report to what the complex graph draws: one node per complex, one edge per
 // reaction, each tagged with its linkage class, terminal strong linkage class and pairing.
+import type { StepSummary } from "~/chem/analysis";
 
 /** The parts of an analysis report the graph reads (the `analyze` JSON has them all). */
 export interface ComplexGraphReport {
@@ -10,6 +11,9 @@ export interface ComplexGraphReport {
   terminalStrongLinkageClasses: number[][];
   /** External species held constant, with their concentrations. */
   fixedSpecies?: Record<string, number>;
+  /** Non-fixed species; with `steps`, what the species–step view, search and caret read. */
+  species?: string[];
+  steps?: StepSummary[];
 }
 
 export interface ComplexNodeModel {

@@ -1,0 +1,134 @@
+// What both views of the graph share on their React Flow canvas: the theme, the arrowheads,
+// fitting while the reader has not taken the view, and keeping unchanged items' objects.
+import { useNodesInitialized, useReactFlow, useStore } from "@xyflow/react";
+import { type CSSProperties, useEffect, useRef } from "react";
+
+// React Flow's own colours, pointed at Mechweave's theme variables so both themes just work.
+export const themeVariables = {
+  "--xy-background-color": "var(--mw-canvas)",
+  "--xy-background-pattern-color": "var(--mw-line)",
+  "--xy-edge-stroke": "var(--mw-muted)",
+  "--xy-edge-stroke-selected": "var(--mw-accent)",
+  "--xy-node-boxshadow-selected": "none",
+  "--xy-controls-button-background-color": "var(--mw-raised)",
+  "--xy-controls-button-background-color-hover": "var(--mw-accent-soft)",
+  "--xy-controls-button-color": "var(--mw-ink)",
+  "--xy-controls-button-color-hover": "var(--mw-accent)",
+  "--xy-controls-button-border-color": "var(--mw-line)",
+  "--xy-controls-box-shadow": "0 1px 2px rgb(0 0 0 / 0.12)",
+  "--xy-attribution-background-color": "transparent",
+} as CSSProperties;
+
+export interface FitOptions {
+  padding: number;
+  maxZoom: number;
+  /** Fitting never zooms out further: past it the view centres on the nodes and the reader pans. */
+  minZoom?: number;
+  /** The nodes to fit; all when absent. */
+  nodes?: { id: string }[];
+}
+
+/**
+ * Hands React Flow the previous object wherever nothing it draws has changed: it re-renders only
+ * the nodes and arrows whose objects are new, which keeps a large graph responsive while co-authors
+ * type and drag.
+ */
+export function keepUnchanged<T extends { id: string }>(previous: readonly T[], built: T[], same: (old: T, next: T) => boolean): T[] {
+  const before = new Map(previous.map((item) => [item.id, item]));
+  return built.map((item) => {
+    const old = before.get(item.id);
+    return old && same(old, item) ? old : item;
+  });
+}
+
+/**
+ * Fits the graph when it is first drawn, and again (gliding) whenever a fitted node lands outside
+ * the view, unless the reader has taken the view. Nodes that come and go inside it leave the zoom
+ * alone, so a room watching someone type is not shaken at every keystroke.
+ */
+export function FitWhileUntouched({ touched, fitOptions }: { touched: boolean; fitOptions: FitOptions }) {
+  const initialized = useDrawable();
+  const { fitView, getNodes, getNodesBounds, getViewport } = useReactFlow();
+  const nodeIds = useStore((state) => [...state.nodeLookup.keys()].join("\n"));
+  const width = useStore((state) => state.width);
+  const height = useStore((state) => state.height);
+  const fitted = useRef(false);
+  useEffect(() => {
+    if (!initialized || touched) return;
+    if (!fitted.current) {
+      fitted.current = true;
+      void fitView(fitOptions);
+      return;
+    }
+    const wanted = fitOptions.nodes ? new Set(fitOptions.nodes.map(({ id }) => id)) : null;
+    const fittedNodes = getNodes().filter(({ id }) => !wanted || wanted.has(id));
+    if (fittedNodes.length === 0) return;
+    const bounds = getNodesBounds(fittedNodes);
+    const { x, y, zoom } = getViewport();
+    const inside =
+      bounds.x * zoom + x >= 0 &&
+      bounds.y * zoom + y >= 0 &&
+      (bounds.x + bounds.width) * zoom + x <= width &&
+      (bounds.y + bounds.height) * zoom + y <= height;
+    // A picture held at its least readable zoom is larger than the view by design.
+    const heldAtLeast = fitOptions.minZoom !== undefined && Math.abs(zoom - fitOptions.minZoom) < 1e-3;
+    if (!inside && !heldAtLeast) void fitView({ ...fitOptions, duration: 250 });
+  }, [initialized, touched, nodeIds, width, height, fitView, getNodes, getNodesBounds, getViewport, fitOptions]);
+  return null;
+}
+
+/**
+ * Whether the nodes can be fitted: all measured, or, when only what is on screen is drawn (and so
+ * measured), present with the sizes estimated for them (`initialWidth`, `initialHeight`).
+ */
+function useDrawable(): boolean {
+  const measured = useNodesInitialized();
+  // Every node of ours carries estimated sizes, so looking at one tells about all.
+  const estimated = useStore((state) => state.nodeLookup.values().next().value?.initialWidth !== undefined);
+  return measured || estimated;
+}
+
+export function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: string } }) {
+  return (
+    <svg className="absolute h-0 w-0" aria-hidden="true">
+      <defs>
+        {[
+          [ids.normal, "var(--mw-muted)"],
+          [ids.selected, "var(--mw-accent)"],
+        ].map(([id, colour]) => (
+          <marker
+            key={id}
+            id={id}
+            viewBox="0 0 10 10"
+            refX="9"
+            refY="5"
+            markerWidth="9"
+            markerHeight="9"
+            markerUnits="userSpaceOnUse"
+            orient="auto-start-reverse"
+          >
+            <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
+          </marker>
+        ))}
+      </defs>
+    </svg>
+  );
+}
+
+/**
+ * Centres the view on a newly focused neighbourhood once its nodes are drawn (unfolding may have
+ * just added them), and hands the view to the reader.
+ */
+export function CentreOnFocus({ focusKey, ids, onCentred }: { focusKey: string; ids: string[]; onCentred(): void }) {
+  const drawable = useDrawable();
+  const { fitView, getNode } = useReactFlow();
+  const done = useRef("");
+  useEffect(() => {
+    if (!focusKey || done.current === focusKey || !drawable || ids.length === 0) return;
+    if (!ids.every((id) => getNode(id))) return;
+    done.current = focusKey;
+    onCentred();
+    void fitView({ nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, duration: 300 });
+  });
+  return null;
+}

@@ -1,0 +1,134 @@
+// The species–step view: species as boxes, steps as small squares, arcs labelled with coefficients
+// above 1 (on zoom). The picture is the reader's own: laid out in a worker, dragged locally.
+import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
+import { useEffect, useId, useMemo, useState } from "react";
+import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, keepUnchanged, themeVariables } from "./graph-canvas";
+import type { Emphasis } from "./graph-focus";
+import type { ComplexGraphReport } from "./graph-model";
+import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
+import { buildSpeciesStepModel, estimateSpeciesStepSize, speciesNodeId, stepNodeId } from "./species-step-model";
+import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
+import { useSpeciesStepLayout } from "./use-species-step-layout";
+
+type SpeciesStepNode = SpeciesNode | StepNode;
+
+const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
+const edgeTypes = { reaction: ReactionEdgeView };
+/** Never fitted smaller than labels can be read: a large picture opens on its middle, to pan or search. */
+const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: edgeLabelZoom };
+
+export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphReport | null; emphasis: Emphasis }) {
+  const model = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
+  const positions = useSpeciesStepLayout(model);
+  const [nodes, setNodes] = useState<SpeciesStepNode[]>([]);
+  const [viewTouched, setViewTouched] = useState(false);
+  const markerBase = `mw-arc-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
+  const marker = useMemo(() => ({ normal: markerBase, selected: `${markerBase}-selected` }), [markerBase]);
+
+  // A new model is drawn once its layout arrives; until then the previous picture stays.
+  useEffect(() => {
+    if (!model || !positions) return;
+    setNodes((previous) => {
+      const before = new Map(previous.map((node) => [node.id, node]));
+      const built = model.nodes.map((node): SpeciesStepNode => {
+        const old = before.get(node.id);
+        return {
+          id: node.id,
+          type: node.kind,
+          ariaLabel: node.description,
+          initialWidth: estimateSpeciesStepSize(node).width,
+          initialHeight: estimateSpeciesStepSize(node).height,
+          position: old?.position ?? positions[node.id] ?? { x: 0, y: 0 },
+          data: { label: node.label, description: node.description },
+        } as SpeciesStepNode;
+      });
+      return keepUnchanged(previous, built, (old, next) => old.type === next.type && old.data.label === next.data.label && old.data.description === next.data.description);
+    });
+  }, [model, positions]);
+
+  const species = report?.species ?? [];
+  const focusIds = useMemo(
+    () => (emphasis.focus ? [...[...emphasis.focus.species].map((index) => speciesNodeId(species[index])), ...[...emphasis.focus.steps].map(stepNodeId)] : []),
+    [emphasis.focus, species],
+  );
+  const litIds = useMemo(() => {
+    const ids = new Set(focusIds);
+    if (emphasis.caret) {
+      for (const index of emphasis.caret.species) ids.add(speciesNodeId(species[index]));
+      for (const index of emphasis.caret.steps) ids.add(stepNodeId(index));
+    }
+    return ids;
+  }, [focusIds, emphasis.caret, species]);
+
+  const shownNodes = useMemo(() => {
+    const focused = new Set(focusIds);
+    return nodes.map((node) => {
+      const lit = litIds.has(node.id);
+      const dim = emphasis.focus !== null && !focused.has(node.id);
+      if (node.data.lit === lit && node.data.dim === dim) return node;
+      return { ...node, data: { ...node.data, lit, dim } } as SpeciesStepNode;
+    });
+  }, [nodes, litIds, focusIds, emphasis.focus]);
+
+  const edges = useMemo(
+    () =>
+      (model?.arcs ?? []).map(
+        (arc): ReactionEdge => ({
+          id: arc.id,
+          type: "reaction",
+          source: arc.source,
+          target: arc.target,
+          ariaLabel: arc.description,
+          data: {
+            bend: 0,
+            label: arc.label,
+            description: arc.description,
+            marker,
+            twoWay: arc.twoWay,
+            lit: Boolean(emphasis.caret?.steps.has(arc.step) || emphasis.focus?.steps.has(arc.step)),
+            dim: Boolean(emphasis.focus && !emphasis.focus.steps.has(arc.step)),
+          },
+        }),
+      ),
+    [model, marker, emphasis],
+  );
+
+  if (!model || model.nodes.length === 0) {
+    return <div className="flex h-full items-center justify-center p-6 text-center text-sm text-muted">Species and steps appear here once the text has a reaction step.</div>;
+  }
+  if (nodes.length === 0) {
+    return <div className="flex h-full items-center justify-center p-6 text-center text-sm text-muted">Laying out {model.nodes.length} species and steps…</div>;
+  }
+  return (
+    <div className="relative min-h-0 flex-1" data-testid="species-step-graph">
+      <ArrowheadMarkers ids={marker} />
+      <ReactFlow<SpeciesStepNode, ReactionEdge>
+        nodes={shownNodes}
+        edges={edges}
+        nodeTypes={nodeTypes}
+        edgeTypes={edgeTypes}
+        onNodesChange={(changes: NodeChange<SpeciesStepNode>[]) =>
+          setNodes((current) => applyNodeChanges(changes.filter((change) => change.type === "position" || change.type === "dimensions"), current))
+        }
+        onMoveStart={(event) => event && setViewTouched(true)}
+        nodesConnectable={false}
+        edgesReconnectable={false}
+        deleteKeyCode={null}
+        selectionKeyCode={null}
+        multiSelectionKeyCode={null}
+        onlyRenderVisibleElements={nodes.length > 250}
+        fitView
+        fitViewOptions={fitOptions}
+        minZoom={0.05}
+        maxZoom={2.5}
+        style={themeVariables}
+        aria-label="Species and steps"
+      >
+        <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
+        <Controls showInteractive={false} position="bottom-left" />
+        <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
+        <CentreOnFocus focusKey={emphasis.focusKey} ids={focusIds} onCentred={() => setViewTouched(true)} />
+      </ReactFlow>
+    </div>
+  );
+}

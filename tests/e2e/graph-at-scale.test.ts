@@ -1,0 +1,150 @@
+// The graph of a 500-step mechanism (and the 64-step cell) in Chromium at 1280 × 800: folded
+// linkage classes with the largest class drawn at a readable size and no overlapping boxes; search
+// and focus; folding and unfolding; the step under the editor's caret lit in the graph; the
+// species–step view. Screenshots go to SCREENSHOT_DIR for a person to look at.
+import { mkdirSync, readFileSync } from "node:fs";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { generatedOxidation } from "../fixtures/generated-oxidation";
+import { signedInPage, useServerAndBrowser } from "../support/e2e";
+import { signUp } from "../support/http";
+
+const world = useServerAndBrowser();
+const shots = process.env.SCREENSHOT_DIR ?? "test-results";
+const mechanisms = { 64: readFileSync("tests/fixtures/oxidation-cell.weave", "utf8"), 500: generatedOxidation(500) };
+const ids: Record<number, string> = {};
+let email = "";
+
+beforeAll(async () => {
+  mkdirSync(shots, { recursive: true });
+  const owner = await signUp(world.server.url, "Gita Grapher");
+  email = owner.email;
+  for (const [steps, source] of Object.entries(mechanisms)) {
+    const created = await owner.json("/api/v1/mechanisms", "POST", { title: `Oxidation, ${steps} steps`, source });
+    expect(created.status).toBe(201);
+    ids[Number(steps)] = ((await created.json()) as { id: string }).id;
+  }
+});
+
+async function openGraph(steps: number): Promise<Page> {
+  const page = await signedInPage(world, email);
+  await page.setViewportSize({ width: 1280, height: 800 });
+  await page.goto(`${world.server.url}/m/${ids[steps]}`);
+  await page.waitForSelector("[data-testid=complex-graph] .react-flow__node", { timeout: 120_000 });
+  return page;
+}
+
+const graph = (page: Page) => page.locator("[data-testid=complex-graph]");
+
+/** Drawn node boxes that overlap, and the on-screen size of a node label in px. */
+async function legibility(page: Page) {
+  return graph(page).evaluate((root) => {
+    const canvas = root.querySelector(".react-flow")!.getBoundingClientRect();
+    const boxes = [...root.querySelectorAll(".react-flow__node")]
+      .map((node) => node.getBoundingClientRect())
+      .filter((box) => box.right > canvas.left && box.left < canvas.right && box.bottom > canvas.top && box.top < canvas.bottom);
+    let overlaps = 0;
+    for (let i = 0; i < boxes.length; i++)
+      for (let j = i + 1; j < boxes.length; j++) {
+        const [a, b] = [boxes[i], boxes[j]];
+        if (a.left < b.right - 1 && b.left < a.right - 1 && a.top < b.bottom - 1 && b.top < a.bottom - 1) overlaps++;
+      }
+    const zoom = new DOMMatrix(getComputedStyle(root.querySelector(".react-flow__viewport")!).transform).a;
+    return { shown: boxes.length, overlaps, labelPx: 13.5 * zoom };
+  });
+}
+
+const settled = async (page: Page) => {
+  // Fitting glides; wait until the viewport stops moving.
+  let last = "";
+  await expect
+    .poll(async () => {
+      const now = await page.locator(".react-flow__viewport").getAttribute("style");
+      const same = now === last;
+      last = now ?? "";
+      return same;
+    }, { timeout: 20_000, interval: 300 })
+    .toBe(true);
+};
+
+describe.each([64, 500])("at %i steps", (steps) => {
+  it("starts with classes folded but the largest, readable and without overlaps", { timeout: 240_000 }, async () => {
+    const page = await openGraph(steps);
+    await expect.poll(() => page.locator("[data-testid=folding]").innerText(), { timeout: 60_000 }).toMatch(/^\d{2,} of \d+ classes folded/);
+    await settled(page);
+    const { shown, overlaps, labelPx } = await legibility(page);
+    expect(shown).toBeGreaterThan(5);
+    expect(overlaps).toBe(0);
+    expect(labelPx).toBeGreaterThanOrEqual(9);
+    await page.screenshot({ path: `${shots}/graph-${steps}-start.png` });
+
+    await page.getByRole("button", { name: "Unfold all" }).click();
+    await expect.poll(() => page.locator("[data-testid=class-box]").count()).toBe(0);
+    await page.getByRole("button", { name: "Fit View" }).click();
+    await settled(page);
+    await page.screenshot({ path: `${shots}/graph-${steps}-unfolded.png` });
+    expect((await legibility(page)).overlaps).toBe(0);
+    // Zoomed out this far, edge labels would be specks: they are left out, node labels stay.
+    expect(await page.locator("[data-testid=edge-label]").count()).toBe(0);
+    await page.close();
+  });
+
+  it("finds a step, lights its neighbourhood, dims the rest and centres on it", { timeout: 240_000 }, async () => {
+    const page = await openGraph(steps);
+    const label = steps === 500 ? "s250" : "s61";
+    await page.fill("[data-testid=graph-search]", label);
+    await expect.poll(() => page.getByRole("option").first().innerText()).toContain(label);
+    await page.keyboard.press("Enter");
+    await expect.poll(() => graph(page).locator(".react-flow__node [data-lit]").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
+    expect(await graph(page).locator(".react-flow__node [data-dim]").count()).toBeGreaterThan(0);
+    await settled(page);
+    const inView = await graph(page).evaluate((root) => {
+      const canvas = root.querySelector(".react-flow")!.getBoundingClientRect();
+      return [...root.querySelectorAll(".react-flow__node [data-lit]")].every((node) => {
+        const box = node.getBoundingClientRect();
+        return box.left >= canvas.left && box.right <= canvas.right && box.top >= canvas.top && box.bottom <= canvas.bottom;
+      });
+    });
+    expect(inView).toBe(true);
+    await page.screenshot({ path: `${shots}/graph-${steps}-focus-${label}.png` });
+
+    // A species, in the species–step view.
+    await page.getByRole("radio", { name: "Species & steps" }).click();
+    await page.waitForSelector("[data-testid=species-step-graph] .react-flow__node", { timeout: 120_000 });
+    await settled(page);
+    await page.screenshot({ path: `${shots}/species-steps-${steps}.png` });
+    await page.fill("[data-testid=graph-search]", "R");
+    await page.getByRole("option").filter({ hasText: "species" }).first().dispatchEvent("mousedown");
+    await expect.poll(() => graph(page).locator(".react-flow__node [data-lit]").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
+    await settled(page);
+    await page.screenshot({ path: `${shots}/species-steps-${steps}-focus.png` });
+    await page.close();
+  });
+
+  it("folds and unfolds classes, and lights the step under the editor's caret", { timeout: 240_000 }, async () => {
+    const page = await openGraph(steps);
+    await page.getByRole("button", { name: "Fold all", exact: true }).click();
+    await page.getByRole("button", { name: "Fit View" }).click();
+    const classes = Number((await page.locator("[data-testid=folding]").innerText()).match(/of (\d+) classes/)![1]);
+    await expect.poll(() => page.locator("[data-testid=class-box]").count()).toBe(classes);
+    await settled(page);
+    await page.screenshot({ path: `${shots}/graph-${steps}-folded.png` });
+    expect(await page.locator("[data-testid=class-box]").first().innerText()).toMatch(/class \d+ · \d+ complex/);
+    // Boxes far off screen are not drawn; the first drawn one is clicked where it is.
+    await page.locator("[data-testid=class-box]").first().dispatchEvent("click");
+    await expect.poll(() => page.locator("[data-testid=folding]").innerText()).toContain(`${classes - 1} of ${classes} classes folded`);
+
+    await page.locator(".cm-line", { hasText: "s3:" }).first().click();
+    await expect.poll(() => graph(page).locator(".react-flow__node [data-lit]").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(1);
+    // When the caret's step is in a folded class its box is lit; unfolded, its complexes are.
+    const litBox = graph(page).locator("[data-testid=class-box][data-lit]");
+    if ((await litBox.count()) > 0) await litBox.first().dispatchEvent("click");
+    const lit = () => graph(page).locator(".react-flow__node [data-lit]").evaluateAll((nodes) => nodes.map((node) => node.textContent).join(" | "));
+    await expect.poll(() => graph(page).locator(".react-flow__node [data-lit]").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
+    const onS3 = await lit();
+    await page.locator(".cm-line", { hasText: "s4:" }).first().click();
+    await expect.poll(lit, { timeout: 30_000 }).not.toBe(onS3);
+    if (steps === 64) expect(await lit()).toContain("We + Qa");
+    await page.close();
+  });
+});
