@@ -16,16 +16,21 @@ interface Box {
   bottom: number;
 }
 
-/** The box the given text takes on screen in the editor (the first place it occurs). */
+/** The box the given text takes on screen in the editor, within one line (highlighting splits it into several text nodes). */
 function textBox(page: Page, text: string): Promise<Box | null> {
   return page.evaluate((wanted) => {
-    const walker = document.createTreeWalker(document.querySelector(".cm-content")!, NodeFilter.SHOW_TEXT);
-    for (let node = walker.nextNode(); node; node = walker.nextNode()) {
-      const at = node.textContent!.indexOf(wanted);
+    for (const line of document.querySelectorAll(".cm-line")) {
+      const at = line.textContent!.indexOf(wanted);
       if (at < 0) continue;
       const range = document.createRange();
-      range.setStart(node, at);
-      range.setEnd(node, at + wanted.length);
+      const walker = document.createTreeWalker(line, NodeFilter.SHOW_TEXT);
+      let passed = 0;
+      for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+        const length = node.textContent!.length;
+        if (passed <= at && at < passed + length) range.setStart(node, at - passed);
+        if (passed < at + wanted.length && at + wanted.length <= passed + length) range.setEnd(node, at + wanted.length - passed);
+        passed += length;
+      }
       const { left, top, right, bottom } = range.getBoundingClientRect();
       return { left, top, right, bottom };
     }
@@ -48,7 +53,10 @@ it("shows a co-author's flag beside the text they type, fading when they stop", 
   await editorPage.keyboard.press("Control+Home");
   await editorPage.keyboard.press("ArrowDown");
   const typed = "E + F -> G @ 3 # by Eli";
-  await editorPage.keyboard.type(`${typed}\n`, { delay: 20 });
+  await editorPage.keyboard.type(typed, { delay: 20 });
+  // Enter must break the line, not pick a completion the last word may have opened.
+  await editorPage.keyboard.press("Escape");
+  await editorPage.keyboard.press("Enter");
   await editorPage.keyboard.press("ArrowUp");
   await editorPage.keyboard.press("End");
 
