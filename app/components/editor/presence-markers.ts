@@ -152,7 +152,10 @@ function awarenessBridge(source: Y.Text, awareness: Awareness) {
         const anchor = Y.createAbsolutePositionFromRelativePosition(Y.createRelativePositionFromJSON(cursor.anchor), doc);
         const head = Y.createAbsolutePositionFromRelativePosition(Y.createRelativePositionFromJSON(cursor.head), doc);
         if (anchor?.type !== source || head?.type !== source) return;
-        seen.set(clientId, JSON.stringify(cursor));
+        // The relative position stays on the character after the caret while its author types
+        // before it, so the caret's column tells typing apart from standing still.
+        const line = view.state.doc.lineAt(Math.min(head.index, view.state.doc.length));
+        seen.set(clientId, `${JSON.stringify(cursor)}@${head.index - line.from}`);
         carets.push({ clientId, name: user.name, colour: user.colour ?? "#715cc0", anchor: anchor.index, head: head.index, active: false });
       });
       activity.see(seen, now);
@@ -168,7 +171,13 @@ function awarenessBridge(source: Y.Text, awareness: Awareness) {
     const onChange = ({ added, updated, removed }: { added: number[]; updated: number[]; removed: number[] }) => {
       if ([...added, ...updated, ...removed].some((id) => id !== awareness.clientID)) read();
     };
+    // A co-author's typing reaches the text before (or after) their caret's message: read again
+    // once it has, outside the update that applies it.
+    const onText = (_event: Y.YTextEvent, transaction: Y.Transaction) => {
+      if (!transaction.local) queueMicrotask(read);
+    };
     awareness.on("change", onChange);
+    source.observe(onText);
     queueMicrotask(read);
 
     return {
@@ -179,6 +188,7 @@ function awarenessBridge(source: Y.Text, awareness: Awareness) {
         destroyed = true;
         clearTimeout(fade);
         awareness.off("change", onChange);
+        source.unobserve(onText);
       },
     };
   });
