@@ -9,39 +9,39 @@ import { mechanism } from "./mechanism-language";
 
 const text = 'X + "Fe3+" -> 2Y @ k1\nk1 = 1\n';
 
-function completionAt(doc: string, pos: number) {
+async function completionAt(doc: string, pos: number) {
   const state = EditorState.create({ doc, selection: { anchor: pos }, extensions: [mechanism()] });
   ensureSyntaxTree(state, state.doc.length);
-  return { state, result: completeMechanismNames(new CompletionContext(state, pos, true)) };
+  return { state, result: await completeMechanismNames(new CompletionContext(state, pos, true)) };
 }
 
 /** Completion labels offered at the `|` in the text. */
-function labelsAt(marked: string): string[] {
-  const { result } = completionAt(marked.replace("|", ""), marked.indexOf("|"));
+async function labelsAt(marked: string): Promise<string[]> {
+  const { result } = await completionAt(marked.replace("|", ""), marked.indexOf("|"));
   return (result?.options ?? []).map((option) => option.label);
 }
 
 describe("completion by position", () => {
-  it("offers species inside a complex, quoted as they must be written", () => {
-    expect(labelsAt(text + "Y -> |")).toEqual(["X", '"Fe3+"', "Y"]);
+  it("offers species inside a complex, quoted as they must be written", async () => {
+    expect(await labelsAt(text + "Y -> |")).toEqual(["X", '"Fe3+"', "Y"]);
   });
 
-  it("offers rate coefficient names after @", () => {
-    expect(labelsAt(text + "Y -> X @ |")).toEqual(["k1"]);
+  it("offers rate coefficient names after @", async () => {
+    expect(await labelsAt(text + "Y -> X @ |")).toEqual(["k1"]);
   });
 
-  it("offers both inside a custom rate law", () => {
-    expect(labelsAt(text + "Y -> X @ { |}")).toEqual(["X", '"Fe3+"', "Y", "k1"]);
+  it("offers both inside a custom rate law", async () => {
+    expect(await labelsAt(text + "Y -> X @ { |}")).toEqual(["X", '"Fe3+"', "Y", "k1"]);
   });
 
-  it("does not offer the half-typed word as a name of its own", () => {
-    expect(labelsAt(text + "Y -> Zq|")).not.toContain("Zq");
+  it("does not offer the half-typed word as a name of its own", async () => {
+    expect(await labelsAt(text + "Y -> Zq|")).not.toContain("Zq");
   });
 
-  it("replaces the closing quote typed ahead when a quoted name is picked", () => {
+  it("replaces the closing quote typed ahead when a quoted name is picked", async () => {
     const doc = text + 'Y -> "Fe"';
     const pos = doc.length - 1;
-    const { state, result } = completionAt(doc, pos);
+    const { state, result } = await completionAt(doc, pos);
     const option = result!.options.find((candidate) => candidate.label === '"Fe3+"')!;
     // The apply function only reads the state and dispatches, so a stand-in view will do without a DOM.
     const view = { state, dispatch: (spec: TransactionSpec) => (view.state = view.state.update(spec).state) };

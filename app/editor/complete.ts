@@ -12,28 +12,14 @@ import { syntaxTree } from "@codemirror/language";
 import type { SyntaxNode } from "@lezer/common";
 import { parseMechanism } from "~/chem/parse";
 import { speciesToken } from "~/chem/print";
-import { rateExpressionParameters } from "~/chem/rate-expression";
+import { readMechanismText } from "./text-reader";
+import { type MechanismNames, namesOf } from "./text-reading";
 
+export type { MechanismNames } from "./text-reading";
 export type NameKind = "species" | "parameter" | "both";
 
-export interface MechanismNames {
-  species: string[];
-  fixed: string[];
-  parameters: string[];
-}
-
 /** Species, fixed species and parameter names (declared or only used), each once, in text order. */
-export function mechanismNames(source: string): MechanismNames {
-  const { mechanism } = parseMechanism(source);
-  const parameters = new Set(Object.keys(mechanism.parameters));
-  for (const step of mechanism.steps) {
-    for (const rate of [step.forward, step.backward]) {
-      if (rate?.kind === "parameter") parameters.add(rate.name);
-      if (rate?.kind === "expression") for (const name of rateExpressionParameters(rate.expression)) parameters.add(name);
-    }
-  }
-  return { species: mechanism.species, fixed: Object.keys(mechanism.fixed), parameters: [...parameters] };
-}
+export const mechanismNames = (source: string): MechanismNames => namesOf(parseMechanism(source));
 
 export function completionOptions(names: MechanismNames, kind: NameKind): Completion[] {
   // Labels are written as the text would spell them, so typing an opening quote filters too.
@@ -66,16 +52,18 @@ function kindAt(context: CompletionContext): NameKind {
   return "both";
 }
 
-export function completeMechanismNames(context: CompletionContext): CompletionResult | null {
+/** The names are read in the reading worker: a long text is not parsed on the page at each key. */
+export async function completeMechanismNames(context: CompletionContext): Promise<CompletionResult | null> {
   const word = context.matchBefore(/"[^"\n]*|[A-Za-z][A-Za-z0-9_]*/);
   if (!word && !context.explicit) return null;
   const from = word?.from ?? context.pos;
   const to = word?.to ?? context.pos;
   // Read the text without the word being typed, so a half-written name is not offered to itself.
   const source = context.state.sliceDoc(0, from) + context.state.sliceDoc(to);
+  const kind = kindAt(context);
   return {
     from,
-    options: completionOptions(mechanismNames(source), kindAt(context)),
+    options: completionOptions(await readMechanismText("names", source), kind),
     validFor: /^("[^"\n]*|[A-Za-z0-9_]*)$/,
   };
 }

@@ -1,11 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { mechanismDiagnostics } from "./lint";
+import { readMechanismText } from "./text-reader";
 
-describe("mechanismDiagnostics", () => {
-  it("passes the parser's messages and ranges to the editor, inside the document", () => {
+describe("the diagnostics the editor shows", () => {
+  it("passes the parser's messages and ranges to the editor, inside the document", async () => {
     // The broken first line contributes nothing, so its k is not reported as missing.
     const source = "X + -> Y @ k\nY -> Z";
-    const diagnostics = mechanismDiagnostics(source);
+    const diagnostics = await readMechanismText("diagnostics", source);
     expect(diagnostics.map(({ severity, from }) => [severity, from])).toEqual([
       ["error", 4],
       ["warning", 13],

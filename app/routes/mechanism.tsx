@@ -1,4 +1,4 @@
-import { useMemo, useRef, useState } from "react";
+import { useDeferredValue, useMemo, useRef, useState } from "react";
 import type * as Y from "yjs";
 import type { AnalysisReport } from "~/chem/analysis";
 import type { XY } from "~/components/graph/layout";
@@ -65,6 +65,9 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   const source = useMemo(() => (room.doc ? sourceText(room.doc) : null), [room.doc]);
   const layout = useMemo(() => (room.doc ? layoutMap(room.doc) : null), [room.doc]);
   const report = room.analysis.report ?? null;
+  // The panels follow the analysis at low priority: React renders them in slices between
+  // keystrokes instead of in one block that would hold up the editor at every new report.
+  const shownReport = useDeferredValue(report);
   // A view-link guest sees the live mechanism and nothing else: no files, no settings.
   const tabs = signedIn ? allTabs : allTabs.filter((name) => name !== "Files & settings");
 
@@ -123,10 +126,10 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
             ))}
           </div>
           {room.analysis.failure && <AnalysisFailure message={room.analysis.failure} stale={Boolean(report)} />}
-          {tab === "Graph" && report && layout && <GraphDownloads report={report} layout={layout} title={mechanism.title} />}
+          {tab === "Graph" && shownReport && layout && <GraphDownloads report={shownReport} layout={layout} title={mechanism.title} />}
           {tab === "Graph" && (
             <ComplexGraph
-              report={report}
+              report={shownReport}
               layout={layout}
               canEdit={canEdit}
               synced={room.synced}
@@ -136,7 +139,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               onSelect={(selection) => editor.current?.highlight(source ? stepRangesFor(source.toString(), selection) : [])}
             />
           )}
-          {tab === "Structure" && (report ? <StructurePanel report={report} /> : !room.analysis.failure && <Waiting />)}
+          {tab === "Structure" && (shownReport ? <StructurePanel report={shownReport} /> : !room.analysis.failure && <Waiting />)}
           {tab === "Dynamics" && <DynamicsTab mechanismId={mechanism.id} source={source} report={report} />}
           {tab === "Files & settings" && (
             <FilesPanel mechanismId={mechanism.id} title={mechanism.title} role={role} actionData={actionData as { ok?: string; error?: string } | undefined} />

@@ -48,7 +48,7 @@ export type LayoutPosition = z.infer<typeof layoutPosition>;
 /** What an editor may write as a value of the `layout` map: exactly `{ x, y }`. */
 export const writtenLayoutPosition = layoutPosition.strict();
 
-/** The awareness fields Mechweave uses (y-codemirror.next adds `cursor`). */
+/** The awareness fields Mechweave uses (the editor adds `cursor`: Yjs relative positions, as y-codemirror.next writes them). */
 export const presenceFields = {
   /** Who this client is; the server stamps the name and role it authenticated. */
   user: "user",
@@ -57,8 +57,8 @@ export const presenceFields = {
 } as const;
 
 /**
- * The `user` field. `color` and `colorLight` repeat the colour for y-codemirror.next, which draws
- * remote carets from them; the schema keeps whatever else a client adds.
+ * The `user` field; the editor draws a co-author's caret and flag in `colour`. The schema keeps
+ * whatever else a client adds.
  */
 export const presenceUser = z.looseObject({
   name: z.string().min(1),

@@ -153,7 +153,7 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
     const publish = () => {
       const published = { name: user.name, colour, role: publishedRole };
       setSelf(published);
-      awareness.setLocalStateField(presenceFields.user, awarenessUser(published));
+      awareness.setLocalStateField(presenceFields.user, published);
     };
 
     const onChange = () => {
@@ -179,11 +179,6 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
   }, [awareness, user.name, user.colour, publishedRole]);
 
   return { doc: connection?.doc ?? null, provider: connection?.provider ?? null, awareness, status, synced, analysis, self, peers, notice };
-}
-
-/** y-codemirror.next draws remote carets from `color` and selections from `colorLight`. */
-function awarenessUser(user: PeerUser) {
-  return { ...user, color: user.colour, colorLight: `${user.colour}33` };
 }
 
 function samePeople(a: readonly Peer[], b: readonly Peer[]): boolean {

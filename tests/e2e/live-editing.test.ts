@@ -35,9 +35,9 @@ it("co-edits live and shows the viewer a growing graph", { timeout: 180_000 }, a
     await expect.poll(() => editorText(page), patience).toContain("C -> D @ 2");
     await expect.poll(() => editorText(page), patience).toContain("# draft by Eli");
   }
-  // Each editor sees the other's named cursor.
-  await expect.poll(() => ownerPage.locator(".cm-ySelectionInfo").allInnerTexts(), patience).toContain("Eli Editor");
-  await expect.poll(() => editorPage.locator(".cm-ySelectionInfo").allInnerTexts(), patience).toContain("Ana Owner");
+  // Each editor sees the other's caret, named.
+  await expect.poll(() => ownerPage.locator(".cm-mwPeerCaret[data-peer='Eli Editor']").count(), patience).toBe(1);
+  await expect.poll(() => editorPage.locator(".cm-mwPeerCaret[data-peer='Ana Owner']").count(), patience).toBe(1);
 
   // A new complex appears in the viewer's graph from the server's recompute.
   await expect.poll(() => nodeCount(viewerPage), patience).toBe(3);

@@ -1,5 +1,5 @@
 // The shared mechanism text: CodeMirror bound to the room's `source` Y.Text, with co-authors'
-// carets, the mechanism language, live diagnostics, completion and undo of one's own edits only.
+// carets and name flags (presence-markers.ts), the mechanism language, live diagnostics, completion and undo of one's own edits only.
 import { autocompletion, closeBrackets, closeBracketsKeymap, completionKeymap } from "@codemirror/autocomplete";
 import { defaultKeymap } from "@codemirror/commands";
 import { bracketMatching, foldGutter, foldKeymap } from "@codemirror/language";
@@ -25,6 +25,7 @@ import { editorTheme } from "./editor-theme";
 import type { RoomNotice } from "~/utils/use-room";
 import { type CaretStep, caretStepListener } from "./caret-step";
 import { linkedRanges, showLinkedRanges, type TextRange } from "./linked-ranges";
+import { presenceMarkers } from "./presence-markers";
 import { textLimits } from "./text-limits";
 
 export type { TextRange } from "./linked-ranges";
@@ -142,7 +143,10 @@ function editorExtensions({ source, awareness, undoManager, readOnly, label, not
     linkedRanges,
     textLimits(notify),
     editorTheme,
-    yCollab(source, awareness, { undoManager }),
+    // Without the awareness, y-codemirror.next only syncs the text and undo; co-authors are drawn
+    // by presenceMarkers, whose flags keep off the text the library's labels would cover.
+    yCollab(source, null, { undoManager }),
+    awareness ? presenceMarkers(source, awareness) : [],
     keymap.of([
       ...closeBracketsKeymap,
       ...(undoManager ? yUndoManagerKeymap : []),

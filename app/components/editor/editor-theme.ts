@@ -23,7 +23,6 @@ const editorChrome = EditorView.theme({
   "&": { backgroundColor: "var(--mw-surface)", color: "var(--mw-ink)", fontSize: "14px", height: "100%" },
   "&.cm-focused": { outline: "none" },
   ".cm-scroller": { fontFamily: mono, lineHeight: "1.65" },
-  // Room above the first line for a remote caret's name label.
   ".cm-content": { caretColor: "var(--mw-accent)", padding: "14px 0 10px" },
   ".cm-cursor, .cm-dropCursor": { borderLeftColor: "var(--mw-accent)", borderLeftWidth: "2px" },
   "&.cm-focused > .cm-scroller > .cm-selectionLayer .cm-selectionBackground, .cm-selectionBackground, .cm-content ::selection": {
@@ -94,18 +93,7 @@ const editorChrome = EditorView.theme({
   ".cm-selectionMatch": { backgroundColor: "color-mix(in oklab, var(--mw-accent) 14%, transparent)" },
   ".cm-searchMatch.cm-searchMatch-selected": { outline: "1px solid var(--mw-signal)" },
 
-  // Co-authors' name labels stay visible: in a live session, who is typing where is the point.
-  ".cm-ySelectionInfo": {
-    opacity: "1",
-    top: "-1.35em",
-    fontFamily: sans,
-    fontSize: "11px",
-    fontWeight: "500",
-    lineHeight: "1.4",
-    padding: "0 5px",
-    borderRadius: "4px 4px 4px 0",
-  },
-  ".cm-ySelectionCaret": { borderLeftWidth: "2px", borderRightWidth: "0" },
+  ".cm-mwPeerFlag": { fontFamily: sans },
 });
 
 export const editorTheme = [editorChrome, syntaxHighlighting(mechanismHighlightStyle)];

@@ -1,0 +1,125 @@
+// Typing stays fast at 500 steps: the same 40 keystrokes typed into the 3-step demo mechanism and
+// into a generated 500-step one, in one run on one machine. Measured in the page: each keystroke's
+// time from the key event to the frame painted after the text changed, and every long task
+// (PerformanceObserver "longtask", a task of 50 ms or more) from the first keystroke until the
+// room's analysis of the typed text has arrived. Loading the page is not asserted on; how long
+// the graph takes to appear after navigation is printed.
+import type { Page } from "playwright-core";
+import { beforeAll, expect, it } from "vitest";
+import { demoMechanisms } from "../../server/seed/demo";
+import { largeMechanism } from "../fixtures/large-mechanism";
+import { signedInPage, useServerAndBrowser } from "../support/e2e";
+import { signUp } from "../support/http";
+
+const world = useServerAndBrowser();
+/** Bounds for a machine shared with other test runs; every wait is on a condition. */
+const patience = { timeout: 180_000 };
+/** A new step, so the structure (and the graph) changes while it is typed: 40 keys with the Enter. */
+const typed = "\nqq: AB + CD -> XY + ZZ @ 2.5e9 # typing";
+const demo = demoMechanisms[0].source;
+let owner: Awaited<ReturnType<typeof signUp>>;
+
+beforeAll(async () => {
+  owner = await signUp(world.server.url, "Tara Typist");
+});
+
+interface TypingCost {
+  /** Key event to painted frame, ms, one per keystroke. */
+  paints: number[];
+  /** Durations of the long tasks seen while typing, ms. */
+  longTasks: number[];
+  /** From the start of navigation to the first drawn complex of the graph, ms. */
+  graphShown: number;
+}
+
+/** Opens the mechanism, waits until its graph is drawn, and types `typed` at the end of the text. */
+async function typingCost(source: string): Promise<TypingCost> {
+  const created = await owner.json("/api/v1/mechanisms", "POST", { title: "Typing check", source });
+  const { id } = (await created.json()) as { id: string };
+  const page = await signedInPage(world, owner.email);
+  await page.goto(`${world.server.url}/m/${id}`);
+  await page.waitForSelector("[data-testid=room-status][data-status=online]", patience);
+  await page.waitForSelector(".react-flow__node", patience);
+  const graphShown = await page.evaluate(() => performance.now());
+  await page.waitForSelector("[data-testid=live-summary]", patience);
+  await page.click(".cm-content");
+  await page.keyboard.press("Control+End");
+  const before = await revision(page);
+  await instrument(page);
+  // About eight keys a second, a quick typist.
+  await page.keyboard.type(typed, { delay: 120 });
+  // The analysis of the last keystroke, and whatever the page does with it, belong to typing.
+  await expect.poll(() => page.evaluate(() => document.querySelector(".cm-content")?.textContent?.includes("# typing")), patience).toBe(true);
+  await expect.poll(async () => (await revision(page)) > before, patience).toBe(true);
+  await waitForQuiet(page);
+  const cost = await page.evaluate(() => (window as unknown as { typingCost: Omit<TypingCost, "graphShown"> }).typingCost);
+  await page.context().close();
+  return { ...cost, graphShown };
+}
+
+/** The room's analysis revision, which the status badge carries in its title. */
+async function revision(page: Page): Promise<number> {
+  const title = (await page.getAttribute("[data-testid=room-status]", "title")) ?? "";
+  return Number(/revision (\d+)/.exec(title)?.[1] ?? 0);
+}
+
+/** Starts recording in the page: key-to-paint per keystroke and long tasks. */
+function instrument(page: Page) {
+  return page.evaluate(() => {
+    const cost = { paints: [] as number[], longTasks: [] as number[] };
+    (window as unknown as { typingCost: typeof cost }).typingCost = cost;
+    new PerformanceObserver((list) => {
+      for (const entry of list.getEntries()) cost.longTasks.push(entry.duration);
+    }).observe({ type: "longtask" });
+    // The key event's own time stamp counts the wait for a busy main thread too.
+    let pressed: number | null = null;
+    document.addEventListener("keydown", (event) => (pressed = event.timeStamp), { capture: true });
+    // The text changed: the frame after the next animation frame is the one that shows it.
+    new MutationObserver(() => {
+      if (pressed === null) return;
+      const start = pressed;
+      pressed = null;
+      requestAnimationFrame(() => setTimeout(() => cost.paints.push(performance.now() - start)));
+    }).observe(document.querySelector(".cm-content")!, { childList: true, subtree: true, characterData: true });
+  });
+}
+
+/** Waits until the page has gone a second without a long task, so late work is counted too. */
+async function waitForQuiet(page: Page) {
+  await page.evaluate(
+    () =>
+      new Promise<void>((resolve) => {
+        const cost = (window as unknown as { typingCost: TypingCost }).typingCost;
+        let seen = cost.longTasks.length;
+        let quietSince = performance.now();
+        const check = () => {
+          if (cost.longTasks.length !== seen) [seen, quietSince] = [cost.longTasks.length, performance.now()];
+          if (performance.now() - quietSince >= 1000) resolve();
+          else setTimeout(check, 100);
+        };
+        check();
+      }),
+  );
+}
+
+const p95 = (values: number[]) => [...values].sort((a, b) => a - b)[Math.ceil(values.length * 0.95) - 1];
+
+// Runs with TYPING_BENCHMARK=1. Its targets (ratio ≤ 1.5, no task of 50 ms) are not met yet: the
+// graph of a 500-step mechanism (about 700 boxes and 650 arrows, each its own layer of paint)
+// makes the browser re-layerize the whole page at every painted frame, 50–300 ms each here
+// (DEVELOPERS.md, Performance notes); left out of the default suite until the graph view is lighter.
+it.runIf(process.env.TYPING_BENCHMARK === "1")("types as fast into 500 steps as into the 3-step demo, and no task blocks the page", { timeout: 900_000 }, async () => {
+  const small = await typingCost(demo);
+  const large = await typingCost(largeMechanism(500));
+  for (const cost of [small, large]) expect(cost.paints.length).toBe(typed.length);
+  const ratio = p95(large.paints) / p95(small.paints);
+  const longest = Math.max(0, ...small.longTasks, ...large.longTasks);
+  console.log(
+    `typing: key-to-paint p95 ${p95(small.paints).toFixed(0)} ms (3 steps), ${p95(large.paints).toFixed(0)} ms (500 steps), ` +
+      `ratio ${ratio.toFixed(2)}; longest task while typing ${longest.toFixed(0)} ms ` +
+      `(3 steps: ${small.longTasks.length} long tasks, 500 steps: ${large.longTasks.length}); ` +
+      `graph shown ${small.graphShown.toFixed(0)} ms after navigation (3 steps), ${large.graphShown.toFixed(0)} ms (500 steps)`,
+  );
+  expect(ratio).toBeLessThanOrEqual(1.5);
+  expect(longest).toBeLessThan(50);
+});
