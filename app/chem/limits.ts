@@ -85,3 +85,17 @@ export function checkSourceLimits(source: string): string | null {
   }
   return null;
 }
+
+// ── Structural verdicts recomputed on every change ────────────────────────────────────────────
+/**
+ * Branches the minimal-siphon search may open. Minimal siphons can be exponentially many; real
+ * mechanisms have few and need a few hundred branches at a few hundred species.
+ */
+export const MAX_SIPHON_SEARCH_NODES = 20_000;
+/**
+ * Terms of the injectivity determinant examined: (reaction set, species set) pairs of the rank's
+ * size, C(reactions, rank) × C(species, rank). Beyond it the verdict is "undecided: too large".
+ */
+export const MAX_DETERMINANT_TERMS = 2_000_000;
+/** Sample points the multistationarity witness search tries before it gives up. */
+export const MAX_WITNESS_SAMPLES = 400;
