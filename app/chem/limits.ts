@@ -88,10 +88,10 @@ export function checkSourceLimits(source: string): string | null {
 
 // ── Structural verdicts recomputed on every change ────────────────────────────────────────────
 /**
- * Branches the minimal-siphon search may open. Minimal siphons can be exponentially many; real
- * mechanisms have few and need a few hundred branches at a few hundred species.
+ * Work of the minimal-siphon search, in reactant visits (about 0.1 s). Minimal siphons can be
+ * exponentially many; real mechanisms have few, and a few hundred species need a few hundred branches.
  */
-export const MAX_SIPHON_SEARCH_NODES = 20_000;
+export const MAX_SIPHON_SEARCH_WORK = 300_000;
 /**
  * Terms of the injectivity determinant examined: (reaction set, species set) pairs of the rank's
  * size, C(reactions, rank) × C(species, rank). Beyond it the verdict is "undecided: too large".

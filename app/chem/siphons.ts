@@ -3,7 +3,7 @@
 // Sontag (2007, Math. Biosci. 210) proved that if every minimal siphon contains the support of a
 // non-negative conservation law, no species of a bounded trajectory with positive start dies out.
 import { loadSolver } from "./conservation";
-import { MAX_SIPHON_SEARCH_NODES } from "./limits";
+import { MAX_SIPHON_SEARCH_WORK } from "./limits";
 import type { Network } from "./model";
 
 export interface Persistence {
@@ -19,57 +19,81 @@ export interface Persistence {
 interface Flow {
   /** Species consumed (reactant complex's support). */
   consumed: number[];
-  /** Species produced: net gain in the reaction vector, or present in the product and not consumed. */
+  /** Species produced and not consumed: the ones whose presence the reaction can restore. */
   produced: number[];
 }
 
+const FREE = 0;
+const IN = 1;
+const OUT = 2;
+
 /**
  * Every minimal siphon, by a branching search: a set that is not yet a siphon has a reaction that
- * produces one of its members and consumes none; one of that reaction's reactants must join.
- * Exponential in the worst case (the answer itself may be); each branch costs O(species ×
- * reactions), a branch dies when the largest siphon avoiding the excluded species does not hold
- * the included ones, and supersets of siphons already found are dropped. Null beyond
- * MAX_SIPHON_SEARCH_NODES branches.
+ * produces one of its members and consumes none; one of that reaction's reactants must join. The
+ * branch taken is the open reaction with the fewest reactants still allowed (one: no branching at
+ * all), a branch dies when the largest siphon avoiding the excluded species does not hold the
+ * included ones, and supersets of siphons already found are dropped. Exponential in the worst case
+ * (the answer itself may be); each branch costs O(size of the network). Null when the work passes
+ * MAX_SIPHON_SEARCH_WORK reactant visits.
  */
-export function minimalSiphons(network: Network, nodeLimit = MAX_SIPHON_SEARCH_NODES): number[][] | null {
+export function minimalSiphons(network: Network, workLimit = MAX_SIPHON_SEARCH_WORK): number[][] | null {
   const flows = siphonFlows(network);
   const speciesCount = network.species.length;
-  const found: Set<number>[] = [];
-  let nodes = 0;
+  const consumers: number[][] = network.species.map(() => []);
+  flows.forEach(({ consumed }, f) => consumed.forEach((s) => consumers[s].push(f)));
+  const budget = { left: workLimit };
+  const found: number[][] = [];
+  const state = new Uint8Array(speciesCount);
 
-  const search = (included: Set<number>, excluded: Set<number>): boolean => {
-    if (++nodes > nodeLimit) return false;
-    if (found.some((siphon) => isSubset(siphon, included))) return true;
-    const allowed = new Set<number>();
-    for (let s = 0; s < speciesCount; s++) if (!excluded.has(s)) allowed.add(s);
-    const room = largestSiphonWithin(allowed, flows);
-    if (![...included].every((s) => room.has(s))) return true;
-    const open = flows.find(({ consumed, produced }) => produced.some((s) => included.has(s)) && !consumed.some((s) => included.has(s)));
-    if (!open) {
-      if (isMinimalSiphon(included, flows)) found.push(new Set(included));
+  // Species outside every siphon never join one.
+  const everywhere = largestSiphonWithin(state, flows, consumers, budget);
+  for (let s = 0; s < speciesCount; s++) if (!everywhere[s]) state[s] = OUT;
+
+  const search = (): boolean => {
+    budget.left -= found.length;
+    if (budget.left < 0) return false;
+    if (found.some((siphon) => siphon.every((s) => state[s] === IN))) return true;
+    const room = largestSiphonWithin(state, flows, consumers, budget);
+    for (let s = 0; s < speciesCount; s++) if (state[s] === IN && !room[s]) return true;
+    let branch: number[] | null = null;
+    for (const { consumed, produced } of flows) {
+      if (!produced.some((s) => state[s] === IN) || consumed.some((s) => state[s] === IN)) continue;
+      const allowed = consumed.filter((s) => state[s] === FREE);
+      budget.left -= consumed.length + produced.length;
+      if (branch === null || allowed.length < branch.length) branch = allowed;
+      if (allowed.length <= 1) break;
+    }
+    if (branch === null) {
+      const members = state.reduce<number[]>((list, value, s) => (value === IN ? [...list, s] : list), []);
+      if (isMinimalSiphon(members, state.length, flows, consumers, budget)) found.push(members);
       return true;
     }
-    const tried = new Set(excluded);
-    for (const reactant of open.consumed) {
-      if (tried.has(reactant)) continue;
-      if (!search(new Set([...included, reactant]), new Set(tried))) return false;
-      tried.add(reactant);
+    const changed: number[] = [];
+    let complete = true;
+    for (const reactant of branch) {
+      state[reactant] = IN;
+      complete = search();
+      state[reactant] = OUT; // later branches avoid it: each siphon is found along one path only
+      changed.push(reactant);
+      if (!complete) break;
     }
-    return true;
+    for (const s of changed) state[s] = FREE;
+    return complete;
   };
 
-  const excluded = new Set<number>();
   for (let s = 0; s < speciesCount; s++) {
-    // Siphons holding s but none of the species before it: each minimal siphon is found once, from its first species.
-    if (!search(new Set([s]), new Set(excluded))) return null;
-    excluded.add(s);
+    if (state[s] === OUT) continue;
+    // Siphons holding s but none of the species before it: each minimal siphon is found from its first species.
+    state[s] = IN;
+    if (!search()) return null;
+    state[s] = OUT;
   }
-  return found.map((siphon) => [...siphon].sort((a, b) => a - b)).sort(compareLexicographic);
+  return found.sort(compareLexicographic);
 }
 
 /** Whether `set` is a siphon: no reaction produces a member without consuming one. */
 export function isSiphon(set: Set<number>, network: Network): boolean {
-  return set.size > 0 && isClosed(set, siphonFlows(network));
+  return set.size > 0 && siphonFlows(network).every(({ consumed, produced }) => !produced.some((s) => set.has(s)) || consumed.some((s) => set.has(s)));
 }
 
 function siphonFlows(network: Network): Flow[] {
@@ -80,31 +104,38 @@ function siphonFlows(network: Network): Flow[] {
   });
 }
 
-function isClosed(set: Set<number>, flows: Flow[]): boolean {
-  return flows.every(({ consumed, produced }) => !produced.some((s) => set.has(s)) || consumed.some((s) => set.has(s)));
-}
-
-/** The union of all siphons inside `set` (itself a siphon, or empty): drop what an open reaction produces until none is left. */
-function largestSiphonWithin(set: Set<number>, flows: Flow[]): Set<number> {
-  const result = new Set(set);
-  for (let changed = true; changed; ) {
-    changed = false;
-    for (const { consumed, produced } of flows) {
-      if (consumed.some((s) => result.has(s))) continue;
-      for (const s of produced) changed = result.delete(s) || changed;
+/**
+ * The union of all siphons among the species not marked OUT (itself a siphon, or empty): a
+ * reaction none of whose reactants remain drops what it produces, until no such reaction is left.
+ * Linear in the network's size, with a count per reaction of its reactants still in.
+ */
+function largestSiphonWithin(state: Uint8Array, flows: Flow[], consumers: number[][], budget: { left: number }): Uint8Array {
+  const inside = Uint8Array.from(state, (value) => (value === OUT ? 0 : 1));
+  const remaining = flows.map(({ consumed }) => consumed.reduce((count, s) => count + inside[s], 0));
+  const queue = flows.flatMap((_, f) => (remaining[f] === 0 ? [f] : []));
+  budget.left -= flows.length;
+  while (queue.length > 0) {
+    const f = queue.pop()!;
+    for (const s of flows[f].produced) {
+      if (!inside[s]) continue;
+      inside[s] = 0;
+      budget.left -= consumers[s].length;
+      for (const g of consumers[s]) if (--remaining[g] === 0) queue.push(g);
     }
   }
-  return result;
+  return inside;
 }
 
 /** A siphon is minimal when removing any one species leaves no siphon inside the rest. */
-function isMinimalSiphon(siphon: Set<number>, flows: Flow[]): boolean {
-  return [...siphon].every((species) => largestSiphonWithin(new Set([...siphon].filter((s) => s !== species)), flows).size === 0);
-}
-
-function isSubset(small: Set<number>, large: Set<number>): boolean {
-  for (const item of small) if (!large.has(item)) return false;
-  return true;
+function isMinimalSiphon(members: number[], speciesCount: number, flows: Flow[], consumers: number[][], budget: { left: number }): boolean {
+  const state = new Uint8Array(speciesCount).fill(OUT);
+  for (const s of members) state[s] = FREE;
+  return members.every((species) => {
+    state[species] = OUT;
+    const rest = largestSiphonWithin(state, flows, consumers, budget);
+    state[species] = FREE;
+    return rest.every((value) => value === 0);
+  });
 }
 
 function compareLexicographic(a: number[], b: number[]): number {
@@ -145,7 +176,7 @@ export async function persistence(network: Network, laws: number[][]): Promise<P
       siphons: null,
       criterionHolds: null,
       uncovered: [],
-      conclusion: `The search for minimal siphons stopped after ${MAX_SIPHON_SEARCH_NODES.toLocaleString("en")} branches: this network has too many to list, so the siphon criterion is undecided.`,
+      conclusion: "The search for minimal siphons ran past its work limit: this network has too many to list, so the siphon criterion is undecided.",
     };
   }
   if (siphons.length === 0) {
