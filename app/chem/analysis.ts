@@ -64,8 +64,13 @@ export interface AnalysisReport {
   parameters: Record<string, number>;
 }
 
-export async function analyzeSource(source: string): Promise<AnalysisReport> {
-  return analyzeMechanism(parseForAnalysis(source));
+export interface AnalysisOptions {
+  /** Milliseconds to spend searching for a multistationarity witness; 0 (the default) searches none. */
+  witnessSearchMs?: number;
+}
+
+export async function analyzeSource(source: string, options: AnalysisOptions = {}): Promise<AnalysisReport> {
+  return analyzeMechanism(parseForAnalysis(source), options);
 }
 
 /**
@@ -79,7 +84,7 @@ export function parseForAnalysis(source: string, parse: (source: string) => Pars
   return { mechanism: { steps: [], species: [], fixed: {}, parameters: {}, initial: {} }, diagnostics: [diagnostic] };
 }
 
-export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult): Promise<AnalysisReport> {
+export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, options: AnalysisOptions = {}): Promise<AnalysisReport> {
   const network = buildNetwork(mechanism);
   const { species, complexes, reactions } = network;
   const linkage = analyzeLinkage(complexes.length, reactions);
@@ -142,7 +147,7 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     massConserving: await hasPositiveConservationLaw(conservationLaws, species.length),
     theorems,
     odes: odes.text,
-    multistationarity: await multistationarity(network, { theorems, weaklyReversible, conservationLaws }),
+    multistationarity: await multistationarity(network, { theorems, weaklyReversible, conservationLaws }, options.witnessSearchMs),
     siphons: siphonVerdict.siphons?.map(namesOf) ?? null,
     acr: robustness.species,
     odesLatex: odes.latex,

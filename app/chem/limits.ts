@@ -99,5 +99,5 @@ export const MAX_SIPHON_SEARCH_WORK = 300_000;
 export const MAX_DETERMINANT_TERMS = 2_000_000;
 /** Sample points the multistationarity witness search tries before it gives up. */
 export const MAX_WITNESS_SAMPLES = 400;
-/** Milliseconds the witness search may spend on one analysis, which reruns on every change in a room. */
-export const MAX_WITNESS_SEARCH_MS = 1500;
+/** Milliseconds the command line's `analyze` spends searching for a multistationarity witness (rooms search none). */
+export const MAX_WITNESS_SEARCH_MS = 3000;

@@ -11,7 +11,7 @@ import { det } from "mathjs";
 import { loadSolver } from "./conservation";
 import { determinantMatrix, determinantSigns } from "./injectivity";
 import { networkEquilibrium } from "./kinetics/equilibrium";
-import { MAX_WITNESS_SAMPLES, MAX_WITNESS_SEARCH_MS } from "./limits";
+import { MAX_WITNESS_SAMPLES } from "./limits";
 import type { Mechanism, Network, Step } from "./model";
 import { buildNetwork, reactionVector } from "./network";
 import { seededRandom } from "./seeded-random";
@@ -36,7 +36,11 @@ interface Facts {
   conservationLaws: number[][];
 }
 
-export async function multistationarity(network: Network, facts: Facts): Promise<Multistationarity> {
+/**
+ * `witnessSearchMs` bounds the witness search (0: none). It costs seconds on networks whose
+ * determinant changes sign, so rooms, which recompute on every change, leave it to the command line.
+ */
+export async function multistationarity(network: Network, facts: Facts, witnessSearchMs = 0): Promise<Multistationarity> {
   if (network.reactions.length === 0) return { verdict: "undecided", reason: "There are no reactions yet, so there is nothing to conclude." };
   if (network.reactions.some((reaction) => reaction.law !== null)) {
     return { verdict: "undecided", reason: "Some reactions use a custom rate law; these criteria are stated for mass-action kinetics, so none is decided." };
@@ -90,7 +94,11 @@ export async function multistationarity(network: Network, facts: Facts): Promise
     };
   }
   const both = `The ${criterion} does not rule it out: the Jacobian's determinant has ${positive} positive and ${negative} negative terms.`;
-  const witness = searchWitness(network, laws, expectedSign, flux);
+  const unproven = `${both} For a network without steady states on the boundary of a positive class this means some rate coefficients give several steady states in one class (Conradi, Feliu, Mincheva and Wiuf 2017);`;
+  if (witnessSearchMs <= 0) {
+    return { verdict: "possible", reason: `${unproven} \`mechweave analyze FILE\` searches for a witness.` };
+  }
+  const witness = searchWitness(network, laws, expectedSign, flux, witnessSearchMs);
   if (witness) {
     return {
       verdict: "possible",
@@ -100,7 +108,7 @@ export async function multistationarity(network: Network, facts: Facts): Promise
   }
   return {
     verdict: "possible",
-    reason: `${both} For a network without steady states on the boundary of a positive class this means some rate coefficients give several steady states in one class (Conradi, Feliu, Mincheva and Wiuf 2017); no witness was found within the search's budget (${MAX_WITNESS_SAMPLES} sample points, ${MAX_WITNESS_SEARCH_MS / 1000} s).`,
+    reason: `${unproven} no witness was found within the search's budget (${MAX_WITNESS_SAMPLES} sample points, ${witnessSearchMs / 1000} s).`,
   };
 }
 
@@ -132,9 +140,10 @@ function searchWitness(
   laws: number[][],
   expectedSign: number,
   flux: (random: () => number) => number[] | null,
+  budgetMs: number,
 ): MultistationarityWitness | null {
   const random = seededRandom(0x18);
-  const deadline = performance.now() + MAX_WITNESS_SEARCH_MS;
+  const deadline = performance.now() + budgetMs;
   for (let sample = 0; sample < MAX_WITNESS_SAMPLES && performance.now() < deadline; sample++) {
     const v = flux(random);
     if (!v) continue;
@@ -142,7 +151,7 @@ function searchWitness(
     const rates = v.map((flux, r) => flux / reactantMonomial(network, r, x));
     const value = det(determinantMatrix(network, laws, rates, x)) as number;
     if (value === 0 || Math.sign(value) === expectedSign) continue;
-    const equilibria = classEquilibria(network, rates, x, laws, random);
+    const equilibria = classEquilibria(network, rates, x, laws, random, deadline);
     if (equilibria.length >= 2) {
       return { rates, equilibria: equilibria.map((state) => Object.fromEntries(network.species.map((name, s) => [name, state[s]]))) };
     }
@@ -156,7 +165,7 @@ function searchWitness(
  * along a random direction of the stoichiometric subspace, run off to other steady states, which
  * Newton's method then refines.
  */
-function classEquilibria(network: Network, rates: number[], x: number[], laws: number[][], random: () => number): number[][] {
+function classEquilibria(network: Network, rates: number[], x: number[], laws: number[][], random: () => number, deadline: number): number[][] {
   const direction = new Array<number>(x.length).fill(0);
   network.reactions.forEach((reaction) => {
     const { indices, values } = reactionVector(network, reaction);
@@ -166,10 +175,11 @@ function classEquilibria(network: Network, rates: number[], x: number[], laws: n
   const step = 1e-3 / Math.max(...direction.map((value, s) => Math.abs(value) / x[s]), Number.MIN_VALUE);
   const found: number[][] = [x];
   for (const side of [1, -1]) {
+    if (performance.now() > deadline) break;
     const beside = x.map((value, s) => value + side * step * direction[s]);
     const mechanism = witnessMechanism(network, rates, beside);
     const settleTime = 1e3 * Math.max(...x) / Math.min(...rates.map((rate, r) => rate * reactantMonomial(network, r, x)));
-    const result = networkEquilibrium(mechanism, buildNetwork(mechanism), { settleTime, randomStarts: 2 });
+    const result = networkEquilibrium(mechanism, buildNetwork(mechanism), { settleTime, randomStarts: 1 });
     found.push(...result.equilibria.filter((equilibrium) => equilibrium.positive).map((equilibrium) => network.species.map((name) => equilibrium.state[name])));
   }
   const verified = found.filter((state) => isSteadyStateInClass(network, rates, state, laws, x));
