@@ -88,7 +88,7 @@ export function checkSourceLimits(source: string): string | null {
 
 // ── Structural verdicts recomputed on every change ────────────────────────────────────────────
 /**
- * Work of the minimal-siphon search, in reactant visits (about 0.1 s). Minimal siphons can be
+ * Work of the minimal-siphon search, in reactant and reaction visits (a few tenths of a second). Minimal siphons can be
  * exponentially many; real mechanisms have few, and a few hundred species need a few hundred branches.
  */
 export const MAX_SIPHON_SEARCH_WORK = 300_000;
