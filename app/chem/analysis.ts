@@ -1,5 +1,7 @@
 // The structure report of a mechanism: every invariant the product shows, in one JSON-ready object.
 // Its keys are the `analyze --json` contract of PRODUCT.md plus the extras the web UI needs.
+import { concentrationRobustness, type AcrWitness } from "./acr";
+import { complexBalance, type ComplexBalance } from "./complex-balance";
 import { hasPositiveConservationLaw } from "./conservation";
 import { detailedBalance, type DetailedBalance } from "./detailed-balance";
 import { nullSpace, rank } from "./linalg/kernel";
@@ -7,8 +9,10 @@ import type { SparseVector } from "./linalg/sparse";
 import { analyzeLinkage } from "./linkage";
 import type { Diagnostic, Mechanism, Network, ParseResult, Term } from "./model";
 import { buildNetwork, reactionVector } from "./network";
+import { multistationarity, type Multistationarity } from "./multistationarity";
 import { inducedOdes } from "./odes";
 import { checkSourceLimits, parseMechanism } from "./parse";
+import { persistence } from "./siphons";
 import { deficiencyOneTheorem, deficiencyZeroTheorem, type TheoremVerdict } from "./theorems";
 
 export interface AnalysisReport {
@@ -34,7 +38,18 @@ export interface AnalysisReport {
   massConserving: boolean;
   theorems: { deficiencyZero: TheoremVerdict; deficiencyOne: TheoremVerdict };
   odes: Record<string, string>;
+  /** Can one compatibility class hold several positive steady states (mass action)? */
+  multistationarity: Multistationarity;
+  /** Minimal siphons as sorted species names; null when there were too many to list. */
+  siphons: string[][] | null;
+  /** Species with absolute concentration robustness by the Shinar–Feinberg criterion. */
+  acr: string[];
   // ---- extras for the web UI
+  /** The siphon criterion for persistence: whether it holds, the siphons it fails on, in words. */
+  persistence: { criterionHolds: boolean | null; uncovered: string[][]; conclusion: string };
+  /** The complexes that witness each robust species, and the criterion's verdict in words. */
+  robustness: { witnesses: AcrWitness[]; conclusion: string };
+  complexBalance: ComplexBalance;
   odesLatex: Record<string, string>;
   /**
    * The stoichiometric matrix by columns: for each reaction its nonzero entries as
@@ -61,8 +76,13 @@ export interface StepSummary {
   reactions: number[];
 }
 
-export async function analyzeSource(source: string): Promise<AnalysisReport> {
-  return analyzeMechanism(parseForAnalysis(source));
+export interface AnalysisOptions {
+  /** Milliseconds to spend searching for a multistationarity witness; 0 (the default) searches none. */
+  witnessSearchMs?: number;
+}
+
+export async function analyzeSource(source: string, options: AnalysisOptions = {}): Promise<AnalysisReport> {
+  return analyzeMechanism(parseForAnalysis(source), options);
 }
 
 /**
@@ -76,7 +96,7 @@ export function parseForAnalysis(source: string, parse: (source: string) => Pars
   return { mechanism: { steps: [], species: [], fixed: {}, parameters: {}, initial: {} }, diagnostics: [diagnostic] };
 }
 
-export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult): Promise<AnalysisReport> {
+export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, options: AnalysisOptions = {}): Promise<AnalysisReport> {
   const network = buildNetwork(mechanism);
   const { species, complexes, reactions } = network;
   const linkage = analyzeLinkage(complexes.length, reactions);
@@ -109,6 +129,14 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     customLawCount: customLaws.length,
   };
   const odes = inducedOdes(network);
+  const theorems = { deficiencyZero: deficiencyZeroTheorem(facts), deficiencyOne: deficiencyOneTheorem(facts) };
+  const siphonVerdict = await persistence(network, conservationLaws);
+  const namesOf = (members: number[]) => members.map((index) => species[index]);
+  const robustness = concentrationRobustness(network, {
+    deficiency,
+    terminalStrongLinkageClasses: linkage.terminalStrongLinkageClasses,
+    customLawCount: customLaws.length,
+  });
 
   return {
     diagnostics,
@@ -129,13 +157,23 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
       totals: conservationLaws.map((law) => law.reduce((total, weight, i) => total + weight * (mechanism.initial[species[i]] ?? 0), 0)),
     },
     massConserving: await hasPositiveConservationLaw(conservationLaws, species.length),
-    theorems: { deficiencyZero: deficiencyZeroTheorem(facts), deficiencyOne: deficiencyOneTheorem(facts) },
+    theorems,
     odes: odes.text,
+    multistationarity: await multistationarity(network, { theorems, weaklyReversible, conservationLaws }, options.witnessSearchMs),
+    siphons: siphonVerdict.siphons?.map(namesOf) ?? null,
+    acr: robustness.species,
     odesLatex: odes.latex,
     stoichiometry: reactions.map((reaction) => {
       const { indices, values } = reactionVector(network, reaction);
       return indices.map((index, k): [number, number] => [index, values[k]]);
     }),
+    persistence: {
+      criterionHolds: siphonVerdict.criterionHolds,
+      uncovered: siphonVerdict.uncovered.map((index) => namesOf(siphonVerdict.siphons![index])),
+      conclusion: siphonVerdict.conclusion,
+    },
+    robustness: { witnesses: robustness.witnesses, conclusion: robustness.conclusion },
+    complexBalance: complexBalance(network, { weaklyReversible, linkageClasses: linkage.linkageClasses }),
     detailedBalance: detailedBalance(network, reversible),
     customLaws,
     fixedSpecies: mechanism.fixed,

@@ -85,3 +85,19 @@ export function checkSourceLimits(source: string): string | null {
   }
   return null;
 }
+
+// ── Structural verdicts recomputed on every change ────────────────────────────────────────────
+/**
+ * Work of the minimal-siphon search, in reactant and reaction visits (a few tenths of a second). Minimal siphons can be
+ * exponentially many; real mechanisms have few, and a few hundred species need a few hundred branches.
+ */
+export const MAX_SIPHON_SEARCH_WORK = 300_000;
+/**
+ * Terms of the injectivity determinant examined: (reaction set, species set) pairs of the rank's
+ * size, C(reactions, rank) × C(species, rank). Beyond it the verdict is "undecided: too large".
+ */
+export const MAX_DETERMINANT_TERMS = 2_000_000;
+/** Sample points the multistationarity witness search tries before it gives up. */
+export const MAX_WITNESS_SAMPLES = 400;
+/** Milliseconds the command line's `analyze` spends searching for a multistationarity witness (rooms search none). */
+export const MAX_WITNESS_SEARCH_MS = 3000;

@@ -37,6 +37,25 @@ export function formatReport(report: AnalysisReport): string {
   ]);
   section("Deficiency Zero Theorem", [report.theorems.deficiencyZero.conclusion]);
   section("Deficiency One Theorem", [report.theorems.deficiencyOne.conclusion]);
+  const { verdict, reason, witness } = report.multistationarity;
+  section(`Several steady states in one class: ${verdict}`, [
+    reason,
+    ...(witness
+      ? [
+          `Witness rate coefficients: ${witness.rates.map((rate, r) => `${r + 1}. ${rate}`).join(", ")}`,
+          ...witness.equilibria.map((state, k) => `Steady state ${k + 1}: ${Object.entries(state).map(([name, value]) => `${name} = ${value}`).join(", ")}`),
+        ]
+      : []),
+  ]);
+  section("Siphons and persistence", [
+    ...(report.siphons && report.siphons.length > 0 ? [`Minimal siphons: ${report.siphons.map((siphon) => `{${siphon.join(", ")}}`).join(", ")}`] : []),
+    report.persistence.conclusion,
+  ]);
+  section("Absolute concentration robustness", [report.robustness.conclusion]);
+  section("Complex balance", [
+    report.complexBalance.note,
+    ...report.complexBalance.conditions.map(({ text, satisfied }) => `${text}${satisfied === null ? "" : satisfied ? "  (holds)" : "  (fails)"}`),
+  ]);
   section("Induced kinetic differential equations", species.map((name) => `d${name}/dt = ${report.odes[name]}`));
   section(
     "Custom rate laws (not mass action)",

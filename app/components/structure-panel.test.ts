@@ -37,6 +37,15 @@ describe("StructurePanel", () => {
     expect(html).toMatch(/moves? the 3 concentrations in only 1 independent direction.*2 totals above keep their initial values/);
   });
 
+  it("states each behaviour verdict in words: multistationarity, siphons, robust species, complex balance", async () => {
+    const report = await analyzeSource("A + B -> 2B @ 1\nB -> A @ 1\n");
+    const html = renderToString(createElement(StructurePanel, { report }));
+    expect(html).toContain("Several steady states in one class");
+    expect(html).toContain("Minimal siphons: <span class=\"font-mono\">{B}</span>");
+    expect(html).toMatch(/Shinar–Feinberg theorem/);
+    expect(html).toContain("Complex balance for these coefficients");
+  });
+
   it("renders an empty mechanism without failing", async () => {
     const html = renderToString(createElement(StructurePanel, { report: await analyzeSource("") }));
     expect(html).toContain("There are no reactions yet");

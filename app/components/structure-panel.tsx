@@ -1,10 +1,12 @@
-// The structure of a mechanism at a glance: counts, the theorems' verdicts, linkage classes with
+// The structure of a mechanism at a glance: counts, the theorems' verdicts and the behaviour
+// verdicts beside them (behaviour-verdicts.tsx), linkage classes with
 // their strong and terminal classes, conservation laws, the induced ODEs typeset, the
 // stoichiometric matrix and the detailed-balance conditions. Presentational: it shows a report.
 import katex from "katex";
 import "katex/dist/katex.min.css";
 import { useMemo, type ReactNode } from "react";
 import type { AnalysisReport } from "~/chem/analysis";
+import { BehaviourVerdicts } from "./behaviour-verdicts";
 import { denseStoichiometricMatrix } from "~/chem/stoichiometry";
 import { combinationLatex } from "~/chem/expression";
 import { readableNumberLatex, readableNumberText } from "~/chem/numbers";
@@ -37,6 +39,7 @@ export function StructurePanel({ report }: { report: AnalysisReport }) {
         <Verdict title="Deficiency Zero Theorem" verdict={report.theorems.deficiencyZero} />
         <Verdict title="Deficiency One Theorem" verdict={report.theorems.deficiencyOne} />
       </div>
+      <BehaviourVerdicts report={report} />
 
       {complexes.length > 0 && (
         <Section title="Linkage classes">

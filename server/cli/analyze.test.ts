@@ -28,6 +28,18 @@ describe("mechweave analyze", { timeout: 120_000 }, () => {
     expect(report.odes.P).toBe("kcat*C");
   });
 
+  it("carries the behaviour verdicts: siphons, acr and multistationarity with a witness that verifies", () => {
+    const { code, stdout } = analyze("tests/fixtures/two-site-phosphorylation.weave", "--json");
+    expect(code).toBe(0);
+    const report = JSON.parse(stdout);
+    // The three conserved totals (substrate, kinase, phosphatase), each in species order.
+    expect(report.siphons).toEqual([["S0", "ES0", "S1", "ES1", "S2", "FS2", "FS1"], ["E", "ES0", "ES1"], ["F", "FS2", "FS1"]]);
+    expect(report.acr).toEqual([]);
+    expect(report.multistationarity.verdict).toBe("possible");
+    expect(report.multistationarity.witness.rates).toHaveLength(report.reactions.length);
+    expect(report.multistationarity.witness.equilibria.length).toBeGreaterThanOrEqual(2);
+  });
+
   it("exits 1 for a file with errors and still lists them in the JSON", () => {
     const { code, stdout } = analyze("tests/fixtures/broken.weave", "--json");
     expect(code).toBe(1);

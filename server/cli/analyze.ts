@@ -2,6 +2,7 @@
 // as the contract JSON or as text. Exit 0 when the file has no errors, 1 when it has (the report
 // still lists them), 2 on bad usage.
 import { analyzeMechanism, parseForAnalysis } from "~/chem/analysis";
+import { MAX_WITNESS_SEARCH_MS } from "~/chem/limits";
 import type { Settings } from "~/chem/parse";
 import { formatReport } from "~/chem/report";
 import { parseWithSettings, readCommandLine, readSource, SETTINGS_FLAG } from "./simulate";
@@ -17,7 +18,9 @@ export async function run(args: string[]): Promise<number> {
     json = flags.json === true;
     const source = await readSource(file);
     // A rate coefficient set to 0 leaves the network here exactly as if the file said so.
-    report = await analyzeMechanism(parseForAnalysis(source, (text) => parseWithSettings(text, file, flags.set as Settings | undefined)));
+    const parsed = parseForAnalysis(source, (text) => parseWithSettings(text, file, flags.set as Settings | undefined));
+    // Only the caller waits here, so the multistationarity witness is searched for (rooms skip it).
+    report = await analyzeMechanism(parsed, { witnessSearchMs: MAX_WITNESS_SEARCH_MS });
   } catch (error) {
     if (!(error instanceof UsageError)) throw error;
     process.stderr.write(`mechweave analyze: ${error.message}\n${usage}\n`);
