@@ -42,6 +42,7 @@ export class ExplicitRungeKutta implements Stepper {
   readonly order: number;
   readonly controller: ControllerSettings;
   readonly jacobians = 0;
+  readonly factorizations = 0;
   readonly yNew: Float64Array;
   private readonly k: Float64Array[];
   /** The input of the last stage before the final one: kept for the stiffness test. */

@@ -9,7 +9,7 @@ import type { Method } from "./integrator";
 
 export const DEFAULT_RTOL = 1e-6;
 export const DEFAULT_ATOL = 1e-10;
-export const METHODS = ["auto", "stiff", "explicit"] as const satisfies readonly Method[];
+export const METHODS = ["auto", "stiff", "explicit", "bdf", "rodas4"] as const satisfies readonly Method[];
 
 /** How an integration is carried out: tolerances and method, shared by every kind of run. */
 export const integrationSettings = z.object({
