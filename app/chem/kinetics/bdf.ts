@@ -224,6 +224,31 @@ export class Bdf implements Stepper, StepSizeChooser {
     this.stateChanged = true;
   }
 
+  /**
+   * Starts at order k from the solution at k + 1 equally spaced times, newest first, h apart
+   * (a restart from a known past, and how the fixed-step convergence test reaches full order).
+   */
+  seed(points: readonly Float64Array[], h: number): void {
+    const k = points.length - 1;
+    if (k < 1 || k > this.maxOrder) throw new Error(`Bdf.seed needs 2 to ${this.maxOrder + 1} points`);
+    const D = this.differences;
+    for (const d of D) d.fill(0);
+    // D[j] = ∇ʲy_n, built in place from the points: after pass j, D[j] holds ∇ʲ at the newest time.
+    const column = new Float64Array(k + 1);
+    for (let i = 0; i < D[0].length; i++) {
+      points.forEach((point, m) => (column[m] = point[i]));
+      for (let j = 0; j <= k; j++) {
+        D[j][i] = column[0];
+        for (let m = 0; m < k - j; m++) column[m] -= column[m + 1];
+      }
+    }
+    this.historyH = h;
+    this.currentOrder = this.nextOrder = k;
+    this.equalSteps = k;
+    this.stateChanged = false;
+    this.evaluateJacobian(points[0]);
+  }
+
   /** Order 1 from y alone: D[1] = h·f(y). */
   private restart(y: Float64Array, h: number): void {
     for (const d of this.differences) d.fill(0);
