@@ -42,6 +42,8 @@ const MIN_GROWTH = 1.2;
 const NEWTON_FAILURE_SHRINK = 0.25;
 /** The share of the tolerance a step may dip below 0 (non-negative systems); see `undershoot`. */
 const UNDERSHOOT_FRACTION = 1e-8;
+/** Relative round-off of the state, 100 ε. */
+const ROUND_OFF = 100 * Number.EPSILON;
 
 export interface BdfOptions extends Tolerances {
   /** Highest order the method may use (1–5); lower orders are more stable near the imaginary axis. */
@@ -145,10 +147,14 @@ export class Bdf implements Stepper, StepSizeChooser {
    */
   private undershoot(y: Float64Array): number {
     const { scratch, yNew } = this;
+    let size = 0;
+    for (let i = 0; i < yNew.length; i++) size = Math.max(size, Math.abs(yNew[i]));
+    // Round-off below 0 on a component that has run out is no undershoot, and no step size cures it.
+    const floor = -ROUND_OFF * size;
     let any = false;
     for (let i = 0; i < yNew.length; i++) {
-      scratch[i] = yNew[i] < 0 ? -yNew[i] : 0;
-      any ||= yNew[i] < 0;
+      scratch[i] = yNew[i] < floor ? floor - yNew[i] : 0;
+      any ||= yNew[i] < floor;
     }
     return any ? errorNorm(scratch, y, yNew, this.tolerances) / UNDERSHOOT_FRACTION : 0;
   }
@@ -262,24 +268,15 @@ export class Bdf implements Stepper, StepSizeChooser {
   }
 
   /**
-   * The state was changed from outside. A change within the tolerances (a negative undershoot
-   * clipped to 0) keeps the history, less the differences of the changed components: left in, they
-   * would predict the same undershoot again and each clip would add to the conserved totals
-   * (Shampine, Thompson, Kierzenka & Byrne, Appl. Math. Comput. 170 (2005) 556–569, §3). Anything
-   * larger is a new problem and starts over at order 1.
+   * The state was changed from outside. A change within the tolerances (round-off below 0 clipped;
+   * larger undershoots are rejected, see `undershoot`) keeps the history; anything larger is a new
+   * problem and starts over at order 1.
    */
   private adopt(y: Float64Array, h: number): void {
     const { scratch, differences: D } = this;
     for (let i = 0; i < y.length; i++) scratch[i] = y[i] - D[0][i];
-    if (errorNorm(scratch, y, D[0], this.tolerances) > 1) {
-      this.restart(y, h);
-      return;
-    }
-    for (let i = 0; i < y.length; i++) {
-      if (scratch[i] === 0) continue;
-      D[0][i] = y[i];
-      for (let j = 1; j < D.length; j++) D[j][i] = 0;
-    }
+    if (errorNorm(scratch, y, D[0], this.tolerances) <= 1) D[0].set(y);
+    else this.restart(y, h);
   }
 
   /** Re-scales D[0 … k] from step historyH to step h: D ← (R·U)ᵀ·D (Shampine & Reichelt eq. 2.7). */
