@@ -7,7 +7,9 @@ import type * as Y from "yjs";
 import type { AnalysisReport } from "~/chem/analysis";
 import { CsvError, readMeasuredCsv, residuals, simulationCsv, type MeasuredCourses } from "~/chem/kinetics/csv";
 import type { EquilibriumResult } from "~/chem/kinetics/equilibrium";
+import type { Method } from "~/chem/kinetics/integrator";
 import type { LyapunovResult } from "~/chem/kinetics/lyapunov";
+import { METHOD_NAMES } from "~/chem/kinetics/settings";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
 import { readableNumberText } from "~/chem/numbers";
 import type { SweepResult } from "~/chem/kinetics/sweep";
@@ -37,7 +39,7 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
   const simulation = useDynamicsJob<SimulationResult>(dynamicsUrl(mechanismId));
   const [until, setUntil] = useState(50);
   const [samples, setSamples] = useState(400);
-  const [method, setMethod] = useState<"auto" | "stiff" | "explicit">("auto");
+  const [method, setMethod] = useState<Method>("auto");
   const [logTime, setLogTime] = useState(false);
   const [measured, setMeasured] = useState<MeasuredCourses | null>(null);
   const [csvNote, setCsvNote] = useState<string | null>(null);
@@ -91,7 +93,9 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
             <span className="label">Method</span>
             <select className="field py-1.5" value={method} onChange={(e) => setMethod(e.target.value as typeof method)}>
               <option value="auto">automatic</option>
-              <option value="stiff">stiff (Rosenbrock)</option>
+              <option value="stiff">stiff (by tolerance)</option>
+              <option value="bdf">stiff, BDF (variable order)</option>
+              <option value="rodas4">stiff, Rosenbrock (RODAS4)</option>
               <option value="explicit">explicit (Dormand–Prince)</option>
             </select>
           </label>
@@ -112,7 +116,7 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
             </div>
             <p className="mt-2 text-xs text-muted">
               {result.stats.steps} steps ({result.stats.rejected} rejected, {result.stats.jacobians} Jacobians) in {result.stats.ms.toFixed(0)} ms
-              with the {result.method} method{result.switchedAt !== null ? `, switched to stiff at t = ${readableNumberText(result.switchedAt)}` : ""}.
+              with the {result.method} method{result.stats.method ? ` (${METHOD_NAMES[result.stats.method]})` : ""}{result.switchedAt !== null ? `, switched to stiff at t = ${readableNumberText(result.switchedAt)}` : ""}.
               Drag to zoom, double-click to reset; click a name to hide or show it.
             </p>
             <div className="mt-3 flex flex-wrap items-center gap-3">

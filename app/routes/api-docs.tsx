@@ -26,7 +26,7 @@ const endpoints: Endpoint[] = [
   { method: "PUT", path: "/api/v1/mechanisms/:id/source", role: "editor", what: "Replace the text; applied through the live document, so everyone in the room sees it.", example: (o) => `curl -X PUT ${auth} ${json} -d '{"source":"A -> B @ 1"}' ${o}/api/v1/mechanisms/ID/source` },
   { method: "GET", path: "/api/v1/mechanisms/:id/snapshots", role: "viewer", what: "Versions, newest first.", example: (o) => `curl ${auth} ${o}/api/v1/mechanisms/ID/snapshots` },
   { method: "POST", path: "/api/v1/mechanisms/:id/snapshots", role: "editor", what: "Name the current version: { name }.", example: (o) => `curl ${auth} ${json} -d '{"name":"before review"}' ${o}/api/v1/mechanisms/ID/snapshots` },
-  { method: "POST", path: "/api/v1/mechanisms/:id/simulations", role: "viewer", what: "Simulate: { until, samples, rtol?, atol?, method? } → { t, series, stats }. method is auto, stiff or explicit.", example: (o) => `curl ${auth} ${json} -d '{"until":50,"samples":101}' ${o}/api/v1/mechanisms/ID/simulations` },
+  { method: "POST", path: "/api/v1/mechanisms/:id/simulations", role: "viewer", what: "Simulate: { until, samples, rtol?, atol?, method? } → { t, series, stats }. method is auto, stiff (RODAS4 or BDF by tolerance), explicit, bdf or rodas4; stats.method names the method that ran.", example: (o) => `curl ${auth} ${json} -d '{"until":50,"samples":101}' ${o}/api/v1/mechanisms/ID/simulations` },
   {
     method: "POST",
     path: "/api/v1/mechanisms/:id/dynamics",

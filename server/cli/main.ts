@@ -10,7 +10,7 @@ const commands: Record<string, () => Promise<{ run(args: string[]): Promise<numb
 const usage = `usage: mechweave <command> FILE [options]
 commands:
   analyze FILE [--json]                                   network structure
-  simulate FILE --until T --samples N [--rtol R --atol A] [--json]
+  simulate FILE --until T --samples N [--rtol R --atol A] [--method M] [--json]
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
     (these three take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;

@@ -1,4 +1,4 @@
-// `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit]
+// `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit|bdf|rodas4]
 // [--set NAME=VALUE …] [--json]`. FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0
 // on success, 1 when the file has errors or cannot be simulated, 2 on bad usage. The file loading
 // and flag reading here are shared with the `lyapunov` and `analyze` commands.
@@ -6,7 +6,7 @@
 import { readFile } from "node:fs/promises";
 import { extname } from "node:path";
 import { IntegrationFailure, SimulationInputError } from "~/chem/kinetics/errors";
-import { METHODS } from "~/chem/kinetics/settings";
+import { METHOD_NAMES, METHODS } from "~/chem/kinetics/settings";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
 import type { Diagnostic, ParseResult } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
@@ -160,8 +160,9 @@ export function run(args: string[]): Promise<number> {
     (result: Pick<SimulationResult, "t" | "series" | "stats">) => {
       const names = Object.keys(result.series);
       const rows = result.t.map((t, i) => [t, ...names.map((name) => result.series[name][i])].map((x) => x.toPrecision(6)).join("\t"));
-      const { steps, rejected, jacobians, ms } = result.stats;
-      return [["t", ...names].join("\t"), ...rows, `# ${steps} steps, ${rejected} rejected, ${jacobians} Jacobians, ${ms} ms`].join("\n");
+      const { steps, rejected, jacobians, factorizations, method, ms } = result.stats;
+      const summary = `# ${steps} steps, ${rejected} rejected, ${jacobians} Jacobians, ${factorizations} LU factorisations, ${METHOD_NAMES[method]}, ${ms} ms`;
+      return [["t", ...names].join("\t"), ...rows, summary].join("\n");
     },
   );
 }

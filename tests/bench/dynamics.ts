@@ -1,15 +1,13 @@
 // Dynamics benchmark: our integrators against the targets in the dynamics issue and, side by
-// side in the same run, against odex (explicit, non-stiff) and scipy's LSODA
-// (`scipy.integrate.odeint` with a vectorised numpy right-hand side and Jacobian, run in a child
-// python3 process on the very same systems). Python is only the peer here; the product never
-// needs it. Run: npx tsx tests/bench/dynamics.ts
-import { spawnSync } from "node:child_process";
+// side in the same run, against odex (explicit, non-stiff) and scipy's LSODA (scipy-peer.ts), warm
+// in one process. The cold, command-line comparison is lsoda.ts. Run: npx tsx tests/bench/dynamics.ts
 import { createRequire } from "node:module";
 import { networkSpec } from "~/chem/kinetics/from-network";
 import { polynomialSpec } from "~/chem/kinetics/from-polynomial";
 import { compileKineticSystem, type KineticSpec } from "~/chem/kinetics/kinetic-system";
 import type { Method } from "~/chem/kinetics/integrator";
 import { simulateSystem } from "~/chem/kinetics/simulate";
+import { scipyPeer, type PeerFigures } from "./scipy-peer";
 import { brusselator, generatedNetwork, lorenz, robertson } from "../fixtures/dynamics/models";
 
 // odex is CommonJS marked __esModule: tsx's ESM interop hides its named exports, require does not.
@@ -25,12 +23,7 @@ interface Problem {
   method: Method;
 }
 
-interface Figures {
-  ms: number;
-  steps: number;
-  jacobians: number;
-  final: number[];
-}
+type Figures = PeerFigures;
 
 const problems: Problem[] = [
   { name: "Robertson to t = 1e11", spec: networkSpec(robertson().mechanism, robertson().network), until: 1e11, rtol: 1e-6, atol: 1e-10, method: "auto" },
@@ -86,73 +79,9 @@ function odex(problem: Problem): Figures {
   return { ms, steps: value.nStep, jacobians: 0, final: value.y };
 }
 
-// The peer's right-hand side and Jacobian are vectorised numpy over the same rate and change
-// tables our kernels use: products over padded factor slots, sums by np.bincount.
-const LSODA = String.raw`
-import json, sys, time
-import numpy as np
-from scipy.integrate import odeint
-
-problems = json.load(sys.stdin)
-out = []
-for p in problems:
-    n = len(p["names"]); R = len(p["rates"])
-    F = max([1] + [len(r) for r in p["rates"]])
-    I = np.zeros((R, F), dtype=np.int64); P = np.zeros((R, F))
-    for j, factors in enumerate(p["rates"]):
-        for f, (v, power) in enumerate(factors):
-            I[j, f] = v; P[j, f] = power
-    k = np.array(p["coefficients"], dtype=float)
-    changes = np.array(p["changes"], dtype=float).reshape(-1, 3)
-    cv = changes[:, 0].astype(np.int64); cr = changes[:, 1].astype(np.int64); cc = changes[:, 2]
-    # Jacobian entries: one per (change, factor slot that is used), J[cv, I[cr, f]] += cc * dr/dy.
-    pairs = [(e, f) for e in range(len(cv)) for f in range(F) if P[cr[e], f] > 0]
-    pe = np.array([e for e, _ in pairs], dtype=np.int64); pf = np.array([f for _, f in pairs], dtype=np.int64)
-    targets = cv[pe] * n + I[cr[pe], pf]
-
-    def powers(y):
-        return np.where(P == 0, 1.0, y[I] ** P)
-
-    def rhs(y, t):
-        r = k * np.prod(powers(y), axis=1)
-        return np.bincount(cv, weights=cc * r[cr], minlength=n)
-
-    def jac(y, t):
-        base = powers(y)
-        partial = np.empty((R, F))
-        for f in range(F):
-            others = np.prod(np.delete(base, f, axis=1), axis=1) if F > 1 else 1.0
-            own = np.where(P[:, f] == 0, 0.0, P[:, f] * np.where(P[:, f] == 1, 1.0, y[I[:, f]] ** (P[:, f] - 1)))
-            partial[:, f] = k * own * others
-        return np.bincount(targets, weights=cc[pe] * partial[cr[pe], pf], minlength=n * n).reshape(n, n)
-
-    y0 = np.array(p["initial"], dtype=float)
-    times = []
-    for _ in range(7 if n < 500 else 2):  # LSODA factors densely: the 1,000-species run takes seconds
-        start = time.perf_counter()
-        y, info = odeint(rhs, y0, [0.0, p["until"]], Dfun=jac, rtol=p["rtol"], atol=p["atol"], full_output=True, mxstep=1000000)
-        times.append((time.perf_counter() - start) * 1000)
-    out.append({"ms": min(times), "steps": int(info["nst"][-1]), "jacobians": int(info["nje"][-1]), "final": y[-1].tolist()})
-print(json.dumps(out))
-`;
-
 function lsoda(list: Problem[]): Figures[] | null {
-  const input = list.map((p) => ({
-    names: p.spec.names,
-    initial: p.spec.initial,
-    rates: p.spec.monomials.map((m) => m.factors.map((f) => [f.variable, f.power])),
-    coefficients: p.spec.monomials.map((m) => m.coefficient),
-    changes: p.spec.changes.map((c) => [c.variable, c.rate, c.change]),
-    until: p.until,
-    rtol: p.rtol,
-    atol: p.atol,
-  }));
-  const run = spawnSync("python3", ["-c", LSODA], { input: JSON.stringify(input), encoding: "utf8", maxBuffer: 64 << 20 });
-  if (run.status !== 0) {
-    console.log(`(scipy's LSODA could not run: ${run.stderr.trim().split("\n").pop() ?? run.error?.message})`);
-    return null;
-  }
-  return JSON.parse(run.stdout) as Figures[];
+  // LSODA factors densely: the 1,000-species run takes seconds.
+  return scipyPeer(list, "lsoda", (problem) => (problem.spec.names.length < 500 ? 7 : 2));
 }
 
 /** Largest relative difference between two final states, relative to the state's size. */

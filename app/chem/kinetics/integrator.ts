@@ -1,7 +1,10 @@
-// The adaptive driver around a one-step method: step-size control, landing exactly on requested
-// times, sampling through dense output, statistics, cancellation, and the automatic switch from
-// the explicit pair to the stiff method when the explicit pair's stiffness test fires.
+// The adaptive driver around a method: step-size control, landing exactly on requested times,
+// sampling through dense output, statistics, cancellation, and the automatic choice of method —
+// the explicit pair until its stiffness test fires, then a stiff method picked by the tolerance:
+// RODAS4 (one step, order 4 at once) for tight tolerances, the variable-order BDF (Jacobian and
+// LU reused over many steps) otherwise.
 
+import { Bdf } from "./bdf";
 import { dormandPrince54 } from "./dormand-prince";
 import { IntegrationFailure, SimulationCancelled } from "./errors";
 import { ExplicitRungeKutta } from "./explicit-runge-kutta";
@@ -9,9 +12,19 @@ import type { OdeSystem } from "./ode-system";
 import { rodas4 } from "./rodas4";
 import { Rosenbrock } from "./rosenbrock";
 import { StepSizeController } from "./step-size-controller";
-import { errorNorm, type Stepper, type Tolerances } from "./stepper";
+import { errorNorm, type StepSizeChooser, type Stepper, type Tolerances } from "./stepper";
 
-export type Method = "auto" | "stiff" | "explicit";
+/** What a run asks for: a family chosen automatically ("auto", "stiff") or one method by name. */
+export type Method = "auto" | "stiff" | "explicit" | "bdf" | "rodas4";
+/** The methods that actually step. */
+export type MethodName = "dormand-prince" | "rodas4" | "bdf";
+
+/**
+ * At or below this rtol the stiff choice is RODAS4: the BDF's error constants grow with its order
+ * and its order is capped at 5, so at tight tolerances it takes many short steps, while RODAS4's
+ * single-step order 4 with a fresh Jacobian each step stays efficient.
+ */
+export const TIGHT_RTOL = 1e-8;
 
 export interface IntegratorOptions extends Tolerances {
   method: Method;
@@ -24,6 +37,10 @@ export interface StepStatistics {
   steps: number;
   rejected: number;
   jacobians: number;
+  /** Numeric LU factorisations of the iteration matrix. */
+  factorizations: number;
+  /** The method that took the last step. */
+  method: MethodName;
 }
 
 const DEFAULT_MAX_STEPS = 2_000_000;
@@ -36,7 +53,7 @@ export class Integrator {
   /** When the automatic choice switched to the stiff method, the time it did; null otherwise. */
   switchedAt: number | null = null;
   private stepper: Stepper;
-  private controller: StepSizeController;
+  private controller: StepSizeChooser;
   private explicit: ExplicitRungeKutta | null;
   private jacobiansBeforeSwitch = 0;
   private h = 0;
@@ -51,17 +68,21 @@ export class Integrator {
     this.y = Float64Array.from(initial);
     this.t = start;
     this.maxSteps = options.maxSteps ?? DEFAULT_MAX_STEPS;
-    this.explicit = options.method === "stiff" ? null : new ExplicitRungeKutta(dormandPrince54, system, options);
-    this.stepper = this.explicit ?? new Rosenbrock(rodas4, system, options);
-    this.controller = new StepSizeController(this.stepper.controller);
+    const explicitFirst = options.method === "auto" || options.method === "explicit";
+    this.explicit = explicitFirst ? new ExplicitRungeKutta(dormandPrince54, system, options) : null;
+    this.stepper = this.explicit ?? this.stiffStepper();
+    this.controller = chooserFor(this.stepper);
   }
 
   get method(): "stiff" | "explicit" {
-    return this.stepper instanceof Rosenbrock ? "stiff" : "explicit";
+    return this.explicit ? "explicit" : "stiff";
   }
 
   get statistics(): StepStatistics {
-    return { steps: this.steps, rejected: this.rejected, jacobians: this.jacobiansBeforeSwitch + this.stepper.jacobians };
+    const { stepper } = this;
+    const method = stepper instanceof Bdf ? "bdf" : stepper instanceof Rosenbrock ? "rodas4" : "dormand-prince";
+    const jacobians = this.jacobiansBeforeSwitch + stepper.jacobians;
+    return { steps: this.steps, rejected: this.rejected, jacobians, factorizations: stepper.factorizations, method };
   }
 
   /** Replaces the state (renormalisation, a new start); the step size is kept. */
@@ -125,10 +146,16 @@ export class Integrator {
 
   private switchToStiff(): void {
     this.jacobiansBeforeSwitch += this.stepper.jacobians;
-    this.stepper = new Rosenbrock(rodas4, this.system, this.options);
-    this.controller = new StepSizeController(this.stepper.controller);
+    this.stepper = this.stiffStepper();
+    this.controller = chooserFor(this.stepper);
     this.explicit = null;
     this.switchedAt = this.t;
+  }
+
+  private stiffStepper(): Stepper {
+    const { method, rtol } = this.options;
+    const rosenbrock = method === "rodas4" || (method !== "bdf" && rtol <= TIGHT_RTOL);
+    return rosenbrock ? new Rosenbrock(rodas4, this.system, this.options) : new Bdf(this.system, this.options);
   }
 
   /** Hairer & Wanner's starting step (Solving ODEs I, §II.4): from |y|, |f| and a trial Euler step. */
@@ -152,6 +179,12 @@ export class Integrator {
     const start = Math.min(100 * h, h1, span);
     return Number.isFinite(start) && start > 0 ? start : Math.min(1e-6, span);
   }
+}
+
+/** A one-step method gets the shared controller with its settings; a multistep method chooses itself. */
+function chooserFor(stepper: Stepper): StepSizeChooser {
+  const { controller } = stepper;
+  return "next" in controller ? controller : new StepSizeController(controller);
 }
 
 /** Sets negative entries to 0; true when any changed. */

@@ -4,9 +4,8 @@
 // so each step costs one Jacobian and one LU factorisation and no Newton iterations — the right
 // tool for stiff kinetics. The systems are autonomous, so the nodes and ∂f/∂t never enter.
 
-import { DenseLu } from "./dense-lu";
 import type { OdeSystem } from "./ode-system";
-import { SparseShiftedLu } from "./sparse-lu";
+import { ShiftedLu } from "./shifted-lu";
 import type { ControllerSettings } from "./step-size-controller";
 import { errorNorm, type Stepper, type Tolerances } from "./stepper";
 import { accumulatedSum, scaledSum, type AccumulatedSum, type ScaledSum } from "./weighted-sums";
@@ -34,23 +33,13 @@ export interface RosenbrockMethod {
   readonly controller: ControllerSettings;
 }
 
-/** Below this size dense LU is as fast; above this fill the sparse factors stop paying off. */
-const SPARSE_MIN_SIZE = 40;
-const SPARSE_MAX_FILL = 0.3;
-
-interface ShiftedSolver {
-  solve(b: Float64Array): void;
-}
-
 export class Rosenbrock implements Stepper {
   readonly order: number;
   readonly controller: ControllerSettings;
   readonly yNew: Float64Array;
   jacobians = 0;
-  private readonly n: number;
   private readonly jacobian: Float64Array;
-  private readonly sparse: SparseShiftedLu | null;
-  private denseLu: DenseLu | null = null;
+  private readonly lu: ShiftedLu;
   private readonly f0: Float64Array;
   private readonly f: Float64Array;
   private readonly stage: Float64Array;
@@ -67,12 +56,11 @@ export class Rosenbrock implements Stepper {
     private readonly tolerances: Tolerances,
   ) {
     const n = system.names.length;
-    this.n = n;
     this.order = method.order;
     this.controller = method.controller;
     this.yNew = new Float64Array(n);
     this.jacobian = new Float64Array(n * n);
-    this.sparse = sparseSolver(system);
+    this.lu = new ShiftedLu(system);
     this.f0 = new Float64Array(n);
     this.f = new Float64Array(n);
     this.stage = new Float64Array(n);
@@ -94,8 +82,8 @@ export class Rosenbrock implements Stepper {
       this.jacobians++;
       this.jacobianCurrent = true;
     }
-    const lu = this.factor(1 / (h * method.gamma));
-    if (!lu) return Number.POSITIVE_INFINITY;
+    const { lu } = this;
+    if (!lu.factor(1 / (h * method.gamma), this.jacobian)) return Number.POSITIVE_INFINITY;
 
     const inverseH = 1 / h;
     u[0].set(this.f0);
@@ -111,11 +99,8 @@ export class Rosenbrock implements Stepper {
     return errorNorm(error, y, yNew, this.tolerances);
   }
 
-  /** Factors I/(hγ) − J: sparse when the pattern allows, dense partial pivoting otherwise. */
-  private factor(shift: number): ShiftedSolver | null {
-    if (this.sparse?.factor(shift, this.jacobian)) return this.sparse;
-    this.denseLu ??= new DenseLu(this.n);
-    return this.denseLu.factorShifted(shift, this.jacobian) ? this.denseLu : null;
+  get factorizations(): number {
+    return this.lu.factorizations;
   }
 
   accept(): void {
@@ -136,10 +121,4 @@ export class Rosenbrock implements Stepper {
   invalidate(): void {
     this.jacobianCurrent = false;
   }
-}
-
-function sparseSolver(system: OdeSystem): SparseShiftedLu | null {
-  if (!system.sparsity || system.names.length < SPARSE_MIN_SIZE) return null;
-  const solver = new SparseShiftedLu(system.sparsity);
-  return solver.fillRatio <= SPARSE_MAX_FILL ? solver : null;
 }

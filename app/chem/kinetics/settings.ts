@@ -5,11 +5,13 @@
 import { z } from "zod";
 import { MAX_SAMPLES } from "../limits";
 import { SimulationInputError } from "./errors";
-import type { Method } from "./integrator";
+import type { Method, MethodName } from "./integrator";
 
 export const DEFAULT_RTOL = 1e-6;
 export const DEFAULT_ATOL = 1e-10;
-export const METHODS = ["auto", "stiff", "explicit"] as const satisfies readonly Method[];
+export const METHODS = ["auto", "stiff", "explicit", "bdf", "rodas4"] as const satisfies readonly Method[];
+/** How results name the method that ran. */
+export const METHOD_NAMES: Record<MethodName, string> = { "dormand-prince": "Dormand–Prince 5(4)", rodas4: "RODAS4", bdf: "variable-order BDF" };
 
 /** How an integration is carried out: tolerances and method, shared by every kind of run. */
 export const integrationSettings = z.object({

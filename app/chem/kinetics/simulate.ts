@@ -7,7 +7,7 @@
 import type { Mechanism, Network, PolynomialOde } from "~/chem/model";
 import { networkSystem } from "./from-network";
 import { polynomialSystem } from "./from-polynomial";
-import { Integrator } from "./integrator";
+import { Integrator, type StepStatistics } from "./integrator";
 import type { OdeSystem } from "./ode-system";
 import { resolveSettings, type SimulationSettings } from "./settings";
 
@@ -21,7 +21,7 @@ export interface SimulationOptions extends SimulationSettings {
 export interface SimulationResult {
   t: number[];
   series: Record<string, number[]>;
-  stats: { steps: number; rejected: number; jacobians: number; ms: number };
+  stats: StepStatistics & { ms: number };
   /** The method that finished the run, and when the automatic choice switched to the stiff one. */
   method: "stiff" | "explicit";
   switchedAt: number | null;

@@ -1,12 +1,19 @@
 // What the integration driver needs from a method: try a step, accept it, interpolate inside it,
-// and the step-size controller settings published with it (the driver owns the controller).
+// and how the next step size is chosen: a one-step method publishes the settings of the driver's
+// shared controller; a multistep method, which picks step size and order together from its own
+// history, is its own chooser.
 
 import type { ControllerSettings } from "./step-size-controller";
+
+/** From a tried step of size h and its error (≤ 1 passes) to the size of the next try. */
+export interface StepSizeChooser {
+  next(h: number, error: number, accepted: boolean): number;
+}
 
 export interface Stepper {
   /** Classical order of the propagated solution (for the initial step size guess). */
   readonly order: number;
-  readonly controller: ControllerSettings;
+  readonly controller: ControllerSettings | StepSizeChooser;
   /** The candidate state after the last `step`. */
   readonly yNew: Float64Array;
   /** Tries a step of size h from y; returns the error estimate in the tolerance norm (≤ 1 passes). */
@@ -18,6 +25,8 @@ export interface Stepper {
   /** The state was changed from outside (clipping, renormalisation): cached values are stale. */
   invalidate(): void;
   readonly jacobians: number;
+  /** Numeric LU factorisations of the iteration matrix (0 for explicit methods). */
+  readonly factorizations: number;
 }
 
 export interface Tolerances {

@@ -1,0 +1,94 @@
+// Cold-start benchmark against scipy's LSODA, as users and scripts run us: each of our runs is a
+// fresh `mechweave simulate` process (compute time from its stats.ms, so the first simulation pays
+// for compilation and JIT warm-up), against LSODA (`odeint` with a vectorised right-hand side and
+// analytic Jacobian, best of 7 in one process) at the same rtol and atol. Accuracy of both against
+// scipy's Radau at rtol 1e-10. Target: ours/LSODA ≤ 1.0 on each problem (goal 0.5).
+// Run: npx tsx tests/bench/lsoda.ts [runs]
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { networkSpec } from "~/chem/kinetics/from-network";
+import type { Mechanism, Network } from "~/chem/model";
+import { aggregation, generatedNetwork, robertson } from "../fixtures/dynamics/models";
+import { scipyPeer, type PeerProblem } from "./scipy-peer";
+
+const RTOL = 1e-6;
+const ATOL = 1e-10;
+const REFERENCE_RTOL = 1e-10;
+
+interface Problem extends PeerProblem {
+  name: string;
+  text: string;
+}
+
+function problem(name: string, model: { mechanism: Mechanism; network: Network }, until: number): Problem {
+  return { name, text: weaveText(model), spec: networkSpec(model.mechanism, model.network), until, rtol: RTOL, atol: ATOL };
+}
+
+/** The model as a mechanism file: one line per reaction, then the initial concentrations. */
+function weaveText({ mechanism, network }: { mechanism: Mechanism; network: Network }): string {
+  const side = (complex: number) => network.complexes[complex].text;
+  const reactions = network.reactions.map((r) => `${side(r.from)} -> ${side(r.to)} @ ${r.rate}`);
+  const initial = Object.entries(mechanism.initial).map(([name, value]) => `[${name}]0 = ${value}`);
+  return [...reactions, ...initial].join("\n") + "\n";
+}
+
+const problems = [
+  problem("Robertson to t = 1e11", robertson(), 1e11),
+  problem("aggregation, 200 species, t = 1e4", aggregation(200), 1e4),
+  problem("random 200 species, 5 decades, t = 100", generatedNetwork(200, { decades: 5 }), 100),
+];
+
+interface Run {
+  ms: number;
+  steps: number;
+  factorizations: number;
+  method: string;
+  final: number[];
+}
+
+function cli(file: string, p: Problem): Run {
+  const args = ["--import", "tsx", "server/cli/main.ts", "simulate", file, "--until", String(p.until), "--samples", "2", "--rtol", String(p.rtol), "--atol", String(p.atol), "--json"];
+  const run = spawnSync(process.execPath, args, { encoding: "utf8", maxBuffer: 64 << 20 });
+  if (run.status !== 0) throw new Error(`mechweave simulate failed: ${run.stderr}`);
+  const result = JSON.parse(run.stdout) as { series: Record<string, number[]>; stats: { ms: number; steps: number; factorizations: number; method: string } };
+  return { ...result.stats, final: p.spec.names.map((name) => result.series[name][1]) };
+}
+
+/** Largest difference between two final states, relative to the reference state's size. */
+function disagreement(reference: number[], b: number[]): number {
+  const scale = Math.max(...reference.map(Math.abs), 1e-300);
+  return Math.max(...reference.map((x, i) => Math.abs(x - b[i]))) / scale;
+}
+
+function main() {
+  const runs = Number(process.argv[2] ?? 3);
+  spawnSync(process.execPath, ["scripts/ensure-grammar.mjs"], { stdio: "inherit" });
+  const directory = mkdtempSync(join(tmpdir(), "mechweave-bench-"));
+  try {
+    const lsoda = scipyPeer(problems, "lsoda", () => 7);
+    const radau = scipyPeer(problems.map((p) => ({ ...p, rtol: REFERENCE_RTOL, atol: ATOL * 1e-4 })), "radau", () => 1);
+    problems.forEach((p, i) => {
+      const file = join(directory, `problem-${i}.weave`);
+      writeFileSync(file, p.text);
+      const ours = Array.from({ length: runs }, () => cli(file, p));
+      const times = ours.map((r) => r.ms).sort((a, b) => a - b);
+      const median = times[Math.floor(times.length / 2)];
+      const [first] = ours;
+      console.log(`${p.name}`);
+      console.log(`  ours (${first.method}): median ${median.toFixed(1)} ms of ${runs} fresh processes, spread ${times[0].toFixed(1)}–${times.at(-1)!.toFixed(1)} ms; ${first.steps} steps, ${first.factorizations} LU`);
+      if (lsoda) console.log(`  LSODA: ${lsoda[i].ms.toFixed(1)} ms; ${lsoda[i].steps} steps, ${lsoda[i].jacobians} Jacobians`);
+      if (lsoda) console.log(`  ratio ours/LSODA: median ${(median / lsoda[i].ms).toFixed(2)}, best ${(times[0] / lsoda[i].ms).toFixed(2)}, worst ${(times.at(-1)! / lsoda[i].ms).toFixed(2)}`);
+      if (radau) {
+        const reference = radau[i].final;
+        const peer = lsoda ? `, LSODA ${disagreement(reference, lsoda[i].final).toExponential(1)}` : "";
+        console.log(`  max difference from Radau at rtol ${REFERENCE_RTOL}: ours ${disagreement(reference, first.final).toExponential(1)}${peer}`);
+      }
+    });
+  } finally {
+    rmSync(directory, { recursive: true, force: true });
+  }
+}
+
+main();
