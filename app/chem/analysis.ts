@@ -1,5 +1,6 @@
 // The structure report of a mechanism: every invariant the product shows, in one JSON-ready object.
 // Its keys are the `analyze --json` contract of PRODUCT.md plus the extras the web UI needs.
+import { type BalanceReport, elementBalance } from "./balance";
 import { hasPositiveConservationLaw } from "./conservation";
 import { detailedBalance, type DetailedBalance } from "./detailed-balance";
 import { nullSpace, rank } from "./linalg/kernel";
@@ -34,6 +35,11 @@ export interface AnalysisReport {
   massConserving: boolean;
   theorems: { deficiencyZero: TheoremVerdict; deficiencyOne: TheoremVerdict };
   odes: Record<string, string>;
+  /**
+   * With `balanced` in the text: each step's atoms and charge, right side minus left (a step with a
+   * species that has no readable formula is not checked); null when the text does not ask.
+   */
+  balance: BalanceReport | null;
   // ---- extras for the web UI
   odesLatex: Record<string, string>;
   /**
@@ -119,6 +125,7 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult):
     massConserving: await hasPositiveConservationLaw(conservationLaws, species.length),
     theorems: { deficiencyZero: deficiencyZeroTheorem(facts), deficiencyOne: deficiencyOneTheorem(facts) },
     odes: odes.text,
+    balance: elementBalance(mechanism),
     odesLatex: odes.latex,
     stoichiometry: reactions.map((reaction) => {
       const { indices, values } = reactionVector(network, reaction);
