@@ -34,9 +34,9 @@ describe("the demo's methane oxidation", () => {
     solver.relativeTolerance = 1e-10;
     solver.absoluteTolerance = 1e-16;
     solver.maxSteps = 1e6;
-    solver.denseOutput = true;
-    const rows: number[][] = [];
-    solver.solve(derivative, 0, initial, until, solver.grid(until / (samples - 1), (_t, y) => rows.push([...y])));
+    // Sample by sample: odex's dense output is far slower on this problem than restarting.
+    const rows = [initial];
+    for (let i = 1; i < samples; i++) rows.push(solver.solve(derivative, (until * (i - 1)) / (samples - 1), rows[i - 1], (until * i) / (samples - 1)).y);
     return rows;
   }
 
