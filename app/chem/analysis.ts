@@ -2,6 +2,7 @@
 // Its keys are the `analyze --json` contract of PRODUCT.md plus the extras the web UI needs.
 import { concentrationRobustness, type AcrWitness } from "./acr";
 import { complexBalance, type ComplexBalance } from "./complex-balance";
+import { type BalanceReport, elementBalance } from "./balance";
 import { hasPositiveConservationLaw } from "./conservation";
 import { detailedBalance, type DetailedBalance } from "./detailed-balance";
 import { nullSpace, rank } from "./linalg/kernel";
@@ -44,6 +45,11 @@ export interface AnalysisReport {
   siphons: string[][] | null;
   /** Species with absolute concentration robustness by the Shinar–Feinberg criterion. */
   acr: string[];
+  /**
+   * With `balanced` in the text: each step's atoms and charge, right side minus left (a step with a
+   * species that has no readable formula is not checked); null when the text does not ask.
+   */
+  balance: BalanceReport | null;
   // ---- extras for the web UI
   /** The siphon criterion for persistence: whether it holds, the siphons it fails on, in words. */
   persistence: { criterionHolds: boolean | null; uncovered: string[][]; conclusion: string };
@@ -162,6 +168,7 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, 
     multistationarity: await multistationarity(network, { theorems, weaklyReversible, conservationLaws }, options.witnessSearchMs),
     siphons: siphonVerdict.siphons?.map(namesOf) ?? null,
     acr: robustness.species,
+    balance: elementBalance(mechanism),
     odesLatex: odes.latex,
     stoichiometry: reactions.map((reaction) => {
       const { indices, values } = reactionVector(network, reaction);

@@ -63,6 +63,11 @@ export interface Mechanism {
   parameters: Record<string, number>;
   /** Initial concentrations that were given; every other species starts at 0. */
   initial: Record<string, number>;
+  /**
+   * Present when the text says `balanced`: each step is checked for atoms and charge, with the
+   * formulas declared for species whose names are not formulas (`formula [Glc] = C6H12O6`).
+   */
+  elementBalance?: { formulas: Record<string, string> };
 }
 
 export interface ParseResult {

@@ -3,9 +3,13 @@
 import { TreeFragment, type SyntaxNode, type Tree } from "@lezer/common";
 import { parser } from "../../grammar/parser";
 import { lawConstants, readLaw } from "./law";
+import { elementBalance } from "./balance";
+import { readFormula } from "./formula";
 import type { Diagnostic, Mechanism, ParseResult, RateExpression, RateRef, Severity, Step, Term } from "./model";
 import { zeroRateDirections } from "./network";
 import { evaluateRateExpression, isRateFunction, RATE_FUNCTIONS, rateExpressionText } from "./rate-expression";
+
+import { speciesToken } from "./print";
 
 export { printMechanism } from "./print";
 export { checkSourceLimits } from "./limits";
@@ -100,6 +104,10 @@ class MechanismReader {
   private readonly speciesSeen = new Map<string, Span>();
   private readonly initial = new Map<string, Declared>();
   private readonly fixed = new Map<string, Declared>();
+  /** Where the text says `balanced`, if it does. */
+  private balancedAt: Span | null = null;
+  /** Declared formulas that could be read, by species. */
+  private readonly formulas = new Map<string, Span & { formula: string }>();
 
   readonly unknownSettings: string[] = [];
 
@@ -120,6 +128,8 @@ class MechanismReader {
       else if (node.name === "Parameter") this.readParameter(node);
       else if (node.name === "Initial") this.readDeclaration(node, this.initial, "an initial concentration");
       else if (node.name === "Fixed") this.readDeclaration(node, this.fixed, "a fixed concentration");
+      else if (node.name === "Balanced") this.readBalanced(node);
+      else if (node.name === "Formula") this.readFormulaDeclaration(node);
     }
     this.applySettings();
     const mechanism = this.mechanism();
@@ -127,6 +137,7 @@ class MechanismReader {
     this.checkDuplicateSteps(mechanism);
     this.checkExpressions(mechanism);
     this.checkZeroRates(mechanism);
+    this.checkElementBalance(mechanism);
     this.diagnostics.sort((a, b) => a.from - b.from || a.to - b.to);
     return { mechanism, diagnostics: this.diagnostics };
   }
@@ -241,6 +252,10 @@ class MechanismReader {
     if (!before || this.lineOf(before.to) !== this.lineOf(error.from)) {
       return `This line cannot be read: ${statementHint}.`;
     }
+    // The two contextual keywords may also be names, so the start of the line tells which was meant.
+    const lineText = this.source.slice(this.lineStarts[this.lineOf(error.from) - 1], error.from);
+    if (/^\s*formula\s*\[/.test(lineText)) return 'Write a formula as formula [Glc] = C6H12O6, a charged one in quotes: formula [Ox] = "C2O4^2-".';
+    if (/^\s*balanced\s*[^\s+:=<\-→⇌⇄]/.test(lineText + this.source.slice(error.from, error.from + 1))) return "balanced stands alone on its line.";
     // The error may sit outside any statement node; the token before it tells what was being read.
     const statement = this.statementOf(before);
     switch (before.name) {
@@ -392,10 +407,15 @@ class MechanismReader {
   }
 
   private readSpecies(node: SyntaxNode): string {
-    const text = this.text(node);
-    const name = text.startsWith('"') ? text.slice(1, text.endsWith('"') ? -1 : undefined) : text;
+    const name = this.unquoted(node);
     if (!this.speciesSeen.has(name)) this.speciesSeen.set(name, node);
     return name;
+  }
+
+  /** A name as meant: the text between the quotes of a quoted one. */
+  private unquoted(node: SyntaxNode): string {
+    const text = this.text(node);
+    return text.startsWith('"') ? text.slice(1, text.endsWith('"') ? -1 : undefined) : text;
   }
 
   /** Fills the step's rates or law; false when the step cannot be used at all. */
@@ -551,6 +571,30 @@ class MechanismReader {
     into.set(species, { value, from: speciesNode.from, to: speciesNode.to });
   }
 
+  private readBalanced(node: SyntaxNode): void {
+    if (this.balancedAt) {
+      this.report("warning", node, `The mechanism is already declared balanced on line ${this.lineOf(this.balancedAt.from)}.`);
+      return;
+    }
+    this.balancedAt = node;
+  }
+
+  private readFormulaDeclaration(node: SyntaxNode): void {
+    const speciesNode = node.getChild("Species")!;
+    const species = this.readSpecies(speciesNode);
+    const formulaNode = node.getChild("FormulaText")!;
+    const formula = this.unquoted(formulaNode);
+    const reading = readFormula(formula);
+    const earlier = this.formulas.get(species);
+    if (!reading.ok) {
+      this.report("warning", formulaNode, `${formula} cannot be read as a formula: ${reading.problem}`);
+    } else if (earlier) {
+      this.report("warning", speciesNode, `${species} already has a formula on line ${this.lineOf(earlier.from)}.`);
+    } else {
+      this.formulas.set(species, { formula, from: speciesNode.from, to: speciesNode.to });
+    }
+  }
+
   // ---- whole-text checks
 
   private applySettings(): void {
@@ -588,6 +632,7 @@ class MechanismReader {
       fixed: valuesOf(this.fixed),
       parameters: valuesOf(this.parameters),
       initial: valuesOf(this.initial),
+      ...(this.balancedAt && { elementBalance: { formulas: Object.fromEntries([...this.formulas].map(([name, { formula }]) => [name, formula])) } }),
     };
   }
 
@@ -664,6 +709,33 @@ class MechanismReader {
     }
   }
 
+  /** With `balanced`, each step that loses or gains atoms or charge is told so on its line. */
+  private checkElementBalance(mechanism: Mechanism): void {
+    const inSteps = new Set(mechanism.steps.flatMap((step) => [...step.reactants, ...step.products].map((term) => term.species)));
+    for (const [name, span] of this.formulas) {
+      if (!inSteps.has(name)) this.report("warning", span, `${name} takes part in no step; its formula is not used.`);
+    }
+    const report = elementBalance(mechanism);
+    if (!report) {
+      const first = [...this.formulas.values()].sort((a, b) => a.from - b.from)[0];
+      if (first) this.report("warning", first, "Formulas are used by the element balance, which is off: add a line balanced to check every step.");
+      return;
+    }
+    report.steps.forEach(({ message }, index) => {
+      if (message) this.report("warning", mechanism.steps[index], message);
+    });
+    if (report.unreadable.length > 0) {
+      const unchecked = report.steps.filter((step) => !step.checked).length;
+      const names = listed(report.unreadable);
+      const example = speciesToken(report.unreadable[0]);
+      this.report(
+        "warning",
+        this.balancedAt!,
+        `${names} ${report.unreadable.length === 1 ? "is not a formula" : "are not formulas"}, so ${unchecked === 1 ? "1 step is" : `${unchecked} steps are`} not checked for balance; declare one as formula [${example}] = … if it is a compound.`,
+      );
+    }
+  }
+
   /** The network leaves out what never runs (see buildNetwork); the author is told on the step's line. */
   private checkZeroRates(mechanism: Mechanism): void {
     for (const step of mechanism.steps) {
@@ -672,6 +744,11 @@ class MechanismReader {
       else if (forward || backward) this.report("warning", step, `rate coefficient 0: ${forward ? "forward" : "backward"} direction left out of the network`);
     }
   }
+}
+
+/** Names written as "X, Y and Z". */
+function listed(names: string[]): string {
+  return names.length < 2 ? names.join("") : `${names.slice(0, -1).join(", ")} and ${names.at(-1)}`;
 }
 
 /** A character as a reader can recognise it: invisible ones (a no-break space) by code point. */

@@ -15,6 +15,7 @@ export function printMechanism(mechanism: Mechanism): string {
     ...Object.entries(mechanism.parameters).map(([name, value]) => `${name} = ${value}`),
     ...Object.entries(mechanism.initial).map(([name, value]) => `[${speciesToken(name)}]0 = ${value}`),
     ...Object.entries(mechanism.fixed).map(([name, value]) => `fixed [${speciesToken(name)}] = ${value}`),
+    ...(mechanism.elementBalance ? ["balanced", ...Object.entries(mechanism.elementBalance.formulas).map(([name, formula]) => `formula [${speciesToken(name)}] = ${speciesToken(formula)}`)] : []),
   ];
   if (declarations.length > 0) lines.push("", ...declarations);
   return lines.join("\n") + "\n";

@@ -5,6 +5,7 @@ import { createUser } from "../auth/authenticator";
 import type { Db } from "../db/client";
 import { addMember, createMechanism } from "../db/mechanisms";
 import { users } from "../db/schema";
+import { methaneOxidation } from "./methane-oxidation";
 
 export const DEMO_PASSWORD = "weave-demo-2026";
 export const demoAccounts = [
@@ -77,6 +78,7 @@ cap: M + Q <=> MQ @ 1.1, 0.3
 [Q]0 = 0.4
 `,
   },
+  methaneOxidation,
 ];
 
 /** Fills an empty database with the demo workspace; does nothing if any account exists. */

@@ -89,7 +89,8 @@ function qualifier(name: string, content: XmlOut): XmlOut {
 }
 
 function numberElement(value: number): XmlOut {
-  if (Number.isInteger(value) && Math.abs(value) < 2 ** 53 && !String(value).includes("e")) {
+  // libSBML reads an integer <cn> into a 32-bit int: larger whole numbers (1.2e11) go as reals.
+  if (Number.isInteger(value) && Math.abs(value) < 2 ** 31 && !String(value).includes("e")) {
     return { name: "cn", attributes: { type: "integer" }, children: [String(value)] };
   }
   const [mantissa, exponent] = String(value).split("e");
