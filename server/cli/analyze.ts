@@ -4,7 +4,7 @@
 import { analyzeMechanism, parseForAnalysis } from "~/chem/analysis";
 import type { Settings } from "~/chem/parse";
 import { formatReport } from "~/chem/report";
-import { parseWithSettings, readCommandLine, readSource, SETTINGS_FLAG } from "./simulate";
+import { parseWithSettings, readCommandLine, readSource, SETTINGS_FLAG } from "./command-line";
 import { UsageError } from "./usage";
 
 const usage = "usage: mechweave analyze FILE [--set NAME=VALUE …] [--json]";
