@@ -5,7 +5,7 @@ import { analyzeMechanism, parseForAnalysis } from "~/chem/analysis";
 import { MAX_WITNESS_SEARCH_MS } from "~/chem/limits";
 import type { Settings } from "~/chem/parse";
 import { formatReport } from "~/chem/report";
-import { parseWithSettings, readCommandLine, readSource, SETTINGS_FLAG } from "./simulate";
+import { parseWithSettings, readCommandLine, readSource, SETTINGS_FLAG } from "./command-line";
 import { UsageError } from "./usage";
 
 const usage = "usage: mechweave analyze FILE [--set NAME=VALUE …] [--json]";

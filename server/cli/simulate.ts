@@ -1,89 +1,20 @@
 // `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit|bdf|rodas4]
 // [--set NAME=VALUE …] [--json]`. FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0
-// on success, 1 when the file has errors or cannot be simulated, 2 on bad usage. The file loading
-// and flag reading here are shared with the `lyapunov` and `analyze` commands.
+// on success, 1 when the file has errors or cannot be simulated, 2 on bad usage. The model loading
+// here is shared with the `lyapunov` command.
 
-import { readFile } from "node:fs/promises";
 import { extname } from "node:path";
 import { IntegrationFailure, SimulationInputError } from "~/chem/kinetics/errors";
-import { METHOD_NAMES, METHODS } from "~/chem/kinetics/settings";
+import { METHOD_NAMES } from "~/chem/kinetics/settings";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
-import type { Diagnostic, ParseResult } from "~/chem/model";
+import type { Diagnostic } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
-import { readOverride } from "~/chem/overrides";
-import { parseMechanismWithSettings, type Settings } from "~/chem/parse";
+import type { Settings } from "~/chem/parse";
 import { simulateSettings } from "~/shared/job-schemas";
 import { runJob, type DynamicsModel } from "../sim/job";
+import { parseWithSettings, readCommandLine, readSource, SETTINGS_FLAG, type FlagKind, type FlagValue } from "./command-line";
 import { checkedSettings, UsageError } from "./usage";
-
-type FlagKind = "number" | "integer" | "method" | "switch" | "settings";
-type FlagValue = number | string | boolean | Settings;
-
-/** Every command that reads a mechanism takes `--set` (repeatable). */
-export const SETTINGS_FLAG = { set: "settings" } as const;
-
-/** `NAME=VALUE` sets a parameter, `[X]0=VALUE` an initial concentration; VALUE a number ≥ 0. */
-function addSetting(settings: Settings, text: string): void {
-  const reading = readOverride(text);
-  if (!reading.ok) throw new UsageError(`--set: ${reading.message}`);
-  settings[reading.into][reading.name] = reading.value;
-}
-
-/** Reads `FILE --name value … --switch`; every flag must be declared, every value well-formed. */
-export function readCommandLine(args: string[], declared: Record<string, FlagKind>): { file: string; flags: Record<string, FlagValue> } {
-  const flags: Record<string, FlagValue> = {};
-  const files: string[] = [];
-  for (let i = 0; i < args.length; i++) {
-    const arg = args[i];
-    if (!arg.startsWith("--")) {
-      files.push(arg);
-      continue;
-    }
-    const name = arg.slice(2);
-    const kind = declared[name];
-    if (!kind) throw new UsageError(`unknown option ${arg}`);
-    if (kind === "switch") {
-      flags[name] = true;
-      continue;
-    }
-    const text = args[++i];
-    if (text === undefined) throw new UsageError(`${arg} needs a value`);
-    if (kind === "settings") {
-      const settings = (flags[name] ??= { parameters: {}, initial: {} }) as Settings;
-      addSetting(settings, text);
-      continue;
-    }
-    if (kind === "method") {
-      if (!(METHODS as readonly string[]).includes(text)) throw new UsageError(`${arg} takes one of ${METHODS.join(", ")}`);
-      flags[name] = text;
-      continue;
-    }
-    const value = Number(text);
-    if (text.trim() === "" || !Number.isFinite(value) || (kind === "integer" && !Number.isInteger(value))) {
-      throw new UsageError(`${arg} takes ${kind === "integer" ? "a whole number" : "a number"}, not "${text}"`);
-    }
-    flags[name] = value;
-  }
-  if (files.length !== 1) throw new UsageError(files.length === 0 ? "no FILE given" : "give exactly one FILE");
-  return { file: files[0], flags };
-}
-
-/** The file's text; a file that cannot be read is bad usage. */
-export async function readSource(file: string): Promise<string> {
-  try {
-    return await readFile(file, "utf8");
-  } catch (error) {
-    throw new UsageError(`cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
-  }
-}
-
-/** Parses a mechanism with `--set` applied; a setting that names nothing in the text is bad usage. */
-export function parseWithSettings(text: string, file: string, settings: Settings | undefined): ParseResult {
-  const { unknown, ...parsed } = parseMechanismWithSettings(text, settings ?? { parameters: {}, initial: {} });
-  if (unknown.length > 0) throw new UsageError(`--set ${unknown[0]}: ${file} has no such parameter or species`);
-  return parsed;
-}
 
 /** Reads and parses a model file; diagnostics carry the file's errors (then `model` is null). */
 export async function loadModel(file: string, settings?: Settings): Promise<{ model: DynamicsModel | null; diagnostics: Diagnostic[] }> {

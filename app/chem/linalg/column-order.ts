@@ -1,6 +1,7 @@
-// The elimination order, chosen here and nowhere else: which columns the echelon form pivots on
-// first decides the fill-in of both eliminations (modular and fraction-free). A fill-reducing
-// ordering (Markowitz) would replace `eliminationOrder` alone.
+// The column order of the fraction-free elimination, and the numbering the modular path receives:
+// which columns the echelon form pivots on first decides its fill-in. The modular elimination
+// chooses its own pivots as it goes (Markowitz, markowitz.ts) and keeps this numbering only to
+// break ties.
 
 import { sortedVector, type SparseVector } from "./sparse";
 

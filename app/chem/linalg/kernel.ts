@@ -2,9 +2,10 @@
 // tolerance can call a rank-deficient matrix full (or the reverse); deficiency and conservation
 // laws are integers, so they are computed exactly.
 //
-// The method is chosen here: modulo a prime, lifted and verified (modular.ts), and when that
-// fails (large entries) the same elimination fraction-free in bigint (fraction-free.ts), both in
-// the column order of column-order.ts.
+// The method is chosen here: modulo a prime in Markowitz order, lifted and verified (modular.ts),
+// and when that fails (large entries) fraction-free in bigint (fraction-free.ts) in the column
+// order of column-order.ts. Both give the same kernel; up to `canonicalLimit` vectors it is brought
+// to one reduced form, so the basis does not depend on the path.
 
 import { eliminationOrder } from "./column-order";
 import { echelonKernel, reducedEchelon, sizeLimit, type IntegerRow } from "./fraction-free";
@@ -33,7 +34,11 @@ export function nullSpace(rows: SparseVector[], width: number): number[][] {
   return sparseNullSpace(rows, width).map((vector) => denseFromSparse(vector, width));
 }
 
-/** Beyond this many vectors the basis is returned as computed rather than brought to reduced form. */
+/**
+ * Beyond this many vectors the basis is returned as computed rather than brought to reduced form:
+ * one vector per free column of the elimination that succeeded, so which columns those are depends
+ * on its pivot order.
+ */
 const canonicalLimit = 100;
 
 /** The same basis as `nullSpace`, as sparse vectors: wide kernels are mostly zeros. */
