@@ -16,10 +16,10 @@ const sql = (on: Server, text: string, values: unknown[] = []) => query(on.datab
 const RESET_SUBJECT = "Choose a new Mechweave password";
 
 describe("accounts", () => {
-  it("answers the health check with the database up", async () => {
+  it("answers the health check with the database up, naming the instance", async () => {
     const response = await fetch(`${server.url}/healthz`);
     expect(response.status).toBe(200);
-    expect(await response.json()).toEqual({ ok: true, db: "up" });
+    expect(await response.json()).toEqual({ ok: true, db: "up", instance: expect.stringMatching(/^.+-\d+-[0-9a-f]{6}$/) });
   });
 
   it("signs up, keeps the session in an httpOnly SameSite cookie, and signs out", async () => {
