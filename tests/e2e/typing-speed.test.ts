@@ -7,7 +7,7 @@
 import type { Page } from "playwright-core";
 import { beforeAll, expect, it } from "vitest";
 import { demoMechanisms } from "../../server/seed/demo";
-import { largeMechanism } from "../fixtures/large-mechanism";
+import { generatedOxidation } from "../fixtures/generated-oxidation";
 import { signedInPage, useServerAndBrowser } from "../support/e2e";
 import { signUp } from "../support/http";
 
@@ -110,7 +110,7 @@ const p95 = (values: number[]) => [...values].sort((a, b) => a - b)[Math.ceil(va
 // (DEVELOPERS.md, Performance notes); left out of the default suite until the graph view is lighter.
 it.runIf(process.env.TYPING_BENCHMARK === "1")("types as fast into 500 steps as into the 3-step demo, and no task blocks the page", { timeout: 900_000 }, async () => {
   const small = await typingCost(demo);
-  const large = await typingCost(largeMechanism(500));
+  const large = await typingCost(generatedOxidation(500));
   for (const cost of [small, large]) expect(cost.paints.length).toBe(typed.length);
   const ratio = p95(large.paints) / p95(small.paints);
   const longest = Math.max(0, ...small.longTasks, ...large.longTasks);
