@@ -110,17 +110,27 @@ function siphonFlows(network: Network): Flow[] {
  * Linear in the network's size, with a count per reaction of its reactants still in.
  */
 function largestSiphonWithin(state: Uint8Array, flows: Flow[], consumers: number[][], budget: { left: number }): Uint8Array {
-  const inside = Uint8Array.from(state, (value) => (value === OUT ? 0 : 1));
-  const remaining = flows.map(({ consumed }) => consumed.reduce((count, s) => count + inside[s], 0));
-  const queue = flows.flatMap((_, f) => (remaining[f] === 0 ? [f] : []));
+  // Typed arrays and no closures: the search calls this hundreds of times per analysis.
+  const inside = new Uint8Array(state.length);
+  for (let s = 0; s < state.length; s++) inside[s] = state[s] === OUT ? 0 : 1;
+  const remaining = new Int32Array(flows.length);
+  // Each reaction enters the queue at most once: when its count of reactants still in reaches 0.
+  const queue = new Int32Array(flows.length);
+  let queued = 0;
+  for (let f = 0; f < flows.length; f++) {
+    let count = 0;
+    for (const s of flows[f].consumed) count += inside[s];
+    remaining[f] = count;
+    if (count === 0) queue[queued++] = f;
+  }
   budget.left -= flows.length;
-  while (queue.length > 0) {
-    const f = queue.pop()!;
+  while (queued > 0) {
+    const f = queue[--queued];
     for (const s of flows[f].produced) {
       if (!inside[s]) continue;
       inside[s] = 0;
       budget.left -= consumers[s].length;
-      for (const g of consumers[s]) if (--remaining[g] === 0) queue.push(g);
+      for (const g of consumers[s]) if (--remaining[g] === 0) queue[queued++] = g;
     }
   }
   return inside;
