@@ -96,7 +96,7 @@ export async function multistationarity(network: Network, facts: Facts, witnessS
   const both = `The ${criterion} does not rule it out: the Jacobian's determinant has ${positive} positive and ${negative} negative terms.`;
   const unproven = `${both} For a network without steady states on the boundary of a positive class this means some rate coefficients give several steady states in one class (Conradi, Feliu, Mincheva and Wiuf 2017);`;
   if (witnessSearchMs <= 0) {
-    return { verdict: "possible", reason: `${unproven} \`mechweave analyze FILE\` searches for a witness.` };
+    return { verdict: "possible", reason: `${unproven} The command line (mechweave analyze FILE) searches for a witness.` };
   }
   const witness = searchWitness(network, laws, expectedSign, flux, witnessSearchMs);
   if (witness) {
