@@ -19,7 +19,7 @@ import type { Awareness } from "y-protocols/awareness";
 import type * as Y from "yjs";
 import { ClassBoxView, type ClassBoxNode } from "./class-box-node";
 import { ComplexNodeView, type ComplexNode } from "./complex-node";
-import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, type FitOptions, keepUnchanged, themeVariables } from "./graph-canvas";
+import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, type FitOptions, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import { type CaretStep, caretStepIndex, type Emphasis, type FocusTarget, neighbourhood, searchEntries } from "./graph-focus";
 import { GraphLegend } from "./graph-legend";
 import { buildGraphModel, type ComplexGraphReport, type GraphModel } from "./graph-model";
@@ -294,11 +294,7 @@ function SharedComplexGraph({
           nodesDraggable={canEdit}
           // Moving a complex is not choosing it: the text should not jump while co-authors arrange.
           selectNodesOnDrag={false}
-          nodesConnectable={false}
-          edgesReconnectable={false}
-          deleteKeyCode={null}
-          selectionKeyCode={null}
-          multiSelectionKeyCode={null}
+          {...noEditingGestures}
           // Past a few hundred nodes, drawing only what is on screen keeps pan and zoom smooth.
           onlyRenderVisibleElements={shownNodes.length > 250}
           fitView

@@ -19,6 +19,18 @@ export const themeVariables = {
   "--xy-attribution-background-color": "transparent",
 } as CSSProperties;
 
+/**
+ * Gestures neither view offers: the graph is drawn from the text, so no drawing of edges, no
+ * deleting with a key and no box selection (the text is where a mechanism changes).
+ */
+export const noEditingGestures = {
+  nodesConnectable: false,
+  edgesReconnectable: false,
+  deleteKeyCode: null,
+  selectionKeyCode: null,
+  multiSelectionKeyCode: null,
+} as const;
+
 export interface FitOptions {
   padding: number;
   maxZoom: number;

@@ -2,7 +2,7 @@
 // above 1 (on zoom). The picture is the reader's own: laid out in a worker, dragged locally.
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
 import { useEffect, useId, useMemo, useState } from "react";
-import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, keepUnchanged, themeVariables } from "./graph-canvas";
+import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
 import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
@@ -111,11 +111,7 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
           setNodes((current) => applyNodeChanges(changes.filter((change) => change.type === "position" || change.type === "dimensions"), current))
         }
         onMoveStart={(event) => event && setViewTouched(true)}
-        nodesConnectable={false}
-        edgesReconnectable={false}
-        deleteKeyCode={null}
-        selectionKeyCode={null}
-        multiSelectionKeyCode={null}
+        {...noEditingGestures}
         onlyRenderVisibleElements={nodes.length > 250}
         fitView
         fitViewOptions={fitOptions}
