@@ -5,12 +5,16 @@
 // server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
 import { z } from "zod";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
+import { stochasticSettings } from "~/chem/kinetics/stochastic/settings";
 import { MAX_COMPLEX_CHARS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
 /** A time course: `{ until, samples, rtol?, atol?, method? }`. */
 export const simulateSettings = simulationSettings;
+
+/** Many runs of the jump process: `{ until, samples, volume, runs, seed, method?, maxEvents? }`. */
+export { stochasticSettings };
 
 /** Steady states by Newton's method in the class, from `start`, a run to `settleTime`, the initial state and random points. */
 export const equilibriumSettings = z.object({
@@ -64,6 +68,7 @@ export const realizeSettings = z.object({
 });
 
 export type SimulateSettings = z.infer<typeof simulateSettings>;
+export type StochasticSettings = z.infer<typeof stochasticSettings>;
 export type EquilibriumSettings = z.infer<typeof equilibriumSettings>;
 export type LyapunovSettings = z.infer<typeof lyapunovSettings>;
 export type SweepSettings = z.infer<typeof sweepSettings>;
@@ -88,6 +93,7 @@ export type RealizeRequest = z.infer<typeof realizeRequest>;
 /** Any dynamics job on a mechanism text, as the Dynamics panel sends it. */
 export const mechanismJobRequest = z.discriminatedUnion("kind", [
   z.object({ kind: z.literal("simulate"), source: sourceField, overrides: overrides.optional(), settings: simulateSettings }),
+  z.object({ kind: z.literal("stochastic"), source: sourceField, overrides: overrides.optional(), settings: stochasticSettings }),
   z.object({ kind: z.literal("equilibrium"), source: sourceField, overrides: overrides.optional(), options: equilibriumSettings }),
   z.object({ kind: z.literal("lyapunov"), source: sourceField, overrides: overrides.optional(), options: lyapunovSettings }),
   z.object({ kind: z.literal("sweep"), source: sourceField, overrides: overrides.optional(), options: sweepSettings }),

@@ -11,6 +11,7 @@ const usage = `usage: mechweave <command> FILE [options]
 commands:
   analyze FILE [--json]                                   network structure
   simulate FILE --until T --samples N [--rtol R --atol A] [--method M] [--json]
+  simulate FILE --stochastic --volume V --runs R --seed S --until T [--samples N] [--json]
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
     (these three take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;

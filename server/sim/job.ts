@@ -8,6 +8,7 @@ import { networkEquilibrium, polynomialEquilibrium, type EquilibriumResult } fro
 import { SimulationInputError } from "~/chem/kinetics/errors";
 import { networkLyapunov, polynomialLyapunov, type LyapunovResult } from "~/chem/kinetics/lyapunov";
 import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
+import { simulateEnsemble, summarizeTally, type EnsembleTally, type StochasticResult } from "~/chem/kinetics/stochastic/ensemble";
 import { MAX_SWEEP_POINTS } from "~/chem/limits";
 import { sweepNetwork, type SweepResult } from "~/chem/kinetics/sweep";
 import { analyzeSource, type AnalysisReport } from "~/chem/analysis";
@@ -27,12 +28,14 @@ import {
   overrides,
   realizeRequest,
   simulateSettings,
+  stochasticSettings,
   sweepSettings,
   type EquilibriumSettings,
   type LyapunovSettings,
   type Overrides,
   type RealizeRequest,
   type SimulateSettings,
+  type StochasticSettings,
   type SweepSettings,
 } from "~/shared/job-schemas";
 import { firstProblem } from "~/shared/fields";
@@ -53,7 +56,10 @@ export type DynamicsJob =
   | { kind: "simulate"; model: DynamicsModel; settings: SimulateSettings }
   | { kind: "lyapunov"; model: DynamicsModel; options: LyapunovSettings }
   | { kind: "equilibrium"; model: DynamicsModel; options: EquilibriumSettings }
-  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings };
+  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings }
+  | { kind: "stochastic"; model: DynamicsModel; settings: StochasticSettings }
+  /** Runs `first` … `first + runs − 1` of a stochastic ensemble, as sums to merge: the queue splits an ensemble into these. */
+  | { kind: "stochasticRange"; model: DynamicsModel; settings: StochasticSettings; first: number; runs: number };
 
 /** A realization request, with the time its searches for equivalents may take together. */
 export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
@@ -79,6 +85,8 @@ export interface DynamicsResults {
   lyapunov: LyapunovResult;
   equilibrium: EquilibriumResult;
   sweep: SweepResult;
+  stochastic: StochasticResult;
+  stochasticRange: EnsembleTally;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
@@ -157,12 +165,19 @@ function checkSettings(job: DynamicsJob): void {
   const checked =
     job.kind === "simulate"
       ? simulateSettings.safeParse(job.settings)
-      : job.kind === "equilibrium"
+      : job.kind === "stochastic" || job.kind === "stochasticRange"
+        ? stochasticSettings.safeParse(job.settings)
+        : job.kind === "equilibrium"
         ? equilibriumSettings.safeParse(job.options)
         : job.kind === "lyapunov"
           ? lyapunovSettings.safeParse(job.options)
           : sweepSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
+  if (job.kind === "stochasticRange") {
+    const { first, runs } = job;
+    const inside = Number.isInteger(first) && Number.isInteger(runs) && first >= 0 && runs >= 1 && first + runs <= job.settings.runs;
+    if (!inside) throw new SimulationInputError("the range of runs lies outside the ensemble");
+  }
   if (job.model.kind === "text" && job.model.overrides) {
     const checkedOverrides = overrides.safeParse(job.model.overrides);
     if (!checkedOverrides.success) throw new SimulationInputError(`overrides: ${firstProblem(checkedOverrides.error)}`);
@@ -196,7 +211,7 @@ function checkSize(job: DynamicsJob, model: ParsedModel, limits: SizeLimits): vo
   const { variables, reactions } = modelSize(model);
   if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`, "size");
   if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`, "size");
-  const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" ? job.options.samples : 0;
+  const samples = job.kind === "sweep" ? job.options.samples : "settings" in job ? job.settings.samples : 0;
   if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`, "size");
   const points = job.kind === "sweep" ? job.options.points : 0;
   if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`, "size");
@@ -207,6 +222,13 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
     case "simulate": {
       const options = { ...job.settings, ...hooks };
       return model.kind === "ode" ? simulatePolynomialOde(model.ode, options) : simulateNetwork(model.mechanism, model.network, options);
+    }
+    case "stochastic":
+    case "stochasticRange": {
+      if (model.kind === "ode") throw new SimulationInputError("stochastic runs need a mechanism: a polynomial ODE has no reaction events");
+      const { first, runs } = job.kind === "stochasticRange" ? job : { first: 0, runs: job.settings.runs };
+      const tally = simulateEnsemble(model.mechanism, model.network, { ...job.settings, first, runs, onProgress: hooks.onProgress });
+      return job.kind === "stochastic" ? summarizeTally(tally, job.settings.volume) : tally;
     }
     case "lyapunov": {
       const options = { ...job.options, ...hooks };

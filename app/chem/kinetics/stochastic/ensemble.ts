@@ -55,8 +55,7 @@ export interface StochasticResult {
   variance: Record<string, number[]>;
   /** Copy numbers of the first runs, one record of series per run. */
   paths: Record<string, number[]>[];
-  volume: number;
-  stats: { runs: number; events: number; method: StochasticMethod; ms: number };
+  stats: { runs: number; events: number; method: StochasticMethod; volume: number; ms: number };
 }
 
 export function chooseMethod(reactions: number, method?: StochasticMethod): StochasticMethod {
@@ -134,5 +133,5 @@ export function summarizeTally(tally: EnsembleTally, volume: number): Stochastic
     variance[name] = tally.squares[s].map((square, i) => (runs > 1 ? Math.max(0, (square - (tally.sums[s][i] * tally.sums[s][i]) / runs) / (runs - 1)) : 0));
   });
   const paths = tally.paths.map(({ counts }) => Object.fromEntries(names.map((name, s) => [name, counts[s]])));
-  return { t: tally.t, mean, variance, paths, volume, stats: { runs, events: tally.events, method: tally.method, ms: Math.round(tally.ms * 1000) / 1000 } };
+  return { t: tally.t, mean, variance, paths, stats: { runs, events: tally.events, method: tally.method, volume, ms: Math.round(tally.ms * 1000) / 1000 } };
 }

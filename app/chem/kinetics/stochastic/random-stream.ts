@@ -19,7 +19,7 @@ function mix32(value: number): number {
 export function runStream(seed: number, index: number): () => number {
   const words = [0, 1, 2, 3].map((word) => mix32(mix32(mix32(seed) ^ Math.imul(index + 1, 0x9e3779b9)) + word * 0x6a09e667));
   // An all-zero state would be a fixed point; the chance is 2^-128, but say so.
-  if (words.every((w) => w === 0)) words[0] = 1;
+  if (!words.some((w) => w !== 0)) words[0] = 1;
   const generator = xoroshiro128plusFromState(words);
   return () => 1 - uniformFloat64(generator);
 }
