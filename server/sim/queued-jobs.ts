@@ -3,11 +3,14 @@
 // process takes it — itself or a `npm run worker` — relaying progress, and cancelling it when the
 // caller goes away. Reading text (analyses, exports, imports) stays in this process's own worker
 // threads: every page needs it at once, and a queue round trip would only slow it down.
+// A stochastic ensemble goes in as several jobs, one per range of runs, so the consumers' lanes
+// share it; each run is seeded by its index, so the merged answer is the one a single worker gives.
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { SimulationCancelled } from "~/chem/kinetics/errors";
+import { mergeTallies, summarizeTally, type EnsembleTally, type StochasticResult } from "~/chem/kinetics/stochastic/ensemble";
 import { Admission } from "./admission";
-import { isTextJob, type JobResult } from "./job";
+import { isTextJob, type DynamicsJob, type JobResult } from "./job";
 import { rebuildError } from "./job-errors";
 import { DYNAMICS_QUEUE, type JobQueue, type QueuedJob, type QueuedJobData } from "./job-queue";
 import { DEFAULT_LIMITS, type JobRunnerOptions, type RunJob, type RunOptions, type WorkerJobs } from "./run-in-worker";
@@ -53,11 +56,39 @@ export class QueuedJobs {
     const release = await this.admission.admit(options.owner ?? "", options, () => new SimulationCancelled());
     options.onStart?.();
     try {
+      if (job.kind === "stochastic") return (await this.submitEnsemble(job, options)) as JobResult<typeof job>;
       return (await this.submit(job, options)) as JobResult<typeof job>;
     } finally {
       release();
     }
   };
+
+  /** One queued job per range of runs (as many as this process has lanes), merged in run order; a failed range cancels the rest. */
+  private async submitEnsemble(job: Extract<DynamicsJob, { kind: "stochastic" }>, { signal, onProgress }: RunOptions): Promise<StochasticResult> {
+    const { runs, volume } = job.settings;
+    const ranges = splitRuns(runs, this.local.lanes);
+    const done = ranges.map(() => 0);
+    const stopRest = new AbortController();
+    const cancel = () => stopRest.abort();
+    signal?.addEventListener("abort", cancel, { once: true });
+    try {
+      const tallies = await Promise.all(
+        ranges.map((range, i) =>
+          this.submit({ kind: "stochasticRange", model: job.model, settings: job.settings, ...range }, {
+            signal: stopRest.signal,
+            onProgress(fraction) {
+              done[i] = fraction * range.runs;
+              onProgress?.(done.reduce((sum, n) => sum + n, 0) / runs);
+            },
+          }),
+        ),
+      );
+      return summarizeTally(mergeTallies(tallies as EnsembleTally[]), volume);
+    } finally {
+      cancel();
+      signal?.removeEventListener("abort", cancel);
+    }
+  }
 
   private async submit(job: QueuedJob, { signal, onProgress }: RunOptions): Promise<unknown> {
     if (signal?.aborted) throw new SimulationCancelled();
@@ -121,4 +152,13 @@ export class QueuedJobs {
 function failure(output: unknown): Error {
   const recorded = errorOutput.safeParse(output);
   return recorded.success ? rebuildError(recorded.data) : new Error("the worker running this job stopped before it finished");
+}
+
+/** `runs` in at most `parts` contiguous ranges whose sizes differ by at most one. */
+export function splitRuns(runs: number, parts: number): { first: number; runs: number }[] {
+  const count = Math.max(1, Math.min(runs, parts));
+  return Array.from({ length: count }, (_, i) => {
+    const first = Math.floor((i * runs) / count);
+    return { first, runs: Math.floor(((i + 1) * runs) / count) - first };
+  });
 }
