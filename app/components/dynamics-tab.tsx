@@ -21,6 +21,7 @@ import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
 import { EquilibriumList } from "./dynamics/equilibria";
 import { JobStatus } from "./dynamics/job-status";
+import { StochasticCard } from "./dynamics/stochastic-card";
 import { useDynamicsJob } from "./dynamics/use-dynamics-job";
 
 const dynamicsUrl = (mechanismId: string) => `/api/v1/mechanisms/${mechanismId}/dynamics`;
@@ -138,6 +139,8 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
           <div className="mt-2"><PhasePortrait series={result.series} /></div>
         </section>
       )}
+
+      <StochasticCard url={dynamicsUrl(mechanismId)} input={input} until={until} />
 
       <div className="grid gap-4 lg:grid-cols-2">
         <EquilibriumCard mechanismId={mechanismId} input={input} settleTime={until} />
