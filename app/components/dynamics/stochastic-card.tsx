@@ -108,7 +108,7 @@ function EnsembleChart({ result }: { result: StochasticResult }) {
         ))}
       </figcaption>
       <p className="text-xs text-muted">
-        Band: mean ± one standard deviation over {runs} runs; thin lines: runs {result.paths.map((_, i) => i + 1).join(", ")}. Volume {readableNumberText(volume)}
+        Band: mean ± one standard deviation over {runs} runs; thin lines: runs {result.paths.map((_, i) => i + 1).join(", ")}. Volume {readableNumberText(volume)}{" "}
         (divide copies by it for concentrations); {events.toLocaleString("en")} events, {method === "direct" ? "direct method" : "next reaction method"}.
       </p>
     </figure>
