@@ -1,5 +1,5 @@
 // Stochastic benchmark: events per second of Gillespie's direct method and Gibson–Bruck's next
-// reaction method on generated mass-action networks of about 10 and 500 reactions, each run three
+// reaction method on generated mass-action networks of about 10, 500 and 2000 reactions, each run three
 // times (the machine is shared: the spread says how far to trust one figure).
 // Run: npx tsx tests/bench/stochastic.ts
 import { simulateEnsemble, type StochasticMethod } from "~/chem/kinetics/stochastic/ensemble";
@@ -8,7 +8,7 @@ import { generatedNetwork } from "../fixtures/dynamics/models";
 const TARGET_EVENTS = 400_000;
 const REPEATS = 3;
 
-for (const size of [3, 164]) {
+for (const size of [3, 164, 664]) {
   const { mechanism, network } = generatedNetwork(size);
   const base = { volume: 200, samples: 11, seed: 1, runs: 1, maxEvents: 1e8 };
   // A short pilot run finds the end time that takes about TARGET_EVENTS events.
