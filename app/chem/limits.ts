@@ -28,6 +28,8 @@ export const MAX_SWEEP_SAMPLES = 5_000;
 export const MAX_SWEEP_POINTS = 500;
 /** Points of one sweep on the shared server (each point is a whole run). Larger sweeps answer 413. */
 export const MAX_SERVER_SWEEP_POINTS = 200;
+/** Points on one continued branch of equilibria (each costs a few Newton steps, not a simulation). */
+export const MAX_CONTINUATION_POINTS = 2_000;
 
 // ── Overrides of one run ───────────────────────────────────────────────────────────────────────
 /** Parameters and initial concentrations one dynamics request may replace, and the characters of each name. */

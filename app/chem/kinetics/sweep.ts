@@ -106,9 +106,12 @@ function pointSystems(target: SweepTarget, mechanism: Mechanism, network: Networ
   };
 }
 
-/** For targets that change the mechanism itself: the mechanism at each value. */
-function variedMechanism(target: Extract<SweepTarget, { kind: "parameter" | "fixed" | "step" }>, mechanism: Mechanism): (value: number) => Mechanism {
+/** The mechanism at each value of a target that names something in it (not a reaction by index). */
+export function variedMechanism(target: Exclude<SweepTarget, { kind: "rate" }>, mechanism: Mechanism): (value: number) => Mechanism {
   switch (target.kind) {
+    case "initial":
+      if (!(target.species in mechanism.initial) && !mechanism.species.includes(target.species)) throw new SimulationInputError(`there is no species ${target.species} to vary`);
+      return (value) => ({ ...mechanism, initial: { ...mechanism.initial, [target.species]: value } });
     case "parameter":
       if (!(target.name in mechanism.parameters)) throw new SimulationInputError(`there is no parameter ${target.name} to vary`);
       return (value) => ({ ...mechanism, parameters: { ...mechanism.parameters, [target.name]: value } });
