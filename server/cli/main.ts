@@ -4,6 +4,7 @@ const commands: Record<string, () => Promise<{ run(args: string[]): Promise<numb
   analyze: () => import("./analyze"),
   simulate: () => import("./simulate"),
   lyapunov: () => import("./lyapunov"),
+  continue: () => import("./continue"),
   realize: () => import("./realize"),
 };
 
@@ -12,7 +13,9 @@ commands:
   analyze FILE [--json]                                   network structure
   simulate FILE --until T --samples N [--rtol R --atol A] [--method M] [--json]
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
-    (these three take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
+  continue FILE --vary NAME --from A --to B [--points N] [--json]
+                                                          equilibria followed in NAME: folds, Hopf points
+    (these four take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;
 
 async function main(): Promise<number> {

@@ -4,6 +4,7 @@
 // text (the structure report, exports, SBML import, parsing a text for a run) travel the same way:
 // none of them may stall the server's event loop.
 
+import { continueEquilibria, type ContinuationResult } from "~/chem/kinetics/continuation";
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
 import { networkLyapunov, polynomialLyapunov, type LyapunovResult } from "~/chem/kinetics/lyapunov";
@@ -22,12 +23,14 @@ import { parseMechanism, parseMechanismWithSettings } from "~/chem/parse";
 import { realizeOde, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { RealizeRequestError } from "~/chem/realize/request-error";
 import {
+  continuationSettings,
   equilibriumSettings,
   lyapunovSettings,
   overrides,
   realizeRequest,
   simulateSettings,
   sweepSettings,
+  type ContinuationSettings,
   type EquilibriumSettings,
   type LyapunovSettings,
   type Overrides,
@@ -53,7 +56,8 @@ export type DynamicsJob =
   | { kind: "simulate"; model: DynamicsModel; settings: SimulateSettings }
   | { kind: "lyapunov"; model: DynamicsModel; options: LyapunovSettings }
   | { kind: "equilibrium"; model: DynamicsModel; options: EquilibriumSettings }
-  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings };
+  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings }
+  | { kind: "continuation"; model: DynamicsModel; options: ContinuationSettings };
 
 /** A realization request, with the time its searches for equivalents may take together. */
 export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
@@ -79,6 +83,7 @@ export interface DynamicsResults {
   lyapunov: LyapunovResult;
   equilibrium: EquilibriumResult;
   sweep: SweepResult;
+  continuation: ContinuationResult;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
@@ -161,7 +166,9 @@ function checkSettings(job: DynamicsJob): void {
         ? equilibriumSettings.safeParse(job.options)
         : job.kind === "lyapunov"
           ? lyapunovSettings.safeParse(job.options)
-          : sweepSettings.safeParse(job.options);
+          : job.kind === "sweep"
+            ? sweepSettings.safeParse(job.options)
+            : continuationSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
   if (job.model.kind === "text" && job.model.overrides) {
     const checkedOverrides = overrides.safeParse(job.model.overrides);
@@ -217,6 +224,9 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
     case "sweep":
       if (model.kind === "ode") throw new SimulationInputError("sweeps vary a mechanism's rate coefficients or initial concentrations");
       return sweepNetwork(model.mechanism, model.network, { ...job.options, ...hooks });
+    case "continuation":
+      if (model.kind === "ode") throw new SimulationInputError("a continuation varies a mechanism's parameters, held species, step coefficients or initial amounts");
+      return continueEquilibria(model.mechanism, { ...job.options, ...hooks });
   }
 }
 

@@ -17,7 +17,7 @@
 import type { Mechanism } from "~/chem/model";
 import { MAX_CONTINUATION_POINTS } from "~/chem/limits";
 import { buildNetwork } from "~/chem/network";
-import type { SweepTarget } from "~/shared/job-schemas";
+import type { ContinuationTarget } from "~/shared/job-schemas";
 import { stoichiometricMatrix, stoichiometricSubspace } from "./conservation";
 import { DenseLu } from "./dense-lu";
 import {
@@ -36,7 +36,7 @@ import { compileKineticSystem } from "./kinetic-system";
 import { variedMechanism } from "./sweep";
 
 export interface ContinuationOptions {
-  target: Exclude<SweepTarget, { kind: "rate" }>;
+  target: ContinuationTarget;
   from: number;
   to: number;
   /** Most points on the branch (default 400). */
@@ -95,7 +95,9 @@ export function continueEquilibria(mechanism: Mechanism, options: ContinuationOp
   const start = branch.startingPoint();
   const points: BranchPoint[] = [start];
   const bifurcations: Bifurcation[] = [];
-  let tangent = branch.tangent(start.u, null, Math.sign(to - from));
+  const first = branch.tangent(start.u, null, Math.sign(to - from));
+  if (!first) throw new SimulationInputError(`the equilibrium at the start of the range (${from}) is degenerate: no direction of the branch through it can be told; start a little further along`);
+  let tangent: Float64Array = first;
   let step = FIRST_STEP;
   let ended: ContinuationResult["ended"] = "budget";
 
@@ -103,7 +105,7 @@ export function continueEquilibria(mechanism: Mechanism, options: ContinuationOp
     if (options.signal?.aborted) throw new SimulationCancelled();
     const last = points[points.length - 1];
     const next = branch.corrected(last.u, tangent, step);
-    const nextTangent = next && branch.tangent(next, tangent, 0);
+    const nextTangent: Float64Array | null = next && branch.tangent(next, tangent, 0);
     // A step is refused when the corrector fails, the state leaves the orthant, or the branch
     // turns sharply within it (a step that may have jumped to another branch).
     if (!next || !nextTangent || branch.weightedDot(tangent, nextTangent) < 0.9) {
