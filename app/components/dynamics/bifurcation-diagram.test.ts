@@ -5,6 +5,7 @@ import type { ContinuationResult } from "~/chem/kinetics/continuation";
 import { parseMechanism } from "~/chem/parse";
 import { continueEquilibria } from "~/chem/kinetics/continuation";
 import { BifurcationDiagram, bifurcationLabels, branchPieces } from "./bifurcation-diagram";
+import { mostChanging } from "./continuation-card";
 
 const point = (value: number, x: number, stable: boolean | null) => ({ value, state: { X: x }, stable });
 
@@ -16,6 +17,11 @@ describe("the bifurcation diagram", () => {
       [false, [2, 3, 4]],
       [true, [4, 5]],
     ]);
+  });
+
+  it("shows first the species that changes most along the branch", () => {
+    const points = [{ value: 1, state: { X: 1, Y: 1 }, stable: true }, { value: 2, state: { X: 1, Y: 2 }, stable: true }];
+    expect(mostChanging({ points, bifurcations: [], ended: "range", summary: "" })).toBe("Y");
   });
 
   it("numbers folds and Hopf points separately", () => {

@@ -89,7 +89,7 @@ export function BifurcationDiagram({ result, species, xLabel }: Props) {
         <text x={(plot.left + right) / 2} y={size.height - 6} textAnchor="middle" fontSize="12" fill="var(--mw-ink)">{xLabel}</text>
         <text x={14} y={(plot.top + bottom) / 2} textAnchor="middle" fontSize="12" fill="var(--mw-ink)" transform={`rotate(-90 14 ${(plot.top + bottom) / 2})`}>equilibrium {species}</text>
       </svg>
-      <figcaption className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-muted">
+      <figcaption className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-muted [&>span]:inline-flex [&>span]:items-center [&>span]:gap-1.5">
         <span><svg width="26" height="8" aria-hidden="true"><line x1="0" x2="26" y1="4" y2="4" stroke="var(--mw-accent)" strokeWidth="2" /></svg> stable</span>
         <span><svg width="26" height="8" aria-hidden="true"><line x1="0" x2="26" y1="4" y2="4" stroke="var(--mw-accent)" strokeWidth="2" strokeDasharray="7 5" /></svg> unstable</span>
         <span><svg width="10" height="10" aria-hidden="true"><rect width="10" height="10" fill="var(--mw-ink)" /></svg> fold</span>

@@ -30,7 +30,7 @@ export function ContinuationCard({ url, text, input, species }: Props) {
   const chosenTarget = target || targets.find((t) => !t.startsWith("initial:")) || targets[0] || "";
   const result = job.result;
   const names = result ? Object.keys(result.points[0]?.state ?? {}) : species;
-  const chosenSpecies = names.includes(shown) ? shown : (names[0] ?? "");
+  const chosenSpecies = names.includes(shown) ? shown : result ? mostChanging(result) : (names[0] ?? "");
 
   function start() {
     setRanFor(chosenTarget);
@@ -82,4 +82,15 @@ export function ContinuationCard({ url, text, input, species }: Props) {
       )}
     </section>
   );
+}
+
+/** The species whose equilibrium value changes most along the branch, relative to its size: the one worth showing first. */
+export function mostChanging(result: ContinuationResult): string {
+  const names = Object.keys(result.points[0]?.state ?? {});
+  const change = (name: string) => {
+    const values = result.points.map((p) => p.state[name]);
+    const [low, high] = [Math.min(...values), Math.max(...values)];
+    return (high - low) / (Math.max(Math.abs(low), Math.abs(high)) || 1);
+  };
+  return names.reduce((best, name) => (change(name) > change(best) ? name : best), names[0] ?? "");
 }
