@@ -126,7 +126,7 @@ export function continueEquilibria(mechanism: Mechanism, options: ContinuationOp
     }
     bifurcations.push(...branch.located(last, tangent, step, point, nextTangent));
     points.push(point);
-    tangent = nextTangent;
+    tangent = branch.rescaled(next, nextTangent);
     step = Math.min(step * 1.5, LARGEST_STEP);
     options.onProgress?.(branch.progress(next));
   }
@@ -146,6 +146,7 @@ class Branch {
   private readonly low: number;
   private readonly high: number;
   private cache = new Map<number, ClassProblem>();
+  private covered = 0;
 
   constructor(
     mechanism: Mechanism,
@@ -311,8 +312,22 @@ class Branch {
     return onEnd ?? v;
   }
 
+  /** The share of the range covered so far: it never falls back, though the branch may turn. */
   progress(u: Float64Array): number {
-    return Math.min(1, Math.abs(u[this.n] - this.from) / (this.high - this.low));
+    this.covered = Math.max(this.covered, Math.min(1, Math.abs(u[this.n] - this.from) / (this.high - this.low)));
+    return this.covered;
+  }
+
+  /**
+   * The state's scale grows with the branch (it is never smaller than at the start), so that a
+   * branch whose concentrations grow tenfold is not walked in steps ten times too short; the
+   * tangent is renormalised in the new scale.
+   */
+  rescaled(u: Float64Array, t: Float64Array): Float64Array {
+    const size = Math.max(...Array.from(u.subarray(0, this.n), Math.abs));
+    if (size > this.weights[0]) this.weights.fill(size, 0, this.n);
+    const length = Math.sqrt(this.weightedDot(t, t));
+    return t.map((x) => x / length);
   }
 
   /** Folds and Hopf points between two consecutive points, each refined by bisection along the arc. */
