@@ -30,6 +30,8 @@ export const MAX_SWEEP_POINTS = 500;
 export const MAX_SERVER_SWEEP_POINTS = 200;
 /** Points on one continued branch of equilibria (each costs a few Newton steps, not a simulation). */
 export const MAX_CONTINUATION_POINTS = 2_000;
+/** Values of a second parameter, each one whole continuation in the first. */
+export const MAX_BIFURCATION_SWEEP_STEPS = 50;
 
 // ── Overrides of one run ───────────────────────────────────────────────────────────────────────
 /** Parameters and initial concentrations one dynamics request may replace, and the characters of each name. */

@@ -5,7 +5,7 @@
 // server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
 import { z } from "zod";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
-import { MAX_COMPLEX_CHARS, MAX_CONTINUATION_POINTS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { MAX_BIFURCATION_SWEEP_STEPS, MAX_COMPLEX_CHARS, MAX_CONTINUATION_POINTS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
@@ -57,6 +57,7 @@ export const sweepSettings = integrationSettings.extend({
 
 /** One branch of equilibria followed from `from` to `to` in the target, with at most `maxPoints` points. */
 const continuationRange = "the continuation range must be two different non-negative numbers";
+const secondSteps = `the second parameter takes from 2 to ${MAX_BIFURCATION_SWEEP_STEPS} values`;
 export const continuationSettings = z
   .object({
     target: continuationTarget,
@@ -67,6 +68,15 @@ export const continuationSettings = z
       .int()
       .min(2, `a continuation takes from 2 to ${MAX_CONTINUATION_POINTS} points`)
       .max(MAX_CONTINUATION_POINTS, `a continuation takes from 2 to ${MAX_CONTINUATION_POINTS} points`)
+      .optional(),
+    /** A second parameter swept in `steps` values, one continuation at each: the fold and Hopf curves in both. */
+    second: z
+      .object({
+        target: continuationTarget,
+        from: z.number().nonnegative(continuationRange),
+        to: z.number().nonnegative(continuationRange),
+        steps: z.number().int().min(2, secondSteps).max(MAX_BIFURCATION_SWEEP_STEPS, secondSteps),
+      })
       .optional(),
   })
   .refine((settings) => settings.from !== settings.to, { message: continuationRange, path: ["to"] });

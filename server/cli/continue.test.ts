@@ -25,6 +25,17 @@ describe("mechweave continue", slow, () => {
     expect(stdout).toMatch(/# fold at 6\.384900/);
   });
 
+  it("samples the Hopf curve b = 1 + a² of the Brusselator with a second parameter", () => {
+    const { code, stdout } = mechweave("continue", "tests/fixtures/brusselator.weave", "--vary", "[B]", "--from", "0.5", "--to", "4", "--vary2", "[A]", "--from2", "0.5", "--to2", "1.5", "--steps", "2", "--json");
+    expect(code).toBe(0);
+    const result = JSON.parse(stdout);
+    expect(result.values).toEqual([0.5, 1.5]);
+    expect(result.bifurcations.map((b: { kind: string; value: number; second: number }) => [b.kind, b.second, b.value.toFixed(6)])).toEqual([
+      ["hopf", 0.5, "1.250000"],
+      ["hopf", 1.5, "3.250000"],
+    ]);
+  });
+
   it("exits 2 on bad usage", () => {
     expect(mechweave("continue", schloegl, "--vary", "nothing", "--from", "5", "--to", "7").stderr).toMatch(/--vary nothing: not a parameter/);
     expect(mechweave("continue", schloegl, "--vary", "k4", "--from", "5").code).toBe(2);

@@ -4,6 +4,7 @@
 // text (the structure report, exports, SBML import, parsing a text for a run) travel the same way:
 // none of them may stall the server's event loop.
 
+import { sweepBifurcations, type BifurcationSweepResult } from "~/chem/kinetics/bifurcation-sweep";
 import { continueEquilibria, type ContinuationResult } from "~/chem/kinetics/continuation";
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
@@ -83,7 +84,8 @@ export interface DynamicsResults {
   lyapunov: LyapunovResult;
   equilibrium: EquilibriumResult;
   sweep: SweepResult;
-  continuation: ContinuationResult;
+  /** One branch, or with a second parameter the fold and Hopf points of one branch per value. */
+  continuation: ContinuationResult | BifurcationSweepResult;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
@@ -226,7 +228,9 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
       return sweepNetwork(model.mechanism, model.network, { ...job.options, ...hooks });
     case "continuation":
       if (model.kind === "ode") throw new SimulationInputError("a continuation varies a mechanism's parameters, held species, step coefficients or initial amounts");
-      return continueEquilibria(model.mechanism, { ...job.options, ...hooks });
+      return job.options.second
+        ? sweepBifurcations(model.mechanism, { ...job.options, second: job.options.second, ...hooks })
+        : continueEquilibria(model.mechanism, { ...job.options, ...hooks });
   }
 }
 
