@@ -1,6 +1,7 @@
 // A bifurcation diagram: one species' equilibrium value against the varied quantity along a
 // continued branch, stable pieces solid and unstable ones dashed, folds and Hopf points marked
-// and numbered. The branch may turn back at a fold, so the points are drawn in branch order, not
+// and numbered (each label haloed in the card's colour, so it stays readable where a branch
+// passes under it). The branch may turn back at a fold, so the points are drawn in branch order, not
 // sorted by value. Presentational: it shows a ContinuationResult.
 import type { Bifurcation, ContinuationPoint, ContinuationResult } from "~/chem/kinetics/continuation";
 import { readableNumberText, tickLabels } from "~/chem/numbers";
@@ -82,7 +83,7 @@ export function BifurcationDiagram({ result, species, xLabel }: Props) {
               ) : (
                 <circle cx={x} cy={y} r="6" fill="var(--mw-signal)" stroke="var(--mw-raised)" strokeWidth="1.5" />
               )}
-              <text x={x + 9} y={y - 8} fontSize="12" fontWeight="600" fill="var(--mw-ink)">{labels[i]}</text>
+              <text x={x + 9} y={y - 8} fontSize="12" fontWeight="600" fill="var(--mw-ink)" stroke="var(--mw-raised)" strokeWidth="4" paintOrder="stroke">{labels[i]}</text>
             </g>
           );
         })}
