@@ -28,6 +28,10 @@ export const MAX_SWEEP_SAMPLES = 5_000;
 export const MAX_SWEEP_POINTS = 500;
 /** Points of one sweep on the shared server (each point is a whole run). Larger sweeps answer 413. */
 export const MAX_SERVER_SWEEP_POINTS = 200;
+/** Points on one continued branch of equilibria (each costs a few Newton steps, not a simulation). */
+export const MAX_CONTINUATION_POINTS = 2_000;
+/** Values of a second parameter, each one whole continuation in the first. */
+export const MAX_BIFURCATION_SWEEP_STEPS = 50;
 
 // ── Stochastic runs ────────────────────────────────────────────────────────────────────────────
 /** Runs of one stochastic ensemble: each is a whole simulation, and the mean needs only hundreds. */

@@ -9,8 +9,7 @@ import { readOverride } from "~/chem/overrides";
 import { parseMechanismWithSettings, type Settings } from "~/chem/parse";
 import { UsageError } from "./usage";
 
-/** `word`: any text, for flags whose values the job's schema checks. */
-export type FlagKind = "number" | "integer" | "method" | "word" | "switch" | "settings";
+export type FlagKind = "number" | "integer" | "method" | "switch" | "settings" | "text";
 export type FlagValue = number | string | boolean | Settings;
 
 /** Every command that reads a mechanism takes `--set` (repeatable). */
@@ -47,7 +46,7 @@ export function readCommandLine(args: string[], declared: Record<string, FlagKin
       addSetting(settings, text);
       continue;
     }
-    if (kind === "word") {
+    if (kind === "text") {
       flags[name] = text;
       continue;
     }

@@ -13,7 +13,7 @@ export function runStochastic(args: string[]): Promise<number> {
   return runModelCommand(
     "simulate",
     args,
-    { stochastic: "switch", until: "number", samples: "integer", volume: "number", runs: "integer", seed: "integer", method: "word", "max-events": "integer" },
+    { stochastic: "switch", until: "number", samples: "integer", volume: "number", runs: "integer", seed: "integer", method: "text", "max-events": "integer" },
     (model, flags) => {
       for (const required of ["until", "volume", "runs", "seed"]) {
         if (flags[required] === undefined) throw new UsageError(`--${required} is required with --stochastic`);

@@ -4,6 +4,8 @@
 // text (the structure report, exports, SBML import, parsing a text for a run) travel the same way:
 // none of them may stall the server's event loop.
 
+import { sweepBifurcations, type BifurcationSweepResult } from "~/chem/kinetics/bifurcation-sweep";
+import { continueEquilibria, type ContinuationResult } from "~/chem/kinetics/continuation";
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
 import { networkLyapunov, polynomialLyapunov, type LyapunovResult } from "~/chem/kinetics/lyapunov";
@@ -23,6 +25,7 @@ import { parseMechanism, parseMechanismWithSettings } from "~/chem/parse";
 import { realizeOde, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { RealizeRequestError } from "~/chem/realize/request-error";
 import {
+  continuationSettings,
   equilibriumSettings,
   lyapunovSettings,
   overrides,
@@ -30,6 +33,7 @@ import {
   simulateSettings,
   stochasticSettings,
   sweepSettings,
+  type ContinuationSettings,
   type EquilibriumSettings,
   type LyapunovSettings,
   type Overrides,
@@ -59,7 +63,8 @@ export type DynamicsJob =
   | { kind: "sweep"; model: DynamicsModel; options: SweepSettings }
   | { kind: "stochastic"; model: DynamicsModel; settings: StochasticSettings }
   /** Runs `first` … `first + runs − 1` of a stochastic ensemble, as sums to merge: the queue splits an ensemble into these. */
-  | { kind: "stochasticRange"; model: DynamicsModel; settings: StochasticSettings; first: number; runs: number };
+  | { kind: "stochasticRange"; model: DynamicsModel; settings: StochasticSettings; first: number; runs: number }
+  | { kind: "continuation"; model: DynamicsModel; options: ContinuationSettings };
 
 /** A realization request, with the time its searches for equivalents may take together. */
 export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
@@ -87,6 +92,8 @@ export interface DynamicsResults {
   sweep: SweepResult;
   stochastic: StochasticResult;
   stochasticRange: EnsembleTally;
+  /** One branch, or with a second parameter the fold and Hopf points of one branch per value. */
+  continuation: ContinuationResult | BifurcationSweepResult;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
@@ -168,10 +175,12 @@ function checkSettings(job: DynamicsJob): void {
       : job.kind === "stochastic" || job.kind === "stochasticRange"
         ? stochasticSettings.safeParse(job.settings)
         : job.kind === "equilibrium"
-        ? equilibriumSettings.safeParse(job.options)
-        : job.kind === "lyapunov"
-          ? lyapunovSettings.safeParse(job.options)
-          : sweepSettings.safeParse(job.options);
+          ? equilibriumSettings.safeParse(job.options)
+          : job.kind === "lyapunov"
+            ? lyapunovSettings.safeParse(job.options)
+            : job.kind === "sweep"
+              ? sweepSettings.safeParse(job.options)
+              : continuationSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
   if (job.kind === "stochasticRange") {
     const { first, runs } = job;
@@ -239,6 +248,11 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
     case "sweep":
       if (model.kind === "ode") throw new SimulationInputError("sweeps vary a mechanism's rate coefficients or initial concentrations");
       return sweepNetwork(model.mechanism, model.network, { ...job.options, ...hooks });
+    case "continuation":
+      if (model.kind === "ode") throw new SimulationInputError("a continuation varies a mechanism's parameters, held species, step coefficients or initial amounts");
+      return job.options.second
+        ? sweepBifurcations(model.mechanism, { ...job.options, second: job.options.second, ...hooks })
+        : continueEquilibria(model.mechanism, { ...job.options, ...hooks });
   }
 }
 
