@@ -12,6 +12,7 @@ import { simulateNetwork } from "~/chem/kinetics/simulate";
 import { buildNetwork } from "~/chem/network";
 import { parseMechanism } from "~/chem/parse";
 import { seededRandom } from "~/chem/seeded-random";
+import { massActionTables, PYTHON_MASS_ACTION } from "./scipy-peer";
 
 const TEXT = `# invented 10-species scheme for the fit benchmark
 r1: A -> B @ k1
@@ -67,6 +68,7 @@ console.log(`  ours: min ${times[0].toFixed(0)} ms, median ${times[Math.floor(ti
 
 // ---- the peer: the same rates and changes tables, the same data, start and log-space parameters
 const spec = networkSpec(start, buildNetwork(start));
+// Rate j of the spec is step j here: every step is one irreversible mass-action reaction.
 const coefficientOf = vary.map((name) => start.steps.findIndex((step) => step.forward?.kind === "parameter" && step.forward.name === name));
 const SCRIPT = String.raw`
 import json, sys, time
@@ -74,40 +76,15 @@ import numpy as np
 from scipy.integrate import odeint
 from scipy.optimize import least_squares
 
+${PYTHON_MASS_ACTION}
 p = json.load(sys.stdin)
-n = len(p["names"]); R = len(p["rates"])
-F = max(len(r) for r in p["rates"])
-I = np.zeros((R, F), dtype=np.int64); P = np.zeros((R, F))
-for j, factors in enumerate(p["rates"]):
-    for f, (v, power) in enumerate(factors):
-        I[j, f] = v; P[j, f] = power
 base = np.array(p["coefficients"], dtype=float)
-changes = np.array(p["changes"], dtype=float).reshape(-1, 3)
-cv = changes[:, 0].astype(np.int64); cr = changes[:, 1].astype(np.int64); cc = changes[:, 2]
 vary = p["vary"]
-
-def powers(y):
-    return np.where(P == 0, 1.0, np.abs(y[I]) ** P)
-
-def model(k):
-    def rhs(y, t):
-        r = k * np.prod(powers(y), axis=1)
-        return np.bincount(cv, weights=cc * r[cr], minlength=n)
-    def jac(y, t):
-        J = np.zeros((n, n))
-        base_p = powers(y)
-        for f in range(F):
-            others = np.prod(np.delete(base_p, f, axis=1), axis=1)
-            own = np.where(P[:, f] == 0, 0.0, P[:, f] * np.where(P[:, f] == 1, 1.0, np.abs(y[I[:, f]]) ** (P[:, f] - 1)))
-            partial = k * own * others
-            np.add.at(J, (cv, I[cr, f]), cc * partial[cr] * (P[cr, f] > 0))
-        return J
-    return rhs, jac
 
 measured = [p["names"].index(s) for s in p["measured"]]
 def residuals(theta):
     k = base.copy(); k[vary] = np.exp(theta)
-    rhs, jac = model(k)
+    rhs, jac = mass_action(p, k)
     out = []
     for e in p["experiments"]:
         y0 = np.array(e["initial"], dtype=float)
@@ -125,10 +102,7 @@ for _ in range(p["runs"]):
 print(json.dumps({"times": sorted(times), "cost": float(fit.cost), "values": np.exp(fit.x).tolist(), "evaluations": int(fit.nfev)}))
 `;
 const input = {
-  names: spec.names,
-  rates: spec.monomials.map((m) => m.factors.map((f) => [f.variable, f.power])),
-  coefficients: spec.monomials.map((m) => m.coefficient),
-  changes: spec.changes.map((c) => [c.variable, c.rate, c.change]),
+  ...massActionTables(spec),
   vary: coefficientOf,
   start: vary.map((name) => START[name as keyof typeof START]),
   measured: MEASURED,
