@@ -15,12 +15,12 @@ function fixture(path: string): Mechanism {
 function finiteDifference(mechanism: Mechanism, name: string, until: number, samples: number): Record<string, number[]> {
   const [parameter] = resolveParameters(mechanism, [name]);
   const value = valueOf(mechanism, parameter);
-  const h = 1e-4;
+  const h = 1e-3;
   const [plus, minus] = [h, -h].map((step) => {
     const moved = mechanismAt(mechanism, [parameter], [value * Math.exp(step)]);
-    return simulateNetwork(moved, buildNetwork(moved), { until, samples, rtol: 1e-12, atol: 1e-20, method: "rodas4" });
+    return simulateNetwork(moved, buildNetwork(moved), { until, samples, rtol: 1e-9, atol: 1e-18, method: "rodas4" });
   });
-  const centre = simulateNetwork(mechanism, buildNetwork(mechanism), { until, samples, rtol: 1e-12, atol: 1e-20, method: "rodas4" });
+  const centre = simulateNetwork(mechanism, buildNetwork(mechanism), { until, samples, rtol: 1e-9, atol: 1e-18, method: "rodas4" });
   return Object.fromEntries(
     Object.keys(centre.series).map((species) => [species, centre.series[species].map((x, i) => (plus.series[species][i] - minus.series[species][i]) / (2 * h) / x)]),
   );
