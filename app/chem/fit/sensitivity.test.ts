@@ -35,7 +35,9 @@ function expectAgreement(mechanism: Mechanism, vary: string[], until: number): v
     for (const [species, values] of Object.entries(result.normalized)) {
       values[name].forEach((value, i) => {
         if (value === null || !Number.isFinite(reference[species][i]) || result.series[species][i] < 1e-9 * Math.max(...result.series[species])) return;
-        expect(Math.abs(value - reference[species][i]), `${species} by ${name} at t = ${result.t[i]}`).toBeLessThan(1e-3);
+        // Relative where the sensitivity is large: the difference quotient's own error grows with it
+        // (S nearly used up in Michaelis–Menten, ∂ln S/∂ln [E]0 ≈ −18: the reference is off by 8e-4 there).
+        expect(Math.abs(value - reference[species][i]), `${species} by ${name} at t = ${result.t[i]}`).toBeLessThan(1e-3 * Math.max(1, Math.abs(reference[species][i])));
         compared++;
       });
     }
