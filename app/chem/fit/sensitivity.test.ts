@@ -5,7 +5,7 @@ import type { Mechanism } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseMechanism } from "~/chem/parse";
 import { mechanismAt, resolveParameters, valueOf } from "./parameters";
-import { computeSensitivities } from "./sensitivity";
+import { computeSensitivities, rankInfluence } from "./sensitivity";
 
 function fixture(path: string): Mechanism {
   return parseMechanism(readFileSync(new URL(`../../../tests/fixtures/${path}`, import.meta.url), "utf8")).mechanism;
@@ -64,6 +64,16 @@ describe("sensitivity requests", () => {
     const result = computeSensitivities(fixture("michaelis-menten.weave"), { until: 1, samples: 3 });
     expect(result.parameters).toEqual(["kon", "koff", "kcat"]);
     expect(Object.keys(result.normalized.S)).toEqual(["kon", "koff", "kcat"]);
+  });
+
+  it("rank the parameters by their largest influence on a species", () => {
+    const result = computeSensitivities(fixture("michaelis-menten.weave"), { until: 200, samples: 21 });
+    const ranking = rankInfluence(result, "P");
+    expect(ranking.map((r) => r.parameter)).toHaveLength(3);
+    expect(ranking[0].peak).toBeGreaterThanOrEqual(ranking[1].peak);
+    // Early on P grows as kcat·[C], and C is set by binding: ∂ln P/∂ln kcat peaks near 1.
+    expect(ranking.find((r) => r.parameter === "kcat")?.peak).toBeGreaterThan(0.5);
+    expect(() => rankInfluence(result, "Q")).toThrow(/"Q" is not a species/);
   });
 
   it("refuse an unknown parameter by name", () => {
