@@ -1,7 +1,7 @@
 // Forward sensitivities s_p = ∂x/∂ln p of every species to chosen parameters, integrated together
 // with the state by the stiff BDF. The variational equations s_p' = J(x)·s_p + ∂f/∂ln p are stacked
 // under the state into one system (the simultaneous corrector of Maly & Petzold, Appl. Numer. Math.
-// 20 (1996) 57–79): one Newton iteration corrects state and sensitivities together, and its matrix
+// 20 (1996) 57–79; cited from memory): one Newton iteration corrects state and sensitivities together, and its matrix
 // keeps only the diagonal blocks — the state's Jacobian J, shared by every sensitivity block —
 // dropping the coupling ∂(J·s)/∂x, which would need second derivatives; the exact corrector matrix
 // is block lower triangular with the same diagonal, so the modified Newton iteration still
