@@ -1,7 +1,6 @@
 // Levenberg–Marquardt for min ½‖r(θ)‖² with box bounds, as in K. Madsen, H. B. Nielsen &
 // O. Tingleff, "Methods for Non-Linear Least Squares Problems" (2nd ed., DTU 2004), Algorithm 3.16
-// (cited from memory),
-// with Marquardt's scaling: the damping adds μ·diag(JᵀJ), so the step does not depend on the
+// (cited from memory), with Marquardt's scaling: the damping adds μ·diag(JᵀJ), so the step does not depend on the
 // parameters' units. Bounds are kept by projecting the trial point into the box; the gain ratio
 // is measured with the projected step. The caller supplies residuals and their Jacobian together
 // (the sensitivities come with the state at no extra integration).
