@@ -6,6 +6,8 @@ const commands: Record<string, () => Promise<{ run(args: string[]): Promise<numb
   lyapunov: () => import("./lyapunov"),
   continue: () => import("./continue"),
   realize: () => import("./realize"),
+  fit: () => import("./fit"),
+  sensitivity: () => import("./sensitivity"),
 };
 
 const usage = `usage: mechweave <command> FILE [options]
@@ -16,7 +18,9 @@ commands:
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
   continue FILE --vary NAME --from A --to B [--points N] [--json]
                                                           equilibria followed in NAME: folds, Hopf points
-    (these four take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
+  fit FILE --data DATA.csv [--data MORE.csv …] --vary k1,k2 [--json]   estimate parameters
+  sensitivity FILE --until T --samples N [--vary k1,k2] [--json]      ∂ln x/∂ln p over time
+    (these six take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;
 
 async function main(): Promise<number> {
