@@ -1,5 +1,11 @@
 // `npm run -s mechweave -- COMMAND ...`: a thin dispatcher; each command lives in its own module
 // exporting `run(args): Promise<number>` (the exit code). Exit 2 means bad usage.
+import { z } from "zod";
+
+// A command validates each schema once or twice and exits: zod's compiled fast path (code
+// generated per schema on first use, a few ms cold) never pays back in such a process.
+z.config({ jitless: true });
+
 const commands: Record<string, () => Promise<{ run(args: string[]): Promise<number> }>> = {
   analyze: () => import("./analyze"),
   simulate: () => import("./simulate"),

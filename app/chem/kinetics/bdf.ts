@@ -29,6 +29,11 @@ const ALPHA = KAPPA.map((kappa, k) => (1 - kappa) * GAMMA[k]);
 /** The local error of order k is ERROR_CONSTANT[k] times the Newton correction y − y⁰. */
 const ERROR_CONSTANT = KAPPA.map((kappa, k) => kappa * GAMMA[k] + 1 / (k + 1));
 
+/** Width of the re-scaling matrices: orders 0 … MAX_ORDER. */
+const SIZE = MAX_ORDER + 1;
+/** U = R(1), the same for every step (declared below, hoisted). */
+const UNIT_RATIO_MATRIX = differenceMatrix(1, new Float64Array(SIZE * SIZE));
+
 const NEWTON_MAX_ITERATIONS = 4;
 /** The contraction rate assumed before a new matrix has shown its own. */
 const INITIAL_RATE = 0.7;
@@ -67,6 +72,10 @@ export class Bdf implements Stepper, StepSizeChooser {
   /** Accepted steps since the last change of step size or order. */
   private equalSteps = 0;
   private readonly predicted: Float64Array;
+  /** Scratch of `rescale`: R(ρ), R·U and one component's differences, allocated once. */
+  private readonly ratioMatrix = new Float64Array(SIZE * SIZE);
+  private readonly rescaling = new Float64Array(SIZE * SIZE);
+  private readonly column = new Float64Array(SIZE);
   private readonly psi: Float64Array;
   /** The Newton correction y − y⁰ of the last step. */
   private readonly correction: Float64Array;
@@ -282,16 +291,22 @@ export class Bdf implements Stepper, StepSizeChooser {
   /** Re-scales D[0 … k] from step historyH to step h: D ← (R·U)ᵀ·D (Shampine & Reichelt eq. 2.7). */
   private rescale(ratio: number, h: number): void {
     const k = this.currentOrder;
-    const R = differenceMatrix(k, ratio);
-    const U = differenceMatrix(k, 1);
-    const RU = R.map((row) => U[0].map((_, j) => row.reduce((sum, r, m) => sum + r * U[m][j], 0)));
+    const { rescaling: RU, ratioMatrix: R } = this;
+    differenceMatrix(ratio, R);
+    for (let m = 0; m <= k; m++) {
+      for (let j = 0; j <= k; j++) {
+        let sum = 0;
+        for (let l = 0; l <= k; l++) sum += R[m * SIZE + l] * UNIT_RATIO_MATRIX[l * SIZE + j];
+        RU[m * SIZE + j] = sum;
+      }
+    }
     const D = this.differences;
-    const column = new Float64Array(k + 1);
+    const column = this.column;
     for (let i = 0; i < D[0].length; i++) {
       for (let m = 0; m <= k; m++) column[m] = D[m][i];
       for (let j = 0; j <= k; j++) {
         let sum = 0;
-        for (let m = 0; m <= k; m++) sum += RU[m][j] * column[m];
+        for (let m = 0; m <= k; m++) sum += RU[m * SIZE + j] * column[m];
         D[j][i] = sum;
       }
     }
@@ -365,9 +380,12 @@ export class Bdf implements Stepper, StepSizeChooser {
   }
 }
 
-/** Shampine & Reichelt's R(ρ) of order k: R[i][j] = Π_{m=1..i} (m − 1 − ρ·j)/m, R[0][j] = 1. */
-function differenceMatrix(k: number, ratio: number): number[][] {
-  const R = [Array.from({ length: k + 1 }, () => 1)];
-  for (let i = 1; i <= k; i++) R.push(R[i - 1].map((above, j) => (above * (i - 1 - ratio * j)) / i));
-  return R;
+/**
+ * Shampine & Reichelt's R(ρ), R[i][j] = Π_{m=1..i} (m − 1 − ρ·j)/m with R[0][j] = 1, into `out`
+ * (row-major, SIZE wide). Its entries do not depend on the order, which only truncates it.
+ */
+function differenceMatrix(ratio: number, out: Float64Array): Float64Array {
+  for (let j = 0; j < SIZE; j++) out[j] = 1;
+  for (let i = 1; i < SIZE; i++) for (let j = 0; j < SIZE; j++) out[i * SIZE + j] = (out[(i - 1) * SIZE + j] * (i - 1 - ratio * j)) / i;
+  return out;
 }

@@ -1,7 +1,8 @@
 // LU factorisation of W = s·I − J for a Jacobian J with a fixed sparsity pattern, the matrix a
 // Rosenbrock step solves with. Reaction networks couple each species to few others, so after a
 // minimum-degree ordering the factors stay sparse and a step costs far less than O(n³). The
-// ordering and the fill pattern are computed once per system; each step only redoes the numbers.
+// ordering and the fill pattern are computed once per sparsity pattern (cached); each
+// factorisation only redoes the numbers.
 // Minimum degree leaves a dense clique for last; that tail is factored as a dense block (the
 // Schur complement, contiguous in memory), which is several times faster per operation than
 // indexed sparse updates. Pivots are taken on the diagonal in that order (W is diagonally
@@ -10,15 +11,84 @@
 
 const PIVOT_THRESHOLD = 1e-10;
 
+/**
+ * What the numbers do not change: the elimination order, the fill pattern of L and U, where each
+ * entry of J goes, and the dense tail. Computed once per sparsity pattern (that is, once per
+ * compiled mechanism) and shared by every solver built on it — a sweep or a second integrator
+ * over the same system only redoes the numbers.
+ */
+interface SymbolicFactorization {
+  n: number;
+  /** order[p] = the original index at elimination position p. */
+  order: Int32Array;
+  /** Per permuted row: the original-matrix positions (row·n + column) to read, and where they go. */
+  sourceStart: Int32Array;
+  sourceIndex: Int32Array;
+  sourceColumn: Int32Array;
+  /** Strictly lower (L) and strictly upper (U) parts in compressed rows, permuted indices. */
+  lowerStart: Int32Array;
+  lowerColumn: Int32Array;
+  upperStart: Int32Array;
+  upperColumn: Int32Array;
+  diagonalSource: Int32Array;
+  /** Positions from `tailStart` on form a clique, held as a dense block. */
+  tailStart: number;
+}
+
+const symbolicCache = new WeakMap<readonly (readonly number[])[], SymbolicFactorization>();
+
+function symbolicFactorization(pattern: readonly (readonly number[])[]): SymbolicFactorization {
+  const cached = symbolicCache.get(pattern);
+  if (cached) return cached;
+  const n = pattern.length;
+  const { order, upper } = minimumDegreeOrder(pattern);
+  const position = new Int32Array(n);
+  order.forEach((original, p) => (position[original] = p));
+
+  // Fill pattern: U row p = the later neighbours of p when it was eliminated; L is its transpose.
+  // Rows of the dense tail keep only their sparse part (columns before the tail) in these lists.
+  let tailStart = n;
+  while (tailStart > 0 && upper[tailStart - 1].length === n - tailStart) tailStart--;
+  const lowerLists: number[][] = Array.from({ length: n }, () => []);
+  const upperLists = upper.map((list, p) => (p >= tailStart ? [] : list.sort((a, b) => a - b)));
+  upperLists.forEach((list, p) => list.forEach((q) => lowerLists[q].push(p)));
+  lowerLists.forEach((list) => list.sort((a, b) => a - b));
+  const [lowerStart, lowerColumn] = compress(lowerLists);
+  const [upperStart, upperColumn] = compress(upperLists);
+
+  const sources: number[][] = Array.from({ length: n }, () => []);
+  const columns: number[][] = Array.from({ length: n }, () => []);
+  pattern.forEach((row, i) => {
+    for (const j of new Set(row)) {
+      if (j === i) continue;
+      sources[position[i]].push(i * n + j);
+      columns[position[i]].push(position[j]);
+    }
+  });
+  const [sourceStart, sourceIndex] = compress(sources);
+  const symbolic: SymbolicFactorization = {
+    n,
+    order,
+    sourceStart,
+    sourceIndex,
+    sourceColumn: Int32Array.from(columns.flat()),
+    lowerStart,
+    lowerColumn,
+    upperStart,
+    upperColumn,
+    diagonalSource: Int32Array.from(order, (original) => original * n + original),
+    tailStart,
+  };
+  symbolicCache.set(pattern, symbolic);
+  return symbolic;
+}
+
 export class SparseShiftedLu {
   readonly n: number;
-  /** order[p] = the original index at elimination position p. */
   private readonly order: Int32Array;
-  /** Per permuted row: the original-matrix positions (row·n + column) to read, and where they go. */
   private readonly sourceStart: Int32Array;
   private readonly sourceIndex: Int32Array;
   private readonly sourceColumn: Int32Array;
-  /** Strictly lower (L) and strictly upper (U) parts in compressed rows, permuted indices. */
   private readonly lowerStart: Int32Array;
   private readonly lowerColumn: Int32Array;
   private readonly lowerValue: Float64Array;
@@ -28,51 +98,32 @@ export class SparseShiftedLu {
   private readonly diagonal: Float64Array;
   private readonly work: Float64Array;
   private readonly diagonalSource: Int32Array;
-  /** Positions from `tailStart` on form a clique, held as the dense m×m block `tail`. */
   private readonly tailStart: number;
+  /** The dense tail, m×m. */
   private readonly tail: Float64Array;
   private readonly rowSize: Float64Array;
 
-  /** `pattern[i]`: the columns j with J[i][j] possibly non-zero. */
+  /** `pattern[i]`: the columns j with J[i][j] possibly non-zero (the same array object finds the cached ordering). */
   constructor(pattern: readonly (readonly number[])[]) {
-    const n = pattern.length;
+    const symbolic = symbolicFactorization(pattern);
+    const { n, tailStart } = symbolic;
     this.n = n;
-    const { order, upper } = minimumDegreeOrder(pattern);
-    this.order = order;
-    const position = new Int32Array(n);
-    order.forEach((original, p) => (position[original] = p));
-
-    // Fill pattern: U row p = the later neighbours of p when it was eliminated; L is its transpose.
-    // Rows of the dense tail keep only their sparse part (columns before the tail) in these lists.
-    let tailStart = n;
-    while (tailStart > 0 && upper[tailStart - 1].length === n - tailStart) tailStart--;
+    this.order = symbolic.order;
+    this.sourceStart = symbolic.sourceStart;
+    this.sourceIndex = symbolic.sourceIndex;
+    this.sourceColumn = symbolic.sourceColumn;
+    this.lowerStart = symbolic.lowerStart;
+    this.lowerColumn = symbolic.lowerColumn;
+    this.upperStart = symbolic.upperStart;
+    this.upperColumn = symbolic.upperColumn;
+    this.diagonalSource = symbolic.diagonalSource;
     this.tailStart = tailStart;
-    const m = n - tailStart;
-    this.tail = new Float64Array(m * m);
+    this.tail = new Float64Array((n - tailStart) * (n - tailStart));
     this.rowSize = new Float64Array(n);
-    const lowerLists: number[][] = Array.from({ length: n }, () => []);
-    const upperLists = upper.map((list, p) => (p >= tailStart ? [] : list.sort((a, b) => a - b)));
-    upperLists.forEach((list, p) => list.forEach((q) => lowerLists[q].push(p)));
-    lowerLists.forEach((list) => list.sort((a, b) => a - b));
-    [this.lowerStart, this.lowerColumn] = compress(lowerLists);
-    [this.upperStart, this.upperColumn] = compress(upperLists);
     this.lowerValue = new Float64Array(this.lowerColumn.length);
     this.upperValue = new Float64Array(this.upperColumn.length);
     this.diagonal = new Float64Array(n);
     this.work = new Float64Array(n);
-
-    const sources: number[][] = Array.from({ length: n }, () => []);
-    const columns: number[][] = Array.from({ length: n }, () => []);
-    pattern.forEach((row, i) => {
-      for (const j of new Set(row)) {
-        if (j === i) continue;
-        sources[position[i]].push(i * n + j);
-        columns[position[i]].push(position[j]);
-      }
-    });
-    [this.sourceStart, this.sourceIndex] = compress(sources);
-    this.sourceColumn = Int32Array.from(columns.flat());
-    this.diagonalSource = Int32Array.from(order, (original) => original * n + original);
   }
 
   /** Stored entries of the factors (sparse part, dense tail, diagonal) against n² for dense storage. */
