@@ -16,6 +16,8 @@ export type QueuedJob = DynamicsJob | RealizationJob;
 
 export interface QueuedJobData {
   job: QueuedJob;
+  /** How many of its owner's jobs may run at once, as the instance that stored it counts (`queue-table.ts`). */
+  runningPerOwner: number;
 }
 
 export class JobQueue {
@@ -40,11 +42,7 @@ export class JobQueue {
     });
     boss.on("error", (error) => console.error(`[jobs] ${error.message}`));
     await boss.start();
-    // `singleton`: at most one active job per key (the owner), enforced by a unique index; a queue
-    // made before the limits were counted in the database is switched over.
-    const settings = { name: DYNAMICS_QUEUE, policy: "singleton", retryLimit: 0 } as const;
-    await boss.createQueue(DYNAMICS_QUEUE, settings);
-    await boss.updateQueue(DYNAMICS_QUEUE, settings);
+    await boss.createQueue(DYNAMICS_QUEUE, { name: DYNAMICS_QUEUE, policy: "standard", retryLimit: 0 });
     const events = new JobEvents(databaseUrl);
     await events.listen();
     const sql = new pg.Pool({ connectionString: databaseUrl, max: 4 });

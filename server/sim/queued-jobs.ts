@@ -9,7 +9,7 @@ import { z } from "zod";
 import { SimulationCancelled } from "~/chem/kinetics/errors";
 import { isTextJob, type JobResult } from "./job";
 import { rebuildError } from "./job-errors";
-import { DYNAMICS_QUEUE, type JobQueue, type QueuedJob, type QueuedJobData } from "./job-queue";
+import { DYNAMICS_QUEUE, type JobQueue, type QueuedJob } from "./job-queue";
 import { readJob, submitWithinLimits, type OwnerLimits } from "./queue-table";
 import { DEFAULT_LIMITS, type JobRunnerOptions, type RunJob, type RunOptions, type WorkerJobs } from "./run-in-worker";
 
@@ -109,7 +109,7 @@ export class QueuedJobs {
         queue: DYNAMICS_QUEUE,
         id,
         owner,
-        data: { job } satisfies QueuedJobData,
+        job,
         expireInSeconds: Math.ceil(this.timeMs / 1000) + EXPIRY_MARGIN_S,
       });
     } catch (error) {
