@@ -28,6 +28,24 @@ export const MAX_SWEEP_SAMPLES = 5_000;
 export const MAX_SWEEP_POINTS = 500;
 /** Points of one sweep on the shared server (each point is a whole run). Larger sweeps answer 413. */
 export const MAX_SERVER_SWEEP_POINTS = 200;
+/** Points on one continued branch of equilibria (each costs a few Newton steps, not a simulation). */
+export const MAX_CONTINUATION_POINTS = 2_000;
+/** Values of a second parameter, each one whole continuation in the first. */
+export const MAX_BIFURCATION_SWEEP_STEPS = 50;
+
+// ── Stochastic runs ────────────────────────────────────────────────────────────────────────────
+/** Runs of one stochastic ensemble: each is a whole simulation, and the mean needs only hundreds. */
+export const MAX_STOCHASTIC_RUNS = 10_000;
+/** Reaction events one stochastic run may take unless told otherwise, and at most when told. */
+export const DEFAULT_EVENTS_PER_RUN = 1_000_000;
+export const MAX_EVENTS_PER_RUN = 1_000_000_000;
+/**
+ * Copy numbers a stochastic run may start from. An exact method fires every event, so a system
+ * this large is the deterministic run's business (and the event budget would stop it anyway).
+ */
+export const MAX_COPY_NUMBER = 1e9;
+/** Runs whose sample paths a stochastic result carries (runs 0, 1, …, by index). */
+export const STOCHASTIC_PATHS = 3;
 
 // ── Overrides of one run ───────────────────────────────────────────────────────────────────────
 /** Parameters and initial concentrations one dynamics request may replace, and the characters of each name. */

@@ -15,18 +15,21 @@ import { readableNumberText } from "~/chem/numbers";
 import type { SweepResult } from "~/chem/kinetics/sweep";
 import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { readOverrides } from "~/chem/overrides";
-import { parseMechanism, type Settings } from "~/chem/parse";
-import { mechanismNames } from "~/editor/complete";
+import type { Settings } from "~/chem/parse";
 import { PhasePortrait } from "./dynamics/phase-portrait";
 import { TimeCourseChart } from "./dynamics/time-course-chart";
 import { EquilibriumList } from "./dynamics/equilibria";
 import { JobStatus } from "./dynamics/job-status";
+import { StochasticCard } from "./dynamics/stochastic-card";
 import { useDynamicsJob } from "./dynamics/use-dynamics-job";
+import { NumberField } from "./dynamics/number-field";
+import { sweepTarget, sweepTargetLabel, sweepTargets } from "./dynamics/targets";
+import { ContinuationCard } from "./dynamics/continuation-card";
 
 const dynamicsUrl = (mechanismId: string) => `/api/v1/mechanisms/${mechanismId}/dynamics`;
 
 /** The text and overrides every job of the panel runs on. */
-type JobInput = () => { source: string; overrides?: Settings };
+export type JobInput = () => { source: string; overrides?: Settings };
 
 interface Props {
   mechanismId: string;
@@ -139,24 +142,17 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
         </section>
       )}
 
+      <StochasticCard url={dynamicsUrl(mechanismId)} input={input} until={until} />
+
       <div className="grid gap-4 lg:grid-cols-2">
         <EquilibriumCard mechanismId={mechanismId} input={input} settleTime={until} />
         <LyapunovCard mechanismId={mechanismId} input={input} />
       </div>
       <SweepCard mechanismId={mechanismId} text={text} input={input} report={report} until={until} />
+      <ContinuationCard url={dynamicsUrl(mechanismId)} text={text} input={input} species={report?.species ?? []} />
     </div>
   );
 }
-
-function NumberField({ label, value, onChange, min, max }: { label: string; value: number; onChange: (v: number) => void; min?: number; max?: number }) {
-  return (
-    <label className="text-sm">
-      <span className="label">{label}</span>
-      <input className="field w-28 py-1.5" type="number" step="any" min={min} max={max} value={value} onChange={(e) => onChange(Number(e.target.value))} required />
-    </label>
-  );
-}
-
 
 function ResidualTable({ fit }: { fit: ReturnType<typeof residuals> }) {
   return (
@@ -223,38 +219,7 @@ function LyapunovCard({ mechanismId, input }: { mechanismId: string; input: JobI
   );
 }
 
-/**
- * What a sweep can vary, as "kind:name" choices: initial values, parameters, held species, and each
- * labelled mass-action step's coefficient (a reversible step's backward one as "step:LABEL:backward").
- */
-function sweepTargets(source: string, species: string[]): string[] {
-  const { mechanism } = parseMechanism(source);
-  const steps = mechanism.steps.filter((step) => step.label !== null && step.law === null);
-  return [
-    ...species.map((name) => `initial:${name}`),
-    ...mechanismNames(source).parameters.map((name) => `parameter:${name}`),
-    ...Object.keys(mechanism.fixed).map((name) => `fixed:${name}`),
-    ...steps.flatMap((step) => (step.reversible ? [`step:${step.label}`, `step:${step.label}:backward`] : [`step:${step.label}`])),
-  ];
-}
-
-function sweepTarget(choice: string) {
-  const [kind, name, direction] = choice.split(":");
-  if (kind === "initial" || kind === "fixed") return { kind, species: name };
-  if (kind === "step") return { kind, label: name, direction: direction === "backward" ? "backward" : "forward" };
-  return { kind: "parameter", name };
-}
-
 const observableNames = { final: "final value", max: "maximum", period: "period" } as const;
-
-/** "parameter:k1" → "k1", "initial:S" → "[S]0", "fixed:B" → "[B]", "step:r2:backward" → "k of r2 (backward)": the swept quantity as the chart names it. */
-function sweepTargetLabel(target: string): string {
-  const [kind, name, direction] = target.split(":");
-  if (kind === "initial") return `[${name}]0`;
-  if (kind === "fixed") return `[${name}]`;
-  if (kind === "step") return direction === "backward" ? `k of ${name} (backward)` : `k of ${name}`;
-  return name ?? target;
-}
 
 function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: string; text: () => string; input: JobInput; report: AnalysisReport | null; until: number }) {
   const job = useDynamicsJob<SweepResult>(dynamicsUrl(mechanismId));

@@ -1,16 +1,20 @@
-// One zod schema per job kind — simulate, equilibrium, Lyapunov, sweep, realize — used by the
+// One zod schema per job kind — simulate, stochastic, equilibrium, Lyapunov, sweep, continuation, realize — used by the
 // HTTP API (to read bodies), the command line (to check its flags) and the worker (to check what
 // crossed into it), so every door refuses the same input with the same words; the job types are
 // `z.infer` of these. The numbers are the library's limits (app/chem/limits.ts); the shared
 // server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
 import { z } from "zod";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
-import { MAX_COMPLEX_CHARS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { stochasticSettings } from "~/chem/kinetics/stochastic/settings";
+import { MAX_BIFURCATION_SWEEP_STEPS, MAX_COMPLEX_CHARS, MAX_CONTINUATION_POINTS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
 /** A time course: `{ until, samples, rtol?, atol?, method? }`. */
 export const simulateSettings = simulationSettings;
+
+/** Many runs of the jump process: `{ until, samples, volume, runs, seed, method?, maxEvents? }`. */
+export { stochasticSettings };
 
 /** Steady states by Newton's method in the class, from `start`, a run to `settleTime`, the initial state and random points. */
 export const equilibriumSettings = z.object({
@@ -25,17 +29,22 @@ export const lyapunovSettings = integrationSettings.extend({
   interval: z.number().positive("the renormalisation interval must be a positive time").optional(),
 });
 
-/** What a sweep varies. A new kind of target is one more member here and a case in `sweepNetwork`. */
-export const sweepTarget = z.discriminatedUnion("kind", [
+/** What a sweep or a continuation varies by name; a sweep may also name a reaction by its index. */
+const namedTargets = [
   z.object({ kind: z.literal("parameter"), name: cleanText("The parameter") }),
+  /** An initial concentration: through the conservation laws it sets the totals, the compatibility class. */
   z.object({ kind: z.literal("initial"), species: cleanText("The species") }),
-  z.object({ kind: z.literal("rate"), reaction: z.number().int().nonnegative() }),
   /** A step's mass-action coefficient by its label; `backward` for a reversible step's other one. */
   z.object({ kind: z.literal("step"), label: cleanText("The step label"), direction: z.enum(["forward", "backward"]).optional() }),
   /** A species held constant (`fixed [B] = …`). */
   z.object({ kind: z.literal("fixed"), species: cleanText("The species") }),
-]);
+] as const;
+
+/** What a sweep varies. A new kind of target is one more member here and a case in `sweepNetwork`. */
+export const sweepTarget = z.discriminatedUnion("kind", [...namedTargets, z.object({ kind: z.literal("rate"), reaction: z.number().int().nonnegative() })]);
 export type SweepTarget = z.infer<typeof sweepTarget>;
+export const continuationTarget = z.discriminatedUnion("kind", [...namedTargets]);
+export type ContinuationTarget = z.infer<typeof continuationTarget>;
 
 /** One observable of one species per value of the target, over a linear or logarithmic range. */
 export const sweepSettings = integrationSettings.extend({
@@ -49,6 +58,32 @@ export const sweepSettings = integrationSettings.extend({
   species: cleanText("The species"),
   observable: z.enum(["final", "max", "period"]),
 });
+
+/** One branch of equilibria followed from `from` to `to` in the target, with at most `maxPoints` points. */
+const continuationRange = "the continuation range must be two different non-negative numbers";
+const secondSteps = `the second parameter takes from 2 to ${MAX_BIFURCATION_SWEEP_STEPS} values`;
+export const continuationSettings = z
+  .object({
+    target: continuationTarget,
+    from: z.number().nonnegative(continuationRange),
+    to: z.number().nonnegative(continuationRange),
+    maxPoints: z
+      .number()
+      .int()
+      .min(2, `a continuation takes from 2 to ${MAX_CONTINUATION_POINTS} points`)
+      .max(MAX_CONTINUATION_POINTS, `a continuation takes from 2 to ${MAX_CONTINUATION_POINTS} points`)
+      .optional(),
+    /** A second parameter swept in `steps` values, one continuation at each: the fold and Hopf curves in both. */
+    second: z
+      .object({
+        target: continuationTarget,
+        from: z.number().nonnegative(continuationRange),
+        to: z.number().nonnegative(continuationRange),
+        steps: z.number().int().min(2, secondSteps).max(MAX_BIFURCATION_SWEEP_STEPS, secondSteps),
+      })
+      .optional(),
+  })
+  .refine((settings) => settings.from !== settings.to, { message: continuationRange, path: ["to"] });
 
 /** How to realize a polynomial ODE: transformations first, then the searches for equivalents. */
 const exponentMessage = `a multiplier's exponents are whole numbers from 0 to ${MAX_MULTIPLIER_EXPONENT}`;
@@ -64,9 +99,11 @@ export const realizeSettings = z.object({
 });
 
 export type SimulateSettings = z.infer<typeof simulateSettings>;
+export type StochasticSettings = z.infer<typeof stochasticSettings>;
 export type EquilibriumSettings = z.infer<typeof equilibriumSettings>;
 export type LyapunovSettings = z.infer<typeof lyapunovSettings>;
 export type SweepSettings = z.infer<typeof sweepSettings>;
+export type ContinuationSettings = z.infer<typeof continuationSettings>;
 export type RealizeSettings = z.infer<typeof realizeSettings>;
 
 // ── With the text they run on, as the API takes them ───────────────────────────────────────────
@@ -88,9 +125,11 @@ export type RealizeRequest = z.infer<typeof realizeRequest>;
 /** Any dynamics job on a mechanism text, as the Dynamics panel sends it. */
 export const mechanismJobRequest = z.discriminatedUnion("kind", [
   z.object({ kind: z.literal("simulate"), source: sourceField, overrides: overrides.optional(), settings: simulateSettings }),
+  z.object({ kind: z.literal("stochastic"), source: sourceField, overrides: overrides.optional(), settings: stochasticSettings }),
   z.object({ kind: z.literal("equilibrium"), source: sourceField, overrides: overrides.optional(), options: equilibriumSettings }),
   z.object({ kind: z.literal("lyapunov"), source: sourceField, overrides: overrides.optional(), options: lyapunovSettings }),
   z.object({ kind: z.literal("sweep"), source: sourceField, overrides: overrides.optional(), options: sweepSettings }),
+  z.object({ kind: z.literal("continuation"), source: sourceField, overrides: overrides.optional(), options: continuationSettings }),
 ]);
 
 /** A time course of a text that is not a saved mechanism: a polynomial ODE or a mechanism. */

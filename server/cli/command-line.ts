@@ -9,7 +9,7 @@ import { readOverride } from "~/chem/overrides";
 import { parseMechanismWithSettings, type Settings } from "~/chem/parse";
 import { UsageError } from "./usage";
 
-export type FlagKind = "number" | "integer" | "method" | "switch" | "settings";
+export type FlagKind = "number" | "integer" | "method" | "switch" | "settings" | "text";
 export type FlagValue = number | string | boolean | Settings;
 
 /** Every command that reads a mechanism takes `--set` (repeatable). */
@@ -44,6 +44,10 @@ export function readCommandLine(args: string[], declared: Record<string, FlagKin
     if (kind === "settings") {
       const settings = (flags[name] ??= { parameters: {}, initial: {} }) as Settings;
       addSetting(settings, text);
+      continue;
+    }
+    if (kind === "text") {
+      flags[name] = text;
       continue;
     }
     if (kind === "method") {

@@ -4,6 +4,7 @@ const commands: Record<string, () => Promise<{ run(args: string[]): Promise<numb
   analyze: () => import("./analyze"),
   simulate: () => import("./simulate"),
   lyapunov: () => import("./lyapunov"),
+  continue: () => import("./continue"),
   realize: () => import("./realize"),
 };
 
@@ -11,8 +12,11 @@ const usage = `usage: mechweave <command> FILE [options]
 commands:
   analyze FILE [--json]                                   network structure
   simulate FILE --until T --samples N [--rtol R --atol A] [--method M] [--json]
+  simulate FILE --stochastic --volume V --runs R --seed S --until T [--samples N] [--json]
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
-    (these three take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
+  continue FILE --vary NAME --from A --to B [--points N] [--json]
+                                                          equilibria followed in NAME: folds, Hopf points
+    (these four take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;
 
 async function main(): Promise<number> {

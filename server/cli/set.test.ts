@@ -3,7 +3,6 @@ import { describe, expect, it } from "vitest";
 import { mechweave } from "../../tests/support/cli";
 
 // `--set` on the real command line: a temperature T in expression coefficients and an initial value.
-
 const file = "tests/fixtures/dynamics/arrhenius.weave";
 // Up to four processes a test; each is quick from the bundle, seconds apiece under tsx on a busy machine.
 const slow = { timeout: 120_000 };

@@ -58,6 +58,34 @@ describe("mechweave simulate", slow, () => {
   });
 });
 
+describe("mechweave simulate --stochastic", slow, () => {
+  const birthDeath = `${fixtures}/birth-death.weave`;
+  const ensemble = (...extra: string[]) => mechweave("simulate", birthDeath, "--stochastic", "--volume", "4", "--runs", "200", "--until", "8", "--samples", "3", ...extra);
+
+  it("prints mean, variance and paths of copy numbers as JSON, the same for the same seed", () => {
+    const first = ensemble("--seed", "7", "--json");
+    expect(first.code).toBe(0);
+    const result = JSON.parse(first.stdout);
+    expect(Object.keys(result)).toEqual(["t", "mean", "variance", "paths", "stats"]);
+    expect(result.t).toEqual([0, 4, 8]);
+    expect(result.paths).toHaveLength(3);
+    // Poisson with mean kV/g = 20 by t = 8: four standard errors of 200 runs.
+    expect(Math.abs(result.mean.X[2] - 20)).toBeLessThan(4 * Math.sqrt(20 / 200));
+    expect(result.stats).toMatchObject({ runs: 200, method: "direct", volume: 4 });
+    expect(JSON.parse(ensemble("--seed", "7", "--json").stdout).mean).toEqual(result.mean);
+  });
+
+  it("refuses hostile options with exit 2 and a rate law with exit 1", () => {
+    const zero = ensemble("--seed", "1", "--runs", "0");
+    expect(zero.code).toBe(2);
+    expect(zero.stderr).toMatch(/--runs: the number of runs must be a whole number from 1 to 10,000/);
+    expect(ensemble("--volume", "1").stderr).toMatch(/--seed is required with --stochastic/);
+    const law = mechweave("simulate", `${fixtures}/enzyme.weave`, "--stochastic", "--volume", "10", "--runs", "2", "--seed", "1", "--until", "1", "--json");
+    expect(law.code).toBe(1);
+    expect(JSON.parse(law.stdout).error).toMatch(/stochastic runs take mass-action steps only; 0 -> S \(line 5\) has a rate law/);
+  });
+});
+
 describe("mechweave lyapunov", slow, () => {
   it("estimates the largest exponent of the Lorenz system", () => {
     const { code, stdout } = mechweave("lyapunov", `${fixtures}/lorenz.ode`, "--until", "300", "--json");

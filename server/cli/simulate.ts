@@ -1,5 +1,6 @@
 // `mechweave simulate FILE --until T --samples N [--rtol R --atol A] [--method auto|stiff|explicit|bdf|rodas4]
-// [--set NAME=VALUE …] [--json]`. FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0
+// [--set NAME=VALUE …] [--json]`; with `--stochastic`, an ensemble of exact stochastic runs instead
+// (`stochastic.ts`). FILE is a mechanism (.weave) or a polynomial ODE (.ode). Exit 0
 // on success, 1 when the file has errors or cannot be simulated, 2 on bad usage. The model loading
 // here is shared with the `lyapunov` command.
 
@@ -72,6 +73,7 @@ export async function runModelCommand(
 }
 
 export function run(args: string[]): Promise<number> {
+  if (args.includes("--stochastic")) return import("./stochastic").then(({ runStochastic }) => runStochastic(args));
   return runModelCommand(
     "simulate",
     args,

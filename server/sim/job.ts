@@ -4,10 +4,13 @@
 // text (the structure report, exports, SBML import, parsing a text for a run) travel the same way:
 // none of them may stall the server's event loop.
 
+import { sweepBifurcations, type BifurcationSweepResult } from "~/chem/kinetics/bifurcation-sweep";
+import { continueEquilibria, type ContinuationResult } from "~/chem/kinetics/continuation";
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import { SimulationInputError } from "~/chem/kinetics/errors";
 import { networkLyapunov, polynomialLyapunov, type LyapunovResult } from "~/chem/kinetics/lyapunov";
 import { simulateNetwork, simulatePolynomialOde, type SimulationResult } from "~/chem/kinetics/simulate";
+import { simulateEnsemble, summarizeTally, type EnsembleTally, type StochasticResult } from "~/chem/kinetics/stochastic/ensemble";
 import { MAX_SWEEP_POINTS } from "~/chem/limits";
 import { sweepNetwork, type SweepResult } from "~/chem/kinetics/sweep";
 import { analyzeSource, type AnalysisReport } from "~/chem/analysis";
@@ -22,17 +25,21 @@ import { parseMechanism, parseMechanismWithSettings } from "~/chem/parse";
 import { realizeOde, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { RealizeRequestError } from "~/chem/realize/request-error";
 import {
+  continuationSettings,
   equilibriumSettings,
   lyapunovSettings,
   overrides,
   realizeRequest,
   simulateSettings,
+  stochasticSettings,
   sweepSettings,
+  type ContinuationSettings,
   type EquilibriumSettings,
   type LyapunovSettings,
   type Overrides,
   type RealizeRequest,
   type SimulateSettings,
+  type StochasticSettings,
   type SweepSettings,
 } from "~/shared/job-schemas";
 import { firstProblem } from "~/shared/fields";
@@ -53,7 +60,11 @@ export type DynamicsJob =
   | { kind: "simulate"; model: DynamicsModel; settings: SimulateSettings }
   | { kind: "lyapunov"; model: DynamicsModel; options: LyapunovSettings }
   | { kind: "equilibrium"; model: DynamicsModel; options: EquilibriumSettings }
-  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings };
+  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings }
+  | { kind: "stochastic"; model: DynamicsModel; settings: StochasticSettings }
+  /** Runs `first` … `first + runs − 1` of a stochastic ensemble, as sums to merge: the queue splits an ensemble into these. */
+  | { kind: "stochasticRange"; model: DynamicsModel; settings: StochasticSettings; first: number; runs: number }
+  | { kind: "continuation"; model: DynamicsModel; options: ContinuationSettings };
 
 /** A realization request, with the time its searches for equivalents may take together. */
 export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
@@ -79,6 +90,10 @@ export interface DynamicsResults {
   lyapunov: LyapunovResult;
   equilibrium: EquilibriumResult;
   sweep: SweepResult;
+  stochastic: StochasticResult;
+  stochasticRange: EnsembleTally;
+  /** One branch, or with a second parameter the fold and Hopf points of one branch per value. */
+  continuation: ContinuationResult | BifurcationSweepResult;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
@@ -157,12 +172,21 @@ function checkSettings(job: DynamicsJob): void {
   const checked =
     job.kind === "simulate"
       ? simulateSettings.safeParse(job.settings)
-      : job.kind === "equilibrium"
-        ? equilibriumSettings.safeParse(job.options)
-        : job.kind === "lyapunov"
-          ? lyapunovSettings.safeParse(job.options)
-          : sweepSettings.safeParse(job.options);
+      : job.kind === "stochastic" || job.kind === "stochasticRange"
+        ? stochasticSettings.safeParse(job.settings)
+        : job.kind === "equilibrium"
+          ? equilibriumSettings.safeParse(job.options)
+          : job.kind === "lyapunov"
+            ? lyapunovSettings.safeParse(job.options)
+            : job.kind === "sweep"
+              ? sweepSettings.safeParse(job.options)
+              : continuationSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
+  if (job.kind === "stochasticRange") {
+    const { first, runs } = job;
+    const inside = Number.isInteger(first) && Number.isInteger(runs) && first >= 0 && runs >= 1 && first + runs <= job.settings.runs;
+    if (!inside) throw new SimulationInputError("the range of runs lies outside the ensemble");
+  }
   if (job.model.kind === "text" && job.model.overrides) {
     const checkedOverrides = overrides.safeParse(job.model.overrides);
     if (!checkedOverrides.success) throw new SimulationInputError(`overrides: ${firstProblem(checkedOverrides.error)}`);
@@ -196,7 +220,7 @@ function checkSize(job: DynamicsJob, model: ParsedModel, limits: SizeLimits): vo
   const { variables, reactions } = modelSize(model);
   if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`, "size");
   if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`, "size");
-  const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" ? job.options.samples : 0;
+  const samples = job.kind === "sweep" ? job.options.samples : "settings" in job ? job.settings.samples : 0;
   if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`, "size");
   const points = job.kind === "sweep" ? job.options.points : 0;
   if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`, "size");
@@ -208,6 +232,13 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
       const options = { ...job.settings, ...hooks };
       return model.kind === "ode" ? simulatePolynomialOde(model.ode, options) : simulateNetwork(model.mechanism, model.network, options);
     }
+    case "stochastic":
+    case "stochasticRange": {
+      if (model.kind === "ode") throw new SimulationInputError("stochastic runs need a mechanism: a polynomial ODE has no reaction events");
+      const { first, runs } = job.kind === "stochasticRange" ? job : { first: 0, runs: job.settings.runs };
+      const tally = simulateEnsemble(model.mechanism, model.network, { ...job.settings, first, runs, onProgress: hooks.onProgress });
+      return job.kind === "stochastic" ? summarizeTally(tally, job.settings.volume) : tally;
+    }
     case "lyapunov": {
       const options = { ...job.options, ...hooks };
       return model.kind === "ode" ? polynomialLyapunov(model.ode, options) : networkLyapunov(model.mechanism, model.network, options);
@@ -217,6 +248,11 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
     case "sweep":
       if (model.kind === "ode") throw new SimulationInputError("sweeps vary a mechanism's rate coefficients or initial concentrations");
       return sweepNetwork(model.mechanism, model.network, { ...job.options, ...hooks });
+    case "continuation":
+      if (model.kind === "ode") throw new SimulationInputError("a continuation varies a mechanism's parameters, held species, step coefficients or initial amounts");
+      return job.options.second
+        ? sweepBifurcations(model.mechanism, { ...job.options, second: job.options.second, ...hooks })
+        : continueEquilibria(model.mechanism, { ...job.options, ...hooks });
   }
 }
 

@@ -4,10 +4,13 @@
 // `npm run worker` — relaying its place in line while it waits, then its progress, and cancelling
 // it when the caller goes away. Reading text (analyses, exports, imports) stays in this process's
 // own worker threads: every page needs it at once, and a queue round trip would only slow it down.
+// A stochastic ensemble goes in as several jobs, one per range of runs, so the consumers' lanes
+// share it; each run is seeded by its index, so the merged answer is the one a single worker gives.
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { SimulationCancelled } from "~/chem/kinetics/errors";
-import { isTextJob, type JobResult } from "./job";
+import { mergeTallies, summarizeTally, type EnsembleTally, type StochasticResult } from "~/chem/kinetics/stochastic/ensemble";
+import { isTextJob, type DynamicsJob, type JobResult } from "./job";
 import { rebuildError } from "./job-errors";
 import { DYNAMICS_QUEUE, type JobQueue, type QueuedJob } from "./job-queue";
 import { readJob, submitWithinLimits, type OwnerLimits } from "./queue-table";
@@ -53,10 +56,45 @@ export class QueuedJobs {
 
   readonly run: RunJob = async (job, options = {}) => {
     if (isTextJob(job)) return this.local.run(job, options);
-    return (await this.submit(job, options)) as JobResult<typeof job>;
+    if (job.kind === "stochastic") return (await this.submitEnsemble(job, options)) as JobResult<typeof job>;
+    const { result } = await this.store(job, options, { owner: options.owner ?? "", limits: this.limits });
+    return (await result) as JobResult<typeof job>;
   };
 
-  private async submit(job: QueuedJob, { signal, onProgress, onQueued, onStart, owner = "" }: RunOptions): Promise<unknown> {
+  /**
+   * One queued job per range of runs (as many as this process has lanes), merged in run order; a
+   * failed range cancels the rest. The first range counts against the user's limits (and may be
+   * refused); the others go under a key of this ensemble's own that lets them all run at once.
+   */
+  private async submitEnsemble(job: Extract<DynamicsJob, { kind: "stochastic" }>, options: RunOptions): Promise<StochasticResult> {
+    const { runs, volume } = job.settings;
+    const ranges = splitRuns(runs, this.local.lanes);
+    const done = ranges.map(() => 0);
+    const stopRest = new AbortController();
+    const cancel = () => stopRest.abort();
+    options.signal?.addEventListener("abort", cancel, { once: true });
+    const rangeOptions = (i: number): RunOptions => ({
+      signal: stopRest.signal,
+      onProgress(fraction) {
+        done[i] = fraction * ranges[i].runs;
+        options.onProgress?.(done.reduce((sum, n) => sum + n, 0) / runs);
+      },
+    });
+    const rangeJob = (i: number): QueuedJob => ({ kind: "stochasticRange", model: job.model, settings: job.settings, ...ranges[i] });
+    try {
+      const first = await this.store(rangeJob(0), { ...rangeOptions(0), onQueued: options.onQueued, onStart: options.onStart }, { owner: options.owner ?? "", limits: this.limits });
+      const ensemble = { owner: `ensemble:${randomUUID()}`, limits: { running: ranges.length, queued: ranges.length } };
+      const rest = await Promise.all(ranges.slice(1).map((_, k) => this.store(rangeJob(k + 1), rangeOptions(k + 1), ensemble)));
+      const tallies = await Promise.all([first, ...rest].map(({ result }) => result));
+      return summarizeTally(mergeTallies(tallies as EnsembleTally[]), volume);
+    } finally {
+      cancel();
+      options.signal?.removeEventListener("abort", cancel);
+    }
+  }
+
+  /** Stores the job under `key`'s limits; `result` settles when the job is over. */
+  private async store(job: QueuedJob, { signal, onProgress, onQueued, onStart }: RunOptions, key: { owner: string; limits: OwnerLimits }): Promise<{ result: Promise<unknown> }> {
     if (signal?.aborted) throw new SimulationCancelled();
     const { boss, events, sql } = this.queue;
     // The id is ours, so the waiter is listening before any worker can finish the job.
@@ -105,10 +143,10 @@ export class QueuedJobs {
     // A cancel may reject it while the job is still being stored, before anyone awaits it.
     result.catch(() => undefined);
     try {
-      await submitWithinLimits(sql, boss, this.limits, {
+      await submitWithinLimits(sql, boss, key.limits, {
         queue: DYNAMICS_QUEUE,
         id,
-        owner,
+        owner: key.owner,
         job,
         expireInSeconds: Math.ceil(this.timeMs / 1000) + EXPIRY_MARGIN_S,
       });
@@ -120,7 +158,7 @@ export class QueuedJobs {
     // A caller that left while the job was being stored cancels it now that it exists.
     if (signal?.aborted) {
       void boss.cancel(DYNAMICS_QUEUE, id).catch(() => undefined);
-      return result;
+      return { result };
     }
     onStart?.();
     void events.publish({ type: "submitted" });
@@ -131,7 +169,7 @@ export class QueuedJobs {
       }, delay);
     };
     poll(IN_LINE_AFTER_MS);
-    return result;
+    return { result };
   }
 }
 
@@ -139,4 +177,13 @@ export class QueuedJobs {
 function failure(output: unknown): Error {
   const recorded = errorOutput.safeParse(output);
   return recorded.success ? rebuildError(recorded.data) : new Error("the worker running this job stopped before it finished");
+}
+
+/** `runs` in at most `parts` contiguous ranges whose sizes differ by at most one. */
+export function splitRuns(runs: number, parts: number): { first: number; runs: number }[] {
+  const count = Math.max(1, Math.min(runs, parts));
+  return Array.from({ length: count }, (_, i) => {
+    const first = Math.floor((i * runs) / count);
+    return { first, runs: Math.floor(((i + 1) * runs) / count) - first };
+  });
 }

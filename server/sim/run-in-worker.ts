@@ -92,6 +92,11 @@ export class WorkerJobs {
     this.admissions = { text: new Admission(admissionLimits, 10), dynamics: new Admission(admissionLimits, 10) };
   }
 
+  /** Jobs this process runs at once (a stochastic ensemble is split into as many ranges). */
+  get lanes(): number {
+    return this.poolSize;
+  }
+
   readonly run: RunJob = async (job, options = {}) => {
     const limits = { ...DEFAULT_LIMITS, ...this.defaults, ...options.limits };
     // Reading text is quick and shows on every page: a user's simulation must not hold up their exports.

@@ -148,7 +148,7 @@ function settle(system: OdeSystem, until: number): Float64Array | null {
 }
 
 // ── Newton's method in the compatibility class ─────────────────────────────────────────────────
-interface ClassProblem {
+export interface ClassProblem {
   system: OdeSystem;
   laws: number[][];
   /** Law index by the variable whose equation it replaces. */
@@ -164,7 +164,7 @@ interface ClassProblem {
   lu: DenseLu;
 }
 
-function classProblem(system: OdeSystem, stoichiometry: number[][], points: (ArrayLike<number> | null)[]): ClassProblem {
+export function classProblem(system: OdeSystem, stoichiometry: number[][], points: (ArrayLike<number> | null)[]): ClassProblem {
   const n = system.names.length;
   const { laws, leading } = conservationBasis(stoichiometry);
   const sizes = points.flatMap((point) => (point ? Array.from(point, Math.abs) : []));
@@ -185,7 +185,7 @@ function classProblem(system: OdeSystem, stoichiometry: number[][], points: (Arr
  * f with the led variables' equations replaced by the laws; returns the Euclidean norm of `out`,
  * the measure every Newton step is a descent direction for.
  */
-function classResidual(p: ClassProblem, y: Float64Array, out: Float64Array): number {
+export function classResidual(p: ClassProblem, y: Float64Array, out: Float64Array): number {
   p.system.rhs(y, p.f);
   let squares = 0;
   for (let i = 0; i < y.length; i++) {
@@ -196,12 +196,17 @@ function classResidual(p: ClassProblem, y: Float64Array, out: Float64Array): num
   return Math.sqrt(squares);
 }
 
-/** The Newton step −J⁻¹g of the class residual g at y, or null where J is singular. */
-function newtonStep(p: ClassProblem, y: Float64Array, g: Float64Array): Float64Array | null {
+/** The Jacobian of the class residual at y into `out` (row-major): f's rows, the laws in the led rows. */
+export function classJacobian(p: ClassProblem, y: Float64Array, out: Float64Array): void {
   const n = y.length;
   p.system.jacobian(y, p.jacobian);
-  p.lu.lu.set(p.jacobian);
-  for (const [variable, l] of p.replaced) for (let j = 0; j < n; j++) p.lu.lu[variable * n + j] = p.laws[l][j];
+  out.set(p.jacobian);
+  for (const [variable, l] of p.replaced) for (let j = 0; j < n; j++) out[variable * n + j] = p.laws[l][j];
+}
+
+/** The Newton step −J⁻¹g of the class residual g at y, or null where J is singular. */
+function newtonStep(p: ClassProblem, y: Float64Array, g: Float64Array): Float64Array | null {
+  classJacobian(p, y, p.lu.lu);
   if (!p.lu.factor()) return null;
   const step = Float64Array.from(g, (x) => -x);
   p.lu.solve(step);
@@ -383,7 +388,7 @@ function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {
 }
 
 /** Eigenvalues of Qᵀ J Q for an orthonormal basis Q of the stoichiometric subspace (J maps into it). */
-function classEigenvalues(jacobian: Float64Array, n: number, basis: number[][]): Eigenvalue[] | null {
+export function classEigenvalues(jacobian: Float64Array, n: number, basis: number[][]): Eigenvalue[] | null {
   const r = basis.length;
   if (r === 0) return [];
   const reduced = basis.map((qa) =>
@@ -410,7 +415,7 @@ function classEigenvalues(jacobian: Float64Array, n: number, basis: number[][]):
   }
 }
 
-function verdict(eigenvalues: Eigenvalue[]): Stability {
+export function verdict(eigenvalues: Eigenvalue[]): Stability {
   const size = Math.max(1, ...eigenvalues.map((e) => Math.hypot(e.re, e.im)));
   const largest = Math.max(...eigenvalues.map((e) => e.re));
   if (largest < -1e-9 * size) return "stable";

@@ -8,7 +8,7 @@
 
 import type { Mechanism, Network, Step } from "~/chem/model";
 // What a sweep varies has one definition: the zod schema every door checks it with.
-import type { SweepTarget } from "~/shared/job-schemas";
+import type { ContinuationTarget, SweepTarget } from "~/shared/job-schemas";
 import { MAX_SWEEP_POINTS } from "~/chem/limits";
 import { buildNetwork } from "~/chem/network";
 import { SimulationCancelled, SimulationInputError } from "./errors";
@@ -106,9 +106,12 @@ function pointSystems(target: SweepTarget, mechanism: Mechanism, network: Networ
   };
 }
 
-/** For targets that change the mechanism itself: the mechanism at each value. */
-function variedMechanism(target: Extract<SweepTarget, { kind: "parameter" | "fixed" | "step" }>, mechanism: Mechanism): (value: number) => Mechanism {
+/** The mechanism at each value of a target that names something in it (not a reaction by index). */
+export function variedMechanism(target: ContinuationTarget, mechanism: Mechanism): (value: number) => Mechanism {
   switch (target.kind) {
+    case "initial":
+      if (!(target.species in mechanism.initial) && !mechanism.species.includes(target.species)) throw new SimulationInputError(`there is no species ${target.species} to vary`);
+      return (value) => ({ ...mechanism, initial: { ...mechanism.initial, [target.species]: value } });
     case "parameter":
       if (!(target.name in mechanism.parameters)) throw new SimulationInputError(`there is no parameter ${target.name} to vary`);
       return (value) => ({ ...mechanism, parameters: { ...mechanism.parameters, [target.name]: value } });

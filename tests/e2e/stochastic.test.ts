@@ -1,0 +1,42 @@
+// The Dynamics panel's stochastic runs in the real browser: the card sends volume, runs and seed,
+// and draws a band per species with the first runs; the caution stays above the panel.
+import { mkdirSync } from "node:fs";
+import { expect, it } from "vitest";
+import { signedInPage, useServerAndBrowser } from "../support/e2e";
+import { signUp } from "../support/http";
+
+const world = useServerAndBrowser();
+const shots = process.env.SCREENSHOT_DIR ?? "test-results";
+
+it("runs an ensemble and draws mean ± sd bands with sample runs", { timeout: 180_000 }, async () => {
+  mkdirSync(shots, { recursive: true });
+  const owner = await signUp(world.server.url, "Stella Stochastic");
+  // An invented gene-expression toy: mRNA made and lost, protein made from it and lost.
+  const source = ["transcribe: 0 -> M @ 2", "translate: M -> M + P @ 5", "lose_m: M -> 0 @ 0.5", "lose_p: P -> 0 @ 0.2", "[M]0 = 0", "[P]0 = 0"].join("\n") + "\n";
+  const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Bursty expression", source })).json();
+  const page = await signedInPage(world, owner.email);
+  page.setDefaultTimeout(60_000);
+  await page.goto(`${world.server.url}/m/${id}`);
+  await page.waitForSelector("[data-testid=room-status][data-status=online]");
+  await page.click('role=tab[name="Dynamics"]');
+
+  const card = page.locator("[data-testid=stochastic]");
+  await card.locator("label:has-text('Volume V') input").fill("2");
+  await card.locator("label:has-text('Runs') input").fill("300");
+  await card.locator("label:has-text('Seed') input").fill("7");
+  await card.locator("label:has-text('Until time') input").fill("30");
+  const bodies: string[] = [];
+  page.on("request", (request) => {
+    if (request.url().endsWith(`/api/v1/mechanisms/${id}/dynamics`)) bodies.push(request.postData() ?? "");
+  });
+  await card.locator("button:text-is('Run')").click();
+  await card.locator("[data-testid=ensemble-chart] path").first().waitFor();
+  expect(JSON.parse(bodies[0])).toMatchObject({ kind: "stochastic", settings: { volume: 2, runs: 300, seed: 7, until: 30 } });
+  // Two species: a band, a mean and three runs each.
+  await expect.poll(() => card.locator("[data-testid=ensemble-chart] path").count()).toBe(10);
+  await expect.poll(() => card.innerText()).toMatch(/mean ± one standard deviation over 300 runs/);
+  await expect.poll(() => page.locator("[data-testid=dynamics] [role=note]").innerText()).toMatch(/do not replace experimental hazard assessment/);
+  await card.scrollIntoViewIfNeeded();
+  await card.screenshot({ path: `${shots}/stochastic-card.png` });
+  await page.screenshot({ path: `${shots}/stochastic-panel.png`, fullPage: true });
+});
