@@ -1,6 +1,6 @@
 // What the completion source offers where the cursor is, read from the syntax tree around it.
 import { CompletionContext } from "@codemirror/autocomplete";
-import { ensureSyntaxTree } from "@codemirror/language";
+import { ensureSyntaxTree, syntaxTree } from "@codemirror/language";
 import { EditorState, type TransactionSpec } from "@codemirror/state";
 import type { EditorView } from "@codemirror/view";
 import { describe, expect, it } from "vitest";
@@ -10,8 +10,14 @@ import { mechanism } from "./mechanism-language";
 const text = 'X + "Fe3+" -> 2Y @ k1\nk1 = 1\n';
 
 async function completionAt(doc: string, pos: number) {
-  const state = EditorState.create({ doc, selection: { anchor: pos }, extensions: [mechanism()] });
-  ensureSyntaxTree(state, state.doc.length);
+  const created = EditorState.create({ doc, selection: { anchor: pos }, extensions: [mechanism()] });
+  // A new state parses for 20 ms and keeps whatever tree it has by then: on a busy machine a part
+  // of the text, where the cursor's node is missing. ensureSyntaxTree finishes the parse (however
+  // long it takes) in the state's parse context, and a transaction hands the whole tree to
+  // `syntaxTree`, which the completion reads.
+  if (!ensureSyntaxTree(created, created.doc.length, Infinity)) throw new Error("the text was not parsed");
+  const state = created.update({}).state;
+  expect(syntaxTree(state).length).toBe(doc.length);
   return { state, result: await completeMechanismNames(new CompletionContext(state, pos, true)) };
 }
 

@@ -1,7 +1,5 @@
 // Runs the real CLI as scripts do. Sources: Lorenz (1963) and Rössler (1976) for the systems,
 // Hárs and Tóth (1979) for the negative cross effect criterion and the canonical realization.
-import { execFile } from "node:child_process";
-import { promisify } from "node:util";
 import { describe, expect, it, vi } from "vitest";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
@@ -9,24 +7,16 @@ import * as P from "~/chem/ode/polynomial";
 import { parseMechanism } from "~/chem/parse";
 import { massActionOf } from "~/chem/realize/from-network";
 import { inducedRhs } from "~/chem/realize/mass-action";
+import { mechweave } from "../../tests/support/cli";
 import { readArguments, run } from "./realize";
 
-const exec = promisify(execFile);
-
-async function realize(...args: string[]) {
-  try {
-    const { stdout, stderr } = await exec("npx", ["tsx", "server/cli/main.ts", "realize", ...args]);
-    return { code: 0, stdout, stderr };
-  } catch (error) {
-    const { code, stdout, stderr } = error as { code: number; stdout: string; stderr: string };
-    return { code, stdout, stderr };
-  }
-}
+const realize = (...args: string[]) => mechweave("realize", ...args);
 
 const fixture = (name: string) => `tests/fixtures/ode/${name}`;
 const pairs = (effects: { equation: string; term: string }[]) => effects.map(({ equation, term }) => ({ equation, term }));
 
-describe("mechweave realize", () => {
+// Up to two processes a test, quick from the bundle but seconds apiece under tsx on a busy machine.
+describe("mechweave realize", { timeout: 120_000 }, () => {
   it("Lorenz: not kinetic because of -x*z in y', with a suggested shift", async () => {
     const { code, stdout } = await realize(fixture("lorenz.ode"), "--json");
     expect(code).toBe(0);

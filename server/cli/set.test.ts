@@ -1,14 +1,10 @@
-import { spawnSync } from "node:child_process";
 import { Solver } from "odex";
 import { describe, expect, it } from "vitest";
+import { mechweave } from "../../tests/support/cli";
 
 // `--set` on the real command line: a temperature T in expression coefficients and an initial value.
-function mechweave(...args: string[]) {
-  const run = spawnSync(process.execPath, ["--import", "tsx", "server/cli/main.ts", ...args], { encoding: "utf8", timeout: 60_000 });
-  return { code: run.status, stdout: run.stdout, stderr: run.stderr };
-}
-
 const file = "tests/fixtures/dynamics/arrhenius.weave";
+// Up to four processes a test; each is quick from the bundle, seconds apiece under tsx on a busy machine.
 const slow = { timeout: 120_000 };
 
 /**
@@ -34,9 +30,9 @@ function reference(T: number, initial: { A: number; B: number }, until: number, 
 }
 
 describe("mechweave --set", slow, () => {
-  it("simulates at two temperatures as an independent integrator does, to 1e-5 relative", () => {
+  it("simulates at two temperatures as an independent integrator does, to 1e-5 relative", async () => {
     for (const [T, A0] of [[900, 1e-3], [1100, 2e-3]]) {
-      const run = mechweave("simulate", file, "--set", `T=${T}`, "--set", `[A]0=${A0}`, "--until", "0.05", "--samples", "11", "--rtol", "1e-10", "--atol", "1e-18", "--json");
+      const run = await mechweave("simulate", file, "--set", `T=${T}`, "--set", `[A]0=${A0}`, "--until", "0.05", "--samples", "11", "--rtol", "1e-10", "--atol", "1e-18", "--json");
       expect(run.stderr).toBe("");
       expect(run.code).toBe(0);
       const ours = JSON.parse(run.stdout).series as Record<string, number[]>;
@@ -47,13 +43,13 @@ describe("mechweave --set", slow, () => {
     }
   });
 
-  it("analyze and lyapunov take it too; a name the file does not have is bad usage", () => {
-    const analyzed = mechweave("analyze", file, "--set", "T=0", "--json");
+  it("analyze and lyapunov take it too; a name the file does not have is bad usage", async () => {
+    const analyzed = await mechweave("analyze", file, "--set", "T=0", "--json");
     // T = 0 divides by zero in every Arrhenius coefficient: the file is reported, not run.
     expect(analyzed.code).toBe(1);
     expect(JSON.parse(analyzed.stdout).diagnostics[0].message).toMatch(/Division by zero in -6000\/T/);
-    expect(mechweave("lyapunov", file, "--set", "T=1100", "--until", "0.01", "--json").code).toBe(0);
-    const unknown = mechweave("simulate", file, "--set", "Tk=1100", "--until", "1");
+    expect((await mechweave("lyapunov", file, "--set", "T=1100", "--until", "0.01", "--json")).code).toBe(0);
+    const unknown = await mechweave("simulate", file, "--set", "Tk=1100", "--until", "1");
     expect(unknown.code).toBe(2);
     expect(unknown.stderr).toMatch(/--set Tk: .* has no such parameter or species/);
   });

@@ -1,5 +1,6 @@
-// Takes dynamics jobs from the queue and runs them in this process's worker threads (with their
-// time and heap limits), one job per lane: an app instance runs jobs this way unless started with
+// Takes dynamics jobs from the queue — the oldest whose owner runs nothing now, so the per-user cap
+// holds across processes (`queue-table.ts`) — and runs them in this process's worker threads (with
+// their time and heap limits), one job per lane: an app instance runs jobs this way unless started with
 // JOBS=off, and a `npm run worker` process does nothing else. Progress and the end are announced
 // on `JobEvents`; the result (its `stats.ranOn` naming this process) or the error is the job's
 // output in the queue, where the caller reads it.
@@ -7,6 +8,7 @@ import { z } from "zod";
 import { SimulationCancelled } from "~/chem/kinetics/errors";
 import { errorRecord } from "./job-errors";
 import { DYNAMICS_QUEUE, type JobQueue, type QueuedJob } from "./job-queue";
+import { takeNext } from "./queue-table";
 import type { WorkerJobs } from "./run-in-worker";
 
 /** How long an idle lane waits before asking the queue again when no `submitted` event wakes it. */
@@ -57,7 +59,7 @@ export class JobConsumer {
 
   private async lane(): Promise<void> {
     while (!this.stopping) {
-      const [taken] = await this.queue.boss.fetch(DYNAMICS_QUEUE, { batchSize: 1 }).catch(() => null) ?? [];
+      const taken = await takeNext(this.queue.sql, DYNAMICS_QUEUE).catch(() => null);
       if (taken) await this.runJob(taken.id, taken.data);
       else await this.idle();
     }
@@ -83,6 +85,7 @@ export class JobConsumer {
     const { boss, events } = this.queue;
     const controller = new AbortController();
     this.running.set(id, controller);
+    void events.publish({ type: "started", id });
     let lastSent = -1;
     try {
       const envelope = queuedJobData.safeParse(data);

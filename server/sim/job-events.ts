@@ -1,5 +1,6 @@
 // What crosses between the processes of one job while it runs, on one PostgreSQL channel: a new
-// job wakes idle consumers, a consumer reports progress and the end, a caller that went away asks
+// job wakes idle consumers, a consumer reports the start (the jobs behind it move up), progress
+// and the end, a caller that went away asks
 // for a cancel. Only ids and numbers travel (NOTIFY holds 8 KB); the job and its result stay in
 // the queue's table. A missed event costs time, not correctness: callers also poll the job's state.
 import pg from "pg";
@@ -10,6 +11,7 @@ const RECONNECT_MS = 1_000;
 
 const jobEvent = z.discriminatedUnion("type", [
   z.object({ type: z.literal("submitted") }),
+  z.object({ type: z.literal("started"), id: z.string() }),
   z.object({ type: z.literal("progress"), id: z.string(), fraction: z.number() }),
   z.object({ type: z.literal("finished"), id: z.string() }),
   z.object({ type: z.literal("cancel"), id: z.string() }),

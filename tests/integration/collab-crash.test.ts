@@ -9,6 +9,16 @@ import { eventually, joinRoom, storedDocument, typeAtRandom } from "../support/c
 import { signUp } from "../support/http";
 import { startTestServer } from "../support/server";
 
+/**
+ * What one kill -9 and restart may take: the server's boot (migrations checked, the queue and the
+ * room bus connected) is a second or two alone and tens of seconds on a machine shared by many
+ * test runs, plus the joins and typing around it. The tests' budgets count restarts, not a fixed
+ * total, so they hold however slow the machine is.
+ */
+const RESTART_MS = 60_000;
+/** Rounds of typing, kill -9 and restart in the first test, before the one with a client that stays up. */
+const ROUNDS = 3;
+
 let server: Awaited<ReturnType<typeof startTestServer>>;
 beforeAll(async () => {
   server = await startTestServer();
@@ -22,7 +32,7 @@ describe("durability", () => {
     const { id } = (await (await owner.json("/api/v1/mechanisms", "POST", { title: "Crash", source: "A -> B\n" })).json()) as { id: string };
     await owner.post(`/m/${id}/members`, { intent: "add", email: viewer.email, role: "viewer" });
 
-    for (let round = 0; round < 3; round++) {
+    for (let round = 0; round < ROUNDS; round++) {
       const editor = joinRoom(server.url, id, owner.cookieHeader);
       const witness = joinRoom(server.url, id, viewer.cookieHeader);
       await Promise.all([editor.synced, witness.synced]);
@@ -30,7 +40,7 @@ describe("durability", () => {
       const typist = typeAtRandom(editor.text, () => typing);
       // The crash comes after a random amount of acknowledged typing, however busy the machine.
       const grown = witness.text.length + 10 + Math.floor(Math.random() * 40);
-      await eventually("typing acknowledged to the witness", () => witness.text.length >= grown, 30_000);
+      await eventually("typing acknowledged to the witness", () => witness.text.length >= grown, RESTART_MS);
       await server.crash();
       typing = false;
       expect(await typist).toBeGreaterThan(10);
@@ -58,7 +68,7 @@ describe("durability", () => {
     let typing = true;
     const typist = typeAtRandom(editor.text, () => typing);
     const grown = editor.text.length + 20;
-    await eventually("some typing", () => editor.text.length >= grown, 30_000);
+    await eventually("some typing", () => editor.text.length >= grown, RESTART_MS);
     await server.crash();
     typing = false;
     await typist;
@@ -67,9 +77,9 @@ describe("durability", () => {
     await eventually("the editor's text to be stored", async () => {
       const stored = await storedDocument(server.databaseUrl, id);
       return stored.getText("source").toString() === editor.text.toString();
-    }, 15_000);
+    }, RESTART_MS);
     editor.close();
-  }, 120_000);
+  }, (ROUNDS + 1) * RESTART_MS);
 
   it("flushes and compacts on a clean shutdown, and reloads from the compacted state", async () => {
     const owner = await signUp(server.url, "Tidy Owner");
@@ -77,7 +87,7 @@ describe("durability", () => {
     const editor = joinRoom(server.url, id, owner.cookieHeader);
     await editor.synced;
     for (const line of ["B -> C @ 2\n", "C -> A @ 3\n", "# a closed cycle\n"]) editor.text.insert(editor.text.length, line);
-    await eventually("the analysis of the cycle", () => editor.analysis.get("reactions") === 3, 30_000);
+    await eventually("the analysis of the cycle", () => editor.analysis.get("reactions") === 3, RESTART_MS);
     const text = editor.text.toString();
     const revision = editor.analysis.get("revision") as number;
     editor.close();
@@ -96,7 +106,7 @@ describe("durability", () => {
     await again.synced;
     expect(again.text.toString()).toBe(text);
     again.text.insert(0, "D -> A @ 4\n");
-    await eventually("a newer analysis", () => (again.analysis.get("revision") as number) > revision && again.analysis.get("reactions") === 4, 30_000);
+    await eventually("a newer analysis", () => (again.analysis.get("revision") as number) > revision && again.analysis.get("reactions") === 4, RESTART_MS);
     again.close();
-  }, 120_000);
+  }, 2 * RESTART_MS);
 });

@@ -27,6 +27,13 @@ export class Client {
     return this.request(path);
   }
 
+  /** The same session against another app instance on the same database. */
+  at(baseUrl: string): Client {
+    const client = new Client(baseUrl);
+    for (const [name, value] of this.cookies) client.cookies.set(name, value);
+    return client;
+  }
+
   /** A form post, as a browser without JavaScript sends it. */
   post(path: string, fields: Record<string, string>) {
     return this.request(path, { method: "POST", body: new URLSearchParams(fields) });

@@ -7,10 +7,11 @@ const job = { running: true, progress: 0, queued: null as number | null, result:
 
 describe("JobStatus", () => {
   it("shows a waiting job's place in the queue, then the progress bar once it runs", () => {
-    expect(renderToString(createElement(JobStatus, { job: { ...job, queued: 1 } }))).toContain("next in line");
-    expect(renderToString(createElement(JobStatus, { job: { ...job, queued: 3 } }))).toContain("number 3 in the queue");
+    // The stream sends the 1-based place; the panel counts the jobs ahead.
+    expect(renderToString(createElement(JobStatus, { job: { ...job, queued: 1 } }))).toContain("Queued (0 ahead)");
+    expect(renderToString(createElement(JobStatus, { job: { ...job, queued: 3 } }))).toContain("Queued (2 ahead)");
     const running = renderToString(createElement(JobStatus, { job: { ...job, progress: 0.4 } }));
     expect(running).toContain(`aria-valuenow="40"`);
-    expect(running).not.toContain("queue");
+    expect(running).not.toContain("ahead");
   });
 });

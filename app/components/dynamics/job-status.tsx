@@ -5,7 +5,7 @@ export function JobStatus({ job }: { job: JobState<unknown> }) {
   if (job.running && job.queued !== null) {
     return (
       <p className="mt-3 text-xs text-muted" role="status" data-testid="job-queued">
-        Waiting for a free worker: {job.queued === 1 ? "next in line" : `number ${job.queued} in the queue`}…
+        {`Queued (${job.queued - 1} ahead), waiting for a free worker…`}
       </p>
     );
   }
