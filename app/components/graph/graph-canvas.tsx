@@ -1,4 +1,4 @@
-// What both views of the graph share on their React Flow canvas: the theme, the arrowheads,
+// What both views of the graph share on their React Flow canvas: the theme,
 // fitting while the reader has not taken the view, and keeping unchanged items' objects.
 import { useNodesInitialized, useReactFlow, useStore } from "@xyflow/react";
 import { type CSSProperties, useEffect, useRef } from "react";
@@ -98,33 +98,6 @@ function useDrawable(): boolean {
   // Every node of ours carries estimated sizes, so looking at one tells about all.
   const estimated = useStore((state) => state.nodeLookup.values().next().value?.initialWidth !== undefined);
   return measured || estimated;
-}
-
-export function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: string } }) {
-  return (
-    <svg className="absolute h-0 w-0" aria-hidden="true">
-      <defs>
-        {[
-          [ids.normal, "var(--mw-muted)"],
-          [ids.selected, "var(--mw-accent)"],
-        ].map(([id, colour]) => (
-          <marker
-            key={id}
-            id={id}
-            viewBox="0 0 10 10"
-            refX="9"
-            refY="5"
-            markerWidth="9"
-            markerHeight="9"
-            markerUnits="userSpaceOnUse"
-            orient="auto-start-reverse"
-          >
-            <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
-          </marker>
-        ))}
-      </defs>
-    </svg>
-  );
 }
 
 /**

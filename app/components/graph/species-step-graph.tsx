@@ -1,11 +1,11 @@
 // The species–step view: species as boxes, steps as small squares, arcs labelled with coefficients
 // above 1 (on zoom). The picture is the reader's own: laid out in a worker, dragged locally.
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
-import { useEffect, useId, useMemo, useState } from "react";
-import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
+import { useEffect, useMemo, useState } from "react";
+import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
+import { CentreOnFocus, FitWhileUntouched, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
-import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
 import { buildSpeciesStepModel, estimateSpeciesStepSize, speciesNodeId, stepNodeId } from "./species-step-model";
 import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
 import { useSpeciesStepLayout } from "./use-species-step-layout";
@@ -13,7 +13,6 @@ import { useSpeciesStepLayout } from "./use-species-step-layout";
 type SpeciesStepNode = SpeciesNode | StepNode;
 
 const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
-const edgeTypes = { reaction: ReactionEdgeView };
 /** Never fitted smaller than labels can be read: a large picture opens on its middle, to pan or search. */
 const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: edgeLabelZoom };
 
@@ -22,8 +21,6 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
   const positions = useSpeciesStepLayout(model);
   const [nodes, setNodes] = useState<SpeciesStepNode[]>([]);
   const [viewTouched, setViewTouched] = useState(false);
-  const markerBase = `mw-arc-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
-  const marker = useMemo(() => ({ normal: markerBase, selected: `${markerBase}-selected` }), [markerBase]);
 
   // A new model is drawn once its layout arrives; until then the previous picture stays.
   useEffect(() => {
@@ -70,28 +67,24 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
     });
   }, [nodes, litIds, focusIds, emphasis.focus]);
 
-  const edges = useMemo(
+  const arrows = useMemo(
     () =>
       (model?.arcs ?? []).map(
-        (arc): ReactionEdge => ({
+        (arc): Arrow => ({
           id: arc.id,
-          type: "reaction",
           source: arc.source,
           target: arc.target,
-          ariaLabel: arc.description,
-          data: {
-            bend: 0,
-            label: arc.label,
-            description: arc.description,
-            marker,
-            twoWay: arc.twoWay,
-            lit: Boolean(emphasis.caret?.steps.has(arc.step) || emphasis.focus?.steps.has(arc.step)),
-            dim: Boolean(emphasis.focus && !emphasis.focus.steps.has(arc.step)),
-          },
+          bend: 0,
+          label: arc.label,
+          description: arc.description,
+          twoWay: arc.twoWay,
+          lit: Boolean(emphasis.caret?.steps.has(arc.step) || emphasis.focus?.steps.has(arc.step)),
+          dim: Boolean(emphasis.focus && !emphasis.focus.steps.has(arc.step)),
         }),
       ),
-    [model, marker, emphasis],
+    [model, emphasis],
   );
+  const boxes = useMemo(() => nodeBoxes(nodes), [nodes]);
 
   if (!model || model.nodes.length === 0) {
     return <div className="flex h-full items-center justify-center p-6 text-center text-sm text-muted">Species and steps appear here once the text has a reaction step.</div>;
@@ -101,12 +94,9 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
   }
   return (
     <div className="relative min-h-0 flex-1" data-testid="species-step-graph">
-      <ArrowheadMarkers ids={marker} />
-      <ReactFlow<SpeciesStepNode, ReactionEdge>
+      <ReactFlow<SpeciesStepNode>
         nodes={shownNodes}
-        edges={edges}
         nodeTypes={nodeTypes}
-        edgeTypes={edgeTypes}
         onNodesChange={(changes: NodeChange<SpeciesStepNode>[]) =>
           setNodes((current) => applyNodeChanges(changes.filter((change) => change.type === "position" || change.type === "dimensions"), current))
         }
@@ -122,6 +112,7 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
       >
         <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
         <Controls showInteractive={false} position="bottom-left" />
+        <ArrowLayer arrows={arrows} boxes={boxes} />
         <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
         <CentreOnFocus focusKey={emphasis.focusKey} ids={focusIds} onCentred={() => setViewTouched(true)} />
       </ReactFlow>

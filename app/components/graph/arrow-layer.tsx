@@ -1,0 +1,159 @@
+// Every arrow of a graph view in ONE <svg> under the nodes. React Flow draws each edge as its own
+// <svg>, and at 500 steps (about 650 arrows) the browser re-layerized all of them at every painted
+// frame, 50–300 ms a frame while typing; one layer paints in one go. Each arrow is a memoised
+// element, so a new report redraws only the arrows whose geometry or emphasis changed.
+import { EdgeLabelRenderer, useStore } from "@xyflow/react";
+import { memo, useCallback, useId, useRef } from "react";
+import { type Box, edgeCurve } from "./edge-geometry";
+
+export interface Arrow {
+  id: string;
+  source: string;
+  target: string;
+  /** Bows the curve to its left (a reversible pair's two arrows); 0 for straight. */
+  bend: number;
+  label: string | null;
+  /** Read aloud and shown on hover. */
+  description: string;
+  /** A head at the start too: a reversible step's arcs in the species–step view. */
+  twoWay?: boolean;
+  selected?: boolean;
+  /** The step under the caret, or inside the focused neighbourhood. */
+  lit?: boolean;
+  /** Outside the focused neighbourhood: drawn faint. */
+  dim?: boolean;
+}
+
+/** Below this zoom an arrow's label would be under 8 px: it is left out, node labels stay. */
+export const edgeLabelZoom = 0.75;
+
+export interface ArrowLayerProps {
+  arrows: readonly Arrow[];
+  /** Where each node is drawn, by node id; arrows whose ends are missing are left out. */
+  boxes: ReadonlyMap<string, Box>;
+  /** A click, or Enter on a focused arrow. */
+  onPick?: (id: string) => void;
+}
+
+export function ArrowLayer({ arrows, boxes, onPick }: ArrowLayerProps) {
+  const readable = useStore((state) => state.transform[2] >= edgeLabelZoom);
+  const base = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
+  const markers = { normal: base, stressed: `${base}-stressed` };
+  // One callback for the layer's lifetime, so a new `onPick` each render redraws no arrow.
+  const latestPick = useRef(onPick);
+  latestPick.current = onPick;
+  const pick = useCallback((id: string) => latestPick.current?.(id), []);
+  return (
+    <EdgeLabelRenderer>
+      {/* A zero-size box at the flow's origin: the arrows overflow it in flow coordinates. */}
+      <svg className="absolute top-0 left-0 h-px w-px overflow-visible" aria-label="Reaction arrows" role="group">
+        <defs>
+          {[
+            [markers.normal, "var(--mw-muted)"],
+            [markers.stressed, "var(--mw-signal)"],
+          ].map(([id, colour]) => (
+            <marker key={id} id={id} viewBox="0 0 10 10" refX="9" refY="5" markerWidth="9" markerHeight="9" markerUnits="userSpaceOnUse" orient="auto-start-reverse">
+              <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
+            </marker>
+          ))}
+        </defs>
+        {arrows.map((arrow) => {
+          const from = boxes.get(arrow.source);
+          const to = boxes.get(arrow.target);
+          if (!from || !to) return null;
+          const curve = edgeCurve(from, to, arrow.bend);
+          return (
+            <ArrowView
+              key={arrow.id}
+              arrow={arrow}
+              path={curve.path}
+              labelAt={readable && arrow.label && !arrow.dim ? `${curve.middle.x.toFixed(1)},${curve.middle.y.toFixed(1)}` : null}
+              marker={arrow.selected || arrow.lit ? markers.stressed : markers.normal}
+              onPick={onPick ? pick : undefined}
+            />
+          );
+        })}
+      </svg>
+    </EdgeLabelRenderer>
+  );
+}
+
+interface ArrowViewProps {
+  arrow: Arrow;
+  path: string;
+  /** "x,y" of the label, or null when it is not drawn; a string so unchanged arrows compare equal. */
+  labelAt: string | null;
+  marker: string;
+  onPick?: (id: string) => void;
+}
+
+const ArrowView = memo(ArrowDrawing, (old, next) =>
+  old.path === next.path && old.labelAt === next.labelAt && old.marker === next.marker && old.onPick === next.onPick && sameArrow(old.arrow, next.arrow),
+);
+
+function ArrowDrawing({ arrow, path, labelAt, marker, onPick }: ArrowViewProps) {
+  const stressed = arrow.selected || arrow.lit;
+  const colour = arrow.selected ? "var(--mw-accent)" : arrow.lit ? "var(--mw-signal)" : "var(--mw-muted)";
+  const [x, y] = labelAt?.split(",").map(Number) ?? [0, 0];
+  return (
+    <g
+      style={{ opacity: arrow.dim ? 0.15 : 1 }}
+      data-arrow={arrow.id}
+      data-selected={arrow.selected || undefined}
+      data-lit={arrow.lit || undefined}
+      tabIndex={onPick ? 0 : undefined}
+      role={onPick ? "button" : undefined}
+      aria-label={arrow.description}
+      onClick={() => onPick?.(arrow.id)}
+      onKeyDown={(event) => event.key === "Enter" && onPick?.(arrow.id)}
+    >
+      <title>{arrow.description}</title>
+      <path
+        d={path}
+        fill="none"
+        style={{ stroke: colour, strokeWidth: stressed ? 2.2 : 1.5 }}
+        markerEnd={`url(#${marker})`}
+        markerStart={arrow.twoWay ? `url(#${marker})` : undefined}
+      />
+      {/* A wide invisible stroke makes a thin arrow easy to hover and hit (the layer itself lets pointers through). */}
+      <path d={path} fill="none" stroke="transparent" strokeWidth={18} style={{ pointerEvents: "stroke", cursor: onPick ? "pointer" : undefined }} />
+      {labelAt && (
+        <text
+          x={x}
+          y={y}
+          textAnchor="middle"
+          dominantBaseline="central"
+          className="font-mono text-[11px]"
+          // A halo in the canvas colour keeps the label readable where it crosses a line.
+          style={{ fill: colour, stroke: "var(--mw-canvas)", strokeWidth: 3, paintOrder: "stroke" }}
+          data-testid="edge-label"
+        >
+          {arrow.label}
+        </text>
+      )}
+    </g>
+  );
+}
+
+/** Two arrows draw the same when every field matches. */
+function sameArrow(old: Arrow, next: Arrow): boolean {
+  const keys = Object.keys(next) as (keyof Arrow)[];
+  return keys.length === Object.keys(old).length && keys.every((key) => old[key] === next[key]);
+}
+
+/** Node boxes by id for the arrow layer: measured sizes where the browser has them, else the estimates. */
+export function nodeBoxes(
+  nodes: readonly { id: string; position: { x: number; y: number }; measured?: { width?: number; height?: number }; initialWidth?: number; initialHeight?: number }[],
+): Map<string, Box> {
+  return new Map(
+    nodes.map((node) => [
+      node.id,
+      {
+        x: node.position.x,
+        y: node.position.y,
+        width: node.measured?.width ?? node.initialWidth ?? 0,
+        height: node.measured?.height ?? node.initialHeight ?? 0,
+      },
+    ]),
+  );
+}
