@@ -306,7 +306,8 @@ function buildNodes(
   if (!model || !report) return [];
   const before = new Map(previous.map((node) => [node.id, node]));
   const complexes = model.nodes
-    .filter((complex) => !folded.has(complex.linkageClass))
+    // A complex is drawn once it has a place (the placement worker may still be at it).
+    .filter((complex) => !folded.has(complex.linkageClass) && (positions[complex.key] || before.has(complex.key)))
     .map((complex): ComplexNode => {
       const old = before.get(complex.key) as ComplexNode | undefined;
       return {
@@ -336,6 +337,7 @@ function buildNodes(
     const label = classBoxLabel(classIndex, members.length);
     const old = before.get(id) as ClassBoxNode | undefined;
     const corners = members.flatMap((member) => positions[report.complexes[member]] ?? []);
+    if (corners.length === 0) return [];
     return [
       {
         ...old,

@@ -6,9 +6,11 @@ import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer"
 import { CentreOnFocus, FitWhileUntouched, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
-import { buildSpeciesStepModel, estimateSpeciesStepSize, speciesNodeId, stepNodeId } from "./species-step-model";
+import type { XY } from "./layout";
+import { buildSpeciesStepModel, estimateSpeciesStepSize, type SpeciesStepModel, speciesNodeId, stepNodeId } from "./species-step-model";
 import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
-import { useSpeciesStepLayout } from "./use-species-step-layout";
+import { useLayoutWorker } from "./use-layout-worker";
+import { useStable } from "./use-stable";
 
 type SpeciesStepNode = SpeciesNode | StepNode;
 
@@ -17,8 +19,14 @@ const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
 const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: edgeLabelZoom };
 
 export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphReport | null; emphasis: Emphasis }) {
-  const model = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
-  const positions = useSpeciesStepLayout(model);
+  // Rebuilt from every report, but kept (and laid out) again only when the network changed.
+  const built = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
+  const structure = useMemo(() => JSON.stringify(built), [built]);
+  const model = useStable(built, structure);
+  const positions = useLayoutWorker<SpeciesStepModel, Record<string, XY>>(
+    () => new Worker(new URL("./species-step-layout.worker.ts", import.meta.url), { type: "module" }),
+    useMemo(() => (model ? { key: structure, message: model } : null), [model, structure]),
+  );
   const [nodes, setNodes] = useState<SpeciesStepNode[]>([]);
   const [viewTouched, setViewTouched] = useState(false);
 
