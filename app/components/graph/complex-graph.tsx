@@ -11,7 +11,7 @@ import type * as Y from "yjs";
 import { ClassBoxView, type ClassBoxNode } from "./class-box-node";
 import { ComplexNodeView, type ComplexNode } from "./complex-node";
 import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
-import { CentreOnFocus, FitWhileUntouched, type FitOptions, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
+import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import { type CaretStep, caretStepIndex, type Emphasis, type FocusTarget, neighbourhood, searchEntries } from "./graph-focus";
 import { GraphLegend } from "./graph-legend";
 import { buildGraphModel, type ComplexGraphReport, type GraphModel } from "./graph-model";
@@ -94,6 +94,7 @@ function GraphWorkspace(props: ComplexGraphProps) {
       focus: report && focusEntry ? neighbourhood(report, focusEntry) : null,
       caret: report && caretIndex !== null ? neighbourhood(report, { kind: "step", index: caretIndex }) : null,
       focusKey: focusEntry ? `${focusEntry.kind}:${focusEntry.name}:${focused?.at}` : "",
+      caretKey: caretIndex === null ? "" : `step:${caretIndex}`,
     }),
     [report, focusEntry, caretIndex, focused?.at],
   );
@@ -210,6 +211,15 @@ function SharedComplexGraph({
   }, [nodes, selected, held, emphasis, model, report]);
 
   const boxes = useMemo(() => nodeBoxes(nodes), [nodes]);
+  // The caret's complexes, or the boxes of the folded classes that hold them.
+  const caretIds = useMemo(() => {
+    const caret = emphasis.caret;
+    if (!caret || !model || !report) return [];
+    const ids = model.nodes
+      .filter((node) => caret.complexes.has(node.index))
+      .map((node) => (folded.has(node.linkageClass) ? `${classBoxPrefix}${classKey(report, node.linkageClass)}` : node.key));
+    return [...new Set(ids)];
+  }, [emphasis.caret, model, report, folded]);
 
   // Clicks and the keyboard (Enter on a focused node) arrive as React Flow's select changes, on an
   // arrow from the arrow layer; a ref lets repeated reports of one choice reach the page once.
@@ -284,6 +294,7 @@ function SharedComplexGraph({
           <Controls showInteractive={false} position="bottom-left" />
           <ArrowLayer arrows={arrows} boxes={boxes} onPick={(id) => select({ kind: "reaction", id })} />
           <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
+          <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
           <CentreOnFocus
             focusKey={emphasis.focusKey}
             ids={model.nodes.filter((node) => emphasis.focus?.complexes.has(node.index)).map((node) => node.key)}

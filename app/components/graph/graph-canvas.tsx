@@ -117,3 +117,37 @@ export function CentreOnFocus({ focusKey, ids, onCentred }: { focusKey: string; 
   });
   return null;
 }
+
+/**
+ * Glides the view, at its present zoom, to the step under the editor's caret when none of its
+ * nodes is on screen, so moving through the text keeps the lit step in sight. `caretKey` changes
+ * when the caret reaches another step; a step still being placed is followed once it is drawn.
+ */
+export function FollowCaret({ caretKey, ids }: { caretKey: string; ids: string[] }) {
+  const { getInternalNode, getViewport, setCenter } = useReactFlow();
+  const width = useStore((state) => state.width);
+  const height = useStore((state) => state.height);
+  const done = useRef("");
+  useEffect(() => {
+    if (!caretKey || done.current === caretKey || width === 0) return;
+    const boxes = ids.flatMap((id) => {
+      const node = getInternalNode(id);
+      if (!node) return [];
+      const { x, y } = node.internals.positionAbsolute;
+      return [{ x, y, width: node.measured.width ?? node.initialWidth ?? 0, height: node.measured.height ?? node.initialHeight ?? 0 }];
+    });
+    if (boxes.length === 0) return;
+    done.current = caretKey;
+    const view = getViewport();
+    const onScreen = boxes.some(
+      (box) => box.x * view.zoom + view.x >= 0 && box.y * view.zoom + view.y >= 0 && (box.x + box.width) * view.zoom + view.x <= width && (box.y + box.height) * view.zoom + view.y <= height,
+    );
+    if (onScreen) return;
+    const left = Math.min(...boxes.map((box) => box.x));
+    const top = Math.min(...boxes.map((box) => box.y));
+    const right = Math.max(...boxes.map((box) => box.x + box.width));
+    const bottom = Math.max(...boxes.map((box) => box.y + box.height));
+    void setCenter((left + right) / 2, (top + bottom) / 2, { zoom: view.zoom, duration: 250 });
+  });
+  return null;
+}

@@ -26,6 +26,8 @@ export interface Emphasis {
   caret: Neighbourhood | null;
   /** Changes whenever the reader focuses something, so the view can centre on it. */
   focusKey: string;
+  /** Changes whenever the caret reaches another step, so the view can follow it; empty without one. */
+  caretKey: string;
 }
 
 const shownMatches = 12;

@@ -3,7 +3,7 @@
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
 import { useEffect, useMemo, useState } from "react";
 import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
-import { CentreOnFocus, FitWhileUntouched, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
+import { CentreOnFocus, FitWhileUntouched, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
 import type { XY } from "./layout";
@@ -56,6 +56,7 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
     () => (emphasis.focus ? [...[...emphasis.focus.species].map((index) => speciesNodeId(species[index])), ...[...emphasis.focus.steps].map(stepNodeId)] : []),
     [emphasis.focus, species],
   );
+  const caretIds = useMemo(() => (emphasis.caret ? [...emphasis.caret.steps].map(stepNodeId) : []), [emphasis.caret]);
   const litIds = useMemo(() => {
     const ids = new Set(focusIds);
     if (emphasis.caret) {
@@ -122,6 +123,7 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
         <Controls showInteractive={false} position="bottom-left" />
         <ArrowLayer arrows={arrows} boxes={boxes} />
         <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
+        <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
         <CentreOnFocus focusKey={emphasis.focusKey} ids={focusIds} onCentred={() => setViewTouched(true)} />
       </ReactFlow>
     </div>
