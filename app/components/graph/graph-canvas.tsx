@@ -102,9 +102,10 @@ function useDrawable(): boolean {
 
 /**
  * Centres the view on a newly focused neighbourhood once its nodes are drawn (unfolding may have
- * just added them), and hands the view to the reader.
+ * just added them), and hands the view to the reader. With `minZoom`, a neighbourhood too large
+ * to fit readably is centred at that zoom instead.
  */
-export function CentreOnFocus({ focusKey, ids, onCentred }: { focusKey: string; ids: string[]; onCentred(): void }) {
+export function CentreOnFocus({ focusKey, ids, onCentred, minZoom }: { focusKey: string; ids: string[]; onCentred(): void; minZoom?: number }) {
   const drawable = useDrawable();
   const { fitView, getNode } = useReactFlow();
   const done = useRef("");
@@ -113,7 +114,7 @@ export function CentreOnFocus({ focusKey, ids, onCentred }: { focusKey: string; 
     if (!ids.every((id) => getNode(id))) return;
     done.current = focusKey;
     onCentred();
-    void fitView({ nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, duration: 300 });
+    void fitView({ nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, minZoom, duration: 300 });
   });
   return null;
 }

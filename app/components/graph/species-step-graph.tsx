@@ -3,11 +3,11 @@
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
 import { useEffect, useMemo, useState } from "react";
 import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
-import { CentreOnFocus, FitWhileUntouched, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
+import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
 import type { XY } from "./layout";
-import { buildSpeciesStepModel, estimateSpeciesStepSize, type SpeciesStepModel, speciesNodeId, stepNodeId } from "./species-step-model";
+import { buildSpeciesStepModel, estimateSpeciesStepSize, largestClass, type SpeciesStepModel, speciesNodeId, stepNodeId } from "./species-step-model";
 import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
 import { useLayoutWorker } from "./use-layout-worker";
 import { useStable } from "./use-stable";
@@ -15,8 +15,8 @@ import { useStable } from "./use-stable";
 type SpeciesStepNode = SpeciesNode | StepNode;
 
 const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
-/** Never fitted smaller than labels can be read: a large picture opens on its middle, to pan or search. */
-const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: edgeLabelZoom };
+/** Step labels (11 px) stay at 9 px on screen or more: a large picture opens on its largest class, to pan or search. */
+const readableZoom = Math.max(edgeLabelZoom, 9 / 11);
 
 export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphReport | null; emphasis: Emphasis }) {
   // Rebuilt from every report, but kept (and laid out) again only when the network changed.
@@ -56,6 +56,16 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
     () => (emphasis.focus ? [...[...emphasis.focus.species].map((index) => speciesNodeId(species[index])), ...[...emphasis.focus.steps].map(stepNodeId)] : []),
     [emphasis.focus, species],
   );
+  // The view opens on the largest linkage class: its steps and their species.
+  const fitOptions = useMemo((): FitOptions => {
+    const plain = { padding: 0.1, maxZoom: 1.15, minZoom: readableZoom };
+    const largest = model ? largestClass(model) : null;
+    if (!model || largest === null) return plain;
+    const steps = new Set(model.nodes.filter((node) => node.linkageClass === largest).map((node) => node.id));
+    const ids = new Set(steps);
+    for (const { source, target } of model.arcs) if (steps.has(source) || steps.has(target)) [source, target].forEach((id) => ids.add(id));
+    return { ...plain, nodes: [...ids].map((id) => ({ id })) };
+  }, [model]);
   const caretIds = useMemo(() => (emphasis.caret ? [...emphasis.caret.steps].map(stepNodeId) : []), [emphasis.caret]);
   const litIds = useMemo(() => {
     const ids = new Set(focusIds);
@@ -124,7 +134,7 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
         <ArrowLayer arrows={arrows} boxes={boxes} />
         <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
         <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
-        <CentreOnFocus focusKey={emphasis.focusKey} ids={focusIds} onCentred={() => setViewTouched(true)} />
+        <CentreOnFocus focusKey={emphasis.focusKey} ids={focusIds} minZoom={readableZoom} onCentred={() => setViewTouched(true)} />
       </ReactFlow>
     </div>
   );
