@@ -5,6 +5,7 @@
 import { EdgeLabelRenderer, useStore } from "@xyflow/react";
 import { memo, useCallback, useId, useRef } from "react";
 import { type Box, edgeCurve } from "./edge-geometry";
+import type { XY } from "./layout";
 
 export interface Arrow {
   id: string;
@@ -37,6 +38,7 @@ export interface ArrowLayerProps {
 
 export function ArrowLayer({ arrows, boxes, onPick }: ArrowLayerProps) {
   const readable = useStore((state) => state.transform[2] >= edgeLabelZoom);
+  const shown = viewedArea(useStore(viewedAreaKey));
   const base = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
   const markers = { normal: base, stressed: `${base}-stressed` };
   // One callback for the layer's lifetime, so a new `onPick` each render redraws no arrow.
@@ -62,6 +64,7 @@ export function ArrowLayer({ arrows, boxes, onPick }: ArrowLayerProps) {
           const to = boxes.get(arrow.target);
           if (!from || !to) return null;
           const curve = edgeCurve(from, to, arrow.bend);
+          if (!crossesArea(curve, shown)) return null;
           return (
             <ArrowView
               key={arrow.id}
@@ -139,6 +142,38 @@ function ArrowDrawing({ arrow, path, labelAt, marker, onPick }: ArrowViewProps) 
 function sameArrow(old: Arrow, next: Arrow): boolean {
   const keys = Object.keys(next) as (keyof Arrow)[];
   return keys.length === Object.keys(old).length && keys.every((key) => old[key] === next[key]);
+}
+
+/**
+ * The part of the flow worth drawing arrows in: the view and up to half a view around it, snapped
+ * to half views, so panning redraws the layer only every half a screen; an arrow whose ends are
+ * both off screen is still drawn when it crosses the area.
+ */
+function viewedAreaKey(state: { transform: [number, number, number]; width: number; height: number }): string {
+  const [x, y, zoom] = state.transform;
+  if (state.width === 0 || state.height === 0) return "";
+  const stepX = state.width / zoom / 2;
+  const stepY = state.height / zoom / 2;
+  const left = Math.floor(-x / zoom / stepX) - 1;
+  const top = Math.floor(-y / zoom / stepY) - 1;
+  return [left * stepX, top * stepY, (left + 4) * stepX, (top + 4) * stepY].map((value) => value.toFixed(1)).join(" ");
+}
+
+type Area = { left: number; top: number; right: number; bottom: number } | null;
+
+/** The snapped area back as numbers; null (draw everything) before the view has a size. */
+function viewedArea(key: string): Area {
+  if (!key) return null;
+  const [left, top, right, bottom] = key.split(" ").map(Number);
+  return { left, top, right, bottom };
+}
+
+/** Whether the box around the curve's three points meets the area. */
+function crossesArea({ start, control, end }: { start: XY; control: XY; end: XY }, area: Area): boolean {
+  if (!area) return true;
+  const xs = [start.x, control.x, end.x];
+  const ys = [start.y, control.y, end.y];
+  return Math.max(...xs) >= area.left && Math.min(...xs) <= area.right && Math.max(...ys) >= area.top && Math.min(...ys) <= area.bottom;
 }
 
 /** Node boxes by id for the arrow layer: measured sizes where the browser has them, else the estimates. */

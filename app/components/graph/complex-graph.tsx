@@ -14,7 +14,7 @@ import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer"
 import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import { type CaretStep, caretStepIndex, type Emphasis, type FocusTarget, neighbourhood, searchEntries } from "./graph-focus";
 import { GraphLegend } from "./graph-legend";
-import { buildGraphModel, type ComplexGraphReport, type GraphModel } from "./graph-model";
+import { buildGraphModel, type ComplexGraphReport, type GraphModel, graphKey } from "./graph-model";
 import { GraphToolbar, type GraphView } from "./graph-toolbar";
 import { estimateNodeSize, type XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
@@ -23,6 +23,7 @@ import { SpeciesStepGraph } from "./species-step-graph";
 import { useComplexPositions } from "./use-complex-positions";
 import { useHeldComplexes } from "./use-held-complexes";
 import { type LinkageFolding, useLinkageFolding } from "./use-linkage-folding";
+import { useStable } from "./use-stable";
 
 export type { ComplexGraphReport } from "./graph-model";
 export type { CaretStep } from "./graph-focus";
@@ -79,8 +80,11 @@ export function ComplexGraph(props: ComplexGraphProps) {
   );
 }
 
-function GraphWorkspace(props: ComplexGraphProps) {
-  const { report, caretStep = null } = props;
+function GraphWorkspace({ report: latest, ...props }: ComplexGraphProps) {
+  const { caretStep = null } = props;
+  // Every analysis brings a new report; one that draws the same graph keeps the previous object,
+  // so a keystroke that leaves the network alone rebuilds and redraws nothing here.
+  const report = useStable(latest, useMemo(() => graphKey(latest), [latest]));
   const [view, setView] = useState<GraphView>("complexes");
   // Held by kind and name, so the focus survives edits that renumber species and steps.
   const [focused, setFocused] = useState<{ kind: FocusTarget["kind"]; name: string; at: number } | null>(null);
@@ -124,7 +128,7 @@ function GraphWorkspace(props: ComplexGraphProps) {
       />
       <ReactFlowProvider key={view}>
         {view === "complexes" ? (
-          <SharedComplexGraph {...props} folding={folding} emphasis={emphasis} />
+          <SharedComplexGraph {...props} report={report} folding={folding} emphasis={emphasis} />
         ) : (
           <SpeciesStepGraph report={report} emphasis={emphasis} />
         )}

@@ -10,7 +10,6 @@ import type { XY } from "./layout";
 import { buildSpeciesStepModel, estimateSpeciesStepSize, largestClass, type SpeciesStepModel, speciesNodeId, stepNodeId } from "./species-step-model";
 import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
 import { useLayoutWorker } from "./use-layout-worker";
-import { useStable } from "./use-stable";
 
 type SpeciesStepNode = SpeciesNode | StepNode;
 
@@ -19,13 +18,11 @@ const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
 const readableZoom = Math.max(edgeLabelZoom, 9 / 11);
 
 export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphReport | null; emphasis: Emphasis }) {
-  // Rebuilt from every report, but kept (and laid out) again only when the network changed.
-  const built = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
-  const structure = useMemo(() => JSON.stringify(built), [built]);
-  const model = useStable(built, structure);
+  // The report is new only when the graph changed (see complex-graph), and so is the model.
+  const model = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
   const positions = useLayoutWorker<SpeciesStepModel, Record<string, XY>>(
     () => new Worker(new URL("./species-step-layout.worker.ts", import.meta.url), { type: "module" }),
-    useMemo(() => (model ? { key: structure, message: model } : null), [model, structure]),
+    useMemo(() => (model ? { key: JSON.stringify(model), message: model } : null), [model]),
   );
   const [nodes, setNodes] = useState<SpeciesStepNode[]>([]);
   const [viewTouched, setViewTouched] = useState(false);
