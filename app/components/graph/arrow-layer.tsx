@@ -40,11 +40,18 @@ export function ArrowLayer({ arrows, boxes, onPick }: ArrowLayerProps) {
   const readable = useStore((state) => state.transform[2] >= edgeLabelZoom);
   const shown = viewedArea(useStore(viewedAreaKey));
   const base = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
-  const markers = { normal: base, stressed: `${base}-stressed` };
+  const markers = { normal: base, lit: `${base}-lit`, selected: `${base}-selected` };
   // One callback for the layer's lifetime, so a new `onPick` each render redraws no arrow.
   const latestPick = useRef(onPick);
   latestPick.current = onPick;
   const pick = useCallback((id: string) => latestPick.current?.(id), []);
+  const drawn = arrows.flatMap((arrow) => {
+    const from = boxes.get(arrow.source);
+    const to = boxes.get(arrow.target);
+    if (!from || !to) return [];
+    const curve = edgeCurve(from, to, arrow.bend);
+    return crossesArea(curve, shown) ? [{ arrow, curve }] : [];
+  });
   return (
     <EdgeLabelRenderer>
       {/* A zero-size box at the flow's origin: the arrows overflow it in flow coordinates. */}
@@ -52,30 +59,22 @@ export function ArrowLayer({ arrows, boxes, onPick }: ArrowLayerProps) {
         <defs>
           {[
             [markers.normal, "var(--mw-muted)"],
-            [markers.stressed, "var(--mw-signal)"],
+            [markers.lit, "var(--mw-signal)"],
+            [markers.selected, "var(--mw-accent)"],
           ].map(([id, colour]) => (
             <marker key={id} id={id} viewBox="0 0 10 10" refX="9" refY="5" markerWidth="9" markerHeight="9" markerUnits="userSpaceOnUse" orient="auto-start-reverse">
               <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
             </marker>
           ))}
         </defs>
-        {arrows.map((arrow) => {
-          const from = boxes.get(arrow.source);
-          const to = boxes.get(arrow.target);
-          if (!from || !to) return null;
-          const curve = edgeCurve(from, to, arrow.bend);
-          if (!crossesArea(curve, shown)) return null;
-          return (
-            <ArrowView
-              key={arrow.id}
-              arrow={arrow}
-              path={curve.path}
-              labelAt={readable && arrow.label && !arrow.dim ? `${curve.middle.x.toFixed(1)},${curve.middle.y.toFixed(1)}` : null}
-              marker={arrow.selected || arrow.lit ? markers.stressed : markers.normal}
-              onPick={onPick ? pick : undefined}
-            />
-          );
-        })}
+        {drawn.map(({ arrow, curve }) => (
+          <ArrowView key={arrow.id} arrow={arrow} path={curve.path} marker={arrow.selected ? markers.selected : arrow.lit ? markers.lit : markers.normal} onPick={onPick ? pick : undefined} />
+        ))}
+        {/* Labels after every arrow, so no arrow is drawn over another's label. */}
+        {readable &&
+          drawn.map(({ arrow, curve }) =>
+            arrow.label && !arrow.dim ? <ArrowLabel key={arrow.id} text={arrow.label} x={Math.round(curve.middle.x)} y={Math.round(curve.middle.y)} colour={arrowColour(arrow)} /> : null,
+          )}
       </svg>
     </EdgeLabelRenderer>
   );
@@ -84,20 +83,17 @@ export function ArrowLayer({ arrows, boxes, onPick }: ArrowLayerProps) {
 interface ArrowViewProps {
   arrow: Arrow;
   path: string;
-  /** "x,y" of the label, or null when it is not drawn; a string so unchanged arrows compare equal. */
-  labelAt: string | null;
   marker: string;
   onPick?: (id: string) => void;
 }
 
 const ArrowView = memo(ArrowDrawing, (old, next) =>
-  old.path === next.path && old.labelAt === next.labelAt && old.marker === next.marker && old.onPick === next.onPick && sameArrow(old.arrow, next.arrow),
+  old.path === next.path && old.marker === next.marker && old.onPick === next.onPick && sameArrow(old.arrow, next.arrow),
 );
 
-function ArrowDrawing({ arrow, path, labelAt, marker, onPick }: ArrowViewProps) {
+function ArrowDrawing({ arrow, path, marker, onPick }: ArrowViewProps) {
   const stressed = arrow.selected || arrow.lit;
-  const colour = arrow.selected ? "var(--mw-accent)" : arrow.lit ? "var(--mw-signal)" : "var(--mw-muted)";
-  const [x, y] = labelAt?.split(",").map(Number) ?? [0, 0];
+  const colour = arrowColour(arrow);
   return (
     <g
       style={{ opacity: arrow.dim ? 0.15 : 1 }}
@@ -120,23 +116,24 @@ function ArrowDrawing({ arrow, path, labelAt, marker, onPick }: ArrowViewProps) 
       />
       {/* A wide invisible stroke makes a thin arrow easy to hover and hit (the layer itself lets pointers through). */}
       <path d={path} fill="none" stroke="transparent" strokeWidth={18} style={{ pointerEvents: "stroke", cursor: onPick ? "pointer" : undefined }} />
-      {labelAt && (
-        <text
-          x={x}
-          y={y}
-          textAnchor="middle"
-          dominantBaseline="central"
-          className="font-mono text-[11px]"
-          // A halo in the canvas colour keeps the label readable where it crosses a line.
-          style={{ fill: colour, stroke: "var(--mw-canvas)", strokeWidth: 3, paintOrder: "stroke" }}
-          data-testid="edge-label"
-        >
-          {arrow.label}
-        </text>
-      )}
     </g>
   );
 }
+
+const arrowColour = (arrow: Arrow) => (arrow.selected ? "var(--mw-accent)" : arrow.lit ? "var(--mw-signal)" : "var(--mw-muted)");
+
+/** A label on a plate in the canvas colour that hides the arrows under it (11 px monospace: 0.6 em a character). */
+const ArrowLabel = memo(function ArrowLabel({ text, x, y, colour }: { text: string; x: number; y: number; colour: string }) {
+  const width = text.length * 6.6 + 6;
+  return (
+    <g>
+      <rect x={x - width / 2} y={y - 8} width={width} height={16} rx={3} style={{ fill: "var(--mw-canvas)", fillOpacity: 0.9 }} />
+      <text x={x} y={y} textAnchor="middle" dominantBaseline="central" className="font-mono text-[11px]" style={{ fill: colour }} data-testid="edge-label">
+        {text}
+      </text>
+    </g>
+  );
+});
 
 /** Two arrows draw the same when every field matches. */
 function sameArrow(old: Arrow, next: Arrow): boolean {
