@@ -96,6 +96,7 @@ function GraphWorkspace({ report: latest, ...props }: ComplexGraphProps) {
   const emphasis = useMemo<Emphasis>(
     () => ({
       focus: report && focusEntry ? neighbourhood(report, focusEntry) : null,
+      focused: focusEntry ? { kind: focusEntry.kind, index: focusEntry.index } : null,
       caret: report && caretIndex !== null ? neighbourhood(report, { kind: "step", index: caretIndex }) : null,
       focusKey: focusEntry ? `${focusEntry.kind}:${focusEntry.name}:${focused?.at}` : "",
       caretKey: caretIndex === null ? "" : `step:${caretIndex}`,

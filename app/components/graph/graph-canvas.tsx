@@ -1,6 +1,6 @@
 // What both views of the graph share on their React Flow canvas: the theme,
 // fitting while the reader has not taken the view, and keeping unchanged items' objects.
-import { useNodesInitialized, useReactFlow, useStore } from "@xyflow/react";
+import { getViewportForBounds, useNodesInitialized, useReactFlow, useStore } from "@xyflow/react";
 import { type CSSProperties, useEffect, useRef } from "react";
 
 // React Flow's own colours, pointed at Mechweave's theme variables so both themes just work.
@@ -103,18 +103,40 @@ function useDrawable(): boolean {
 /**
  * Centres the view on a newly focused neighbourhood once its nodes are drawn (unfolding may have
  * just added them), and hands the view to the reader. With `minZoom`, a neighbourhood too large
- * to fit readably is centred at that zoom instead.
+ * to fit readably is not fitted: the view centres on `centre` (the focused item's own node) at
+ * that zoom, and its arcs lead to the rest.
  */
-export function CentreOnFocus({ focusKey, ids, onCentred, minZoom }: { focusKey: string; ids: string[]; onCentred(): void; minZoom?: number }) {
+export function CentreOnFocus({
+  focusKey,
+  ids,
+  onCentred,
+  minZoom,
+  centre,
+}: {
+  focusKey: string;
+  ids: string[];
+  onCentred(): void;
+  minZoom?: number;
+  centre?: string;
+}) {
   const drawable = useDrawable();
-  const { fitView, getNode } = useReactFlow();
+  const { fitView, getNode, getNodesBounds, setCenter } = useReactFlow();
+  const width = useStore((state) => state.width);
+  const height = useStore((state) => state.height);
   const done = useRef("");
   useEffect(() => {
     if (!focusKey || done.current === focusKey || !drawable || ids.length === 0) return;
     if (!ids.every((id) => getNode(id))) return;
     done.current = focusKey;
     onCentred();
-    void fitView({ nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, minZoom, duration: 300 });
+    const fit = { nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, duration: 300 };
+    const own = centre ? getNode(centre) : undefined;
+    if (minZoom !== undefined && own && getViewportForBounds(getNodesBounds(ids), width, height, 0, fit.maxZoom, fit.padding).zoom < minZoom) {
+      const bounds = getNodesBounds([own]);
+      void setCenter(bounds.x + bounds.width / 2, bounds.y + bounds.height / 2, { zoom: minZoom, duration: 300 });
+      return;
+    }
+    void fitView({ ...fit, minZoom });
   });
   return null;
 }

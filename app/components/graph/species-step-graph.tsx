@@ -53,6 +53,8 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
     () => (emphasis.focus ? [...[...emphasis.focus.species].map((index) => speciesNodeId(species[index])), ...[...emphasis.focus.steps].map(stepNodeId)] : []),
     [emphasis.focus, species],
   );
+  const focused = emphasis.focused;
+  const focusedId = focused ? (focused.kind === "species" ? speciesNodeId(species[focused.index]) : stepNodeId(focused.index)) : undefined;
   // The view opens on the largest linkage class: its steps and their species.
   const fitOptions = useMemo((): FitOptions => {
     const plain = { padding: 0.1, maxZoom: 1.15, minZoom: readableZoom };
@@ -131,7 +133,13 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
         <ArrowLayer arrows={arrows} boxes={boxes} />
         <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
         <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
-        <CentreOnFocus focusKey={emphasis.focusKey} ids={focusIds} minZoom={readableZoom} onCentred={() => setViewTouched(true)} />
+        <CentreOnFocus
+          focusKey={emphasis.focusKey}
+          ids={focusIds}
+          minZoom={readableZoom}
+          centre={focusedId}
+          onCentred={() => setViewTouched(true)}
+        />
       </ReactFlow>
     </div>
   );
