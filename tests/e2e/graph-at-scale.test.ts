@@ -1,7 +1,8 @@
 // The graph of a 500-step mechanism (and the 64-step cell) in Chromium at 1280 × 800: folded
-// linkage classes with the largest class drawn at a readable size and no overlapping boxes; search
-// and focus; folding and unfolding; the step under the editor's caret lit in the graph; the
-// species–step view. Screenshots go to SCREENSHOT_DIR for a person to look at.
+// linkage classes with the largest class drawn at a readable size and no overlapping boxes, every
+// arrow in one layer; search and focus; folding and unfolding; the step under the editor's caret
+// lit in the graph, and brought into view; the species–step view opening readable. Screenshots go
+// to SCREENSHOT_DIR for a person to look at.
 import { mkdirSync, readFileSync } from "node:fs";
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
@@ -54,6 +55,19 @@ async function legibility(page: Page) {
   });
 }
 
+const viewZoom = (page: Page) =>
+  graph(page).evaluate((root) => new DOMMatrix(getComputedStyle(root.querySelector(".react-flow__viewport")!).transform).a);
+
+/** Whether some lit node is wholly on screen. */
+const litInView = (page: Page) =>
+  graph(page).evaluate((root) => {
+    const canvas = root.querySelector(".react-flow")!.getBoundingClientRect();
+    return [...root.querySelectorAll(".react-flow__node [data-lit]")].some((node) => {
+      const box = node.getBoundingClientRect();
+      return box.left >= canvas.left && box.right <= canvas.right && box.top >= canvas.top && box.bottom <= canvas.bottom;
+    });
+  });
+
 const settled = async (page: Page) => {
   // Fitting glides; wait until the viewport stops moving.
   let last = "";
@@ -76,6 +90,10 @@ describe.each([64, 500])("at %i steps", (steps) => {
     expect(shown).toBeGreaterThan(5);
     expect(overlaps).toBe(0);
     expect(labelPx).toBeGreaterThanOrEqual(9);
+    // The arrows are paths of one <svg>, not one React Flow edge (and <svg>) each.
+    expect(await graph(page).locator(".react-flow__edge").count()).toBe(0);
+    expect(await graph(page).locator("svg:has([data-arrow])").count()).toBe(1);
+    expect(await graph(page).locator("[data-arrow]").count()).toBeGreaterThan(5);
     await page.screenshot({ path: `${shots}/graph-${steps}-start.png` });
 
     await page.getByRole("button", { name: "Unfold all" }).click();
@@ -112,6 +130,8 @@ describe.each([64, 500])("at %i steps", (steps) => {
     await page.getByRole("radio", { name: "Species & steps" }).click();
     await page.waitForSelector("[data-testid=species-step-graph] .react-flow__node", { timeout: 120_000 });
     await settled(page);
+    // Opens (or centres the focus) at a zoom where a step's 11 px label reads at 9 px or more.
+    expect(await viewZoom(page)).toBeGreaterThanOrEqual(9 / 11 - 1e-3);
     await page.screenshot({ path: `${shots}/species-steps-${steps}.png` });
     await page.fill("[data-testid=graph-search]", "R");
     await page.getByRole("option").filter({ hasText: "species" }).first().dispatchEvent("mousedown");
@@ -145,6 +165,9 @@ describe.each([64, 500])("at %i steps", (steps) => {
     await page.locator(".cm-line", { hasText: "s4:" }).first().click();
     await expect.poll(lit, { timeout: 30_000 }).not.toBe(onS3);
     if (steps === 64) expect(await lit()).toContain("We + Qa");
+    // Wherever the caret's step is drawn, the view glides to it.
+    await settled(page);
+    expect(await litInView(page)).toBe(true);
     await page.close();
   });
 });

@@ -104,10 +104,10 @@ async function waitForQuiet(page: Page) {
 
 const p95 = (values: number[]) => [...values].sort((a, b) => a - b)[Math.ceil(values.length * 0.95) - 1];
 
-// Runs with TYPING_BENCHMARK=1. Its targets (ratio ≤ 1.5, no task of 50 ms) are not met yet: the
-// graph of a 500-step mechanism (about 700 boxes and 650 arrows, each its own layer of paint)
-// makes the browser re-layerize the whole page at every painted frame, 50–300 ms each here
-// (DEVELOPERS.md, Performance notes); left out of the default suite until the graph view is lighter.
+// Runs with TYPING_BENCHMARK=1. With the graph's arrows in one layer and its layouts in workers,
+// the ratio read 1.06, 2.35 and 1.15 in three runs here (DEVELOPERS.md, Performance notes), but on
+// this shared machine even the 3-step demo has tasks of 50 ms and more, so the long-task target
+// cannot be told apart from the load; left out of the default suite, which must not fail on load.
 it.runIf(process.env.TYPING_BENCHMARK === "1")("types as fast into 500 steps as into the 3-step demo, and no task blocks the page", { timeout: 900_000 }, async () => {
   const small = await typingCost(demo);
   const large = await typingCost(generatedOxidation(500));

@@ -1,7 +1,7 @@
 // A folded linkage class: one compact box in the class's tint naming the class and its size.
 // Clicking it unfolds the class.
-import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
-import { hiddenHandle, litHalo } from "./complex-node";
+import type { Node, NodeProps } from "@xyflow/react";
+import { litHalo } from "./complex-node";
 import type { ClassColours } from "./linkage-colours";
 
 export type ClassBoxData = {
@@ -32,9 +32,7 @@ export function ClassBoxView({ data }: NodeProps<ClassBoxNode>) {
       data-dim={data.dim || undefined}
       data-testid="class-box"
     >
-      <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       {data.label}
-      <Handle type="source" position={Position.Right} isConnectable={false} style={hiddenHandle} />
     </div>
   );
 }

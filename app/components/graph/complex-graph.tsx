@@ -4,34 +4,26 @@
 // species–step view is the reader's own picture. Both find and focus a species or a step, and light
 // up the step under the editor's caret.
 import "@xyflow/react/dist/style.css";
-import {
-  applyNodeChanges,
-  Background,
-  BackgroundVariant,
-  Controls,
-  type EdgeChange,
-  type NodeChange,
-  ReactFlow,
-  ReactFlowProvider,
-} from "@xyflow/react";
-import { useEffect, useId, useMemo, useRef, useState } from "react";
+import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow, ReactFlowProvider } from "@xyflow/react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import type * as Y from "yjs";
 import { ClassBoxView, type ClassBoxNode } from "./class-box-node";
 import { ComplexNodeView, type ComplexNode } from "./complex-node";
-import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, type FitOptions, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
+import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
+import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import { type CaretStep, caretStepIndex, type Emphasis, type FocusTarget, neighbourhood, searchEntries } from "./graph-focus";
 import { GraphLegend } from "./graph-legend";
-import { buildGraphModel, type ComplexGraphReport, type GraphModel } from "./graph-model";
+import { buildGraphModel, type ComplexGraphReport, type GraphModel, graphKey } from "./graph-model";
 import { GraphToolbar, type GraphView } from "./graph-toolbar";
 import { estimateNodeSize, type XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
 import { classBoxCorner, classBoxLabel, classKey, estimateClassBoxSize } from "./linkage-groups";
-import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
 import { SpeciesStepGraph } from "./species-step-graph";
 import { useComplexPositions } from "./use-complex-positions";
 import { useHeldComplexes } from "./use-held-complexes";
 import { type LinkageFolding, useLinkageFolding } from "./use-linkage-folding";
+import { useStable } from "./use-stable";
 
 export type { ComplexGraphReport } from "./graph-model";
 export type { CaretStep } from "./graph-focus";
@@ -70,7 +62,6 @@ interface Chosen {
 type GraphNode = ComplexNode | ClassBoxNode;
 
 const nodeTypes = { complex: ComplexNodeView, classBox: ClassBoxView };
-const edgeTypes = { reaction: ReactionEdgeView };
 
 /** Drags reach co-authors at most this often; the final position is always written. */
 const dragWriteInterval = 80;
@@ -89,8 +80,11 @@ export function ComplexGraph(props: ComplexGraphProps) {
   );
 }
 
-function GraphWorkspace(props: ComplexGraphProps) {
-  const { report, caretStep = null } = props;
+function GraphWorkspace({ report: latest, ...props }: ComplexGraphProps) {
+  const { caretStep = null } = props;
+  // Every analysis brings a new report; one that draws the same graph keeps the previous object,
+  // so a keystroke that leaves the network alone rebuilds and redraws nothing here.
+  const report = useStable(latest, useMemo(() => graphKey(latest), [latest]));
   const [view, setView] = useState<GraphView>("complexes");
   // Held by kind and name, so the focus survives edits that renumber species and steps.
   const [focused, setFocused] = useState<{ kind: FocusTarget["kind"]; name: string; at: number } | null>(null);
@@ -102,8 +96,10 @@ function GraphWorkspace(props: ComplexGraphProps) {
   const emphasis = useMemo<Emphasis>(
     () => ({
       focus: report && focusEntry ? neighbourhood(report, focusEntry) : null,
+      focused: focusEntry ? { kind: focusEntry.kind, index: focusEntry.index } : null,
       caret: report && caretIndex !== null ? neighbourhood(report, { kind: "step", index: caretIndex }) : null,
       focusKey: focusEntry ? `${focusEntry.kind}:${focusEntry.name}:${focused?.at}` : "",
+      caretKey: caretIndex === null ? "" : `step:${caretIndex}`,
     }),
     [report, focusEntry, caretIndex, focused?.at],
   );
@@ -133,7 +129,7 @@ function GraphWorkspace(props: ComplexGraphProps) {
       />
       <ReactFlowProvider key={view}>
         {view === "complexes" ? (
-          <SharedComplexGraph {...props} folding={folding} emphasis={emphasis} />
+          <SharedComplexGraph {...props} report={report} folding={folding} emphasis={emphasis} />
         ) : (
           <SpeciesStepGraph report={report} emphasis={emphasis} />
         )}
@@ -162,8 +158,6 @@ function SharedComplexGraph({
   const lastWrite = useRef(new Map<string, number>());
   // Until the reader pans or zooms, the view follows the graph as complexes come and go.
   const [viewTouched, setViewTouched] = useState(false);
-  const markerBase = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
-  const marker = useMemo(() => ({ normal: markerBase, selected: `${markerBase}-selected` }), [markerBase]);
   const folded = folding.folded;
 
   // A large mechanism starts folded: the first fit shows what is unfolded, at a readable size.
@@ -181,30 +175,24 @@ function SharedComplexGraph({
     setNodes((previous) => buildNodes(model, report, folded, positions.all, previous));
   }, [model, report, folded, positions.all]);
 
-  const previousEdges = useRef<ReactionEdge[]>([]);
-  const edges = useMemo(() => {
+  const arrows = useMemo(() => {
     const classOf = new Map(model?.nodes.map((node) => [node.key, node.linkageClass]));
-    const built = (model?.edges ?? [])
+    return (model?.edges ?? [])
       .filter((edge) => !folded.has(classOf.get(edge.source) ?? -1))
-      .map((edge): ReactionEdge => ({
-        id: edge.id,
-        type: "reaction",
-        source: edge.source,
-        target: edge.target,
-        selected: selected?.kind === "reaction" && selected.id === edge.id,
-        ariaLabel: edge.description,
-        data: {
+      .map(
+        (edge): Arrow => ({
+          id: edge.id,
+          source: edge.source,
+          target: edge.target,
           bend: edge.bend,
           label: edge.label,
           description: edge.description,
-          marker,
+          selected: selected?.kind === "reaction" && selected.id === edge.id,
           lit: Boolean(emphasis.caret?.reactions.has(edge.index) || emphasis.focus?.reactions.has(edge.index)),
           dim: Boolean(emphasis.focus && !emphasis.focus.reactions.has(edge.index)),
-        },
-      }));
-    previousEdges.current = keepUnchanged(previousEdges.current, built, sameEdge);
-    return previousEdges.current;
-  }, [model, folded, selected, marker, emphasis]);
+        }),
+      );
+  }, [model, folded, selected, emphasis]);
 
   // Selection, co-authors' holds and emphasis are laid over the nodes last; a node keeps its
   // object when none changed, so React Flow does not redraw it.
@@ -227,8 +215,19 @@ function SharedComplexGraph({
     });
   }, [nodes, selected, held, emphasis, model, report]);
 
-  // Clicks and the keyboard (Enter on a focused node or arrow) both arrive as React Flow's select
-  // changes; a ref lets repeated reports of one choice reach the page once.
+  const boxes = useMemo(() => nodeBoxes(nodes), [nodes]);
+  // The caret's complexes, or the boxes of the folded classes that hold them.
+  const caretIds = useMemo(() => {
+    const caret = emphasis.caret;
+    if (!caret || !model || !report) return [];
+    const ids = model.nodes
+      .filter((node) => caret.complexes.has(node.index))
+      .map((node) => (folded.has(node.linkageClass) ? `${classBoxPrefix}${classKey(report, node.linkageClass)}` : node.key));
+    return [...new Set(ids)];
+  }, [emphasis.caret, model, report, folded]);
+
+  // Clicks and the keyboard (Enter on a focused node) arrive as React Flow's select changes, on an
+  // arrow from the arrow layer; a ref lets repeated reports of one choice reach the page once.
   const chosen = useRef(selected);
   const select = (next: Chosen | null) => {
     if (next?.kind === chosen.current?.kind && next?.id === chosen.current?.id) return;
@@ -242,13 +241,9 @@ function SharedComplexGraph({
         : model.edges.find((edge) => edge.id === next.id)?.index;
     if (index !== undefined) onSelect({ kind: next.kind, index });
   };
-  const pickFrom = (kind: Chosen["kind"], changes: (NodeChange<GraphNode> | EdgeChange<ReactionEdge>)[]) => {
-    const picked = changes.find((change) => change.type === "select" && change.selected && !change.id.startsWith(classBoxPrefix));
-    if (picked?.type === "select") select({ kind, id: picked.id });
-  };
-
   const onNodesChange = (changes: NodeChange<GraphNode>[]) => {
-    pickFrom("complex", changes);
+    const picked = changes.find((change) => change.type === "select" && change.selected && !change.id.startsWith(classBoxPrefix));
+    if (picked?.type === "select") select({ kind: "complex", id: picked.id });
     // Selection is ours (it mirrors into the text); React Flow keeps only geometry.
     const geometry = changes.filter((change) => change.type === "position" || change.type === "dimensions");
     setNodes((current) => applyNodeChanges(geometry, current));
@@ -277,14 +272,10 @@ function SharedComplexGraph({
   return (
     <>
       <div className="relative min-h-0 flex-1">
-        <ArrowheadMarkers ids={marker} />
-        <ReactFlow<GraphNode, ReactionEdge>
+        <ReactFlow<GraphNode>
           nodes={shownNodes}
-          edges={edges}
           nodeTypes={nodeTypes}
-          edgeTypes={edgeTypes}
           onNodesChange={onNodesChange}
-          onEdgesChange={(changes) => pickFrom("reaction", changes)}
           onNodeClick={(_, node) => node.type === "classBox" && folding.unfold([node.data.classIndex])}
           onPaneClick={() => select(null)}
           onNodeDragStart={(_, node) => hold(node.id)}
@@ -306,7 +297,9 @@ function SharedComplexGraph({
         >
           <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
           <Controls showInteractive={false} position="bottom-left" />
+          <ArrowLayer arrows={arrows} boxes={boxes} onPick={(id) => select({ kind: "reaction", id })} />
           <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
+          <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
           <CentreOnFocus
             focusKey={emphasis.focusKey}
             ids={model.nodes.filter((node) => emphasis.focus?.complexes.has(node.index)).map((node) => node.key)}
@@ -329,7 +322,8 @@ function buildNodes(
   if (!model || !report) return [];
   const before = new Map(previous.map((node) => [node.id, node]));
   const complexes = model.nodes
-    .filter((complex) => !folded.has(complex.linkageClass))
+    // A complex is drawn once it has a place (the placement worker may still be at it).
+    .filter((complex) => !folded.has(complex.linkageClass) && (positions[complex.key] || before.has(complex.key)))
     .map((complex): ComplexNode => {
       const old = before.get(complex.key) as ComplexNode | undefined;
       return {
@@ -359,6 +353,7 @@ function buildNodes(
     const label = classBoxLabel(classIndex, members.length);
     const old = before.get(id) as ClassBoxNode | undefined;
     const corners = members.flatMap((member) => positions[report.complexes[member]] ?? []);
+    if (corners.length === 0) return [];
     return [
       {
         ...old,
@@ -385,15 +380,3 @@ const sameNode = (old: GraphNode, next: GraphNode) =>
   old.data.colours.fill === next.data.colours.fill &&
   old.data.colours.rim === next.data.colours.rim &&
   (old.type !== "complex" || next.type !== "complex" || old.data.terminal === next.data.terminal);
-
-const sameEdge = (old: ReactionEdge, next: ReactionEdge) =>
-  old.source === next.source &&
-  old.target === next.target &&
-  old.selected === next.selected &&
-  old.ariaLabel === next.ariaLabel &&
-  old.data?.bend === next.data?.bend &&
-  old.data?.label === next.data?.label &&
-  old.data?.description === next.data?.description &&
-  old.data?.marker === next.data?.marker &&
-  old.data?.lit === next.data?.lit &&
-  old.data?.dim === next.data?.dim;

@@ -1,7 +1,7 @@
 // One complex as a box: tinted by its linkage class (rim pattern too, once hues repeat), with a
 // double rim when it belongs to a terminal strong linkage class, and a dashed ring with a name
 // while a co-author drags it.
-import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
+import type { Node, NodeProps } from "@xyflow/react";
 import { useEffect, useRef } from "react";
 import type { ClassColours } from "./linkage-colours";
 import type { Holder } from "./use-held-complexes";
@@ -22,10 +22,6 @@ export type ComplexNodeData = {
 };
 
 export type ComplexNode = Node<ComplexNodeData, "complex">;
-
-// Arrows are drawn centre to centre (see edge-geometry), so handles exist only because React Flow
-// attaches edges to them; they stay invisible and cannot start a connection.
-export const hiddenHandle = { opacity: 0, pointerEvents: "none", width: 1, height: 1, minWidth: 0, minHeight: 0, border: 0 } as const;
 
 const plainRim = 1.5;
 /** The step under the caret and a focused neighbourhood glow in the signal colour, apart from selection's accent. */
@@ -74,9 +70,7 @@ export function ComplexNodeView({ data, selected }: NodeProps<ComplexNode>) {
           {data.heldBy.name}
         </span>
       )}
-      <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       {data.label}
-      <Handle type="source" position={Position.Right} isConnectable={false} style={hiddenHandle} />
     </div>
   );
 }

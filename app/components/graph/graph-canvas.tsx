@@ -1,6 +1,6 @@
-// What both views of the graph share on their React Flow canvas: the theme, the arrowheads,
+// What both views of the graph share on their React Flow canvas: the theme,
 // fitting while the reader has not taken the view, and keeping unchanged items' objects.
-import { useNodesInitialized, useReactFlow, useStore } from "@xyflow/react";
+import { getViewportForBounds, useNodesInitialized, useReactFlow, useStore } from "@xyflow/react";
 import { type CSSProperties, useEffect, useRef } from "react";
 
 // React Flow's own colours, pointed at Mechweave's theme variables so both themes just work.
@@ -100,47 +100,77 @@ function useDrawable(): boolean {
   return measured || estimated;
 }
 
-export function ArrowheadMarkers({ ids }: { ids: { normal: string; selected: string } }) {
-  return (
-    <svg className="absolute h-0 w-0" aria-hidden="true">
-      <defs>
-        {[
-          [ids.normal, "var(--mw-muted)"],
-          [ids.selected, "var(--mw-accent)"],
-        ].map(([id, colour]) => (
-          <marker
-            key={id}
-            id={id}
-            viewBox="0 0 10 10"
-            refX="9"
-            refY="5"
-            markerWidth="9"
-            markerHeight="9"
-            markerUnits="userSpaceOnUse"
-            orient="auto-start-reverse"
-          >
-            <path d="M 0 0.5 L 10 5 L 0 9.5 z" style={{ fill: colour }} />
-          </marker>
-        ))}
-      </defs>
-    </svg>
-  );
-}
-
 /**
  * Centres the view on a newly focused neighbourhood once its nodes are drawn (unfolding may have
- * just added them), and hands the view to the reader.
+ * just added them), and hands the view to the reader. With `minZoom`, a neighbourhood too large
+ * to fit readably is not fitted: the view centres on `centre` (the focused item's own node) at
+ * that zoom, and its arcs lead to the rest.
  */
-export function CentreOnFocus({ focusKey, ids, onCentred }: { focusKey: string; ids: string[]; onCentred(): void }) {
+export function CentreOnFocus({
+  focusKey,
+  ids,
+  onCentred,
+  minZoom,
+  centre,
+}: {
+  focusKey: string;
+  ids: string[];
+  onCentred(): void;
+  minZoom?: number;
+  centre?: string;
+}) {
   const drawable = useDrawable();
-  const { fitView, getNode } = useReactFlow();
+  const { fitView, getNode, getNodesBounds, setCenter } = useReactFlow();
+  const width = useStore((state) => state.width);
+  const height = useStore((state) => state.height);
   const done = useRef("");
   useEffect(() => {
     if (!focusKey || done.current === focusKey || !drawable || ids.length === 0) return;
     if (!ids.every((id) => getNode(id))) return;
     done.current = focusKey;
     onCentred();
-    void fitView({ nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, duration: 300 });
+    const fit = { nodes: ids.map((id) => ({ id })), padding: 0.25, maxZoom: 1.2, duration: 300 };
+    const own = centre ? getNode(centre) : undefined;
+    if (minZoom !== undefined && own && getViewportForBounds(getNodesBounds(ids), width, height, 0, fit.maxZoom, fit.padding).zoom < minZoom) {
+      const bounds = getNodesBounds([own]);
+      void setCenter(bounds.x + bounds.width / 2, bounds.y + bounds.height / 2, { zoom: minZoom, duration: 300 });
+      return;
+    }
+    void fitView({ ...fit, minZoom });
+  });
+  return null;
+}
+
+/**
+ * Glides the view, at its present zoom, to the step under the editor's caret when none of its
+ * nodes is on screen, so moving through the text keeps the lit step in sight. `caretKey` changes
+ * when the caret reaches another step; a step still being placed is followed once it is drawn.
+ */
+export function FollowCaret({ caretKey, ids }: { caretKey: string; ids: string[] }) {
+  const { getInternalNode, getViewport, setCenter } = useReactFlow();
+  const width = useStore((state) => state.width);
+  const height = useStore((state) => state.height);
+  const done = useRef("");
+  useEffect(() => {
+    if (!caretKey || done.current === caretKey || width === 0) return;
+    const boxes = ids.flatMap((id) => {
+      const node = getInternalNode(id);
+      if (!node) return [];
+      const { x, y } = node.internals.positionAbsolute;
+      return [{ x, y, width: node.measured.width ?? node.initialWidth ?? 0, height: node.measured.height ?? node.initialHeight ?? 0 }];
+    });
+    if (boxes.length === 0) return;
+    done.current = caretKey;
+    const view = getViewport();
+    const onScreen = boxes.some(
+      (box) => box.x * view.zoom + view.x >= 0 && box.y * view.zoom + view.y >= 0 && (box.x + box.width) * view.zoom + view.x <= width && (box.y + box.height) * view.zoom + view.y <= height,
+    );
+    if (onScreen) return;
+    const left = Math.min(...boxes.map((box) => box.x));
+    const top = Math.min(...boxes.map((box) => box.y));
+    const right = Math.max(...boxes.map((box) => box.x + box.width));
+    const bottom = Math.max(...boxes.map((box) => box.y + box.height));
+    void setCenter((left + right) / 2, (top + bottom) / 2, { zoom: view.zoom, duration: 250 });
   });
   return null;
 }

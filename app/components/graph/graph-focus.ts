@@ -24,8 +24,12 @@ export interface Neighbourhood {
 export interface Emphasis {
   focus: Neighbourhood | null;
   caret: Neighbourhood | null;
+  /** The focused species or step itself, the middle of its neighbourhood. */
+  focused: FocusTarget | null;
   /** Changes whenever the reader focuses something, so the view can centre on it. */
   focusKey: string;
+  /** Changes whenever the caret reaches another step, so the view can follow it; empty without one. */
+  caretKey: string;
 }
 
 const shownMatches = 12;

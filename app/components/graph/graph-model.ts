@@ -73,6 +73,13 @@ export function buildGraphModel(report: ComplexGraphReport): GraphModel {
   return { nodes, edges, linkageClassCount: report.linkageClasses.length };
 }
 
+/** Equal for two reports that draw the same graph: the fields above, and nothing else of the analysis. */
+export function graphKey(report: ComplexGraphReport | null): string {
+  if (!report) return "";
+  const { complexes, reactions, linkageClasses, terminalStrongLinkageClasses, fixedSpecies, species, steps } = report;
+  return JSON.stringify([complexes, reactions, linkageClasses, terminalStrongLinkageClasses, fixedSpecies, species, steps]);
+}
+
 /** A rate coefficient short enough to sit beside an arrow: four significant digits at most. */
 export function rateText(rate: number): string {
   const magnitude = Math.abs(rate);

@@ -1,29 +1,31 @@
 // The species–step view: species as boxes, steps as small squares, arcs labelled with coefficients
 // above 1 (on zoom). The picture is the reader's own: laid out in a worker, dragged locally.
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
-import { useEffect, useId, useMemo, useState } from "react";
-import { ArrowheadMarkers, CentreOnFocus, FitWhileUntouched, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
+import { useEffect, useMemo, useState } from "react";
+import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
+import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { ComplexGraphReport } from "./graph-model";
-import { edgeLabelZoom, ReactionEdgeView, type ReactionEdge } from "./reaction-edge";
-import { buildSpeciesStepModel, estimateSpeciesStepSize, speciesNodeId, stepNodeId } from "./species-step-model";
+import type { XY } from "./layout";
+import { buildSpeciesStepModel, estimateSpeciesStepSize, largestClass, type SpeciesStepModel, speciesNodeId, stepNodeId } from "./species-step-model";
 import { type SpeciesNode, SpeciesNodeView, type StepNode, StepNodeView } from "./species-step-nodes";
-import { useSpeciesStepLayout } from "./use-species-step-layout";
+import { useLayoutWorker } from "./use-layout-worker";
 
 type SpeciesStepNode = SpeciesNode | StepNode;
 
 const nodeTypes = { species: SpeciesNodeView, step: StepNodeView };
-const edgeTypes = { reaction: ReactionEdgeView };
-/** Never fitted smaller than labels can be read: a large picture opens on its middle, to pan or search. */
-const fitOptions = { padding: 0.1, maxZoom: 1.15, minZoom: edgeLabelZoom };
+/** Step labels (11 px) stay at 9 px on screen or more: a large picture opens on its largest class, to pan or search. */
+const readableZoom = Math.max(edgeLabelZoom, 9 / 11);
 
 export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphReport | null; emphasis: Emphasis }) {
+  // The report is new only when the graph changed (see complex-graph), and so is the model.
   const model = useMemo(() => (report?.steps ? buildSpeciesStepModel(report) : null), [report]);
-  const positions = useSpeciesStepLayout(model);
+  const positions = useLayoutWorker<SpeciesStepModel, Record<string, XY>>(
+    () => new Worker(new URL("./species-step-layout.worker.ts", import.meta.url), { type: "module" }),
+    useMemo(() => (model ? { key: JSON.stringify(model), message: model } : null), [model]),
+  );
   const [nodes, setNodes] = useState<SpeciesStepNode[]>([]);
   const [viewTouched, setViewTouched] = useState(false);
-  const markerBase = `mw-arc-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
-  const marker = useMemo(() => ({ normal: markerBase, selected: `${markerBase}-selected` }), [markerBase]);
 
   // A new model is drawn once its layout arrives; until then the previous picture stays.
   useEffect(() => {
@@ -51,6 +53,19 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
     () => (emphasis.focus ? [...[...emphasis.focus.species].map((index) => speciesNodeId(species[index])), ...[...emphasis.focus.steps].map(stepNodeId)] : []),
     [emphasis.focus, species],
   );
+  const focused = emphasis.focused;
+  const focusedId = focused ? (focused.kind === "species" ? speciesNodeId(species[focused.index]) : stepNodeId(focused.index)) : undefined;
+  // The view opens on the largest linkage class: its steps and their species.
+  const fitOptions = useMemo((): FitOptions => {
+    const plain = { padding: 0.1, maxZoom: 1.15, minZoom: readableZoom };
+    const largest = model ? largestClass(model) : null;
+    if (!model || largest === null) return plain;
+    const steps = new Set(model.nodes.filter((node) => node.linkageClass === largest).map((node) => node.id));
+    const ids = new Set(steps);
+    for (const { source, target } of model.arcs) if (steps.has(source) || steps.has(target)) [source, target].forEach((id) => ids.add(id));
+    return { ...plain, nodes: [...ids].map((id) => ({ id })) };
+  }, [model]);
+  const caretIds = useMemo(() => (emphasis.caret ? [...emphasis.caret.steps].map(stepNodeId) : []), [emphasis.caret]);
   const litIds = useMemo(() => {
     const ids = new Set(focusIds);
     if (emphasis.caret) {
@@ -70,28 +85,24 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
     });
   }, [nodes, litIds, focusIds, emphasis.focus]);
 
-  const edges = useMemo(
+  const arrows = useMemo(
     () =>
       (model?.arcs ?? []).map(
-        (arc): ReactionEdge => ({
+        (arc): Arrow => ({
           id: arc.id,
-          type: "reaction",
           source: arc.source,
           target: arc.target,
-          ariaLabel: arc.description,
-          data: {
-            bend: 0,
-            label: arc.label,
-            description: arc.description,
-            marker,
-            twoWay: arc.twoWay,
-            lit: Boolean(emphasis.caret?.steps.has(arc.step) || emphasis.focus?.steps.has(arc.step)),
-            dim: Boolean(emphasis.focus && !emphasis.focus.steps.has(arc.step)),
-          },
+          bend: 0,
+          label: arc.label,
+          description: arc.description,
+          twoWay: arc.twoWay,
+          lit: Boolean(emphasis.caret?.steps.has(arc.step) || emphasis.focus?.steps.has(arc.step)),
+          dim: Boolean(emphasis.focus && !emphasis.focus.steps.has(arc.step)),
         }),
       ),
-    [model, marker, emphasis],
+    [model, emphasis],
   );
+  const boxes = useMemo(() => nodeBoxes(nodes), [nodes]);
 
   if (!model || model.nodes.length === 0) {
     return <div className="flex h-full items-center justify-center p-6 text-center text-sm text-muted">Species and steps appear here once the text has a reaction step.</div>;
@@ -101,12 +112,9 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
   }
   return (
     <div className="relative min-h-0 flex-1" data-testid="species-step-graph">
-      <ArrowheadMarkers ids={marker} />
-      <ReactFlow<SpeciesStepNode, ReactionEdge>
+      <ReactFlow<SpeciesStepNode>
         nodes={shownNodes}
-        edges={edges}
         nodeTypes={nodeTypes}
-        edgeTypes={edgeTypes}
         onNodesChange={(changes: NodeChange<SpeciesStepNode>[]) =>
           setNodes((current) => applyNodeChanges(changes.filter((change) => change.type === "position" || change.type === "dimensions"), current))
         }
@@ -122,8 +130,16 @@ export function SpeciesStepGraph({ report, emphasis }: { report: ComplexGraphRep
       >
         <Background variant={BackgroundVariant.Dots} gap={22} size={1.3} />
         <Controls showInteractive={false} position="bottom-left" />
+        <ArrowLayer arrows={arrows} boxes={boxes} />
         <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
-        <CentreOnFocus focusKey={emphasis.focusKey} ids={focusIds} onCentred={() => setViewTouched(true)} />
+        <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
+        <CentreOnFocus
+          focusKey={emphasis.focusKey}
+          ids={focusIds}
+          minZoom={readableZoom}
+          centre={focusedId}
+          onCentred={() => setViewTouched(true)}
+        />
       </ReactFlow>
     </div>
   );

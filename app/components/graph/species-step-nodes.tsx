@@ -1,7 +1,7 @@
 // The two kinds of node of the species–step view: a species as a plain box, a step as a small
 // square with its label beside it, so the species stand out and the steps stay out of the way.
-import { Handle, type Node, type NodeProps, Position } from "@xyflow/react";
-import { hiddenHandle, litHalo } from "./complex-node";
+import type { Node, NodeProps } from "@xyflow/react";
+import { litHalo } from "./complex-node";
 
 export type SpeciesStepData = {
   label: string;
@@ -22,9 +22,7 @@ export function SpeciesNodeView({ data, selected }: NodeProps<SpeciesNode>) {
       data-lit={data.lit || undefined}
       data-dim={data.dim || undefined}
     >
-      <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       {data.label}
-      <Handle type="source" position={Position.Right} isConnectable={false} style={hiddenHandle} />
     </div>
   );
 }
@@ -33,11 +31,9 @@ export function StepNodeView({ data, selected }: NodeProps<StepNode>) {
   const colour = selected ? "var(--mw-accent)" : data.lit ? "var(--mw-signal)" : "var(--mw-muted)";
   return (
     <div className="relative h-3.5 w-3.5 rounded-[3px]" style={{ background: colour, opacity: data.dim ? 0.2 : 1 }} title={data.description} data-lit={data.lit || undefined} data-dim={data.dim || undefined}>
-      <Handle type="target" position={Position.Left} isConnectable={false} style={hiddenHandle} />
       <span className="absolute top-1/2 left-[18px] -translate-y-1/2 font-mono text-[11px] leading-none whitespace-nowrap" style={{ color: data.lit ? "var(--mw-signal)" : "var(--mw-muted)" }}>
         {data.label}
       </span>
-      <Handle type="source" position={Position.Right} isConnectable={false} style={hiddenHandle} />
     </div>
   );
 }

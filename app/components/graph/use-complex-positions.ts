@@ -1,10 +1,14 @@
 // Where every complex of the graph is drawn: the shared positions, plus dagre's placements for
-// complexes nobody has placed yet.
-import { useEffect, useMemo, useState } from "react";
+// complexes nobody has placed yet, computed in a web worker. A complex waiting for its place is
+// not drawn yet; a report that brings no new complex asks for no placement at all.
+import { useEffect, useMemo, useRef, useState } from "react";
 import type * as Y from "yjs";
-import { complexLabel, type ComplexGraphReport } from "./graph-model";
-import { estimateNodeSize, placeComplexes, type XY } from "./layout";
+import type { ComplexGraphReport } from "./graph-model";
+import type { PlacementInput, XY } from "./layout";
+import { useLayoutWorker } from "./use-layout-worker";
 import { useSharedLayout } from "./use-shared-layout";
+
+type PlacementRequest = Omit<PlacementInput, "sizeOf">;
 
 /**
  * An editor in a synced room writes its placements to the shared map for all to see; a viewer, or
@@ -24,23 +28,28 @@ export function useComplexPositions(
   useEffect(() => setLocal({}), [synced, layout]);
 
   const known = useMemo(() => ({ ...local, ...shared.positions }), [local, shared.positions]);
-  const placed = useMemo(() => {
-    if (!report) return {};
-    return placeComplexes({
-      keys: report.complexes,
-      reactions: report.reactions,
-      linkageClasses: report.linkageClasses,
-      known,
-      sizeOf: (key) => estimateNodeSize(complexLabel(key)),
-    });
+  const request = useMemo(() => {
+    const missing = report?.complexes.filter((key) => !(key in known)) ?? [];
+    if (!report || missing.length === 0) return null;
+    const message: PlacementRequest = { keys: report.complexes, reactions: report.reactions, linkageClasses: report.linkageClasses, known };
+    // The same complexes missing against the same placed ones get the same places.
+    return { key: `${missing.join("\n")}\n${Object.keys(known).length}`, message };
   }, [report, known]);
+  const placed = useLayoutWorker<PlacementRequest, Record<string, XY>>(
+    () => new Worker(new URL("./complex-placement.worker.ts", import.meta.url), { type: "module" }),
+    request,
+  );
 
+  // A placement answers the picture it was asked about: whatever a co-author placed meanwhile stays.
+  const latestKnown = useRef(known);
+  latestKnown.current = known;
   useEffect(() => {
-    if (Object.keys(placed).length === 0) return;
-    if (sharing) shared.write(placed);
-    else setLocal((current) => ({ ...current, ...placed }));
+    if (!placed) return;
+    const fresh = Object.fromEntries(Object.entries(placed).filter(([key]) => !(key in latestKnown.current)));
+    if (Object.keys(fresh).length === 0) return;
+    if (sharing) shared.write(fresh);
+    else setLocal((current) => ({ ...current, ...fresh }));
   }, [placed, sharing, shared.write]);
 
-  const all = useMemo(() => ({ ...known, ...placed }), [known, placed]);
-  return { all, write: shared.write };
+  return { all: known, write: shared.write };
 }
