@@ -1,11 +1,11 @@
-// One zod schema per job kind — simulate, equilibrium, Lyapunov, sweep, realize — used by the
+// One zod schema per job kind — simulate, equilibrium, Lyapunov, sweep, realize, fit, sensitivity — used by the
 // HTTP API (to read bodies), the command line (to check its flags) and the worker (to check what
 // crossed into it), so every door refuses the same input with the same words; the job types are
 // `z.infer` of these. The numbers are the library's limits (app/chem/limits.ts); the shared
 // server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
 import { z } from "zod";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
-import { MAX_COMPLEX_CHARS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { byteSize, MAX_COMPLEX_CHARS, MAX_CSV_BYTES, MAX_EXTRA_COMPLEXES, MAX_FIT_DATA_SETS, MAX_FIT_PARAMETERS, MAX_NAME_CHARS, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
@@ -63,6 +63,37 @@ export const realizeSettings = z.object({
     .optional(),
 });
 
+/** What a fit or a sensitivity run varies: parameter names, or initial values as `[X]0`. */
+const varyField = z
+  .array(cleanText("A parameter name").min(1, "A parameter name is empty.").max(MAX_OVERRIDE_NAME_CHARS, `Keep each parameter name under ${MAX_OVERRIDE_NAME_CHARS} characters.`))
+  .max(MAX_FIT_PARAMETERS, `Vary at most ${MAX_FIT_PARAMETERS} parameters at once.`);
+
+/** A measured time course as CSV text: a `time` column and one column per species. */
+export const dataSetField = z.object({
+  name: cleanText("The data set's name").trim().min(1, "Name the data set.").max(MAX_NAME_CHARS, `Keep the data set's name under ${MAX_NAME_CHARS} characters.`),
+  csv: cleanText("The CSV").refine((csv) => new TextEncoder().encode(csv).length <= MAX_CSV_BYTES, `A data set is at most ${byteSize(MAX_CSV_BYTES)} of CSV.`),
+});
+export type DataSetText = z.infer<typeof dataSetField>;
+
+const positive = (what: string) => z.number().positive(`${what} must be a positive number (parameters are fitted in log space)`).finite(`${what} must be finite`);
+
+/** A weighted least-squares fit of the varied parameters to one or more data sets, each an experiment. */
+export const fitSettings = z.object({
+  vary: varyField.min(1, "Name at least one parameter to vary."),
+  /** Optional bounds per varied parameter. */
+  bounds: z.record(z.string(), z.object({ low: positive("a lower bound").optional(), high: positive("an upper bound").optional() })).optional(),
+  data: z.array(dataSetField).min(1, "Give at least one data set.").max(MAX_FIT_DATA_SETS, `A fit reads at most ${MAX_FIT_DATA_SETS} data sets.`),
+});
+
+/** Normalized sensitivities ∂ln x/∂ln p over [0, until] (default: every named rate coefficient). */
+export const sensitivitySettings = integrationSettings.extend({
+  until: untilField,
+  samples: samplesField(MAX_SWEEP_SAMPLES),
+  vary: varyField.optional(),
+});
+
+export type FitSettings = z.infer<typeof fitSettings>;
+export type SensitivitySettings = z.infer<typeof sensitivitySettings>;
 export type SimulateSettings = z.infer<typeof simulateSettings>;
 export type EquilibriumSettings = z.infer<typeof equilibriumSettings>;
 export type LyapunovSettings = z.infer<typeof lyapunovSettings>;

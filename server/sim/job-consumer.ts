@@ -14,7 +14,7 @@ const IDLE_POLL_MS = 1_000;
 
 /** The envelope of a queued job; the job's own settings are checked by its schema in the worker thread. */
 const queuedJobData = z.object({
-  job: z.looseObject({ kind: z.enum(["simulate", "lyapunov", "equilibrium", "sweep", "realize"]) }),
+  job: z.looseObject({ kind: z.enum(["simulate", "lyapunov", "equilibrium", "sweep", "fit", "sensitivity", "realize"]) }),
 });
 
 export interface ConsumerOptions {

@@ -23,19 +23,25 @@ import { realizeOde, type RealizeOdeResult } from "~/chem/realize/realize-ode";
 import { RealizeRequestError } from "~/chem/realize/request-error";
 import {
   equilibriumSettings,
+  fitSettings,
   lyapunovSettings,
+  sensitivitySettings,
   overrides,
   realizeRequest,
   simulateSettings,
   sweepSettings,
   type EquilibriumSettings,
+  type FitSettings,
   type LyapunovSettings,
+  type SensitivitySettings,
   type Overrides,
   type RealizeRequest,
   type SimulateSettings,
   type SweepSettings,
 } from "~/shared/job-schemas";
 import { firstProblem } from "~/shared/fields";
+import type { SensitivityResult } from "~/chem/fit/types";
+import { runFit, runSensitivity } from "./fit-job";
 
 /**
  * `text` and `odeText` are a mechanism and a polynomial ODE not yet parsed: the worker parses them,
@@ -53,7 +59,9 @@ export type DynamicsJob =
   | { kind: "simulate"; model: DynamicsModel; settings: SimulateSettings }
   | { kind: "lyapunov"; model: DynamicsModel; options: LyapunovSettings }
   | { kind: "equilibrium"; model: DynamicsModel; options: EquilibriumSettings }
-  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings };
+  | { kind: "sweep"; model: DynamicsModel; options: SweepSettings }
+  | { kind: "fit"; model: DynamicsModel; options: FitSettings }
+  | { kind: "sensitivity"; model: DynamicsModel; options: SensitivitySettings };
 
 /** A realization request, with the time its searches for equivalents may take together. */
 export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
@@ -79,6 +87,8 @@ export interface DynamicsResults {
   lyapunov: LyapunovResult;
   equilibrium: EquilibriumResult;
   sweep: SweepResult;
+  fit: ReturnType<typeof runFit>;
+  sensitivity: SensitivityResult;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
@@ -161,7 +171,11 @@ function checkSettings(job: DynamicsJob): void {
         ? equilibriumSettings.safeParse(job.options)
         : job.kind === "lyapunov"
           ? lyapunovSettings.safeParse(job.options)
-          : sweepSettings.safeParse(job.options);
+          : job.kind === "fit"
+            ? fitSettings.safeParse(job.options)
+            : job.kind === "sensitivity"
+              ? sensitivitySettings.safeParse(job.options)
+              : sweepSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
   if (job.model.kind === "text" && job.model.overrides) {
     const checkedOverrides = overrides.safeParse(job.model.overrides);
@@ -196,7 +210,7 @@ function checkSize(job: DynamicsJob, model: ParsedModel, limits: SizeLimits): vo
   const { variables, reactions } = modelSize(model);
   if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`, "size");
   if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`, "size");
-  const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" ? job.options.samples : 0;
+  const samples = job.kind === "simulate" ? job.settings.samples : job.kind === "sweep" || job.kind === "sensitivity" ? job.options.samples : 0;
   if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`, "size");
   const points = job.kind === "sweep" ? job.options.points : 0;
   if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`, "size");
@@ -217,6 +231,12 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
     case "sweep":
       if (model.kind === "ode") throw new SimulationInputError("sweeps vary a mechanism's rate coefficients or initial concentrations");
       return sweepNetwork(model.mechanism, model.network, { ...job.options, ...hooks });
+    case "fit":
+      if (model.kind === "ode") throw new SimulationInputError("fits vary a mechanism's rate coefficients or initial concentrations");
+      return runFit(model.mechanism, job.options, hooks);
+    case "sensitivity":
+      if (model.kind === "ode") throw new SimulationInputError("sensitivities are computed for a mechanism's parameters");
+      return runSensitivity(model.mechanism, job.options, hooks);
   }
 }
 
