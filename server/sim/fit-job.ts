@@ -1,4 +1,4 @@
-// The two estimation jobs, fit and sensitivity, on a parsed mechanism: the data sets' CSV texts
+// The estimation jobs — fit and sensitivity on a parsed mechanism, and reading an upload —: the data sets' CSV texts
 // are read here, in the worker (a 5 MiB upload must not stall the server), against the model's
 // species, and the numerics of app/chem/fit do the rest.
 import { computeSensitivities } from "~/chem/fit/sensitivity";
@@ -34,4 +34,17 @@ export function runFit(mechanism: Mechanism, settings: FitSettings, hooks: JobHo
 
 export function runSensitivity(mechanism: Mechanism, settings: SensitivitySettings, hooks: JobHooks): SensitivityResult {
   return computeSensitivities(mechanism, settings, { signal: hooks.signal });
+}
+
+/** What an upload holds (columns besides time, rows), or why it cannot be read as a data set. */
+export type DataCheck = { columns: string[]; rows: number; warnings: string[] } | { refusal: string };
+
+export function checkDataSet(csv: string): DataCheck {
+  try {
+    const { experiment, warnings } = readExperimentCsv(csv, "upload", {});
+    return { columns: Object.keys(experiment.series), rows: experiment.time.length, warnings };
+  } catch (error) {
+    if (error instanceof Error && error.name === "CsvError") return { refusal: error.message };
+    throw error;
+  }
 }

@@ -41,7 +41,7 @@ import {
 } from "~/shared/job-schemas";
 import { firstProblem } from "~/shared/fields";
 import type { SensitivityResult } from "~/chem/fit/types";
-import { runFit, runSensitivity } from "./fit-job";
+import { checkDataSet, runFit, runSensitivity, type DataCheck } from "./fit-job";
 
 /**
  * `text` and `odeText` are a mechanism and a polynomial ODE not yet parsed: the worker parses them,
@@ -75,12 +75,15 @@ export type ExportResult = { body: string } | { refusal: string; tooLarge: boole
 
 export type ImportJob = { kind: "import"; xml: string };
 
+/** An uploaded data set read as a fit will read it, to refuse a malformed one before it is stored. */
+export type DataCheckJob = { kind: "readData"; csv: string };
+
 /** Jobs that read user text and answer within the analysis time limit. */
-export type TextJob = AnalysisJob | ExportJob | ImportJob;
+export type TextJob = AnalysisJob | ExportJob | ImportJob | DataCheckJob;
 
 export type WorkerJob = DynamicsJob | RealizationJob | TextJob;
 
-export const isTextJob = (job: WorkerJob): job is TextJob => job.kind === "analyze" || job.kind === "export" || job.kind === "import";
+export const isTextJob = (job: WorkerJob): job is TextJob => job.kind === "analyze" || job.kind === "export" || job.kind === "import" || job.kind === "readData";
 
 export interface DynamicsResults {
   simulate: SimulationResult;
@@ -93,6 +96,7 @@ export interface DynamicsResults {
   analyze: AnalysisReport;
   export: ExportResult;
   import: SbmlImport;
+  readData: DataCheck;
 }
 
 export type JobResult<J extends WorkerJob> = DynamicsResults[J["kind"]];
@@ -122,8 +126,9 @@ export function runRealizationJob({ request, timeLimitMs }: RealizationJob, hook
   });
 }
 
-export async function runTextJob(job: TextJob): Promise<AnalysisReport | ExportResult | SbmlImport> {
+export async function runTextJob(job: TextJob): Promise<AnalysisReport | ExportResult | SbmlImport | DataCheck> {
   if (job.kind === "analyze") return analyzeSource(job.source);
+  if (job.kind === "readData") return checkDataSet(job.csv);
   if (job.kind === "import") return importSbml(job.xml);
   return exportText(job);
 }
