@@ -12,8 +12,9 @@ k_cat = 0.5
 
 describe("declared values", () => {
   it("changes only the numbers, sign included, and keeps comments and layout", () => {
-    const { edits, undeclared } = declaredValueEdits(source, { k_on: 3.25, k_off: 0.125, k_cat: 1 / 3, "[A]0": 0.5, "[B]0": 2e-7 });
+    const { edits, undeclared, previous } = declaredValueEdits(source, { k_on: 3.25, k_off: 0.125, k_cat: 1 / 3, "[A]0": 0.5, "[B]0": 2e-7 });
     expect(undeclared).toEqual([]);
+    expect(previous).toEqual({ k_on: 2, k_off: -1, k_cat: 0.5, "[A]0": 1, "[B]0": 3 });
     const next = applyEdits(source, edits);
     expect(next).toBe(`# A relay with an inline and a standalone coefficient.
 bind: A + B <=> C @ k_on = 3.25, k_off = 0.125 # a sign is read, then reported

@@ -17,28 +17,42 @@ export function valueText(value: number): string {
 
 const initialName = /^\[(.+)\]0$/;
 
+export interface ValueEdits {
+  /** In text order. */
+  edits: TextEdit[];
+  /** Parameters the text does not declare with a number: nothing should be written. */
+  undeclared: string[];
+  /** The values declared before (0 for an initial value the text did not give), to undo with. */
+  previous: Record<string, number>;
+}
+
 /**
- * The edits that set each named value (`k1`, `[A]0`), in text order. A parameter the text does
- * not declare is named in `undeclared`; an initial value the text does not give gets a new line.
+ * The edits that set each named value (`k1`, `[A]0`). A parameter the text does not declare is
+ * named in `undeclared`; an initial value the text does not give gets a new line.
  */
-export function declaredValueEdits(source: string, values: Record<string, number>): { edits: TextEdit[]; undeclared: string[] } {
+export function declaredValueEdits(source: string, values: Record<string, number>): ValueEdits {
   const spans = declaredSpans(source);
   const edits: TextEdit[] = [];
   const undeclared: string[] = [];
   const added: string[] = [];
+  const previous: Record<string, number> = {};
   for (const [name, value] of Object.entries(values)) {
     if (!Number.isFinite(value) || value < 0) throw new RangeError(`${name}: a declared value must be a finite number ≥ 0`);
     const found = spans.get(name);
-    if (found) for (const span of found) edits.push({ ...span, insert: valueText(value) });
-    else if (initialName.test(name)) added.push(`${name} = ${valueText(value)}`);
-    else undeclared.push(name);
+    if (found) {
+      previous[name] = Number(source.slice(found[0].from, found[0].to));
+      for (const span of found) edits.push({ ...span, insert: valueText(value) });
+    } else if (initialName.test(name)) {
+      previous[name] = 0;
+      added.push(`${name} = ${valueText(value)}`);
+    } else undeclared.push(name);
   }
   edits.sort((a, b) => a.from - b.from);
   if (added.length > 0) {
     const lead = source.length === 0 || source.endsWith("\n") ? "" : "\n";
     edits.push({ from: source.length, to: source.length, insert: `${lead}${added.join("\n")}\n` });
   }
-  return { edits, undeclared };
+  return { edits, undeclared, previous };
 }
 
 /** Applies edits given in text order to a string (for checks and previews; rooms apply them to the live text). */

@@ -91,9 +91,9 @@ export class CollabHub {
    */
   async applyValues(mechanismId: string, userId: string, values: Record<string, number>, versionName: string) {
     return this.withRoom(mechanismId, async (room) => {
-      const { undeclared } = await room.writeValues(values, userId);
-      if (undeclared.length > 0) return { undeclared, snapshot: null };
-      return { undeclared, snapshot: await room.recordSnapshot("named", versionName, userId) };
+      const { undeclared, previous } = await room.writeValues(values, userId);
+      if (undeclared.length > 0) return { undeclared, previous, snapshot: null };
+      return { undeclared, previous, snapshot: await room.recordSnapshot("named", versionName, userId) };
     });
   }
 

@@ -18,7 +18,8 @@ import { analysisOrigin, StructureRecompute, type AnalysisResult } from "./recom
 import { stalePositions } from "./layout-pruning";
 import { AutoSnapshotPolicy, type SnapshotKind } from "./snapshots";
 import { SourceMirror } from "./source-mirror";
-import { applyTextEdits, replaceText } from "./text-edit";
+import { replaceText } from "./text-edit";
+import { applyTextEdits } from "../../app/shared/text-edits";
 import { UpdateCheck } from "./update-check";
 import { declaredValueEdits } from "../../app/chem/declared-values";
 import { fitsMap, layoutMap, MAX_FIT_NOTICES, sourceText, type FitNotice } from "../../app/shared/room-document";
@@ -324,13 +325,13 @@ export class Room implements RoomPort, LinkedRoom {
   }
 
   /** Sets the declared values in one transaction by `userId`: one update everyone gets, one version in the log. */
-  async writeValues(values: Record<string, number>, userId: string): Promise<{ undeclared: string[] }> {
-    const { edits, undeclared } = declaredValueEdits(this.text.toString(), values);
-    if (undeclared.length > 0) return { undeclared };
+  async writeValues(values: Record<string, number>, userId: string): Promise<{ undeclared: string[]; previous: Record<string, number> }> {
+    const { edits, undeclared, previous } = declaredValueEdits(this.text.toString(), values);
+    if (undeclared.length > 0) return { undeclared, previous };
     this.doc.transact(() => applyTextEdits(this.text, edits), new ServiceEdit(userId));
     await this.log.flushed();
     await this.mirror.flush();
-    return { undeclared };
+    return { undeclared, previous };
   }
 
   /** Tells every member (on every instance) that a fit started or ended; resolves once stored. */

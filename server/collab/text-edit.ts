@@ -1,8 +1,6 @@
 // Replacing the whole shared text (an API write, a restore) as the smallest single edit: keep the
-// common prefix and suffix, so co-authors' cursors and concurrent edits elsewhere survive. Edits at
-// known places (fitted values) are applied as they are, for the same reason.
+// common prefix and suffix, so co-authors' cursors and concurrent edits elsewhere survive.
 import type * as Y from "yjs";
-import type { TextEdit } from "../../app/chem/declared-values";
 
 const isHighSurrogate = (code: number) => code >= 0xd800 && code <= 0xdbff;
 const isLowSurrogate = (code: number) => code >= 0xdc00 && code <= 0xdfff;
@@ -24,10 +22,3 @@ export function replaceText(text: Y.Text, next: string) {
   if (inserted.length > 0) text.insert(start, inserted);
 }
 
-/** Edits in text order, applied last first so earlier offsets stay true; call inside one transaction. */
-export function applyTextEdits(text: Y.Text, edits: readonly TextEdit[]) {
-  for (const edit of [...edits].reverse()) {
-    if (edit.to > edit.from) text.delete(edit.from, edit.to - edit.from);
-    if (edit.insert.length > 0) text.insert(edit.from, edit.insert);
-  }
-}

@@ -69,7 +69,7 @@ export function FitPanel({ mechanismId, source, doc, report, canEdit }: Props) {
           </ul>
         </section>
       )}
-      {fit && <FitResultView key={fit.id} mechanismId={mechanismId} fit={fit} canEdit={canEdit} />}
+      {fit && <FitResultView key={fit.id} mechanismId={mechanismId} fit={fit} canEdit={canEdit} source={source} />}
       <SensitivityCard mechanismId={mechanismId} source={() => source?.toString() ?? ""} />
     </div>
   );

@@ -2,6 +2,9 @@
 // warnings in words, the correlation matrix as coloured cells, residuals per species, and for
 // editors the button that writes the values into the text.
 import { useMemo, useState } from "react";
+import type * as Y from "yjs";
+import { declaredValueEdits } from "~/chem/declared-values";
+import { applyTextEdits } from "~/shared/text-edits";
 import { readableNumberText } from "~/chem/numbers";
 import { chartSvg } from "~/components/dynamics/chart-svg";
 import { TimeAgo } from "~/components/time-ago";
@@ -14,20 +17,34 @@ interface Props {
   mechanismId: string;
   fit: FitEntry;
   canEdit: boolean;
+  /** The live text, for undoing an apply as one edit everyone sees. */
+  source: Y.Text | null;
 }
 
 const number = (value: number) => readableNumberText(value, 4);
 
-export function FitResultView({ mechanismId, fit, canEdit }: Props) {
+export function FitResultView({ mechanismId, fit, canEdit, source }: Props) {
   const [applying, setApplying] = useState<string | null>(null);
+  const [previous, setPrevious] = useState<Record<string, number> | null>(null);
   const result = fit.result;
   const names = fit.settings.dataSets.map((dataSet) => dataSet.name).join(", ");
 
   async function apply() {
     setApplying("Writing the values into the text…");
     const response = await fetch(`/api/v1/mechanisms/${mechanismId}/fits/${fit.id}/apply`, { method: "POST" });
-    const body = (await response.json().catch(() => null)) as { error?: string; snapshot?: { name: string } } | null;
+    const body = (await response.json().catch(() => null)) as { error?: string; snapshot?: { name: string }; previous?: Record<string, number> } | null;
     setApplying(response.ok ? `Applied: the text now holds the fitted values, saved as the version “${body?.snapshot?.name}”.` : (body?.error ?? `The server answered ${response.status}.`));
+    setPrevious(response.ok ? (body?.previous ?? null) : null);
+  }
+
+  /** Puts the replaced values back where they are declared now, as one edit everyone sees. */
+  function undo() {
+    if (!source || !previous || !source.doc) return;
+    const { edits, undeclared } = declaredValueEdits(source.toString(), previous);
+    if (undeclared.length > 0) return setApplying(`Not undone: the text no longer declares ${undeclared.join(", ")}.`);
+    source.doc.transact(() => applyTextEdits(source, edits));
+    setPrevious(null);
+    setApplying("Undone: the values from before the fit are back in the text.");
   }
 
   return (
@@ -45,7 +62,12 @@ export function FitResultView({ mechanismId, fit, canEdit }: Props) {
           <button type="button" className="btn btn-primary" onClick={() => void apply()} data-testid="apply-fit">Apply values to the text</button>
         )}
       </div>
-      {applying && <p className="mt-2 text-xs text-muted" role="status" data-testid="apply-status">{applying}</p>}
+      {applying && (
+        <p className="mt-2 flex items-center gap-3 text-xs text-muted" role="status">
+          <span data-testid="apply-status">{applying}</span>
+          {previous && <button type="button" className="btn py-0.5 text-xs" onClick={undo} data-testid="undo-apply">Undo</button>}
+        </p>
+      )}
       {fit.status === "running" && <p className="mt-3 text-sm text-muted">Running…</p>}
       {fit.status === "failed" && <p className="notice-error mt-3">{fit.error}</p>}
       {result && <FitDetails fit={fit} />}

@@ -1,5 +1,6 @@
 // POST /api/v1/mechanisms/:id/fits/:fitId/apply — writes the fitted values into the live text as
-// one edit everyone in the room sees, and names the version "fitted to <data sets>" (editor).
+// one edit everyone in the room sees, and names the version "fitted to <data sets>" (editor). The
+// answer's `previous` holds the values it replaced, so the page can undo the change in one step.
 import { z } from "zod";
 import { findFit, fittedVersionName, idField } from "~/utils/fits.server";
 import { httpError, methodNotAllowed, onlyMethods } from "~/utils/http";
@@ -28,5 +29,5 @@ export async function action(args: Route.ActionArgs) {
   if (!applied.snapshot) {
     return httpError("bad_input", `The text no longer declares ${applied.undeclared.join(", ")} with a number (name = value); nothing was written.`);
   }
-  return Response.json({ values, snapshot: { ...applied.snapshot, kind: "named", name } }, { status: 201 });
+  return Response.json({ values, previous: applied.previous, snapshot: { ...applied.snapshot, kind: "named", name } }, { status: 201 });
 }
