@@ -34,7 +34,10 @@ export const experimentSchema = z.object({
 
 export const boundsSchema = z.object({ low: z.number().positive().optional(), high: z.number().positive().optional() });
 
-export const fitRequestSchema = integrationSettings.extend({
+/** Tolerances of the integrations (the method is always the BDF: sensitivities ride on its corrector). */
+const tolerances = integrationSettings.pick({ rtol: true, atol: true });
+
+export const fitRequestSchema = tolerances.extend({
   vary: parameterList,
   experiments: z.array(experimentSchema).min(1, "give at least one data set").max(20, "at most 20 data sets per fit"),
   /** Optional bounds per varied parameter (both ends positive: the search runs in log space). */
@@ -42,7 +45,7 @@ export const fitRequestSchema = integrationSettings.extend({
   maxIterations: z.number().int().min(1).max(1000).optional(),
 });
 
-export const sensitivityRequestSchema = integrationSettings.extend({
+export const sensitivityRequestSchema = tolerances.extend({
   until: untilField,
   samples: samplesField(MAX_SAMPLES),
   /** Default: every named rate coefficient (every parameter of the text a rate coefficient uses). */
