@@ -4,8 +4,9 @@
 // `z.infer` of these. The numbers are the library's limits (app/chem/limits.ts); the shared
 // server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
 import { z } from "zod";
+import { boundsSchema, sensitivityRequestSchema } from "~/chem/fit/types";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
-import { byteSize, MAX_COMPLEX_CHARS, MAX_CSV_BYTES, MAX_EXTRA_COMPLEXES, MAX_FIT_DATA_SETS, MAX_FIT_PARAMETERS, MAX_NAME_CHARS, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { byteSize, MAX_COMPLEX_CHARS, MAX_CSV_BYTES, MAX_EXTRA_COMPLEXES, MAX_FIT_DATA_SETS, MAX_FIT_PARAMETERS, MAX_NAME_CHARS, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SERVER_SAMPLES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
@@ -75,21 +76,18 @@ export const dataSetField = z.object({
 });
 export type DataSetText = z.infer<typeof dataSetField>;
 
-const positive = (what: string) => z.number().positive(`${what} must be a positive number (parameters are fitted in log space)`).finite(`${what} must be finite`);
-
-/** A weighted least-squares fit of the varied parameters to one or more data sets, each an experiment. */
+/** A weighted least-squares fit of the varied parameters to one or more data sets, each an experiment (CSV read in the worker). */
 export const fitSettings = z.object({
   vary: varyField.min(1, "Name at least one parameter to vary."),
-  /** Optional bounds per varied parameter. */
-  bounds: z.record(z.string(), z.object({ low: positive("a lower bound").optional(), high: positive("an upper bound").optional() })).optional(),
+  /** Optional bounds per varied parameter (positive: the search runs in log space). */
+  bounds: z.record(z.string(), boundsSchema).optional(),
   data: z.array(dataSetField).min(1, "Give at least one data set.").max(MAX_FIT_DATA_SETS, `A fit reads at most ${MAX_FIT_DATA_SETS} data sets.`),
 });
 
-/** Normalized sensitivities ∂ln x/∂ln p over [0, until] (default: every named rate coefficient). */
-export const sensitivitySettings = integrationSettings.extend({
-  until: untilField,
-  samples: samplesField(MAX_SWEEP_SAMPLES),
-  vary: varyField.optional(),
+/** Normalized sensitivities ∂ln x/∂ln p over [0, until] (default: every named rate coefficient), with the shared server's sample limit. */
+export const sensitivitySettings = sensitivityRequestSchema.extend({
+  samples: samplesField(MAX_SERVER_SAMPLES),
+  vary: varyField.min(1, "Name at least one parameter, or leave vary out for every named rate coefficient.").optional(),
 });
 
 export type FitSettings = z.infer<typeof fitSettings>;
