@@ -10,7 +10,7 @@ import { DataSetsCard } from "./data-sets-card";
 import { FitForm } from "./fit-form";
 import { FitResultView } from "./fit-result";
 import { SensitivityCard } from "./sensitivity-card";
-import { useFits } from "./use-fits";
+import { useFits, type DataSetEntry } from "./use-fits";
 
 interface Props {
   mechanismId: string;
@@ -48,7 +48,7 @@ export function FitPanel({ mechanismId, source, doc, report, canEdit }: Props) {
       <div className="grid gap-4 lg:grid-cols-2">
         <DataSetsCard mechanismId={mechanismId} dataSets={dataSets} canEdit={canEdit} chosen={chosen} onChoose={choose} onChanged={() => void reload()} />
         {canEdit ? (
-          <FitForm mechanismId={mechanismId} candidates={candidates} chosenDataSets={dataSets.filter((d) => chosen.has(d.id)).map((d) => d.id)} onFinished={() => void reload()} />
+          <FitForm mechanismId={mechanismId} candidates={candidates} chosenDataSets={inUploadOrder(dataSets.filter((d) => chosen.has(d.id)))} onFinished={() => void reload()} />
         ) : (
           <section className="card p-4 text-sm text-muted">Editors run fits; you see every fit here as it finishes.</section>
         )}
@@ -73,4 +73,9 @@ export function FitPanel({ mechanismId, source, doc, report, canEdit }: Props) {
       <SensitivityCard mechanismId={mechanismId} source={() => source?.toString() ?? ""} />
     </div>
   );
+}
+
+/** Chosen data sets oldest first, so a fit (and the version it names) lists them as they were uploaded. */
+function inUploadOrder(dataSets: DataSetEntry[]): string[] {
+  return [...dataSets].sort((a, b) => a.createdAt.localeCompare(b.createdAt)).map((d) => d.id);
 }

@@ -4,26 +4,22 @@
 import { useMemo } from "react";
 import { ratesOfProduction } from "~/chem/fit/rates-of-production";
 import type { SensitivityResult } from "~/chem/fit/types";
-import { buildNetwork } from "~/chem/network";
+import type { Mechanism, Network } from "~/chem/model";
 import { readableNumberText } from "~/chem/numbers";
-import { parseMechanism } from "~/chem/parse";
 import { divergingColour } from "./colour-scale";
 
 /** Bars shown; the rest are summed into one line, so a 60-step mechanism stays readable. */
 const SHOWN = 12;
 
 interface Props {
-  source: string;
+  /** The text the run used, parsed, and its network. */
+  model: { mechanism: Mechanism; network: Network };
   result: SensitivityResult;
   species: string;
   index: number;
 }
 
-export function RatesOfProductionChart({ source, result, species, index }: Props) {
-  const model = useMemo(() => {
-    const { mechanism } = parseMechanism(source);
-    return { mechanism, network: buildNetwork(mechanism) };
-  }, [source]);
+export function RatesOfProductionChart({ model, result, species, index }: Props) {
   const rates = useMemo(() => {
     try {
       return ratesOfProduction(model.mechanism, model.network, { t: result.t, series: result.series }, species, result.t[index]);

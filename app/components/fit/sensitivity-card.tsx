@@ -3,7 +3,9 @@
 // rates of production of one species at one time, step by step, as a ranked bar chart.
 import { useMemo, useState } from "react";
 import type { SensitivityResult } from "~/chem/fit/types";
+import { buildNetwork } from "~/chem/network";
 import { readableNumberText } from "~/chem/numbers";
+import { parseMechanism } from "~/chem/parse";
 import { chartSvg } from "~/components/dynamics/chart-svg";
 import { JobStatus } from "~/components/dynamics/job-status";
 import { useDynamicsJob } from "~/components/dynamics/use-dynamics-job";
@@ -46,10 +48,20 @@ export function SensitivityCard({ mechanismId, source }: Props) {
 }
 
 function SensitivityViews({ result, source }: { result: SensitivityResult; source: string }) {
-  const species = Object.keys(result.normalized);
+  const model = useMemo(() => {
+    const { mechanism } = parseMechanism(source);
+    return { mechanism, network: buildNetwork(mechanism) };
+  }, [source]);
+  // Rows in the order the text names the species.
+  const species = useMemo(() => {
+    const named = model.mechanism.species.filter((name) => name in result.normalized);
+    return [...named, ...Object.keys(result.normalized).filter((name) => !named.includes(name))];
+  }, [model, result]);
   const [chosen, setChosen] = useState(species[0] ?? "");
   const [timeIndex, setTimeIndex] = useState(result.t.length - 1);
   const peaks = useMemo(() => peakSensitivities(result), [result]);
+  // Colours are relative to the largest magnitude in the table: sensitivities are often well above 1.
+  const largest = useMemo(() => Math.max(1e-12, ...Object.values(peaks).flatMap((row) => Object.values(row).map((v) => Math.abs(v ?? 0)))), [peaks]);
   const shown = species.includes(chosen) ? chosen : species[0];
   const svg = useMemo(() => (shown ? chartSvg(sensitivityPicture(result, shown), currentThemeColours()) : ""), [result, shown]);
   const index = Math.min(timeIndex, result.t.length - 1);
@@ -70,7 +82,7 @@ function SensitivityViews({ result, source }: { result: SensitivityResult; sourc
                 {result.parameters.map((p) => {
                   const value = peaks[name]?.[p] ?? null;
                   return (
-                    <td key={p} className="min-w-12 rounded px-1 py-1 text-center tabular-nums" style={{ background: value === null ? "transparent" : divergingColour(value), color: value === null ? "inherit" : cellInk(value) }} title={`${name} × ${p}`}>
+                    <td key={p} className="min-w-12 rounded px-1 py-1 text-center tabular-nums" style={{ background: value === null ? "transparent" : divergingColour(value / largest), color: value === null ? "inherit" : cellInk(value / largest) }} title={`${name} × ${p}`}>
                       {value === null ? "—" : value.toFixed(2)}
                     </td>
                   );
@@ -80,14 +92,14 @@ function SensitivityViews({ result, source }: { result: SensitivityResult; sourc
           </tbody>
         </table>
       </div>
-      <p className="mt-1 text-xs text-muted">Teal: raising the parameter lowers the concentration; copper: raises it. Click a species for its curves.</p>
+      <p className="mt-1 text-xs text-muted">Teal: raising the parameter lowers the concentration; copper: raises it; the stronger the colour, the closer to the largest value in the table. Click a species for its curves.</p>
       <h4 className="mt-4 text-sm font-medium">Sensitivities of {shown} over time</h4>
       <div className="mt-2 overflow-x-auto" data-testid="sensitivity-curves" dangerouslySetInnerHTML={{ __html: svg }} />
       <div className="mt-4 flex flex-wrap items-center gap-3">
         <h4 className="text-sm font-medium">Rates of production of {shown} at t = {readableNumberText(result.t[index])}</h4>
         <input type="range" min={0} max={result.t.length - 1} value={index} onChange={(e) => setTimeIndex(Number(e.target.value))} aria-label="time" className="w-48" />
       </div>
-      <RatesOfProductionChart source={source} result={result} species={shown} index={index} />
+      <RatesOfProductionChart model={model} result={result} species={shown} index={index} />
     </>
   );
 }
