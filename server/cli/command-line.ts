@@ -9,8 +9,9 @@ import { readOverride } from "~/chem/overrides";
 import { parseMechanismWithSettings, type Settings } from "~/chem/parse";
 import { UsageError } from "./usage";
 
-export type FlagKind = "number" | "integer" | "method" | "switch" | "settings";
-export type FlagValue = number | string | boolean | Settings;
+/** "text" takes one string; "texts" may be repeated and collects every value in order. */
+export type FlagKind = "number" | "integer" | "method" | "switch" | "settings" | "text" | "texts";
+export type FlagValue = number | string | boolean | Settings | string[];
 
 /** Every command that reads a mechanism takes `--set` (repeatable). */
 export const SETTINGS_FLAG = { set: "settings" } as const;
@@ -44,6 +45,14 @@ export function readCommandLine(args: string[], declared: Record<string, FlagKin
     if (kind === "settings") {
       const settings = (flags[name] ??= { parameters: {}, initial: {} }) as Settings;
       addSetting(settings, text);
+      continue;
+    }
+    if (kind === "text") {
+      flags[name] = text;
+      continue;
+    }
+    if (kind === "texts") {
+      ((flags[name] ??= []) as string[]).push(text);
       continue;
     }
     if (kind === "method") {

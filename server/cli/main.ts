@@ -5,6 +5,8 @@ const commands: Record<string, () => Promise<{ run(args: string[]): Promise<numb
   simulate: () => import("./simulate"),
   lyapunov: () => import("./lyapunov"),
   realize: () => import("./realize"),
+  fit: () => import("./fit"),
+  sensitivity: () => import("./sensitivity"),
 };
 
 const usage = `usage: mechweave <command> FILE [options]
@@ -12,7 +14,9 @@ commands:
   analyze FILE [--json]                                   network structure
   simulate FILE --until T --samples N [--rtol R --atol A] [--method M] [--json]
   lyapunov FILE --until T [--json]                        largest Lyapunov exponent
-    (these three take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
+  fit FILE --data DATA.csv [--data MORE.csv …] --vary k1,k2 [--json]   estimate parameters
+  sensitivity FILE --until T --samples N [--vary k1,k2] [--json]      ∂ln x/∂ln p over time
+    (these five take --set NAME=VALUE or --set "[X]0=VALUE", repeatable, for a .weave FILE)
   realize ODEFILE [--shift x=20,y=30] [--multiply] [--json]`;
 
 async function main(): Promise<number> {

@@ -40,7 +40,7 @@ export async function runModelCommand(
   command: string,
   args: string[],
   declared: Record<string, FlagKind>,
-  body: (model: DynamicsModel, flags: Record<string, FlagValue>) => unknown,
+  body: (model: DynamicsModel, flags: Record<string, FlagValue>) => unknown | Promise<unknown>,
   printText: (result: never) => string,
 ): Promise<number> {
   const fail = (message: string, code: number, json: boolean, diagnostics: Diagnostic[] = []) => {
@@ -61,7 +61,7 @@ export async function runModelCommand(
   for (const d of loaded.diagnostics) process.stderr.write(`${parsed.file}:${d.line}:${d.column}: ${d.severity}: ${d.message}\n`);
   if (!loaded.model) return fail(`${parsed.file} has errors`, 1, json, loaded.diagnostics);
   try {
-    const result = body(loaded.model, parsed.flags);
+    const result = await body(loaded.model, parsed.flags);
     process.stdout.write((json ? JSON.stringify(result) : printText(result as never)) + "\n");
     return 0;
   } catch (error) {

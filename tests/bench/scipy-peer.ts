@@ -20,22 +20,16 @@ export interface PeerFigures {
 }
 
 // The right-hand side and Jacobian are vectorised numpy over the same rate and change tables our
-// kernels use: products over padded factor slots, sums by np.bincount.
-const SCRIPT = String.raw`
-import json, sys, time
-import numpy as np
-from scipy.integrate import odeint, solve_ivp
-
-request = json.load(sys.stdin)
-out = []
-for p in request["problems"]:
+// kernels use: products over padded factor slots, sums by np.bincount. Shared with the fit bench.
+export const PYTHON_MASS_ACTION = String.raw`
+def mass_action(p, k):
+    """rhs(y, t) and jac(y, t) of the tables in p (massActionTables) with coefficients k."""
     n = len(p["names"]); R = len(p["rates"])
     F = max([1] + [len(r) for r in p["rates"]])
     I = np.zeros((R, F), dtype=np.int64); P = np.zeros((R, F))
     for j, factors in enumerate(p["rates"]):
         for f, (v, power) in enumerate(factors):
             I[j, f] = v; P[j, f] = power
-    k = np.array(p["coefficients"], dtype=float)
     changes = np.array(p["changes"], dtype=float).reshape(-1, 3)
     cv = changes[:, 0].astype(np.int64); cr = changes[:, 1].astype(np.int64); cc = changes[:, 2]
     # Jacobian entries: one per (change, factor slot that is used), J[cv, I[cr, f]] += cc * dr/dy.
@@ -59,6 +53,29 @@ for p in request["problems"]:
             partial[:, f] = k * own * others
         return np.bincount(targets, weights=cc[pe] * partial[cr[pe], pf], minlength=n * n).reshape(n, n)
 
+    return rhs, jac
+`;
+
+/** A kinetic spec as the tables PYTHON_MASS_ACTION reads. */
+export function massActionTables(spec: KineticSpec) {
+  return {
+    names: spec.names,
+    initial: spec.initial,
+    rates: spec.monomials.map((m) => m.factors.map((f) => [f.variable, f.power])),
+    coefficients: spec.monomials.map((m) => m.coefficient),
+    changes: spec.changes.map((c) => [c.variable, c.rate, c.change]),
+  };
+}
+
+const SCRIPT = String.raw`
+import json, sys, time
+import numpy as np
+from scipy.integrate import odeint, solve_ivp
+${PYTHON_MASS_ACTION}
+request = json.load(sys.stdin)
+out = []
+for p in request["problems"]:
+    rhs, jac = mass_action(p, np.array(p["coefficients"], dtype=float))
     y0 = np.array(p["initial"], dtype=float)
     times = []
     for _ in range(p["runs"]):
@@ -77,11 +94,7 @@ print(json.dumps(out))
 /** Runs each problem `runs(problem)` times with scipy's LSODA or Radau; null (and a note) when python3 or scipy is missing. */
 export function scipyPeer(problems: PeerProblem[], method: "lsoda" | "radau", runs: (problem: PeerProblem) => number): PeerFigures[] | null {
   const input = problems.map((p) => ({
-    names: p.spec.names,
-    initial: p.spec.initial,
-    rates: p.spec.monomials.map((m) => m.factors.map((f) => [f.variable, f.power])),
-    coefficients: p.spec.monomials.map((m) => m.coefficient),
-    changes: p.spec.changes.map((c) => [c.variable, c.rate, c.change]),
+    ...massActionTables(p.spec),
     until: p.until,
     rtol: p.rtol,
     atol: p.atol,

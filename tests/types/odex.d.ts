@@ -2,7 +2,8 @@
 // compile under our strict settings; this declaration stands in for them (see tsconfig "paths").
 declare module "odex" {
   export type Derivative = (x: number, y: number[]) => number[];
-  export type OutputFunction = (xOld: number, x: number, y: number[], dense: (c: number, x: number) => number) => boolean | void;
+  /** nr is the step number; on the first call (nr = 1) xOld = x and there is no interpolant yet. */
+  export type OutputFunction = (nr: number, xOld: number, x: number, y: number[], dense: (c: number, x: number) => number) => boolean | void;
 
   export class Solver {
     constructor(n: number);

@@ -110,7 +110,8 @@ export function residuals(measured: MeasuredCourses, simulated: SimulatedCourses
   return result;
 }
 
-function interpolate(t: readonly number[], x: readonly number[], at: number): number | null {
+/** x at time `at`, linearly between samples; null outside [t₀, t_end]. */
+export function interpolate(t: readonly number[], x: readonly number[], at: number): number | null {
   if (at < t[0] || at > t[t.length - 1]) return null;
   let low = 0;
   let high = t.length - 1;

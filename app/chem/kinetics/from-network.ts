@@ -2,7 +2,7 @@
 // reactant complex, custom laws evaluated with mathjs over species, parameters and fixed species.
 
 import { readLaw } from "~/chem/law";
-import type { Mechanism, Network } from "~/chem/model";
+import type { Mechanism, Network, Reaction } from "~/chem/model";
 import { SimulationInputError } from "./errors";
 import { compileKineticSystem, type CustomRate, type KineticSpec, type KineticSystem, type MonomialRate } from "./kinetic-system";
 
@@ -20,8 +20,7 @@ export function networkSpec(mechanism: Mechanism, network: Network): KineticSpec
   const index = new Map(network.species.map((name, i) => [name, i]));
   const monomials: MonomialRate[] = [];
   const custom: CustomRate[] = [];
-  const massAction = network.reactions.filter((reaction) => reaction.law === null);
-  const laws = network.reactions.filter((reaction) => reaction.law !== null);
+  const { massAction, laws } = reactionsByKind(network);
   for (const reaction of massAction) {
     monomials.push({
       coefficient: reaction.rate as number,
@@ -45,6 +44,14 @@ export function networkSpec(mechanism: Mechanism, network: Network): KineticSpec
     monomials,
     custom,
     changes,
+  };
+}
+
+/** Mass-action reactions, then custom laws: the order of the spec's rates (rate j is reaction j of `[...massAction, ...laws]`). */
+export function reactionsByKind(network: Network): { massAction: Reaction[]; laws: Reaction[] } {
+  return {
+    massAction: network.reactions.filter((reaction) => reaction.law === null),
+    laws: network.reactions.filter((reaction) => reaction.law !== null),
   };
 }
 
