@@ -4,6 +4,7 @@ import type { AppLoadContext } from "react-router";
 import { z } from "zod";
 import { dataSetTexts, finishFit, FitStorageError, insertFit } from "../../server/db/fits";
 import { MAX_FIT_DATA_SETS, MAX_NAME_CHARS } from "~/chem/limits";
+import { firstProblem } from "~/shared/fields";
 import { dataSetField, fitSettings, overrides } from "~/shared/job-schemas";
 import { httpError } from "./http";
 import { jobOwner, modelFromSource, respondWithJob } from "./dynamics.server";
@@ -21,7 +22,7 @@ export const fitRequest = fitSettings.omit({ data: true }).extend({
 });
 export type FitRequest = z.infer<typeof fitRequest>;
 
-/** Throws the API's error for a storage refusal; anything else is rethrown as it is. */
+/** The API's error for a storage refusal (a FitStorageError); anything else is rethrown as it is. */
 export function storageFailure(error: unknown): Response {
   if (error instanceof Error && error.name === "FitStorageError") return httpError((error as FitStorageError).code, error.message);
   throw error;
@@ -47,7 +48,7 @@ export async function runFit({ request, context, mechanism, user }: FitCaller, b
   }
   const data = [...stored.map(({ name, csv }) => ({ name, csv })), ...body.data];
   const settings = fitSettings.safeParse({ vary: body.vary, bounds: body.bounds, data });
-  if (!settings.success) return httpError("bad_input", settings.error.issues[0]?.message ?? "The fit request is not valid.");
+  if (!settings.success) return httpError("bad_input", firstProblem(settings.error));
   const recorded = {
     vary: body.vary,
     bounds: body.bounds ?? {},
