@@ -20,11 +20,11 @@ export function readExperimentCsv(text: string, name: string, options: { species
     const line = lines[header].trim();
     if (line !== "" && !line.startsWith("#")) break;
     if (!SETTING_COMMENT.test(line)) continue;
-    const reading = readOverride(line.slice(1));
+    const reading = readOverride(line.slice(1).trim());
     if (!reading.ok) throw new CsvError(`line ${header + 1}: ${reading.message}`);
     settings[reading.into][reading.name] = reading.value;
   }
-  const { data, warnings } = readMeasuredCsv(lines.slice(header).join("\n"));
+  const { data, warnings } = readMeasuredCsv(lines.slice(header).join("\n"), { headerLine: header + 1 });
   const measured: Experiment["series"] = {};
   const sd: NonNullable<Experiment["sd"]> = {};
   for (const [column, values] of Object.entries(data.series)) {

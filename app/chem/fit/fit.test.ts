@@ -100,7 +100,8 @@ describe("fitting against data from an independent integrator", () => {
     const seen: FitProgress[] = [];
     fitMechanism(start, { vary, experiments: data }, { onProgress: (p) => seen.push(p) });
     expect(seen.length).toBeGreaterThan(2);
-    expect(seen.at(-1)?.iteration).toBeGreaterThan(0);
+    expect(seen[0].iteration).toBe(0);
+    expect(seen.at(-1)?.cost).toBeLessThan(seen[0].cost);
     const controller = new AbortController();
     const cancelled = () => fitMechanism(start, { vary, experiments: data }, { signal: controller.signal, onProgress: (p) => p.iteration === 1 && controller.abort() });
     expect(cancelled).toThrow(SimulationCancelled);

@@ -89,7 +89,6 @@ export function fitMechanism(mechanism: Mechanism, request: FitRequest, options:
   };
 
   const start = Float64Array.from(starts, Math.log);
-  options.onProgress?.({ iteration: 0, cost: Number.NaN });
   const search = levenbergMarquardt(evaluate, start, {
     lower,
     upper,

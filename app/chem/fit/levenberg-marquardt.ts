@@ -18,6 +18,7 @@ export interface LeastSquaresOptions {
   upper: Float64Array;
   maxIterations: number;
   signal?: AbortSignal;
+  /** Called at the start (iteration 0) and after each accepted step. */
   onIteration?: (iteration: number, cost: number) => void;
 }
 
@@ -93,6 +94,7 @@ export function levenbergMarquardt<E extends Evaluation>(evaluate: (theta: Float
   let theta = start.map((value, j) => Math.min(upper[j], Math.max(lower[j], value)));
   let evaluation = evaluate(theta);
   let cost = costOf(evaluation.residuals);
+  options.onIteration?.(0, cost);
   let { A, g } = normalEquations(evaluation, P);
   let mu = INITIAL_DAMPING;
   let nu = 2;

@@ -170,3 +170,26 @@ export function computeSensitivities(mechanism: Mechanism, request: SensitivityR
   });
   return { t: times, parameters: parameters.map((p) => p.name), series, normalized };
 }
+
+export interface Influence {
+  parameter: string;
+  /** The largest |∂ln x/∂ln p| over the run, and when. */
+  peak: number;
+  at: number;
+}
+
+/** The parameters ranked by their largest normalized influence on one species over the run. */
+export function rankInfluence(result: SensitivityResult, species: string): Influence[] {
+  const byParameter = result.normalized[species];
+  if (!byParameter) throw new SimulationInputError(`"${species}" is not a species of the mechanism`);
+  return result.parameters
+    .map((parameter) => {
+      let peak = 0;
+      let at = result.t[0];
+      byParameter[parameter].forEach((value, i) => {
+        if (value !== null && Math.abs(value) > peak) [peak, at] = [Math.abs(value), result.t[i]];
+      });
+      return { parameter, peak, at };
+    })
+    .sort((a, b) => b.peak - a.peak);
+}

@@ -1,7 +1,8 @@
 // The contracts of parameter estimation, forward sensitivities and rates of production: what a
 // caller asks for (zod schemas, so the CLI, the API and the job worker refuse the same things in
 // the same words) and what comes back. The functions live beside this file:
-//   sensitivity.ts          computeSensitivities(mechanism, request, options) → SensitivityResult
+//   sensitivity.ts          computeSensitivities(mechanism, request, options) → SensitivityResult;
+//                           rankInfluence(result, species) → parameters by peak |∂ln x/∂ln p|
 //   fit.ts                  fitMechanism(mechanism, request, options) → FitResult
 //   experiment-csv.ts       readExperimentCsv(text, name, { species }) → { experiment, warnings }
 //   rates-of-production.ts  ratesOfProduction(mechanism, network, simulation, species, t) → RatesOfProduction

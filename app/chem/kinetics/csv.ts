@@ -20,6 +20,8 @@ export class CsvError extends Error {
 export interface ReadOptions {
   /** Species of the model: other columns are reported and dropped. */
   species?: readonly string[];
+  /** The header's line in the whole file, when lines above it were read elsewhere (default 1). */
+  headerLine?: number;
 }
 
 export function readMeasuredCsv(text: string, options: ReadOptions = {}): { data: MeasuredCourses; warnings: string[] } {
@@ -56,7 +58,7 @@ export function readMeasuredCsv(text: string, options: ReadOptions = {}): { data
   const time: number[] = [];
   const series: Record<string, (number | null)[]> = Object.fromEntries(kept.map(({ name }) => [name, []]));
   rows.forEach((row, r) => {
-    const line = r + 2;
+    const line = r + (options.headerLine ?? 1) + 1;
     if (row.length !== names.length) throw new CsvError(`line ${line}: expected ${names.length} cells, found ${row.length}`);
     const t = cellNumber(row[timeColumn], line, names[timeColumn]);
     if (t === null) throw new CsvError(`line ${line}: the time is missing`);
