@@ -72,9 +72,23 @@ export async function respondWithJob(request: Request, context: AppLoadContext, 
   const encoder = new TextEncoder();
   let controller!: ReadableStreamDefaultController<Uint8Array>;
   const body = new ReadableStream<Uint8Array>({ start: (c) => void (controller = c) });
+  // A reader that went away has cancelled the stream (and, through its signal, the job); the stream
+  // may be cancelled a moment before the signal says so, and then there is nobody left to tell.
   const send = (value: unknown) => {
-    // A reader that went away has cancelled the stream (and, through its signal, the job).
-    if (!request.signal.aborted) controller.enqueue(encoder.encode(JSON.stringify(value) + "\n"));
+    if (request.signal.aborted) return;
+    try {
+      controller.enqueue(encoder.encode(JSON.stringify(value) + "\n"));
+    } catch {
+      // Cancelled by its reader.
+    }
+  };
+  const close = () => {
+    if (request.signal.aborted) return;
+    try {
+      controller.close();
+    } catch {
+      // Cancelled by its reader.
+    }
   };
   let admitted!: () => void;
   const queuedOrStarted = new Promise<void>((resolve) => (admitted = resolve));
@@ -116,6 +130,6 @@ export async function respondWithJob(request: Request, context: AppLoadContext, 
       console.error(error);
       send({ error: "The result could not be stored." });
     })
-    .finally(() => request.signal.aborted || controller.close());
+    .finally(close);
   return new Response(body, { headers: { "Content-Type": "application/x-ndjson", "Cache-Control": "no-store" } });
 }
