@@ -56,6 +56,11 @@ export const MAX_OVERRIDE_NAME_CHARS = 200;
 /** A measured time course read from CSV. */
 export const MAX_CSV_BYTES = 5 * MiB;
 export const MAX_CSV_ROWS = 100_000;
+/** Data sets stored with one mechanism, and data sets one fit reads at once. */
+export const MAX_DATA_SETS_PER_MECHANISM = 50;
+export const MAX_FIT_DATA_SETS = 10;
+/** Parameters one fit or sensitivity run varies. */
+export const MAX_FIT_PARAMETERS = 20;
 /** Entries of the stoichiometric matrix exported as CSV: beyond this (tens of MB) a spreadsheet is the wrong tool. */
 export const MAX_CSV_EXPORT_ENTRIES = 2_000_000;
 /** An SBML file to import. */

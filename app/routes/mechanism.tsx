@@ -13,6 +13,7 @@ import { RolePill } from "~/components/role-pill";
 import { StructurePanel } from "~/components/structure-panel";
 import { DynamicsTab } from "~/components/dynamics-tab";
 import { FilesPanel } from "~/components/files-panel";
+import { FitPanel } from "~/components/fit/fit-panel";
 import { titleField } from "~/shared/fields";
 import { httpError } from "~/utils/http";
 import { requireRole, requireViewAccess } from "~/utils/permissions.server";
@@ -52,7 +53,7 @@ export async function action(args: Route.ActionArgs) {
   throw httpError("bad_input", "Unknown action.");
 }
 
-const allTabs = ["Graph", "Structure", "Dynamics", "Files & settings"] as const;
+const allTabs = ["Graph", "Structure", "Dynamics", "Fit", "Files & settings"] as const;
 type Tab = (typeof allTabs)[number];
 
 export default function MechanismPage({ loaderData, actionData }: Route.ComponentProps) {
@@ -68,8 +69,9 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   // The panels follow the analysis at low priority: React renders them in slices between
   // keystrokes instead of in one block that would hold up the editor at every new report.
   const shownReport = useDeferredValue(report);
-  // A view-link guest sees the live mechanism and nothing else: no files, no settings.
-  const tabs = signedIn ? allTabs : allTabs.filter((name) => name !== "Files & settings");
+  // A view-link guest sees the live mechanism and nothing else: no files, no settings, no fits.
+  // Data sets and fits are read over the API, which a view link does not open.
+  const tabs = signedIn ? allTabs : allTabs.filter((name) => name !== "Files & settings" && name !== "Fit");
 
   return (
     <main className="mx-auto max-w-[96rem] px-6 py-5">
@@ -141,6 +143,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
           )}
           {tab === "Structure" && (shownReport ? <StructurePanel report={shownReport} /> : !room.analysis.failure && <Waiting />)}
           {tab === "Dynamics" && <DynamicsTab mechanismId={mechanism.id} source={source} report={report} />}
+          {tab === "Fit" && <FitPanel mechanismId={mechanism.id} source={source} doc={room.doc} report={report} canEdit={canEdit} />}
           {tab === "Files & settings" && (
             <FilesPanel mechanismId={mechanism.id} title={mechanism.title} role={role} actionData={actionData as { ok?: string; error?: string } | undefined} />
           )}

@@ -1,12 +1,13 @@
-// One zod schema per job kind — simulate, stochastic, equilibrium, Lyapunov, sweep, continuation, realize — used by the
+// One zod schema per job kind — simulate, stochastic, equilibrium, Lyapunov, sweep, continuation, realize, fit, sensitivity — used by the
 // HTTP API (to read bodies), the command line (to check its flags) and the worker (to check what
 // crossed into it), so every door refuses the same input with the same words; the job types are
 // `z.infer` of these. The numbers are the library's limits (app/chem/limits.ts); the shared
 // server's smaller ones (samples, sweep points) are checked by the job runner and answer 413.
 import { z } from "zod";
+import { boundsSchema, sensitivityRequestSchema } from "~/chem/fit/types";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
 import { stochasticSettings } from "~/chem/kinetics/stochastic/settings";
-import { MAX_BIFURCATION_SWEEP_STEPS, MAX_COMPLEX_CHARS, MAX_CONTINUATION_POINTS, MAX_EXTRA_COMPLEXES, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { byteSize, MAX_BIFURCATION_SWEEP_STEPS, MAX_COMPLEX_CHARS, MAX_CONTINUATION_POINTS, MAX_CSV_BYTES, MAX_EXTRA_COMPLEXES, MAX_FIT_DATA_SETS, MAX_FIT_PARAMETERS, MAX_NAME_CHARS, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SERVER_SAMPLES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
@@ -98,6 +99,34 @@ export const realizeSettings = z.object({
     .optional(),
 });
 
+/** What a fit or a sensitivity run varies: parameter names, or initial values as `[X]0`. */
+const varyField = z
+  .array(cleanText("A parameter name").min(1, "A parameter name is empty.").max(MAX_OVERRIDE_NAME_CHARS, `Keep each parameter name under ${MAX_OVERRIDE_NAME_CHARS} characters.`))
+  .max(MAX_FIT_PARAMETERS, `Vary at most ${MAX_FIT_PARAMETERS} parameters at once.`);
+
+/** A measured time course as CSV text: a `time` column and one column per species. */
+export const dataSetField = z.object({
+  name: cleanText("The data set's name").trim().min(1, "Name the data set.").max(MAX_NAME_CHARS, `Keep the data set's name under ${MAX_NAME_CHARS} characters.`),
+  csv: cleanText("The CSV").refine((csv) => new TextEncoder().encode(csv).length <= MAX_CSV_BYTES, `A data set is at most ${byteSize(MAX_CSV_BYTES)} of CSV.`),
+});
+export type DataSetText = z.infer<typeof dataSetField>;
+
+/** A weighted least-squares fit of the varied parameters to one or more data sets, each an experiment (CSV read in the worker). */
+export const fitSettings = z.object({
+  vary: varyField.min(1, "Name at least one parameter to vary."),
+  /** Optional bounds per varied parameter (positive: the search runs in log space). */
+  bounds: z.record(z.string(), boundsSchema).optional(),
+  data: z.array(dataSetField).min(1, "Give at least one data set.").max(MAX_FIT_DATA_SETS, `A fit reads at most ${MAX_FIT_DATA_SETS} data sets.`),
+});
+
+/** Normalized sensitivities ∂ln x/∂ln p over [0, until] (default: every named rate coefficient), with the shared server's sample limit. */
+export const sensitivitySettings = sensitivityRequestSchema.extend({
+  samples: samplesField(MAX_SERVER_SAMPLES),
+  vary: varyField.min(1, "Name at least one parameter, or leave vary out for every named rate coefficient.").optional(),
+});
+
+export type FitSettings = z.infer<typeof fitSettings>;
+export type SensitivitySettings = z.infer<typeof sensitivitySettings>;
 export type SimulateSettings = z.infer<typeof simulateSettings>;
 export type StochasticSettings = z.infer<typeof stochasticSettings>;
 export type EquilibriumSettings = z.infer<typeof equilibriumSettings>;

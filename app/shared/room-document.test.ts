@@ -6,7 +6,7 @@ describe("the room document's schema", () => {
   it("names each root type by the type itself", () => {
     const doc = new Y.Doc();
     expect(rootKeys(doc).get(sourceText(doc))).toBe("source");
-    expect([...rootKeys(doc).values()]).toEqual(["source", "analysis", "layout"]);
+    expect([...rootKeys(doc).values()]).toEqual(["source", "analysis", "layout", "fits"]);
   });
 
   it("takes a position of finite numbers; an editor may write exactly { x, y }", () => {

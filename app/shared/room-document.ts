@@ -13,6 +13,13 @@ export const roomKeys = {
   analysis: "analysis",
   /** Complex (canonical text) → top-left corner of its box in the graph, written by editors. */
   layout: "layout",
+  /**
+   * Fit id → `FitNotice`, written by the server when a fit starts and ends. Fits are announced in
+   * the document rather than on the instance bus alone: the notice is stored and relayed like every
+   * update, so members on any instance, late joiners and sockets that reconnect after a blip all
+   * see it; the fit itself (result, data) is read over HTTP.
+   */
+  fits: "fits",
 } as const;
 
 export type RoomKey = (typeof roomKeys)[keyof typeof roomKeys];
@@ -29,12 +36,22 @@ export function layoutMap(doc: Y.Doc): Y.Map<unknown> {
   return doc.getMap(roomKeys.layout);
 }
 
+export function fitsMap(doc: Y.Doc): Y.Map<unknown> {
+  return doc.getMap(roomKeys.fits);
+}
+
+export const fitNotice = z.object({ status: z.enum(["running", "done", "failed"]), at: z.string(), by: z.string().nullable() });
+export type FitNotice = z.infer<typeof fitNotice>;
+/** Notices kept in the document; older ones are deleted as new ones arrive (the fits stay in the database). */
+export const MAX_FIT_NOTICES = 20;
+
 /** Each root type's key, so the target of a write can be named from the type it joins. */
 export function rootKeys(doc: Y.Doc): Map<unknown, RoomKey> {
   return new Map<unknown, RoomKey>([
     [sourceText(doc), roomKeys.source],
     [analysisMap(doc), roomKeys.analysis],
     [layoutMap(doc), roomKeys.layout],
+    [fitsMap(doc), roomKeys.fits],
   ]);
 }
 

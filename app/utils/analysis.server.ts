@@ -1,4 +1,4 @@
-// Every reading of user text for an HTTP caller — the structure report, exports, SBML import —
+// Every reading of user text for an HTTP caller — the structure report, exports, SBML import, data sets —
 // runs here: in a worker thread of the job runner (server/sim), under the analysis time limit, so
 // no text can stall the event loop. Exact elimination on a large, loosely structured network can
 // take minutes; such a text answers 503 (over the time limit) or 422 (it cannot be analysed).
@@ -36,4 +36,9 @@ export function exportFor(caller: Caller, source: string, format: ExportFormat, 
 
 export function sbmlImportFor(caller: Caller, xml: string) {
   return runTextJob(caller, { kind: "import", xml });
+}
+
+/** An uploaded CSV read as a fit reads its data sets: columns and rows, or why it cannot be read. */
+export function dataSetCheckFor(caller: Caller, csv: string) {
+  return runTextJob(caller, { kind: "readData", csv });
 }

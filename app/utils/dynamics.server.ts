@@ -46,22 +46,49 @@ export function failureResponse({ code, message, retryAfter }: JobFailure): Resp
   return httpError(code, message, retryAfter === undefined ? undefined : { "Retry-After": String(retryAfter) });
 }
 
-export async function respondWithJob(request: Request, context: AppLoadContext, owner: string, job: WorkerJob): Promise<Response> {
+/** What a caller does with the outcome before it is sent: a fit stores it and answers with its id. */
+export interface JobOutcome {
+  /** The body sent for a result. */
+  done(result: unknown): Promise<unknown>;
+  /** Called for every failure, cancels included (`failure` is null for an error nobody expected). */
+  failed(failure: JobFailure | null): Promise<void>;
+}
+
+const passThrough: JobOutcome = { done: async (result) => result, failed: async () => undefined };
+
+export async function respondWithJob(request: Request, context: AppLoadContext, owner: string, job: WorkerJob, outcome: JobOutcome = passThrough): Promise<Response> {
   if (!(request.headers.get("Accept") ?? "").includes("application/x-ndjson")) {
+    let result: unknown;
     try {
-      return Response.json(await context.dynamics.run(job, { signal: request.signal, owner }));
+      result = await context.dynamics.run(job, { signal: request.signal, owner });
     } catch (error) {
       const failure = jobFailure(error);
+      await outcome.failed(failure);
       if (!failure) throw error;
       return failureResponse(failure);
     }
+    return Response.json(await outcome.done(result));
   }
   const encoder = new TextEncoder();
   let controller!: ReadableStreamDefaultController<Uint8Array>;
   const body = new ReadableStream<Uint8Array>({ start: (c) => void (controller = c) });
+  // A reader that went away has cancelled the stream (and, through its signal, the job); the stream
+  // may be cancelled a moment before the signal says so, and then there is nobody left to tell.
   const send = (value: unknown) => {
-    // A reader that went away has cancelled the stream (and, through its signal, the job).
-    if (!request.signal.aborted) controller.enqueue(encoder.encode(JSON.stringify(value) + "\n"));
+    if (request.signal.aborted) return;
+    try {
+      controller.enqueue(encoder.encode(JSON.stringify(value) + "\n"));
+    } catch {
+      // Cancelled by its reader.
+    }
+  };
+  const close = () => {
+    if (request.signal.aborted) return;
+    try {
+      controller.close();
+    } catch {
+      // Cancelled by its reader.
+    }
   };
   let admitted!: () => void;
   const queuedOrStarted = new Promise<void>((resolve) => (admitted = resolve));
@@ -85,18 +112,24 @@ export async function respondWithJob(request: Request, context: AppLoadContext, 
   const refused = await Promise.race([queuedOrStarted.then(() => null), run.then(() => null, (error: unknown) => error)]);
   if (refused) {
     const failure = jobFailure(refused);
+    await outcome.failed(failure);
     if (!failure) throw refused;
     return failureResponse(failure);
   }
   void run
     .then(
-      (result) => send({ result }),
-      (error: unknown) => {
+      async (result) => send({ result: await outcome.done(result) }),
+      async (error: unknown) => {
         const failure = jobFailure(error);
         if (!failure) console.error(error);
+        await outcome.failed(failure);
         send(failure ? { error: failure.message, code: failure.code } : { error: "The run failed on the server." });
       },
     )
-    .finally(() => request.signal.aborted || controller.close());
+    .catch((error: unknown) => {
+      console.error(error);
+      send({ error: "The result could not be stored." });
+    })
+    .finally(close);
   return new Response(body, { headers: { "Content-Type": "application/x-ndjson", "Cache-Control": "no-store" } });
 }

@@ -3,7 +3,7 @@
 // holding a room only the leader analyses and compacts.
 import { afterEach, describe, expect, it, vi } from "vitest";
 import * as Y from "yjs";
-import { analysisMap, sourceText } from "../../app/shared/room-document";
+import { analysisMap, fitsMap, MAX_FIT_NOTICES, sourceText } from "../../app/shared/room-document";
 import { closeCodes, type CollabIdentity } from "./connection";
 import { CollabHub } from "./hub";
 import { inProcessAnalyzer, MemoryCollabStore } from "./in-memory";
@@ -90,6 +90,40 @@ describe("the collaboration hub on the in-memory store", () => {
       ["restore", `Restored #${named!.id}`, "A -> B @ 1\n"],
     ]);
     expect(sourceText(reader.doc).toString()).toBe(store.sources.get("m1"));
+  });
+});
+
+describe("fits in the room, on the in-memory store", () => {
+  it("writes fitted values as one update everyone gets, names the version, and refuses a value the text does not declare", async () => {
+    const { store, hub } = setUp("go: A -> B @ k1 = 0.5 # first guess\nback: B -> A @ k2 = 2\n[A]0 = 1\n");
+    const reader = await member(hub, { userId: "vic", name: "Vic", role: "viewer" });
+    await vi.waitFor(() => expect(reader.text).toContain("k1 = 0.5"));
+    // The recompute writes the analysis map besides; the text changes in one transaction.
+    let textChanges = 0;
+    sourceText(reader.doc).observe(() => textChanges++);
+
+    const applied = await hub.applyValues("m1", "ada", { k1: 0.25, k2: 3.5, "[A]0": 2 }, "fitted to run 1");
+    expect(applied).toMatchObject({ undeclared: [], previous: { k1: 0.5, k2: 2, "[A]0": 1 }, snapshot: { id: expect.any(Number) } });
+    const expected = "go: A -> B @ k1 = 0.25 # first guess\nback: B -> A @ k2 = 3.5\n[A]0 = 2\n";
+    await vi.waitFor(() => expect(reader.text).toBe(expected));
+    expect(textChanges).toBe(1);
+    expect(store.sources.get("m1")).toBe(expected);
+    expect(store.snapshots.at(-1)).toMatchObject({ kind: "named", name: "fitted to run 1", source: expected, authorId: "ada" });
+
+    const refused = await hub.applyValues("m1", "ada", { k1: 1, nowhere: 1 }, "fitted to run 2");
+    expect(refused).toMatchObject({ undeclared: ["nowhere"], snapshot: null });
+    expect(store.sources.get("m1")).toBe(expected);
+  });
+
+  it("announces fits in the document's fits map and keeps only the newest notices", async () => {
+    const { hub } = setUp();
+    const reader = await member(hub, { userId: "vic", name: "Vic", role: "viewer" });
+    for (let i = 0; i < MAX_FIT_NOTICES + 3; i++) {
+      await hub.announceFit("m1", `fit-${i}`, { status: "done", at: new Date(Date.UTC(2026, 0, 1, 0, 0, i)).toISOString(), by: "Ada" });
+    }
+    await vi.waitFor(() => expect(fitsMap(reader.doc).size).toBe(MAX_FIT_NOTICES));
+    expect(fitsMap(reader.doc).has("fit-0")).toBe(false);
+    expect(fitsMap(reader.doc).get(`fit-${MAX_FIT_NOTICES + 2}`)).toMatchObject({ status: "done", by: "Ada" });
   });
 });
 

@@ -2,6 +2,7 @@
 // the operations routes call (role changes, API writes, versions). Each room is linked to the
 // other instances holding it through the bus (room-link.ts).
 import type { WebSocket } from "ws";
+import type { FitNotice } from "../../app/shared/room-document";
 import type { Analyzer } from "./analysis-entries";
 import { closeCodes, Connection, type CollabIdentity } from "./connection";
 import { RoleChangeFeed, type RoleChange } from "./role-feed";
@@ -82,6 +83,23 @@ export class CollabHub {
   /** The whole text, written as one edit by `userId` into the live document. False if no such mechanism. */
   async replaceSource(mechanismId: string, source: string, userId: string): Promise<boolean> {
     return (await this.withRoom(mechanismId, (room) => room.replaceSource(source, userId))) !== null;
+  }
+
+  /**
+   * Writes fitted values into the text as one edit by `userId` and names the version that results.
+   * Null if no such mechanism; `undeclared` names values the text does not declare (nothing written).
+   */
+  async applyValues(mechanismId: string, userId: string, values: Record<string, number>, versionName: string) {
+    return this.withRoom(mechanismId, async (room) => {
+      const { undeclared, previous } = await room.writeValues(values, userId);
+      if (undeclared.length > 0) return { undeclared, previous, snapshot: null };
+      return { undeclared, previous, snapshot: await room.recordSnapshot("named", versionName, userId) };
+    });
+  }
+
+  /** Announces a fit's start or end to the room's members (room-document.ts `fits`). */
+  async announceFit(mechanismId: string, fitId: string, notice: FitNotice) {
+    await this.withRoom(mechanismId, (room) => room.announceFit(fitId, notice));
   }
 
   async createNamedSnapshot(mechanismId: string, authorId: string, name: string) {

@@ -19,8 +19,10 @@ import { stalePositions } from "./layout-pruning";
 import { AutoSnapshotPolicy, type SnapshotKind } from "./snapshots";
 import { SourceMirror } from "./source-mirror";
 import { replaceText } from "./text-edit";
+import { applyTextEdits } from "../../app/shared/text-edits";
 import { UpdateCheck } from "./update-check";
-import { layoutMap, sourceText } from "../../app/shared/room-document";
+import { declaredValueEdits } from "../../app/chem/declared-values";
+import { fitsMap, layoutMap, MAX_FIT_NOTICES, sourceText, type FitNotice } from "../../app/shared/room-document";
 import type { RefusalReason } from "../../app/shared/room-refusal";
 
 export interface RoomTimings {
@@ -320,6 +322,27 @@ export class Room implements RoomPort, LinkedRoom {
     this.doc.transact(() => replaceText(this.text, withoutNul(source)), new ServiceEdit(userId));
     await this.log.flushed();
     await this.mirror.flush();
+  }
+
+  /** Sets the declared values in one transaction by `userId`: one update everyone gets, one version in the log. */
+  async writeValues(values: Record<string, number>, userId: string): Promise<{ undeclared: string[]; previous: Record<string, number> }> {
+    const { edits, undeclared, previous } = declaredValueEdits(this.text.toString(), values);
+    if (undeclared.length > 0) return { undeclared, previous };
+    this.doc.transact(() => applyTextEdits(this.text, edits), new ServiceEdit(userId));
+    await this.log.flushed();
+    await this.mirror.flush();
+    return { undeclared, previous };
+  }
+
+  /** Tells every member (on every instance) that a fit started or ended; resolves once stored. */
+  async announceFit(fitId: string, notice: FitNotice) {
+    const notices = fitsMap(this.doc);
+    this.doc.transact(() => {
+      notices.set(fitId, notice);
+      const oldest = [...notices.entries()].sort(([, a], [, b]) => String((a as FitNotice).at).localeCompare(String((b as FitNotice).at)));
+      for (const [key] of oldest.slice(0, Math.max(0, notices.size - MAX_FIT_NOTICES))) notices.delete(key);
+    }, analysisOrigin);
+    await this.log.flushed();
   }
 
   /**

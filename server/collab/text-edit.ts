@@ -21,3 +21,4 @@ export function replaceText(text: Y.Text, next: string) {
   const inserted = next.slice(start, next.length - end);
   if (inserted.length > 0) text.insert(start, inserted);
 }
+

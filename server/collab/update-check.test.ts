@@ -32,8 +32,9 @@ describe("UpdateCheck", () => {
     expect(refusal((doc) => doc.getMap("layout").set("A", { x: 10, y: -4 }))).toBeNull();
   });
 
-  it("refuses other top-level types, nested types and writes to the analysis", () => {
+  it("refuses other top-level types, nested types and writes to the analysis or the fit notices", () => {
     const { refusal } = room();
+    expect(refusal((doc) => doc.getMap("fits").set("forged", { status: "done", at: "2026-01-01T00:00:00Z", by: "nobody" }))).toBe("shape");
     expect(refusal((doc) => doc.getText("junk").insert(0, "x".repeat(1000)))).toBe("shape");
     expect(refusal((doc) => doc.getArray("list").push([1]))).toBe("shape");
     expect(refusal((doc) => doc.getMap("layout").set("A", new Y.Map()))).toBe("shape");

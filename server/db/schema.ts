@@ -196,3 +196,41 @@ export const apiTokens = pgTable(
   },
   (t) => [index("api_tokens_user_idx").on(t.userId)],
 );
+
+/** Measured time courses uploaded to a mechanism as CSV (a `time` column and species columns). */
+export const dataSets = pgTable(
+  "data_sets",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    mechanismId: text("mechanism_id").notNull().references(() => mechanisms.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    csv: text("csv").notNull(),
+    /** UTF-8 bytes of `csv`, checked against MAX_CSV_BYTES when uploaded. */
+    bytes: integer("bytes").notNull(),
+    uploadedBy: uuid("uploaded_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("data_sets_mechanism_idx").on(t.mechanismId, t.createdAt)],
+);
+
+/** Parameter estimations run on a mechanism: what was fitted to what, on which text, and the outcome. */
+export const fits = pgTable(
+  "fits",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    mechanismId: text("mechanism_id").notNull().references(() => mechanisms.id, { onDelete: "cascade" }),
+    /** The newest version when the fit started (null before the first version), and the text it ran on. */
+    snapshotId: integer("snapshot_id").references(() => snapshots.id, { onDelete: "set null" }),
+    source: text("source").notNull(),
+    ranBy: uuid("ran_by").references(() => users.id, { onDelete: "set null" }),
+    /** Ids of stored data sets (names kept in `settings`, so a fit still reads after a data set is deleted). */
+    dataSetIds: jsonb("data_set_ids").notNull(),
+    settings: jsonb("settings").notNull(),
+    status: text("status", { enum: ["running", "done", "failed"] }).notNull(),
+    result: jsonb("result"),
+    error: text("error"),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    finishedAt: timestamp("finished_at", { withTimezone: true }),
+  },
+  (t) => [index("fits_mechanism_idx").on(t.mechanismId, t.createdAt)],
+);

@@ -27,7 +27,9 @@ import { RealizeRequestError } from "~/chem/realize/request-error";
 import {
   continuationSettings,
   equilibriumSettings,
+  fitSettings,
   lyapunovSettings,
+  sensitivitySettings,
   overrides,
   realizeRequest,
   simulateSettings,
@@ -35,7 +37,9 @@ import {
   sweepSettings,
   type ContinuationSettings,
   type EquilibriumSettings,
+  type FitSettings,
   type LyapunovSettings,
+  type SensitivitySettings,
   type Overrides,
   type RealizeRequest,
   type SimulateSettings,
@@ -43,6 +47,8 @@ import {
   type SweepSettings,
 } from "~/shared/job-schemas";
 import { firstProblem } from "~/shared/fields";
+import type { SensitivityResult } from "~/chem/fit/types";
+import { checkDataSet, runFit, runSensitivity, type DataCheck } from "./fit-job";
 
 /**
  * `text` and `odeText` are a mechanism and a polynomial ODE not yet parsed: the worker parses them,
@@ -64,7 +70,9 @@ export type DynamicsJob =
   | { kind: "stochastic"; model: DynamicsModel; settings: StochasticSettings }
   /** Runs `first` … `first + runs − 1` of a stochastic ensemble, as sums to merge: the queue splits an ensemble into these. */
   | { kind: "stochasticRange"; model: DynamicsModel; settings: StochasticSettings; first: number; runs: number }
-  | { kind: "continuation"; model: DynamicsModel; options: ContinuationSettings };
+  | { kind: "continuation"; model: DynamicsModel; options: ContinuationSettings }
+  | { kind: "fit"; model: DynamicsModel; options: FitSettings }
+  | { kind: "sensitivity"; model: DynamicsModel; options: SensitivitySettings };
 
 /** A realization request, with the time its searches for equivalents may take together. */
 export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
@@ -78,12 +86,15 @@ export type ExportResult = { body: string } | { refusal: string; tooLarge: boole
 
 export type ImportJob = { kind: "import"; xml: string };
 
+/** An uploaded data set read as a fit will read it, to refuse a malformed one before it is stored. */
+export type DataCheckJob = { kind: "readData"; csv: string };
+
 /** Jobs that read user text and answer within the analysis time limit. */
-export type TextJob = AnalysisJob | ExportJob | ImportJob;
+export type TextJob = AnalysisJob | ExportJob | ImportJob | DataCheckJob;
 
 export type WorkerJob = DynamicsJob | RealizationJob | TextJob;
 
-export const isTextJob = (job: WorkerJob): job is TextJob => job.kind === "analyze" || job.kind === "export" || job.kind === "import";
+export const isTextJob = (job: WorkerJob): job is TextJob => job.kind === "analyze" || job.kind === "export" || job.kind === "import" || job.kind === "readData";
 
 export interface DynamicsResults {
   simulate: SimulationResult;
@@ -94,10 +105,13 @@ export interface DynamicsResults {
   stochasticRange: EnsembleTally;
   /** One branch, or with a second parameter the fold and Hopf points of one branch per value. */
   continuation: ContinuationResult | BifurcationSweepResult;
+  fit: ReturnType<typeof runFit>;
+  sensitivity: SensitivityResult;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
   import: SbmlImport;
+  readData: DataCheck;
 }
 
 export type JobResult<J extends WorkerJob> = DynamicsResults[J["kind"]];
@@ -127,8 +141,9 @@ export function runRealizationJob({ request, timeLimitMs }: RealizationJob, hook
   });
 }
 
-export async function runTextJob(job: TextJob): Promise<AnalysisReport | ExportResult | SbmlImport> {
+export async function runTextJob(job: TextJob): Promise<AnalysisReport | ExportResult | SbmlImport | DataCheck> {
   if (job.kind === "analyze") return analyzeSource(job.source);
+  if (job.kind === "readData") return checkDataSet(job.csv);
   if (job.kind === "import") return importSbml(job.xml);
   return exportText(job);
 }
@@ -180,7 +195,11 @@ function checkSettings(job: DynamicsJob): void {
             ? lyapunovSettings.safeParse(job.options)
             : job.kind === "sweep"
               ? sweepSettings.safeParse(job.options)
-              : continuationSettings.safeParse(job.options);
+              : job.kind === "fit"
+                ? fitSettings.safeParse(job.options)
+                : job.kind === "sensitivity"
+                  ? sensitivitySettings.safeParse(job.options)
+                  : continuationSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
   if (job.kind === "stochasticRange") {
     const { first, runs } = job;
@@ -220,7 +239,7 @@ function checkSize(job: DynamicsJob, model: ParsedModel, limits: SizeLimits): vo
   const { variables, reactions } = modelSize(model);
   if (variables > limits.maxVariables) throw new SimulationLimitError(`the model has ${variables} variables; at most ${limits.maxVariables} can be simulated here`, "size");
   if (reactions > limits.maxReactions) throw new SimulationLimitError(`the model has ${reactions} reactions; at most ${limits.maxReactions} can be simulated here`, "size");
-  const samples = job.kind === "sweep" ? job.options.samples : "settings" in job ? job.settings.samples : 0;
+  const samples = job.kind === "sweep" || job.kind === "sensitivity" ? job.options.samples : "settings" in job ? job.settings.samples : 0;
   if (samples > limits.maxSamples) throw new SimulationLimitError(`at most ${limits.maxSamples} samples per run`, "size");
   const points = job.kind === "sweep" ? job.options.points : 0;
   if (points > Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)) throw new SimulationLimitError(`at most ${Math.min(limits.maxSweepPoints, MAX_SWEEP_POINTS)} sweep points`, "size");
@@ -253,6 +272,12 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
       return job.options.second
         ? sweepBifurcations(model.mechanism, { ...job.options, second: job.options.second, ...hooks })
         : continueEquilibria(model.mechanism, { ...job.options, ...hooks });
+    case "fit":
+      if (model.kind === "ode") throw new SimulationInputError("fits vary a mechanism's rate coefficients or initial concentrations");
+      return runFit(model.mechanism, job.options, hooks);
+    case "sensitivity":
+      if (model.kind === "ode") throw new SimulationInputError("sensitivities are computed for a mechanism's parameters");
+      return runSensitivity(model.mechanism, job.options, hooks);
   }
 }
 

@@ -1,7 +1,8 @@
 // One room served by two app instances on one database: real server processes, real PostgreSQL,
 // real y-websocket clients. Members on either instance see one document; only the leader
 // analyses; kill -9 of the leader hands the room on without losing an acknowledged edit; an
-// access change made through one instance closes sockets on the other.
+// access change made through one instance closes sockets on the other; a fit announced and applied
+// through one instance reaches members on the other.
 import fc from "fast-check";
 import * as Y from "yjs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
@@ -132,6 +133,21 @@ describe("a room across two instances", () => {
   }, 60_000);
 
   // Last: it kills the first instance.
+  it("shows a fit run and applied through the first instance to a member on the second", async () => {
+    const owner = await signUp(first.url, "Fitting Owner");
+    const id = await createMechanism(owner, "go: A -> B @ k1 = 0.3\n[A]0 = 1\n", "Fit across instances");
+    const watcher = join(second, owner, id);
+    await watcher.synced;
+    const csv = "time,A\n" + [0, 1, 2, 3, 4, 5].map((t) => `${t},${Math.exp(-0.5 * t).toPrecision(8)}`).join("\n") + "\n";
+    const response = await owner.json(`/api/v1/mechanisms/${id}/fits`, "POST", { data: [{ name: "decay", csv }], vary: ["k1"] });
+    expect(response.status).toBe(200);
+    const { id: fitId } = await response.json();
+    const notices = watcher.doc.getMap("fits");
+    await eventually("the finished fit's notice on the second instance", () => (notices.get(fitId) as { status?: string } | undefined)?.status === "done", 15_000);
+    expect((await owner.request(`/api/v1/mechanisms/${id}/fits/${fitId}/apply`, { method: "POST" })).status).toBe(201);
+    await eventually("the fitted value in the second instance's text", () => /k1 = 0\.5\d*\n/.test(watcher.text.toString()), 15_000);
+  }, 60_000);
+
   it("hands the room to the other instance when its leader is killed, losing no acknowledged edit", async () => {
     const owner = await signUp(first.url, "Crashing Owner");
     const id = await createMechanism(owner, "A -> B @ 1\n", "Across instances");
