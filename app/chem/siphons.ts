@@ -69,7 +69,12 @@ class SiphonSearch {
   private readonly reactantsInRoom: Int32Array;
   private readonly trail: number[] = [];
   private readonly found: number[][] = [];
-  private members: number[] = [];
+  /** Per species, the found siphons holding it; per found siphon, its members not included now. */
+  private readonly foundWith: number[][];
+  private readonly notIncluded: number[] = [];
+  /** Found siphons wholly included: while one is, the branch holds only supersets of it. */
+  private foundIncluded = 0;
+  private readonly members: number[] = [];
   private work: number;
 
   constructor(
@@ -80,6 +85,7 @@ class SiphonSearch {
     this.work = workLimit;
     this.consumers = Array.from({ length: speciesCount }, (): number[] => []);
     this.producers = Array.from({ length: speciesCount }, (): number[] => []);
+    this.foundWith = Array.from({ length: speciesCount }, (): number[] => []);
     flows.forEach(({ consumed, produced }, f) => {
       for (const s of consumed) this.consumers[s].push(f);
       for (const s of produced) this.producers[s].push(f);
@@ -105,7 +111,7 @@ class SiphonSearch {
       // Siphons holding s but none of the species before it: each minimal siphon is found from its first species.
       this.include(s);
       const complete = this.search();
-      this.members.pop();
+      this.release();
       this.exclude(s);
       if (!complete) return null;
     }
@@ -114,12 +120,12 @@ class SiphonSearch {
 
   /** Branches below the present included set; false when the work limit cut the search short. */
   private search(): boolean {
-    this.work -= this.found.length;
+    this.work--;
     if (this.work < 0) return false;
-    if (this.found.some((siphon) => siphon.every((s) => this.state[s] === IN))) return true;
+    if (this.foundIncluded > 0) return true;
     const branch = this.narrowestOpenReaction();
     if (branch === null) {
-      this.found.push([...this.members].sort((a, b) => a - b));
+      this.record([...this.members].sort((a, b) => a - b));
       return true;
     }
     const mark = this.trail.length;
@@ -128,7 +134,7 @@ class SiphonSearch {
     for (const reactant of branch) {
       this.include(reactant);
       complete = this.search();
-      this.members.pop();
+      this.release();
       // Later branches avoid it: each siphon is found along one path only. If the room then loses
       // an included species, so does every later branch, which excludes more.
       const keepsMembers = this.exclude(reactant);
@@ -159,6 +165,21 @@ class SiphonSearch {
   private include(species: number): void {
     this.state[species] = IN;
     this.members.push(species);
+    for (const k of this.foundWith[species]) if (--this.notIncluded[k] === 0) this.foundIncluded++;
+  }
+
+  /** Takes back the last included species (its state is left to the caller). */
+  private release(): void {
+    const species = this.members.pop()!;
+    for (const k of this.foundWith[species]) if (this.notIncluded[k]++ === 0) this.foundIncluded--;
+  }
+
+  /** A siphon made of the included species, all of them included now. */
+  private record(siphon: number[]): void {
+    const k = this.found.push(siphon) - 1;
+    for (const s of siphon) this.foundWith[s].push(k);
+    this.notIncluded.push(0);
+    this.foundIncluded++;
   }
 
   /** Marks a species OUT and shrinks the room; false when the room loses an included species. */
