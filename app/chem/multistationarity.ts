@@ -117,7 +117,7 @@ export async function multistationarity(network: Network, facts: Facts, witnessS
  * cycle of the complex graph, and the sum of those cycles balances every complex, hence every
  * species), and a species that the reactions only make, or only use, rules one out.
  */
-async function hasPositiveFlux(network: Network, weaklyReversible: boolean): Promise<boolean> {
+export async function hasPositiveFlux(network: Network, weaklyReversible: boolean): Promise<boolean> {
   if (weaklyReversible) return true;
   if (hasOneWaySpecies(network)) return false;
   const ones = network.reactions.map(() => 1);
@@ -142,7 +142,7 @@ async function fluxSampler(network: Network): Promise<(random: () => number) => 
 }
 
 /** The LP min Σ weight·v subject to N v = 0 and v ≥ lower; its optimal v, or null when infeasible. */
-async function fluxSolver(network: Network): Promise<(lower: number[], weights: number[]) => number[] | null> {
+export async function fluxSolver(network: Network): Promise<(lower: number[], weights: number[]) => number[] | null> {
   const solver = await loadSolver();
   const species = network.species.length;
   const rows: string[][] = Array.from({ length: species }, () => []);

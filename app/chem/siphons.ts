@@ -277,7 +277,7 @@ export async function persistence(network: Network, laws: number[][]): Promise<P
       siphons: null,
       criterionHolds: null,
       uncovered: [],
-      conclusion: "The search for minimal siphons ran past its work limit: this network has too many to list, so the siphon criterion is undecided.",
+      conclusion: "Minimal siphons not enumerated: too many. The search ran past its work limit, so the siphon criterion is undecided.",
     };
   }
   if (siphons.length === 0) {
