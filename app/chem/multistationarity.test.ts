@@ -1,8 +1,9 @@
 import { readFileSync } from "node:fs";
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { analyzeSource } from "./analysis";
 import { nullSpace } from "./linalg/kernel";
-import { multistationarity } from "./multistationarity";
+import { fluxSolver, hasPositiveFlux, multistationarity } from "./multistationarity";
 import { buildNetwork, reactionVector } from "./network";
 import { parseMechanism } from "./parse";
 
@@ -68,5 +69,22 @@ describe("multistationarity", () => {
       conservationLaws: [],
     });
     expect(verdict.verdict).toBe("excluded");
+  });
+
+  it("the shortcuts for a positive flux (weak reversibility, a one-way species) agree with the LP on random small networks (property)", async () => {
+    const complex = fc.array(fc.integer({ min: 0, max: 2 }), { minLength: 4, maxLength: 4 });
+    const networks = fc.sample(fc.array(fc.tuple(complex, complex), { minLength: 1, maxLength: 7 }), { numRuns: 300, seed: 16 });
+    const names = ["A", "B", "C", "D"];
+    const side = (counts: number[]) => counts.flatMap((count, s) => (count === 0 ? [] : [`${count === 1 ? "" : count}${names[s]}`])).join(" + ") || "0";
+    for (const pairs of networks) {
+      const text = pairs.map(([from, to]) => `${side(from)} -> ${side(to)} @ 1`).join("\n") + "\n";
+      const { mechanism } = parseMechanism(text);
+      const network = buildNetwork(mechanism);
+      if (network.reactions.length === 0) continue;
+      const { weaklyReversible } = await analyzeSource(text);
+      const ones = network.reactions.map(() => 1);
+      const byLp = (await fluxSolver(network))(ones, ones) !== null;
+      expect(await hasPositiveFlux(network, weaklyReversible), text).toBe(byLp);
+    }
   });
 });

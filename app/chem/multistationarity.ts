@@ -60,8 +60,7 @@ export async function multistationarity(network: Network, facts: Facts, witnessS
       reason: "Deficiency One Theorem (each linkage class of deficiency at most 1, the deficiencies adding up, one terminal class per linkage class): no compatibility class holds more than one positive steady state, whatever the rate coefficients.",
     };
   }
-  const flux = await fluxSampler(network);
-  if (!flux) {
+  if (!(await hasPositiveFlux(network, facts.weaklyReversible))) {
     return {
       verdict: "excluded",
       reason: "No positive combination of the reactions leaves every concentration unchanged, so no choice of rate coefficients gives a steady state with every concentration positive.",
@@ -98,7 +97,7 @@ export async function multistationarity(network: Network, facts: Facts, witnessS
   if (witnessSearchMs <= 0) {
     return { verdict: "possible", reason: `${unproven} The command line (mechweave analyze FILE) searches for a witness.` };
   }
-  const witness = searchWitness(network, laws, expectedSign, flux, witnessSearchMs);
+  const witness = searchWitness(network, laws, expectedSign, await fluxSampler(network), witnessSearchMs);
   if (witness) {
     return {
       verdict: "possible",
@@ -112,8 +111,38 @@ export async function multistationarity(network: Network, facts: Facts, witnessS
   };
 }
 
-/** Positive fluxes v with N v = 0 (random vertices of a bounded slice of the flux cone), or null if none exists. */
-async function fluxSampler(network: Network): Promise<((random: () => number) => number[] | null) | null> {
+/**
+ * Whether some flux v with every reaction running (v > 0) leaves every concentration unchanged
+ * (N v = 0). Two cases need no LP: a weakly reversible network has one (every reaction lies on a
+ * cycle of the complex graph, and the sum of those cycles balances every complex, hence every
+ * species), and a species that the reactions only make, or only use, rules one out.
+ */
+export async function hasPositiveFlux(network: Network, weaklyReversible: boolean): Promise<boolean> {
+  if (weaklyReversible) return true;
+  if (hasOneWaySpecies(network)) return false;
+  const ones = network.reactions.map(() => 1);
+  return (await fluxSolver(network))(ones, ones) !== null;
+}
+
+/** A species whose net change has one sign in every reaction that changes it. */
+function hasOneWaySpecies(network: Network): boolean {
+  const made = new Uint8Array(network.species.length);
+  const used = new Uint8Array(network.species.length);
+  for (const reaction of network.reactions) {
+    const { indices, values } = reactionVector(network, reaction);
+    indices.forEach((s, k) => (values[k] > 0 ? (made[s] = 1) : values[k] < 0 && (used[s] = 1)));
+  }
+  return network.species.some((_, s) => made[s] !== used[s]);
+}
+
+/** Positive fluxes v with N v = 0 for the witness search: random vertices of a bounded slice of the flux cone. */
+async function fluxSampler(network: Network): Promise<(random: () => number) => number[] | null> {
+  const solve = await fluxSolver(network);
+  return (random) => solve(network.reactions.map(() => 10 ** (4 * random() - 2)), network.reactions.map(() => random()));
+}
+
+/** The LP min Σ weight·v subject to N v = 0 and v ≥ lower; its optimal v, or null when infeasible. */
+export async function fluxSolver(network: Network): Promise<(lower: number[], weights: number[]) => number[] | null> {
   const solver = await loadSolver();
   const species = network.species.length;
   const rows: string[][] = Array.from({ length: species }, () => []);
@@ -122,7 +151,7 @@ async function fluxSampler(network: Network): Promise<((random: () => number) =>
     indices.forEach((s, k) => rows[s].push(`${values[k] < 0 ? "-" : "+"} ${Math.abs(values[k])} v${r}`));
   });
   const constraints = rows.flatMap((terms, s) => (terms.length === 0 ? [] : [` s${s}: ${terms.join(" ")} = 0`]));
-  const solve = (lower: number[], weights: number[]): number[] | null => {
+  return (lower, weights) => {
     const objective = weights.map((weight, r) => `+ ${weight} v${r}`).join(" ");
     const bounds = lower.map((bound, r) => ` v${r} >= ${bound}`);
     const problem = ["Minimize", ` obj: ${objective}`, "Subject To", ...constraints, "Bounds", ...bounds, "End"].join("\n");
@@ -130,9 +159,6 @@ async function fluxSampler(network: Network): Promise<((random: () => number) =>
     if (result.Status !== "Optimal") return null;
     return network.reactions.map((_, r) => (result.Columns[`v${r}`] as { Primal: number }).Primal);
   };
-  const ones = network.reactions.map(() => 1);
-  if (!solve(ones, ones)) return null;
-  return (random) => solve(network.reactions.map(() => 10 ** (4 * random() - 2)), network.reactions.map(() => random()));
 }
 
 function searchWitness(

@@ -23,72 +23,19 @@ interface Flow {
   produced: number[];
 }
 
-const FREE = 0;
-const IN = 1;
-const OUT = 2;
-
 /**
  * Every minimal siphon, by a branching search: a set that is not yet a siphon has a reaction that
  * produces one of its members and consumes none; one of that reaction's reactants must join. The
  * branch taken is the open reaction with the fewest reactants still allowed (one: no branching at
- * all), a branch dies when the largest siphon avoiding the excluded species does not hold the
- * included ones, and supersets of siphons already found are dropped. Exponential in the worst case
- * (the answer itself may be); each branch costs O(size of the network). Null when the work passes
- * MAX_SIPHON_SEARCH_WORK reactant visits.
+ * all); a branch dies when the largest siphon avoiding the excluded species (its "room") loses an
+ * included one, and supersets of siphons already found are dropped. The room is kept up to date
+ * as species are excluded and restored on backtracking, and each step looks only at reactions
+ * around the included species, so a branch costs what it touches rather than the whole network.
+ * Exponential in the worst case (the answer itself may be). Null when the work passes
+ * `workLimit` reactant visits.
  */
 export function minimalSiphons(network: Network, workLimit = MAX_SIPHON_SEARCH_WORK): number[][] | null {
-  const flows = siphonFlows(network);
-  const speciesCount = network.species.length;
-  const consumers: number[][] = network.species.map(() => []);
-  flows.forEach(({ consumed }, f) => consumed.forEach((s) => consumers[s].push(f)));
-  const budget = { left: workLimit };
-  const found: number[][] = [];
-  const state = new Uint8Array(speciesCount);
-
-  // Species outside every siphon never join one.
-  const everywhere = largestSiphonWithin(state, flows, consumers, budget);
-  for (let s = 0; s < speciesCount; s++) if (!everywhere[s]) state[s] = OUT;
-
-  const search = (): boolean => {
-    budget.left -= found.length;
-    if (budget.left < 0) return false;
-    if (found.some((siphon) => siphon.every((s) => state[s] === IN))) return true;
-    const room = largestSiphonWithin(state, flows, consumers, budget);
-    for (let s = 0; s < speciesCount; s++) if (state[s] === IN && !room[s]) return true;
-    let branch: number[] | null = null;
-    for (const { consumed, produced } of flows) {
-      if (!produced.some((s) => state[s] === IN) || consumed.some((s) => state[s] === IN)) continue;
-      const allowed = consumed.filter((s) => state[s] === FREE);
-      budget.left -= consumed.length + produced.length;
-      if (branch === null || allowed.length < branch.length) branch = allowed;
-      if (allowed.length <= 1) break;
-    }
-    if (branch === null) {
-      const members = state.reduce<number[]>((list, value, s) => (value === IN ? [...list, s] : list), []);
-      if (isMinimalSiphon(members, state.length, flows, consumers, budget)) found.push(members);
-      return true;
-    }
-    const changed: number[] = [];
-    let complete = true;
-    for (const reactant of branch) {
-      state[reactant] = IN;
-      complete = search();
-      state[reactant] = OUT; // later branches avoid it: each siphon is found along one path only
-      changed.push(reactant);
-      if (!complete) break;
-    }
-    for (const s of changed) state[s] = FREE;
-    return complete;
-  };
-
-  for (let s = 0; s < speciesCount; s++) {
-    if (state[s] === OUT) continue;
-    // Siphons holding s but none of the species before it: each minimal siphon is found from its first species.
-    state[s] = IN;
-    if (!search()) return null;
-    state[s] = OUT;
-  }
-  return found.sort(compareLexicographic);
+  return new SiphonSearch(siphonFlows(network), network.species.length, workLimit).run();
 }
 
 /** Whether `set` is a siphon: no reaction produces a member without consuming one. */
@@ -104,48 +51,192 @@ function siphonFlows(network: Network): Flow[] {
   });
 }
 
-/**
- * The union of all siphons among the species not marked OUT (itself a siphon, or empty): a
- * reaction none of whose reactants remain drops what it produces, until no such reaction is left.
- * Linear in the network's size, with a count per reaction of its reactants still in.
- */
-function largestSiphonWithin(state: Uint8Array, flows: Flow[], consumers: number[][], budget: { left: number }): Uint8Array {
-  // Typed arrays and no closures: the search calls this hundreds of times per analysis.
-  const inside = new Uint8Array(state.length);
-  for (let s = 0; s < state.length; s++) inside[s] = state[s] === OUT ? 0 : 1;
-  const remaining = new Int32Array(flows.length);
-  // Each reaction enters the queue at most once: when its count of reactants still in reaches 0.
-  const queue = new Int32Array(flows.length);
-  let queued = 0;
-  for (let f = 0; f < flows.length; f++) {
-    let count = 0;
-    for (const s of flows[f].consumed) count += inside[s];
-    remaining[f] = count;
-    if (count === 0) queue[queued++] = f;
+const FREE = 0;
+const IN = 1;
+const OUT = 2;
+
+class SiphonSearch {
+  private readonly consumers: number[][];
+  private readonly producers: number[][];
+  private readonly state: Uint8Array;
+  /**
+   * The room: the largest siphon among the species not OUT (the union of all siphons there).
+   * Shrinking the allowed set shrinks it by propagation from the old room alone, so exclusions
+   * update it in place and `trail` (the species it lost, in order) undoes them.
+   */
+  private readonly inRoom: Uint8Array;
+  /** Per reaction, its reactants still in the room; at 0 it drops from the room what it produces. */
+  private readonly reactantsInRoom: Int32Array;
+  private readonly trail: number[] = [];
+  private readonly found: number[][] = [];
+  /** Per species, the found siphons holding it; per found siphon, its members not included now. */
+  private readonly foundWith: number[][];
+  private readonly notIncluded: number[] = [];
+  /** Found siphons wholly included: while one is, the branch holds only supersets of it. */
+  private foundIncluded = 0;
+  private readonly members: number[] = [];
+  private work: number;
+
+  constructor(
+    private readonly flows: Flow[],
+    speciesCount: number,
+    workLimit: number,
+  ) {
+    this.work = workLimit;
+    this.consumers = Array.from({ length: speciesCount }, (): number[] => []);
+    this.producers = Array.from({ length: speciesCount }, (): number[] => []);
+    this.foundWith = Array.from({ length: speciesCount }, (): number[] => []);
+    flows.forEach(({ consumed, produced }, f) => {
+      for (const s of consumed) this.consumers[s].push(f);
+      for (const s of produced) this.producers[s].push(f);
+    });
+    this.state = new Uint8Array(speciesCount);
+    this.inRoom = new Uint8Array(speciesCount).fill(1);
+    this.reactantsInRoom = new Int32Array(flows.length);
+    const emptied: number[] = [];
+    flows.forEach(({ consumed }, f) => {
+      this.reactantsInRoom[f] = consumed.length;
+      if (consumed.length === 0) emptied.push(f);
+    });
+    this.work -= flows.length;
+    // Species in no siphon at all (those a reaction without reactants restores) leave for good.
+    for (const f of emptied) this.dropProducts(f);
+    this.propagate(0);
+    this.trail.length = 0;
   }
-  budget.left -= flows.length;
-  while (queued > 0) {
-    const f = queue[--queued];
-    for (const s of flows[f].produced) {
-      if (!inside[s]) continue;
-      inside[s] = 0;
-      budget.left -= consumers[s].length;
-      for (const g of consumers[s]) if (--remaining[g] === 0) queue[queued++] = g;
+
+  run(): number[][] | null {
+    for (let s = 0; s < this.state.length; s++) {
+      if (!this.inRoom[s]) continue;
+      // Siphons holding s but none of the species before it: each minimal siphon is found from its first species.
+      this.include(s);
+      const complete = this.search();
+      this.release();
+      this.exclude(s);
+      if (!complete) return null;
+    }
+    return minimalAmong(this.found).sort(compareLexicographic);
+  }
+
+  /** Branches below the present included set; false when the work limit cut the search short. */
+  private search(): boolean {
+    this.work--;
+    if (this.work < 0) return false;
+    if (this.foundIncluded > 0) return true;
+    const branch = this.narrowestOpenReaction();
+    if (branch === null) {
+      this.record([...this.members].sort((a, b) => a - b));
+      return true;
+    }
+    const mark = this.trail.length;
+    const excluded: number[] = [];
+    let complete = true;
+    for (const reactant of branch) {
+      this.include(reactant);
+      complete = this.search();
+      this.release();
+      // Later branches avoid it: each siphon is found along one path only. If the room then loses
+      // an included species, so does every later branch, which excludes more.
+      const keepsMembers = this.exclude(reactant);
+      excluded.push(reactant);
+      if (!complete || !keepsMembers) break;
+    }
+    this.restore(mark);
+    for (const s of excluded) this.state[s] = FREE;
+    return complete;
+  }
+
+  /** Reactants of the open reaction with the fewest that may still join; null when the included set is a siphon. */
+  private narrowestOpenReaction(): number[] | null {
+    let branch: number[] | null = null;
+    for (const member of this.members) {
+      for (const f of this.producers[member]) {
+        const { consumed } = this.flows[f];
+        this.work -= consumed.length;
+        if (consumed.some((s) => this.state[s] === IN)) continue;
+        const allowed = consumed.filter((s) => this.state[s] === FREE && this.inRoom[s] === 1);
+        if (branch === null || allowed.length < branch.length) branch = allowed;
+        if (allowed.length <= 1) return branch;
+      }
+    }
+    return branch;
+  }
+
+  private include(species: number): void {
+    this.state[species] = IN;
+    this.members.push(species);
+    for (const k of this.foundWith[species]) if (--this.notIncluded[k] === 0) this.foundIncluded++;
+  }
+
+  /** Takes back the last included species (its state is left to the caller). */
+  private release(): void {
+    const species = this.members.pop()!;
+    for (const k of this.foundWith[species]) if (this.notIncluded[k]++ === 0) this.foundIncluded--;
+  }
+
+  /** A siphon made of the included species, all of them included now. */
+  private record(siphon: number[]): void {
+    const k = this.found.push(siphon) - 1;
+    for (const s of siphon) this.foundWith[s].push(k);
+    this.notIncluded.push(0);
+    this.foundIncluded++;
+  }
+
+  /** Marks a species OUT and shrinks the room; false when the room loses an included species. */
+  private exclude(species: number): boolean {
+    this.state[species] = OUT;
+    if (!this.inRoom[species]) return true;
+    const start = this.trail.length;
+    this.dropFromRoom(species);
+    return this.propagate(start);
+  }
+
+  /**
+   * Lowers the reactant counts for the species dropped since `start`, dropping in turn what
+   * reactions left without reactants produce. Runs to the end even past a conflict, so that
+   * `restore` finds every count it must raise again. False when an included species was dropped.
+   */
+  private propagate(start: number): boolean {
+    let keepsMembers = true;
+    for (let k = start; k < this.trail.length; k++) {
+      const s = this.trail[k];
+      if (this.state[s] === IN) keepsMembers = false;
+      this.work -= this.consumers[s].length;
+      for (const g of this.consumers[s]) if (--this.reactantsInRoom[g] === 0) this.dropProducts(g);
+    }
+    return keepsMembers;
+  }
+
+  private dropProducts(f: number): void {
+    for (const s of this.flows[f].produced) if (this.inRoom[s]) this.dropFromRoom(s);
+  }
+
+  private dropFromRoom(species: number): void {
+    this.inRoom[species] = 0;
+    this.trail.push(species);
+  }
+
+  private restore(mark: number): void {
+    while (this.trail.length > mark) {
+      const s = this.trail.pop()!;
+      this.inRoom[s] = 1;
+      for (const g of this.consumers[s]) this.reactantsInRoom[g]++;
     }
   }
-  return inside;
 }
 
-/** A siphon is minimal when removing any one species leaves no siphon inside the rest. */
-function isMinimalSiphon(members: number[], speciesCount: number, flows: Flow[], consumers: number[][], budget: { left: number }): boolean {
-  const state = new Uint8Array(speciesCount).fill(OUT);
-  for (const s of members) state[s] = FREE;
-  return members.every((species) => {
-    state[species] = OUT;
-    const rest = largestSiphonWithin(state, flows, consumers, budget);
-    state[species] = FREE;
-    return rest.every((value) => value === 0);
-  });
+/**
+ * The sets among `siphons` with no other inside them. The search finds every minimal siphon, so a
+ * siphon it finds that is not minimal holds a minimal one it also found: comparing with the
+ * minimal ones, smallest first, is enough.
+ */
+function minimalAmong(siphons: number[][]): number[][] {
+  const minimal: Set<number>[] = [];
+  for (const siphon of [...siphons].sort((a, b) => a.length - b.length)) {
+    const members = new Set(siphon);
+    if (!minimal.some((smaller) => smaller.size < members.size && [...smaller].every((s) => members.has(s)))) minimal.push(members);
+  }
+  return minimal.map((members) => [...members]);
 }
 
 function compareLexicographic(a: number[], b: number[]): number {
@@ -186,7 +277,7 @@ export async function persistence(network: Network, laws: number[][]): Promise<P
       siphons: null,
       criterionHolds: null,
       uncovered: [],
-      conclusion: "The search for minimal siphons ran past its work limit: this network has too many to list, so the siphon criterion is undecided.",
+      conclusion: "Minimal siphons not enumerated: too many. The search ran past its work limit, so the siphon criterion is undecided.",
     };
   }
   if (siphons.length === 0) {

@@ -15,6 +15,16 @@ export interface StructureSummary {
   reversible: boolean;
   weaklyReversible: boolean;
   errors: number;
+  /** The behaviour verdicts; absent in snapshots stored before they were kept. */
+  verdicts?: BehaviourVerdicts;
+}
+
+export interface BehaviourVerdicts {
+  multistationarity: AnalysisReport["multistationarity"]["verdict"];
+  /** The siphon criterion for persistence: holds, fails, or undecided (null). */
+  persistence: boolean | null;
+  /** Species with absolute concentration robustness. */
+  robust: string[];
 }
 
 export function summarizeStructure(report: AnalysisReport): StructureSummary {
@@ -29,6 +39,11 @@ export function summarizeStructure(report: AnalysisReport): StructureSummary {
     reversible: report.reversible,
     weaklyReversible: report.weaklyReversible,
     errors: report.diagnostics.filter((d) => d.severity === "error").length,
+    verdicts: {
+      multistationarity: report.multistationarity.verdict,
+      persistence: report.persistence.criterionHolds,
+      robust: report.acr,
+    },
   };
 }
 
@@ -81,6 +96,23 @@ export function invariantChanges(before: StructureSummary, after: StructureSumma
   const removed = before.speciesNames.filter((name) => !after.speciesNames.includes(name));
   if (added.length > 0) changes.push(`species added: ${added.join(", ")}`);
   if (removed.length > 0) changes.push(`species removed: ${removed.join(", ")}`);
+  if (before.verdicts && after.verdicts) changes.push(...verdictChanges(before.verdicts, after.verdicts));
+  return changes;
+}
+
+const criterionWords = (holds: boolean | null) => (holds === null ? "undecided" : holds ? "holds" : "fails");
+const speciesList = (names: string[]) => (names.length === 0 ? "none" : names.join(", "));
+
+/** Each changed behaviour verdict in words, as "multistationarity excluded → possible". */
+function verdictChanges(before: BehaviourVerdicts, after: BehaviourVerdicts): string[] {
+  const changes: string[] = [];
+  if (before.multistationarity !== after.multistationarity) changes.push(`multistationarity ${before.multistationarity} → ${after.multistationarity}`);
+  if (before.persistence !== after.persistence) {
+    changes.push(`siphon criterion for persistence ${criterionWords(before.persistence)} → ${criterionWords(after.persistence)}`);
+  }
+  if (speciesList(before.robust) !== speciesList(after.robust)) {
+    changes.push(`robust concentrations ${speciesList(before.robust)} → ${speciesList(after.robust)}`);
+  }
   return changes;
 }
 
