@@ -85,6 +85,9 @@ export interface StepSummary {
 export interface AnalysisOptions {
   /** Milliseconds to spend searching for a multistationarity witness; 0 (the default) searches none. */
   witnessSearchMs?: number;
+  /** Sample points and progress of that search (see `WitnessSearch`). */
+  witnessSamples?: number;
+  onWitnessProgress?: (fraction: number) => void;
 }
 
 export async function analyzeSource(source: string, options: AnalysisOptions = {}): Promise<AnalysisReport> {
@@ -165,7 +168,11 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, 
     massConserving: await hasPositiveConservationLaw(conservationLaws, species.length),
     theorems,
     odes: odes.text,
-    multistationarity: await multistationarity(network, { theorems, weaklyReversible, conservationLaws }, options.witnessSearchMs),
+    multistationarity: await multistationarity(network, { theorems, weaklyReversible, conservationLaws }, {
+      ms: options.witnessSearchMs ?? 0,
+      samples: options.witnessSamples,
+      onProgress: options.onWitnessProgress,
+    }),
     siphons: siphonVerdict.siphons?.map(namesOf) ?? null,
     acr: robustness.species,
     balance: elementBalance(mechanism),

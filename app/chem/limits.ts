@@ -124,3 +124,8 @@ export const MAX_DETERMINANT_TERMS = 2_000_000;
 export const MAX_WITNESS_SAMPLES = 400;
 /** Milliseconds the command line's `analyze` spends searching for a multistationarity witness (rooms search none). */
 export const MAX_WITNESS_SEARCH_MS = 3000;
+/** Milliseconds a queued witness search may take when the panel's "run it" asks for one, and the most it may ask. */
+export const DEFAULT_WITNESS_JOB_MS = 20_000;
+export const MAX_WITNESS_JOB_MS = 50_000;
+/** Sample points a queued witness search tries: ten times the command line's, for the longer budget. */
+export const MAX_WITNESS_JOB_SAMPLES = 4000;

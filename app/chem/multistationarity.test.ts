@@ -12,7 +12,7 @@ const fixture = (name: string) => readFileSync(new URL(`../../tests/fixtures/${n
 async function verdictOf(text: string) {
   const report = await analyzeSource(text);
   const network = buildNetwork(parseMechanism(text).mechanism);
-  return { network, verdict: await multistationarity(network, report, 3000) };
+  return { network, verdict: await multistationarity(network, report, { ms: 3000 }) };
 }
 
 /** The mass-action right-hand side at a state, computed here from the report's reactions alone. */

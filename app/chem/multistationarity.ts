@@ -36,11 +36,19 @@ interface Facts {
   conservationLaws: number[][];
 }
 
+/** How long the witness search may run and how many sample points it tries; `onProgress` hears the share of the time spent. */
+export interface WitnessSearch {
+  ms: number;
+  samples?: number;
+  onProgress?: (fraction: number) => void;
+}
+
 /**
- * `witnessSearchMs` bounds the witness search (0: none). It costs seconds on networks whose
- * determinant changes sign, so rooms, which recompute on every change, leave it to the command line.
+ * `search.ms` bounds the witness search (0: none). It costs seconds on networks whose determinant
+ * changes sign, so rooms, which recompute on every change, leave it to a queued job (witness-job.ts)
+ * and the command line.
  */
-export async function multistationarity(network: Network, facts: Facts, witnessSearchMs = 0): Promise<Multistationarity> {
+export async function multistationarity(network: Network, facts: Facts, search: WitnessSearch = { ms: 0 }): Promise<Multistationarity> {
   if (network.reactions.length === 0) return { verdict: "undecided", reason: "There are no reactions yet, so there is nothing to conclude." };
   if (network.reactions.some((reaction) => reaction.law !== null)) {
     return { verdict: "undecided", reason: "Some reactions use a custom rate law; these criteria are stated for mass-action kinetics, so none is decided." };
@@ -94,10 +102,11 @@ export async function multistationarity(network: Network, facts: Facts, witnessS
   }
   const both = `The ${criterion} does not rule it out: the Jacobian's determinant has ${positive} positive and ${negative} negative terms.`;
   const unproven = `${both} For a network without steady states on the boundary of a positive class this means some rate coefficients give several steady states in one class (Conradi, Feliu, Mincheva and Wiuf 2017);`;
-  if (witnessSearchMs <= 0) {
-    return { verdict: "possible", reason: `${unproven} The command line (mechweave analyze FILE) searches for a witness.` };
+  if (search.ms <= 0) {
+    return { verdict: "possible", reason: `${unproven} a witness search takes longer than this analysis: run it as a job, or with mechweave analyze FILE.` };
   }
-  const witness = searchWitness(network, laws, expectedSign, await fluxSampler(network), witnessSearchMs);
+  const samples = search.samples ?? MAX_WITNESS_SAMPLES;
+  const witness = searchWitness(network, laws, expectedSign, await fluxSampler(network), { ...search, samples });
   if (witness) {
     return {
       verdict: "possible",
@@ -107,7 +116,7 @@ export async function multistationarity(network: Network, facts: Facts, witnessS
   }
   return {
     verdict: "possible",
-    reason: `${unproven} no witness was found within the search's budget (${MAX_WITNESS_SAMPLES} sample points, ${witnessSearchMs / 1000} s).`,
+    reason: `${unproven} no witness was found within the search's budget (${samples} sample points, ${search.ms / 1000} s).`,
   };
 }
 
@@ -166,11 +175,13 @@ function searchWitness(
   laws: number[][],
   expectedSign: number,
   flux: (random: () => number) => number[] | null,
-  budgetMs: number,
+  { ms, samples, onProgress }: Required<Omit<WitnessSearch, "onProgress">> & Pick<WitnessSearch, "onProgress">,
 ): MultistationarityWitness | null {
   const random = seededRandom(0x18);
-  const deadline = performance.now() + budgetMs;
-  for (let sample = 0; sample < MAX_WITNESS_SAMPLES && performance.now() < deadline; sample++) {
+  const start = performance.now();
+  const deadline = start + ms;
+  for (let sample = 0; sample < samples && performance.now() < deadline; sample++) {
+    onProgress?.(Math.max(sample / samples, (performance.now() - start) / ms));
     const v = flux(random);
     if (!v) continue;
     const x = network.species.map(() => 10 ** (4 * random() - 2));
@@ -216,9 +227,8 @@ function reactantMonomial(network: Network, reaction: number, x: number[]): numb
   return network.complexes[network.reactions[reaction].from].terms.reduce((product, { species, coefficient }) => product * x[species] ** coefficient, 1);
 }
 
-/** f(x) vanishes to 1e-8 of the largest reaction rate, and every conserved total matches x*'s. */
-export function isSteadyStateInClass(network: Network, rates: number[], state: number[], laws: number[][], reference: number[]): boolean {
-  if (!state.every((value) => Number.isFinite(value) && value > 0)) return false;
+/** The largest |f_X(x)| relative to the largest reaction rate at x: 0 at a steady state. */
+export function relativeResidual(network: Network, rates: number[], state: number[]): number {
   const f = new Array<number>(state.length).fill(0);
   let largest = 0;
   network.reactions.forEach((reaction, r) => {
@@ -227,7 +237,13 @@ export function isSteadyStateInClass(network: Network, rates: number[], state: n
     const { indices, values } = reactionVector(network, reaction);
     indices.forEach((s, k) => (f[s] += values[k] * rate));
   });
-  if (f.some((value) => Math.abs(value) > 1e-8 * largest)) return false;
+  return Math.max(0, ...f.map(Math.abs)) / largest;
+}
+
+/** f(x) vanishes to 1e-8 of the largest reaction rate, and every conserved total matches x*'s. */
+export function isSteadyStateInClass(network: Network, rates: number[], state: number[], laws: number[][], reference: number[]): boolean {
+  if (!state.every((value) => Number.isFinite(value) && value > 0)) return false;
+  if (!(relativeResidual(network, rates, state) <= 1e-8)) return false;
   return laws.every((law) => {
     const total = law.reduce((sum, weight, s) => sum + weight * reference[s], 0);
     const here = law.reduce((sum, weight, s) => sum + weight * state[s], 0);

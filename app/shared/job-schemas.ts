@@ -1,4 +1,4 @@
-// One zod schema per job kind — simulate, stochastic, equilibrium, Lyapunov, sweep, continuation, realize, fit, sensitivity — used by the
+// One zod schema per job kind — simulate, stochastic, equilibrium, Lyapunov, sweep, continuation, realize, fit, sensitivity, witness — used by the
 // HTTP API (to read bodies), the command line (to check its flags) and the worker (to check what
 // crossed into it), so every door refuses the same input with the same words; the job types are
 // `z.infer` of these. The numbers are the library's limits (app/chem/limits.ts); the shared
@@ -7,7 +7,7 @@ import { z } from "zod";
 import { boundsSchema, sensitivityRequestSchema } from "~/chem/fit/types";
 import { integrationSettings, samplesField, simulationSettings, untilField } from "~/chem/kinetics/settings";
 import { stochasticSettings } from "~/chem/kinetics/stochastic/settings";
-import { byteSize, MAX_BIFURCATION_SWEEP_STEPS, MAX_COMPLEX_CHARS, MAX_CONTINUATION_POINTS, MAX_CSV_BYTES, MAX_EXTRA_COMPLEXES, MAX_FIT_DATA_SETS, MAX_FIT_PARAMETERS, MAX_NAME_CHARS, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SERVER_SAMPLES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { byteSize, MAX_BIFURCATION_SWEEP_STEPS, MAX_COMPLEX_CHARS, MAX_CONTINUATION_POINTS, MAX_CSV_BYTES, MAX_EXTRA_COMPLEXES, MAX_FIT_DATA_SETS, MAX_FIT_PARAMETERS, MAX_NAME_CHARS, MAX_MULTIPLIER_EXPONENT, MAX_OVERRIDE_NAME_CHARS, MAX_OVERRIDES, MAX_SERVER_SAMPLES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES, MAX_WITNESS_JOB_MS } from "~/chem/limits";
 import { cleanText, odeField, sourceField } from "./fields";
 
 // ── The job kinds ──────────────────────────────────────────────────────────────────────────────
@@ -125,6 +125,11 @@ export const sensitivitySettings = sensitivityRequestSchema.extend({
   vary: varyField.min(1, "Name at least one parameter, or leave vary out for every named rate coefficient.").optional(),
 });
 
+/** A multistationarity witness search given `budgetMs` milliseconds (a second up to the limit). */
+const witnessBudget = `the witness search's budget is from 1000 to ${MAX_WITNESS_JOB_MS} milliseconds`;
+export const witnessSettings = z.object({ budgetMs: z.number().int(witnessBudget).min(1000, witnessBudget).max(MAX_WITNESS_JOB_MS, witnessBudget) });
+
+export type WitnessSettings = z.infer<typeof witnessSettings>;
 export type FitSettings = z.infer<typeof fitSettings>;
 export type SensitivitySettings = z.infer<typeof sensitivitySettings>;
 export type SimulateSettings = z.infer<typeof simulateSettings>;
@@ -159,6 +164,7 @@ export const mechanismJobRequest = z.discriminatedUnion("kind", [
   z.object({ kind: z.literal("lyapunov"), source: sourceField, overrides: overrides.optional(), options: lyapunovSettings }),
   z.object({ kind: z.literal("sweep"), source: sourceField, overrides: overrides.optional(), options: sweepSettings }),
   z.object({ kind: z.literal("continuation"), source: sourceField, overrides: overrides.optional(), options: continuationSettings }),
+  z.object({ kind: z.literal("witness"), source: sourceField, overrides: overrides.optional(), options: witnessSettings }),
 ]);
 
 /** A time course of a text that is not a saved mechanism: a polynomial ODE or a mechanism. */

@@ -16,7 +16,7 @@ const IDLE_POLL_MS = 1_000;
 
 /** The envelope of a queued job; the job's own settings are checked by its schema in the worker thread. */
 const queuedJobData = z.object({
-  job: z.looseObject({ kind: z.enum(["simulate", "stochasticRange", "lyapunov", "equilibrium", "sweep", "continuation", "fit", "sensitivity", "realize"]) }),
+  job: z.looseObject({ kind: z.enum(["simulate", "stochasticRange", "lyapunov", "equilibrium", "sweep", "continuation", "fit", "sensitivity", "witness", "realize"]) }),
 });
 
 export interface ConsumerOptions {

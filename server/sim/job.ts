@@ -35,6 +35,7 @@ import {
   simulateSettings,
   stochasticSettings,
   sweepSettings,
+  witnessSettings,
   type ContinuationSettings,
   type EquilibriumSettings,
   type FitSettings,
@@ -45,7 +46,9 @@ import {
   type SimulateSettings,
   type StochasticSettings,
   type SweepSettings,
+  type WitnessSettings,
 } from "~/shared/job-schemas";
+import { searchWitness, type WitnessSearchResult } from "~/chem/witness-search";
 import { firstProblem } from "~/shared/fields";
 import type { SensitivityResult } from "~/chem/fit/types";
 import { checkDataSet, runFit, runSensitivity, type DataCheck } from "./fit-job";
@@ -72,7 +75,9 @@ export type DynamicsJob =
   | { kind: "stochasticRange"; model: DynamicsModel; settings: StochasticSettings; first: number; runs: number }
   | { kind: "continuation"; model: DynamicsModel; options: ContinuationSettings }
   | { kind: "fit"; model: DynamicsModel; options: FitSettings }
-  | { kind: "sensitivity"; model: DynamicsModel; options: SensitivitySettings };
+  | { kind: "sensitivity"; model: DynamicsModel; options: SensitivitySettings }
+  /** The multistationarity witness search with a longer budget than the analysis on every change. */
+  | { kind: "witness"; model: DynamicsModel; options: WitnessSettings };
 
 /** A realization request, with the time its searches for equivalents may take together. */
 export type RealizationJob = { kind: "realize"; request: RealizeRequest; timeLimitMs: number };
@@ -107,6 +112,8 @@ export interface DynamicsResults {
   continuation: ContinuationResult | BifurcationSweepResult;
   fit: ReturnType<typeof runFit>;
   sensitivity: SensitivityResult;
+  /** A promise: the search's LP solver loads asynchronously (the worker awaits every result). */
+  witness: Promise<WitnessSearchResult>;
   realize: RealizeOdeResult;
   analyze: AnalysisReport;
   export: ExportResult;
@@ -199,7 +206,9 @@ function checkSettings(job: DynamicsJob): void {
                 ? fitSettings.safeParse(job.options)
                 : job.kind === "sensitivity"
                   ? sensitivitySettings.safeParse(job.options)
-                  : continuationSettings.safeParse(job.options);
+                  : job.kind === "witness"
+                    ? witnessSettings.safeParse(job.options)
+                    : continuationSettings.safeParse(job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
   if (job.kind === "stochasticRange") {
     const { first, runs } = job;
@@ -278,6 +287,9 @@ function dispatch(job: DynamicsJob, model: ParsedModel, hooks: JobHooks): Dynami
     case "sensitivity":
       if (model.kind === "ode") throw new SimulationInputError("sensitivities are computed for a mechanism's parameters");
       return runSensitivity(model.mechanism, job.options, hooks);
+    case "witness":
+      if (model.kind === "ode") throw new SimulationInputError("a witness search needs a mechanism: its verdict rests on the reaction network");
+      return searchWitness(model.mechanism, { budgetMs: job.options.budgetMs, onProgress: hooks.onProgress });
   }
 }
 

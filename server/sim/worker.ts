@@ -26,7 +26,7 @@ post({ type: "ready" });
 async function run({ job, limits }: WorkerRequest) {
   try {
     const hooks = { onProgress: (fraction: number) => post({ type: "progress", fraction }) };
-    const result = job.kind === "realize" ? await runRealizationJob(job, hooks) : isTextJob(job) ? await runTextJob(job) : runJob(job, hooks, limits);
+    const result = job.kind === "realize" ? await runRealizationJob(job, hooks) : isTextJob(job) ? await runTextJob(job) : await runJob(job, hooks, limits);
     post({ type: "result", result });
   } catch (error) {
     post({ type: "error", ...errorRecord(error) });
