@@ -16,6 +16,8 @@ export interface WitnessCheck {
 
 export interface WitnessSearchResult {
   multistationarity: Multistationarity;
+  /** The searched text's reactions ("A + B → C"), in the order of the witness's rates. */
+  reactions: string[];
   species: string[];
   conservationLaws: number[][];
   /** One per steady state of the witness; empty without one. */
@@ -36,5 +38,6 @@ export async function searchWitness(mechanism: Mechanism, { budgetMs, onProgress
       totals: conservationLaws.map((law) => law.reduce((total, weight, s) => total + weight * state[s], 0)),
     };
   });
-  return { multistationarity, species, conservationLaws, checks };
+  const reactions = report.reactions.map(({ from, to }) => `${report.complexes[from]} → ${report.complexes[to]}`);
+  return { multistationarity, reactions, species, conservationLaws, checks };
 }

@@ -4,6 +4,7 @@
 import type { ReactNode } from "react";
 import type { AnalysisReport } from "~/chem/analysis";
 import { readableNumberText } from "~/chem/numbers";
+import { WitnessDetails, WitnessSearch } from "./witness-search";
 
 type Tone = "ok" | "warn" | "muted";
 
@@ -13,12 +14,18 @@ const toneClasses: Record<Tone, string> = {
   muted: "border border-line text-muted",
 };
 
-export function BehaviourVerdicts({ report }: { report: AnalysisReport }) {
+/** Where the mechanism's text is, for the witness search a member may run; without it none is offered. */
+export interface WitnessJobTarget {
+  mechanismId: string;
+  source: () => string;
+}
+
+export function BehaviourVerdicts({ report, witnessJob }: { report: AnalysisReport; witnessJob?: WitnessJobTarget }) {
   // A report stored before these verdicts existed lacks them until the next recompute.
   if (!report.multistationarity || report.reactions.length === 0) return null;
   return (
     <div className="grid gap-3 md:grid-cols-2" data-testid="behaviour-verdicts">
-      <Multistationarity report={report} />
+      <Multistationarity report={report} witnessJob={witnessJob} />
       <Persistence report={report} />
       <Robustness report={report} />
       <ComplexBalance report={report} />
@@ -38,25 +45,14 @@ function Card({ title, pill, tone, children }: { title: string; pill: string; to
   );
 }
 
-function Multistationarity({ report }: { report: AnalysisReport }) {
+function Multistationarity({ report, witnessJob }: { report: AnalysisReport; witnessJob?: WitnessJobTarget }) {
   const { verdict, reason, witness } = report.multistationarity;
   const tone: Tone = verdict === "excluded" ? "ok" : verdict === "possible" ? "warn" : "muted";
   return (
     <Card title="Several steady states in one class" pill={verdict} tone={tone}>
       <p data-testid="multistationarity-reason">{reason}</p>
-      {witness && (
-        <details>
-          <summary className="cursor-pointer text-muted">Witness: rate coefficients and steady states</summary>
-          <p className="mt-1 font-mono text-xs">
-            {report.reactions.map((reaction, r) => `${report.complexes[reaction.from]} → ${report.complexes[reaction.to]}: ${readableNumberText(witness.rates[r], 4)}`).join("; ")}
-          </p>
-          <ol className="mt-1 list-decimal pl-5 font-mono text-xs">
-            {witness.equilibria.map((state, index) => (
-              <li key={index}>{Object.entries(state).map(([name, value]) => `[${name}] = ${readableNumberText(value, 4)}`).join(", ")}</li>
-            ))}
-          </ol>
-        </details>
-      )}
+      {witness && <WitnessDetails reactions={report.reactions.map(({ from, to }) => `${report.complexes[from]} → ${report.complexes[to]}`)} witness={witness} />}
+      {verdict === "possible" && !witness && witnessJob && <WitnessSearch {...witnessJob} />}
     </Card>
   );
 }

@@ -6,7 +6,7 @@ import katex from "katex";
 import "katex/dist/katex.min.css";
 import { useMemo, type ReactNode } from "react";
 import type { AnalysisReport } from "~/chem/analysis";
-import { BehaviourVerdicts } from "./behaviour-verdicts";
+import { BehaviourVerdicts, type WitnessJobTarget } from "./behaviour-verdicts";
 import { denseStoichiometricMatrix } from "~/chem/stoichiometry";
 import { combinationLatex } from "~/chem/expression";
 import { readableNumberLatex, readableNumberText } from "~/chem/numbers";
@@ -15,7 +15,7 @@ import type { TheoremVerdict } from "~/chem/theorems";
 /** Typesetting thousands of formulas would stall the page; beyond this many the rest are counted. */
 const shownFormulas = 200;
 
-export function StructurePanel({ report }: { report: AnalysisReport }) {
+export function StructurePanel({ report, witnessJob }: { report: AnalysisReport; witnessJob?: WitnessJobTarget }) {
   const { species, complexes, reactions } = report;
   return (
     <section className="card space-y-5 p-5 text-ink" aria-label="Structure">
@@ -39,7 +39,7 @@ export function StructurePanel({ report }: { report: AnalysisReport }) {
         <Verdict title="Deficiency Zero Theorem" verdict={report.theorems.deficiencyZero} />
         <Verdict title="Deficiency One Theorem" verdict={report.theorems.deficiencyOne} />
       </div>
-      <BehaviourVerdicts report={report} />
+      <BehaviourVerdicts report={report} witnessJob={witnessJob} />
 
       {complexes.length > 0 && (
         <Section title="Linkage classes">

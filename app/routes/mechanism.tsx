@@ -141,7 +141,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               onSelect={(selection) => editor.current?.highlight(source ? stepRangesFor(source.toString(), selection) : [])}
             />
           )}
-          {tab === "Structure" && (shownReport ? <StructurePanel report={shownReport} /> : !room.analysis.failure && <Waiting />)}
+          {tab === "Structure" && (shownReport ? <StructurePanel report={shownReport} witnessJob={{ mechanismId: mechanism.id, source: () => source?.toString() ?? mechanism.source }} /> : !room.analysis.failure && <Waiting />)}
           {tab === "Dynamics" && <DynamicsTab mechanismId={mechanism.id} source={source} report={report} />}
           {tab === "Fit" && <FitPanel mechanismId={mechanism.id} source={source} doc={room.doc} report={report} canEdit={canEdit} />}
           {tab === "Files & settings" && (
