@@ -164,7 +164,7 @@ export default function History({ loaderData, actionData }: Route.ComponentProps
             Version #{from.id} → #{to.id}
           </h2>
           <p className="card bg-surface p-4 text-sm" data-testid="invariant-diff">
-            <span className="text-muted">Invariants: </span>
+            <span className="text-muted">Structure and verdicts: </span>
             <span className="text-accent">{describeInvariantChanges(from.summary, to.summary)}</span>
           </p>
           <pre className="card overflow-x-auto p-0 text-sm leading-relaxed" data-testid="text-diff">
