@@ -15,7 +15,7 @@ export function WitnessSearch({ mechanismId, source }: { mechanismId: string; so
   return (
     <div className="space-y-1.5" data-testid="witness-search">
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <p className="text-muted">{`It runs on the server for up to ${DEFAULT_WITNESS_JOB_MS / 1000} s.`}</p>
+        <p className="text-muted">{result ? "" : `It runs on the server for up to ${DEFAULT_WITNESS_JOB_MS / 1000} s.`}</p>
         {job.running ? (
           <button type="button" className="btn btn-danger" onClick={job.cancel}>Cancel</button>
         ) : (
@@ -27,7 +27,12 @@ export function WitnessSearch({ mechanismId, source }: { mechanismId: string; so
       <JobStatus job={job} />
       {result && !job.running && (
         <div data-testid="witness-result">
-          <p>{result.multistationarity.reason}</p>
+          {/* The reason repeats the determinant's count the card already states; with a witness the count of states says it. */}
+          <p>
+            {result.multistationarity.witness
+              ? `Found: ${result.multistationarity.witness.equilibria.length} distinct positive steady states in one class at these rate coefficients, each with its residual below.`
+              : result.multistationarity.reason}
+          </p>
           {result.multistationarity.witness && <WitnessDetails reactions={result.reactions} witness={result.multistationarity.witness} checks={result} open />}
         </div>
       )}
@@ -39,7 +44,7 @@ export function WitnessSearch({ mechanismId, source }: { mechanismId: string; so
 export function WitnessDetails({ reactions, witness, checks, open = false }: { reactions: string[]; witness: MultistationarityWitness; checks?: Omit<WitnessSearchResult, "multistationarity">; open?: boolean }) {
   return (
     <details open={open}>
-      <summary className="cursor-pointer text-muted">Witness: rate coefficients and steady states</summary>
+      <summary className="cursor-pointer text-muted">Witness: rate coefficients (in place of the text's) and steady states</summary>
       <p className="mt-1 font-mono text-xs">
         {reactions.map((reaction, r) => `${reaction}: ${readableNumberText(witness.rates[r], 4)}`).join("; ")}
       </p>
