@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import type { z } from "zod";
 import { settingsProblem } from "~/chem/kinetics/settings";
-import { MAX_ODE_BYTES, MAX_OVERRIDES, MAX_SAMPLES, MAX_SOURCE_BYTES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES } from "~/chem/limits";
+import { MAX_ODE_BYTES, MAX_OVERRIDES, MAX_SAMPLES, MAX_SOURCE_BYTES, MAX_SWEEP_POINTS, MAX_SWEEP_SAMPLES, MAX_WITNESS_JOB_MS } from "~/chem/limits";
 import { firstProblem } from "./fields";
 import {
   equilibriumSettings,
@@ -12,6 +12,7 @@ import {
   simulateSettings,
   sweepSettings,
   textSimulationRequest,
+  witnessSettings,
 } from "./job-schemas";
 
 /** The first problem the schema finds in the value, as the API and the CLI report it; null if none. */
@@ -123,5 +124,16 @@ describe("requests with their text", () => {
     expect(problem(textSimulationRequest, { ode: "x' = -x", source: "A -> B @ 1", settings })).toBe("Send either ode or source.");
     expect(problem(textSimulationRequest, { settings })).toBe("Send either ode or source.");
     expect(problem(textSimulationRequest, { source: "#".repeat(MAX_SOURCE_BYTES + 1), settings })).toMatch(/over 1 MiB/);
+  });
+});
+
+describe("witness", () => {
+  it("takes a whole budget from a second to the limit, and says so otherwise", () => {
+    expect(problem(witnessSettings, { budgetMs: 1000 })).toBeNull();
+    expect(problem(witnessSettings, { budgetMs: MAX_WITNESS_JOB_MS })).toBeNull();
+    for (const budgetMs of [999, MAX_WITNESS_JOB_MS + 1, 1500.5, Number.NaN, Infinity, "2000"]) {
+      expect(problem(witnessSettings, { budgetMs })).toMatch(/budget|expected number/);
+    }
+    expect(problem(mechanismJobRequest, { kind: "witness", source: "A -> B @ 1", options: { budgetMs: 2000 } })).toBeNull();
   });
 });
