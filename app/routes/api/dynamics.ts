@@ -1,5 +1,5 @@
-// Every dynamics job the Dynamics panel runs (time course, equilibrium, Lyapunov exponent,
-// sweep), on the text the page is showing; streamed with progress when asked.
+// Every dynamics job the Dynamics panel runs (time course, equilibrium, Lyapunov exponent, sweep,
+// continuation) and the Structure panel's witness search, on the text the page is showing; streamed with progress when asked.
 import { mechanismJobRequest } from "~/shared/job-schemas";
 import { readJson } from "~/utils/json.server";
 import { jobOwner, modelFromSource, respondWithJob } from "~/utils/dynamics.server";
