@@ -50,6 +50,7 @@ import {
 } from "~/shared/job-schemas";
 import { searchWitness, type WitnessSearchResult } from "~/chem/witness-search";
 import { firstProblem } from "~/shared/fields";
+import type { ZodType } from "zod";
 import type { SensitivityResult } from "~/chem/fit/types";
 import { checkDataSet, runFit, runSensitivity, type DataCheck } from "./fit-job";
 
@@ -189,26 +190,23 @@ export class SimulationLimitError extends Error {
   }
 }
 
+/** Each kind's schema; a job keeps what it checks in `settings` (runs) or `options` (the rest). */
+const settingsSchemas: Record<DynamicsJob["kind"], ZodType> = {
+  simulate: simulateSettings,
+  stochastic: stochasticSettings,
+  stochasticRange: stochasticSettings,
+  equilibrium: equilibriumSettings,
+  lyapunov: lyapunovSettings,
+  sweep: sweepSettings,
+  continuation: continuationSettings,
+  fit: fitSettings,
+  sensitivity: sensitivitySettings,
+  witness: witnessSettings,
+};
+
 /** The job's settings checked by its kind's schema: the CLI and the API checked them already, but a job in a worker arrived as untyped data. */
 function checkSettings(job: DynamicsJob): void {
-  const checked =
-    job.kind === "simulate"
-      ? simulateSettings.safeParse(job.settings)
-      : job.kind === "stochastic" || job.kind === "stochasticRange"
-        ? stochasticSettings.safeParse(job.settings)
-        : job.kind === "equilibrium"
-          ? equilibriumSettings.safeParse(job.options)
-          : job.kind === "lyapunov"
-            ? lyapunovSettings.safeParse(job.options)
-            : job.kind === "sweep"
-              ? sweepSettings.safeParse(job.options)
-              : job.kind === "fit"
-                ? fitSettings.safeParse(job.options)
-                : job.kind === "sensitivity"
-                  ? sensitivitySettings.safeParse(job.options)
-                  : job.kind === "witness"
-                    ? witnessSettings.safeParse(job.options)
-                    : continuationSettings.safeParse(job.options);
+  const checked = settingsSchemas[job.kind].safeParse("settings" in job ? job.settings : job.options);
   if (!checked.success) throw new SimulationInputError(firstProblem(checked.error));
   if (job.kind === "stochasticRange") {
     const { first, runs } = job;
