@@ -1,16 +1,10 @@
-import { spawnSync } from "node:child_process";
 import { describe, expect, it } from "vitest";
+import { mechweave } from "../../tests/support/cli";
 
-// The real command line, as scripts and acceptance checks call it.
-function analyze(...args: string[]) {
-  const result = spawnSync("npx", ["tsx", "server/cli/main.ts", "analyze", ...args], { encoding: "utf8" });
-  return { code: result.status, stdout: result.stdout, stderr: result.stderr };
-}
-
-// Each call starts node and tsx afresh: seconds apiece on a busy machine.
+// Each call starts a node process: seconds apiece on a busy machine.
 describe("mechweave analyze", { timeout: 120_000 }, () => {
-  it("prints the contract JSON and exits 0 for a clean file", () => {
-    const { code, stdout } = analyze("tests/fixtures/michaelis-menten.weave", "--json");
+  it("prints the contract JSON and exits 0 for a clean file", async () => {
+    const { code, stdout } = await mechweave("analyze", "tests/fixtures/michaelis-menten.weave", "--json");
     expect(code).toBe(0);
     const report = JSON.parse(stdout);
     expect(report).toMatchObject({
@@ -28,8 +22,8 @@ describe("mechweave analyze", { timeout: 120_000 }, () => {
     expect(report.odes.P).toBe("kcat*C");
   });
 
-  it("carries the behaviour verdicts: siphons, acr and multistationarity with a witness that verifies", () => {
-    const { code, stdout } = analyze("tests/fixtures/two-site-phosphorylation.weave", "--json");
+  it("carries the behaviour verdicts: siphons, acr and multistationarity with a witness that verifies", async () => {
+    const { code, stdout } = await mechweave("analyze", "tests/fixtures/two-site-phosphorylation.weave", "--json");
     expect(code).toBe(0);
     const report = JSON.parse(stdout);
     // The three conserved totals (substrate, kinase, phosphatase), each in species order.
@@ -40,36 +34,36 @@ describe("mechweave analyze", { timeout: 120_000 }, () => {
     expect(report.multistationarity.witness.equilibria.length).toBeGreaterThanOrEqual(2);
   });
 
-  it("exits 1 for a file with errors and still lists them in the JSON", () => {
-    const { code, stdout } = analyze("tests/fixtures/broken.weave", "--json");
+  it("exits 1 for a file with errors and still lists them in the JSON", async () => {
+    const { code, stdout } = await mechweave("analyze", "tests/fixtures/broken.weave", "--json");
     expect(code).toBe(1);
     const report = JSON.parse(stdout);
     expect(report.diagnostics[0]).toMatchObject({ severity: "error", line: 1, column: 5 });
     expect(report.complexes).toEqual(["Y", "Z", "0"]);
   });
 
-  it("prints a readable report without --json", () => {
-    const { code, stdout } = analyze("tests/fixtures/triangle.weave");
+  it("prints a readable report without --json", async () => {
+    const { code, stdout } = await mechweave("analyze", "tests/fixtures/triangle.weave");
     expect(code).toBe(0);
     expect(stdout).toContain("Rank 2, deficiency 0");
     expect(stdout).toContain("k1*k3*k5 = k2*k4*k6  (holds)");
   });
 
-  it("exits 2 on bad usage, without a stack trace", () => {
+  it("exits 2 on bad usage, without a stack trace", async () => {
     for (const args of [["tests/fixtures/missing.weave", "--json"], ["tests/fixtures/triangle.weave", "--verbose"], []]) {
-      const { code, stderr } = analyze(...args);
+      const { code, stderr } = await mechweave("analyze", ...args);
       expect(code).toBe(2);
       expect(stderr).not.toMatch(/\n\s+at /);
     }
   });
 
-  it("leaves a step with rate coefficient 0 out of the network, whether the file or --set makes it 0", () => {
-    const fromFile = JSON.parse(analyze("tests/fixtures/zero-rate.weave", "--json").stdout);
+  it("leaves a step with rate coefficient 0 out of the network, whether the file or --set makes it 0", async () => {
+    const fromFile = JSON.parse((await mechweave("analyze", "tests/fixtures/zero-rate.weave", "--json")).stdout);
     expect(fromFile.diagnostics).toMatchObject([{ severity: "warning", line: 2, message: "rate coefficient 0: forward direction left out of the network" }]);
     expect(fromFile).toMatchObject({ complexes: ["A", "B"], reactions: [{ from: 1, to: 0, rate: 1 }], weaklyReversible: false, reversible: false });
     expect(fromFile.odes).toEqual({ A: "k2*B", B: "-k2*B" });
 
-    const set = analyze("tests/fixtures/michaelis-menten.weave", "--set", "kcat=0", "--set", "[S]0=2e-3", "--json");
+    const set = await mechweave("analyze", "tests/fixtures/michaelis-menten.weave", "--set", "kcat=0", "--set", "[S]0=2e-3", "--json");
     expect(set.code).toBe(0);
     const report = JSON.parse(set.stdout);
     expect(report.diagnostics).toMatchObject([{ severity: "warning", line: 3, message: "rate coefficient 0: step left out of the network" }]);
@@ -78,9 +72,9 @@ describe("mechweave analyze", { timeout: 120_000 }, () => {
     expect(report.odes.P).toBe("0");
   });
 
-  it("exits 2 for a --set that names nothing in the file or has no number", () => {
+  it("exits 2 for a --set that names nothing in the file or has no number", async () => {
     for (const setting of ["[Q]0=1", "kcat=-1"]) {
-      const { code, stderr } = analyze("tests/fixtures/michaelis-menten.weave", "--set", setting, "--json");
+      const { code, stderr } = await mechweave("analyze", "tests/fixtures/michaelis-menten.weave", "--set", setting, "--json");
       expect(code).toBe(2);
       expect(stderr).toMatch(/--set/);
     }

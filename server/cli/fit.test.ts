@@ -1,24 +1,18 @@
-import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-
-// The real command line, as `npx tsx server/cli/main.ts …` runs it (node with the tsx loader).
-function mechweave(...args: string[]) {
-  const run = spawnSync(process.execPath, ["--import", "tsx", "server/cli/main.ts", ...args], { encoding: "utf8", timeout: 60_000 });
-  return { code: run.status, stdout: run.stdout, stderr: run.stderr };
-}
+import { mechweave } from "../../tests/support/cli";
 
 const fixtures = "tests/fixtures/fit";
 const model = `${fixtures}/consecutive.weave`;
 const data = ["--data", `${fixtures}/consecutive-run-1.csv`, "--data", `${fixtures}/consecutive-run-2.csv`];
-// Each call starts node and tsx afresh: seconds apiece on a busy machine.
+// Each call starts a node process: seconds apiece on a busy machine.
 const slow = { timeout: 180_000 };
 
 describe("mechweave fit", slow, () => {
-  it("estimates the varied coefficients from several data sets, from a poor start given by --set", () => {
-    const { code, stdout } = mechweave("fit", model, ...data, "--vary", "k1,k2", "--vary", "k3", "--set", "k1=2", "--set", "k3=1", "--json");
+  it("estimates the varied coefficients from several data sets, from a poor start given by --set", async () => {
+    const { code, stdout } = await mechweave("fit", model, ...data, "--vary", "k1,k2", "--vary", "k3", "--set", "k1=2", "--set", "k3=1", "--json");
     expect(code).toBe(0);
     const result = JSON.parse(stdout);
     expect(Object.keys(result)).toEqual(["parameters", "cost", "iterations", "converged", "correlation", "warnings"]);
@@ -31,32 +25,32 @@ describe("mechweave fit", slow, () => {
     expect(result.correlation.k2.k3).toBeCloseTo(result.correlation.k3.k2, 12);
   });
 
-  it("exits 1 with a clear message for an unknown parameter, a bad CSV or a species the model lacks", () => {
-    const unknown = mechweave("fit", model, ...data, "--vary", "k9", "--json");
+  it("exits 1 with a clear message for an unknown parameter, a bad CSV or a species the model lacks", async () => {
+    const unknown = await mechweave("fit", model, ...data, "--vary", "k9", "--json");
     expect(unknown.code).toBe(1);
     expect(JSON.parse(unknown.stdout).error).toMatch(/unknown parameter k9; its parameters are k1, k2, k3/);
     const folder = mkdtempSync(join(tmpdir(), "mechweave-fit-"));
     writeFileSync(join(folder, "bad.csv"), "time,B\n0,0\n1,abc\n");
     writeFileSync(join(folder, "stranger.csv"), "time,B,Q\n0,0,1\n1,0.2,1\n");
-    const bad = mechweave("fit", model, "--data", join(folder, "bad.csv"), "--vary", "k1");
+    const bad = await mechweave("fit", model, "--data", join(folder, "bad.csv"), "--vary", "k1");
     expect(bad.code).toBe(1);
     expect(bad.stderr).toMatch(/bad\.csv: line 3, column "B": "abc" is not a number/);
-    const stranger = mechweave("fit", model, "--data", join(folder, "stranger.csv"), "--vary", "k1");
+    const stranger = await mechweave("fit", model, "--data", join(folder, "stranger.csv"), "--vary", "k1");
     expect(stranger.code).toBe(1);
     expect(stranger.stderr).toMatch(/stranger\.csv: the column "Q" is not a species of the model/);
     expect(unknown.stderr + bad.stderr + stranger.stderr).not.toMatch(/\n\s+at /);
   });
 
-  it("exits 2 on bad usage", () => {
-    expect(mechweave("fit", model, "--vary", "k1").code).toBe(2);
-    expect(mechweave("fit", model, ...data).code).toBe(2);
-    expect(mechweave("fit", model, "--data", "missing.csv", "--vary", "k1").code).toBe(2);
+  it("exits 2 on bad usage", async () => {
+    expect((await mechweave("fit", model, "--vary", "k1")).code).toBe(2);
+    expect((await mechweave("fit", model, ...data)).code).toBe(2);
+    expect((await mechweave("fit", model, "--data", "missing.csv", "--vary", "k1")).code).toBe(2);
   });
 });
 
 describe("mechweave sensitivity", slow, () => {
-  it("prints normalized sensitivities for every named rate coefficient by default", () => {
-    const { code, stdout } = mechweave("sensitivity", model, "--until", "2", "--samples", "3", "--json");
+  it("prints normalized sensitivities for every named rate coefficient by default", async () => {
+    const { code, stdout } = await mechweave("sensitivity", model, "--until", "2", "--samples", "3", "--json");
     expect(code).toBe(0);
     const result = JSON.parse(stdout);
     expect(Object.keys(result)).toEqual(["t", "normalized"]);
@@ -67,13 +61,13 @@ describe("mechweave sensitivity", slow, () => {
     expect(result.normalized.B.k1[0]).toBeNull();
   });
 
-  it("takes --vary, and refuses an unknown parameter or a missing --until", () => {
-    const { code, stdout } = mechweave("sensitivity", model, "--until", "1", "--samples", "2", "--vary", "[A]0,k2", "--json");
+  it("takes --vary, and refuses an unknown parameter or a missing --until", async () => {
+    const { code, stdout } = await mechweave("sensitivity", model, "--until", "1", "--samples", "2", "--vary", "[A]0,k2", "--json");
     expect(code).toBe(0);
     expect(Object.keys(JSON.parse(stdout).normalized.C)).toEqual(["[A]0", "k2"]);
-    const unknown = mechweave("sensitivity", model, "--until", "1", "--vary", "kx");
+    const unknown = await mechweave("sensitivity", model, "--until", "1", "--vary", "kx");
     expect(unknown.code).toBe(1);
     expect(unknown.stderr).toMatch(/unknown parameter kx/);
-    expect(mechweave("sensitivity", model, "--samples", "3").code).toBe(2);
+    expect((await mechweave("sensitivity", model, "--samples", "3")).code).toBe(2);
   });
 });
