@@ -3,6 +3,7 @@
 // comments, layout and everything a co-author is typing elsewhere stay as they were.
 import type { SyntaxNode } from "@lezer/common";
 import { parser } from "../../grammar/parser";
+import { initialSpecies } from "./fit/parameters";
 
 export interface TextEdit {
   from: number;
@@ -14,8 +15,6 @@ export interface TextEdit {
 export function valueText(value: number): string {
   return String(Number(value.toPrecision(6)));
 }
-
-const initialName = /^\[(.+)\]0$/;
 
 export interface ValueEdits {
   /** In text order. */
@@ -38,11 +37,12 @@ export function declaredValueEdits(source: string, values: Record<string, number
   const previous: Record<string, number> = {};
   for (const [name, value] of Object.entries(values)) {
     if (!Number.isFinite(value) || value < 0) throw new RangeError(`${name}: a declared value must be a finite number ≥ 0`);
-    const found = spans.get(name);
+    const species = initialSpecies(name);
+    const found = spans.get(species === null ? name : `[${species}]0`);
     if (found) {
       previous[name] = Number(source.slice(found[0].from, found[0].to));
       for (const span of found) edits.push({ ...span, insert: valueText(value) });
-    } else if (initialName.test(name)) {
+    } else if (species !== null) {
       previous[name] = 0;
       added.push(`${name} = ${valueText(value)}`);
     } else undeclared.push(name);

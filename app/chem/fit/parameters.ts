@@ -17,6 +17,12 @@ export interface Parameter {
 
 const INITIAL = /^\[\s*(?:"([^"]+)"|([^\]\s]+))\s*\]0$/;
 
+/** The species an initial-value name (`[A]0`, `["Fe3+"]0`) names; null for a parameter name. */
+export function initialSpecies(name: string): string | null {
+  const match = INITIAL.exec(name);
+  return match ? (match[1] ?? match[2]) : null;
+}
+
 /** Reads parameter names against the mechanism; an unknown one is refused with its name. */
 export function resolveParameters(mechanism: Mechanism, names: readonly string[]): Parameter[] {
   const seen = new Set<string>();
@@ -24,9 +30,8 @@ export function resolveParameters(mechanism: Mechanism, names: readonly string[]
     const name = raw.trim();
     if (seen.has(name)) throw new SimulationInputError(`${name} is named twice`);
     seen.add(name);
-    const initial = INITIAL.exec(name);
-    if (initial) {
-      const species = initial[1] ?? initial[2];
+    const species = initialSpecies(name);
+    if (species !== null) {
       if (!mechanism.species.includes(species)) throw new SimulationInputError(`${name}: the mechanism has no species ${species} (fixed species cannot vary)`);
       return { name, kind: "initial", key: species };
     }
