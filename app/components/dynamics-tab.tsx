@@ -119,7 +119,7 @@ export function DynamicsTab({ mechanismId, source, report }: Props) {
             </div>
             <p className="mt-2 text-xs text-muted">
               {result.stats.steps} steps ({result.stats.rejected} rejected, {result.stats.jacobians} Jacobians) in {result.stats.ms.toFixed(0)} ms
-              with the {result.method} method{result.stats.method ? ` (${METHOD_NAMES[result.stats.method]})` : ""}{result.switchedAt !== null ? `, switched to stiff at t = ${readableNumberText(result.switchedAt)}` : ""}.
+              with the {result.method} method{result.stats.method ? ` (${METHOD_NAMES[result.stats.method]})` : ""}{result.switchedAt !== null ? `, switched to stiff at t = ${readableNumberText(result.switchedAt, 3)}` : ""}.
               Drag to zoom, double-click to reset; click a name to hide or show it.
             </p>
             <div className="mt-3 flex flex-wrap items-center gap-3">
