@@ -225,31 +225,44 @@ export class SparseShiftedLu {
 
 /**
  * Greedy minimum-degree ordering on the symmetrised pattern, recording for each position the later
- * positions it is joined to when eliminated (its row of U, fill included).
+ * positions it is joined to when eliminated (its row of U, fill included). Ties go to the lowest
+ * index. The elimination graph is kept as plain neighbour lists with a stamp array against
+ * duplicates: hashing every fill edge into a Set made this ordering most of a cold simulation's
+ * set-up on a network with a large dense tail.
  */
 function minimumDegreeOrder(pattern: readonly (readonly number[])[]): { order: Int32Array; upper: number[][] } {
   const n = pattern.length;
-  const neighbours = Array.from({ length: n }, () => new Set<number>());
+  const symmetric = Array.from({ length: n }, () => new Set<number>());
   pattern.forEach((row, i) => {
     for (const j of row) {
       if (j === i) continue;
-      neighbours[i].add(j);
-      neighbours[j].add(i);
+      symmetric[i].add(j);
+      symmetric[j].add(i);
     }
   });
+  const neighbours = symmetric.map((set) => [...set]);
+  const stamp = new Int32Array(n);
+  let currentStamp = 0;
   const eliminated = new Uint8Array(n);
   const order = new Int32Array(n);
   const joined: number[][] = [];
   for (let p = 0; p < n; p++) {
     let best = -1;
-    for (let v = 0; v < n; v++) if (!eliminated[v] && (best < 0 || neighbours[v].size < neighbours[best].size)) best = v;
+    for (let v = 0; v < n; v++) if (!eliminated[v] && (best < 0 || neighbours[v].length < neighbours[best].length)) best = v;
     order[p] = best;
     eliminated[best] = 1;
-    const around = [...neighbours[best]];
+    const around = neighbours[best];
     joined.push(around);
+    // Each neighbour loses `best` and gains the others: they form a clique once it is gone.
     for (const a of around) {
-      neighbours[a].delete(best);
-      for (const b of around) if (a !== b) neighbours[a].add(b);
+      const list = neighbours[a];
+      currentStamp++;
+      stamp[a] = currentStamp;
+      for (const v of list) stamp[v] = currentStamp;
+      const at = list.indexOf(best);
+      list[at] = list[list.length - 1];
+      list.pop();
+      for (const b of around) if (stamp[b] !== currentStamp) list.push(b);
     }
   }
   const position = new Int32Array(n);
