@@ -145,8 +145,10 @@ export class ExplicitRungeKutta implements Stepper {
     let numerator = 0;
     let denominator = 0;
     for (let i = 0; i < last.length; i++) {
-      numerator += (last[i] - beforeLast[i]) ** 2;
-      denominator += (yNew[i] - stage[i]) ** 2;
+      const slope = last[i] - beforeLast[i];
+      const distance = yNew[i] - stage[i];
+      numerator += slope * slope;
+      denominator += distance * distance;
     }
     const hLambda = denominator > 0 ? this.lastH * Math.sqrt(numerator / denominator) : 0;
     if (hLambda > this.stiffnessThreshold) {

@@ -58,6 +58,11 @@ export class Integrator {
   private jacobiansBeforeSwitch = 0;
   private h = 0;
   private readonly maxSteps: number;
+  /**
+   * rtol and atol alone: every call of the hot `errorNorm` then sees objects of one shape, which
+   * keeps its optimised code monomorphic (the whole options object made it deoptimise).
+   */
+  private readonly tolerances: Tolerances;
 
   constructor(
     private readonly system: OdeSystem,
@@ -68,8 +73,9 @@ export class Integrator {
     this.y = Float64Array.from(initial);
     this.t = start;
     this.maxSteps = options.maxSteps ?? DEFAULT_MAX_STEPS;
+    this.tolerances = { rtol: options.rtol, atol: options.atol };
     const explicitFirst = options.method === "auto" || options.method === "explicit";
-    this.explicit = explicitFirst ? new ExplicitRungeKutta(dormandPrince54, system, options) : null;
+    this.explicit = explicitFirst ? new ExplicitRungeKutta(dormandPrince54, system, this.tolerances) : null;
     this.stepper = this.explicit ?? this.stiffStepper();
     this.controller = chooserFor(this.stepper);
   }
@@ -155,7 +161,7 @@ export class Integrator {
   private stiffStepper(): Stepper {
     const { method, rtol } = this.options;
     const rosenbrock = method === "rodas4" || (method !== "bdf" && rtol <= TIGHT_RTOL);
-    return rosenbrock ? new Rosenbrock(rodas4, this.system, this.options) : new Bdf(this.system, this.options);
+    return rosenbrock ? new Rosenbrock(rodas4, this.system, this.tolerances) : new Bdf(this.system, this.tolerances);
   }
 
   /** Hairer & Wanner's starting step (Solving ODEs I, §II.4): from |y|, |f| and a trial Euler step. */
@@ -165,8 +171,8 @@ export class Integrator {
     const f0 = new Float64Array(n);
     system.rhs(y, f0);
     const zero = new Float64Array(n);
-    const sizeY = errorNorm(y, y, zero, this.options);
-    const sizeF = errorNorm(f0, y, zero, this.options);
+    const sizeY = errorNorm(y, y, zero, this.tolerances);
+    const sizeF = errorNorm(f0, y, zero, this.tolerances);
     let h = sizeY <= 1e-10 || sizeF <= 1e-10 ? 1e-6 : 0.01 * (sizeY / sizeF);
     h = Math.min(h, span);
     const y1 = new Float64Array(n);
@@ -174,7 +180,7 @@ export class Integrator {
     const f1 = new Float64Array(n);
     system.rhs(y1, f1);
     for (let i = 0; i < n; i++) f1[i] -= f0[i];
-    const curvature = Math.max(errorNorm(f1, y, zero, this.options) / h, sizeF);
+    const curvature = Math.max(errorNorm(f1, y, zero, this.tolerances) / h, sizeF);
     const h1 = curvature <= 1e-15 ? Math.max(1e-6, h * 1e-3) : Math.pow(0.01 / curvature, 1 / this.stepper.order);
     const start = Math.min(100 * h, h1, span);
     return Number.isFinite(start) && start > 0 ? start : Math.min(1e-6, span);
