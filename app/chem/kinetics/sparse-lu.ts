@@ -249,6 +249,17 @@ function minimumDegreeOrder(pattern: readonly (readonly number[])[]): { order: I
   for (let p = 0; p < n; p++) {
     let best = -1;
     for (let v = 0; v < n; v++) if (!eliminated[v] && (best < 0 || neighbours[v].length < neighbours[best].length)) best = v;
+    if (neighbours[best].length === n - p - 1) {
+      // The least degree is that of a clique: every node left is joined to every other, and stays
+      // so as they go, all with one degree; so they go in index order, each joined to those after.
+      const rest = [];
+      for (let v = 0; v < n; v++) if (!eliminated[v]) rest.push(v);
+      rest.forEach((v, q) => {
+        order[p + q] = v;
+        joined.push(rest.slice(q + 1));
+      });
+      break;
+    }
     order[p] = best;
     eliminated[best] = 1;
     const around = neighbours[best];
