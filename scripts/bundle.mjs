@@ -4,17 +4,15 @@
 // build/, one level below the project root as their sources in server/ are, so paths the code
 // finds from its own place (the project root, the bundle beside it) stay right.
 import { build } from "esbuild";
-import { readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
-import { CLI_V8_FLAGS } from "./cli-v8-flags.mjs";
 
 const root = path.resolve(import.meta.dirname, "..");
 
 export const bundles = {
   "mechweave-server": "server/main.ts",
   "mechweave-worker": "server/job-worker.ts",
-  // build/mechweave-cli.js is the tiny entry written below, which sets the V8 flags first.
-  "mechweave-cli-main": "server/cli/main.ts",
+  "mechweave-cli": "server/cli/main.ts",
   "job-thread": "server/sim/worker.ts",
   "analysis-thread": "server/collab/analysis-worker.ts",
 };
@@ -78,16 +76,3 @@ await build({
   logLevel: "warning",
   plugins: [lazyMathjs],
 });
-
-// A flag set after a function was compiled does not change that function, and a static import
-// would load (and compile) the main chunk before any statement here ran: hence a dynamic import.
-writeFileSync(
-  path.join(root, "build", "mechweave-cli.js"),
-  [
-    "// The command line's entry: V8 flags for a short-lived process (scripts/cli-v8-flags.mjs), then the command line.",
-    'import { setFlagsFromString } from "node:v8";',
-    `setFlagsFromString(${JSON.stringify(CLI_V8_FLAGS.join(" "))});`,
-    'await import("./mechweave-cli-main.js");',
-    "",
-  ].join("\n"),
-);

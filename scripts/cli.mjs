@@ -1,10 +1,9 @@
 // `npm run mechweave -- …`: the command line from its prebuilt bundle (build/mechweave-cli.js, made
 // by the build), which starts without a TypeScript transform; from the source under tsx when there
-// is no bundle yet or a source file changed after it was built (with the bundle entry's V8 flags).
+// is no bundle yet or a source file changed after it was built.
 import { spawnSync } from "node:child_process";
 import { existsSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
-import { CLI_V8_FLAGS } from "./cli-v8-flags.mjs";
 
 const root = path.resolve(import.meta.dirname, "..");
 const bundle = path.join(root, "build", "mechweave-cli.js");
@@ -23,6 +22,6 @@ const fresh = existsSync(bundle) && statSync(bundle).mtimeMs >= Math.max(...["ap
 const args = process.argv.slice(2);
 const command = fresh
   ? [bundle, ...args]
-  : (spawnSync(process.execPath, [path.join(root, "scripts/ensure-grammar.mjs")], { stdio: "inherit" }), [...CLI_V8_FLAGS, "--import", "tsx", path.join(root, "server/cli/main.ts"), ...args]);
+  : (spawnSync(process.execPath, [path.join(root, "scripts/ensure-grammar.mjs")], { stdio: "inherit" }), ["--import", "tsx", path.join(root, "server/cli/main.ts"), ...args]);
 const result = spawnSync(process.execPath, command, { stdio: "inherit" });
 process.exit(result.status ?? 1);
