@@ -252,7 +252,7 @@ function minimumDegreeOrder(pattern: readonly (readonly number[])[]): { order: I
     if (neighbours[best].length === n - p - 1) {
       // The least degree is that of a clique: every node left is joined to every other, and stays
       // so as they go, all with one degree; so they go in index order, each joined to those after.
-      const rest = [];
+      const rest: number[] = [];
       for (let v = 0; v < n; v++) if (!eliminated[v]) rest.push(v);
       rest.forEach((v, q) => {
         order[p + q] = v;
