@@ -40,3 +40,24 @@ it("runs an ensemble and draws mean ± sd bands with sample runs", { timeout: 18
   await card.screenshot({ path: `${shots}/stochastic-card.png` });
   await page.screenshot({ path: `${shots}/stochastic-panel.png`, fullPage: true });
 });
+
+it("chooses the volume from the initial concentrations and shows the copies it implies", { timeout: 180_000 }, async () => {
+  const owner = await signUp(world.server.url, "Vera Volume");
+  // An invented dilute solution: every species at 1e-4 mol/L or less.
+  const source = ["bind: A + B -> C @ 1e6", "[A]0 = 1e-4", "[B]0 = 3e-4", "[C]0 = 0"].join("\n") + "\n";
+  const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Dilute binding", source })).json();
+  const page = await signedInPage(world, owner.email);
+  page.setDefaultTimeout(60_000);
+  await page.goto(`${world.server.url}/m/${id}`);
+  await page.waitForSelector("[data-testid=room-status][data-status=online]");
+  await page.click('role=tab[name="Dynamics"]');
+  const card = page.locator("[data-testid=stochastic]");
+  await card.locator("[data-testid=starting-copies]").waitFor();
+  expect(Number(await card.locator("label:has-text('Volume V') input").inputValue())).toBe(5e6);
+  expect(await card.locator("[data-testid=starting-copies]").innerText()).toMatch(/chosen from the initial concentrations, the runs start with A 500, B 1500\./);
+  await card.locator("[data-testid=starting-copies]").scrollIntoViewIfNeeded();
+  await card.screenshot({ path: `${shots}/stochastic-default-volume.png` });
+  // A volume typed by the reader is kept, and what it implies is said.
+  await card.locator("label:has-text('Volume V') input").fill("100");
+  await expect.poll(() => card.locator("[data-testid=starting-copies]").innerText()).toMatch(/no molecules at all.*A, B round to 0 copies/);
+});
