@@ -1,5 +1,6 @@
-// The two kinds of node of the species–step view: a species as a plain box, a step as a small
-// square with its label beside it, so the species stand out and the steps stay out of the way.
+// The kinds of node of the species–step view: a species as a plain box, a step as a small square
+// with its label beside it, so the species stand out and the steps stay out of the way, and a hub
+// species' copy beside one step as a smaller box with a dashed rim, so it reads as "again".
 import type { Node, NodeProps } from "@xyflow/react";
 import { litHalo } from "./complex-node";
 
@@ -12,6 +13,7 @@ export type SpeciesStepData = {
 
 export type SpeciesNode = Node<SpeciesStepData, "species">;
 export type StepNode = Node<SpeciesStepData, "step">;
+export type CopyNode = Node<SpeciesStepData, "copy">;
 
 export function SpeciesNodeView({ data, selected }: NodeProps<SpeciesNode>) {
   return (
@@ -34,6 +36,21 @@ export function StepNodeView({ data, selected }: NodeProps<StepNode>) {
       <span className="absolute top-1/2 left-[18px] -translate-y-1/2 font-mono text-[11px] leading-none whitespace-nowrap" style={{ color: data.lit ? "var(--mw-signal)" : "var(--mw-muted)" }}>
         {data.label}
       </span>
+    </div>
+  );
+}
+
+export function CopyNodeView({ data, selected }: NodeProps<CopyNode>) {
+  return (
+    <div
+      className="rounded-full border border-dashed border-ink/50 bg-raised px-[7px] font-mono text-[11px] leading-[18px] whitespace-nowrap text-ink/80"
+      style={{ opacity: data.dim ? 0.25 : 1, boxShadow: selected ? "0 0 0 3px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : data.lit ? litHalo : undefined }}
+      title={data.description}
+      data-copy
+      data-lit={data.lit || undefined}
+      data-dim={data.dim || undefined}
+    >
+      {data.label}
     </div>
   );
 }
