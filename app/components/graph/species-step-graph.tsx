@@ -3,7 +3,7 @@
 // species are drawn as the reader chose (copies beside each step, left out, or once), and a focus
 // may narrow the picture to its neighbourhood, laid out on its own.
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
 import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
@@ -49,15 +49,18 @@ export function SpeciesStepGraph({ report, model: whole, hubs, choice, emphasis 
   const positions = answer?.drawing === drawing ? answer.positions : null;
   const [nodes, setNodes] = useState<SpeciesStepNode[]>([]);
   const [viewTouched, setViewTouched] = useState(false);
-  const drawnAs = useRef<string | null>(null);
+  // The way the nodes on screen are drawn; a new one starts a fresh canvas, fitted anew.
+  const [drawnAs, setDrawnAs] = useState<string | null>(null);
 
   // A new model is drawn once its layout arrives; until then the previous picture stays. Nodes
   // keep where the reader dragged them while the picture is drawn the same way.
   useEffect(() => {
     if (!model || !positions) return;
-    const sameDrawing = drawnAs.current === drawing;
-    if (!sameDrawing) setViewTouched(false);
-    drawnAs.current = drawing;
+    const sameDrawing = drawnAs === drawing;
+    if (!sameDrawing) {
+      setViewTouched(false);
+      setDrawnAs(drawing);
+    }
     setNodes((previous) => {
       const before = new Map(sameDrawing ? previous.map((node) => [node.id, node]) : []);
       const built = model.nodes.map((node): SpeciesStepNode => {
@@ -78,7 +81,7 @@ export function SpeciesStepGraph({ report, model: whole, hubs, choice, emphasis 
         (old, next) => old.type === next.type && old.position === next.position && old.data.label === next.data.label && old.data.description === next.data.description,
       );
     });
-  }, [model, positions, drawing]);
+  }, [model, positions, drawing, drawnAs]);
 
   // A species may be drawn as several copies, or not at all.
   const idsOf = useMemo(() => (model ? speciesNodeIds(model) : new Map<number, string[]>()), [model]);
@@ -147,6 +150,7 @@ export function SpeciesStepGraph({ report, model: whole, hubs, choice, emphasis 
   return (
     <div className="relative min-h-0 flex-1" data-testid="species-step-graph">
       <ReactFlow<SpeciesStepNode>
+        key={drawnAs}
         nodes={shownNodes}
         nodeTypes={nodeTypes}
         onNodesChange={(changes: NodeChange<SpeciesStepNode>[]) =>
