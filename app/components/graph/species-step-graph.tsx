@@ -38,7 +38,9 @@ export function SpeciesStepGraph({ report, model: whole, hubs, choice, emphasis 
   const focusSteps = emphasis.focus?.steps;
   const model = useMemo(() => {
     if (!whole) return null;
-    const drawn = withHubs(whole, new Set(hubs), choice.hubs);
+    // A hub found and shown alone is the middle of its picture: drawn once, its steps around it.
+    const focusedSpecies = narrowed && emphasis.focused?.kind === "species" ? emphasis.focused.index : null;
+    const drawn = withHubs(whole, new Set(hubs.filter((index) => index !== focusedSpecies)), choice.hubs);
     return narrowed && focusSteps ? onlySteps(drawn, focusSteps) : drawn;
     // The focus's steps matter only through `drawing` (its key), not each new object of the same focus.
   }, [whole, drawing]);
