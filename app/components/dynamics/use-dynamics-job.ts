@@ -49,7 +49,7 @@ export function useDynamicsJob<T>(url: string) {
             const message = JSON.parse(line) as { queued?: number; progress?: number; note?: FitProgress; result?: T; error?: string };
             if (message.queued !== undefined) setState((s) => ({ ...s, queued: message.queued! }));
             if (message.progress !== undefined)
-              setState((s) => ({ ...s, queued: null, progress: message.progress!, notes: message.note ? [...s.notes, message.note] : s.notes }));
+              setState((s) => ({ ...s, queued: null, progress: message.progress!, notes: message.note ? withNote(s.notes, message.note) : s.notes }));
             if (message.result !== undefined) setState((s) => ({ running: false, progress: 1, queued: null, notes: s.notes, result: message.result!, error: null }));
             if (message.error !== undefined) setState((s) => ({ ...s, running: false, queued: null, error: message.error! }));
           }
@@ -64,4 +64,10 @@ export function useDynamicsJob<T>(url: string) {
 
   const cancel = useCallback(() => controller.current?.abort(), []);
   return { ...state, run, cancel };
+}
+
+/** Notes in iteration order: events may overtake one another between the worker's process and this one. */
+export function withNote(notes: FitProgress[], note: FitProgress): FitProgress[] {
+  if (notes.some(({ iteration }) => iteration === note.iteration)) return notes;
+  return [...notes, note].sort((a, b) => a.iteration - b.iteration);
 }
