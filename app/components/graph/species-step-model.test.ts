@@ -1,7 +1,19 @@
 import { describe, expect, it } from "vitest";
 import { analyzeSource } from "~/chem/analysis";
 import { generatedOxidation } from "../../../tests/fixtures/generated-oxidation";
-import { buildSpeciesStepModel, estimateSpeciesStepSize, hubSpecies, layoutSpeciesSteps, onlySteps, speciesNodeIds, withHubs } from "./species-step-model";
+import type { XY } from "./layout";
+import { buildSpeciesStepModel, estimateSpeciesStepSize, hubSpecies, layoutSpeciesSteps, onlySteps, type SpeciesStepModel, speciesNodeIds, withHubs } from "./species-step-model";
+
+function overlappingPairs(model: SpeciesStepModel, placed: Record<string, XY>): number {
+  const boxes = model.nodes.map((node) => ({ ...placed[node.id], ...estimateSpeciesStepSize(node) }));
+  let overlaps = 0;
+  for (let i = 0; i < boxes.length; i++)
+    for (let j = i + 1; j < boxes.length; j++) {
+      const [a, b] = [boxes[i], boxes[j]];
+      if (a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height) overlaps++;
+    }
+  return overlaps;
+}
 
 describe("the species–step view", () => {
   it("has a node per species and per step, arcs labelled only above 1, fixed species left out", async () => {
@@ -58,15 +70,8 @@ describe("the species–step view", () => {
   it("lays 500 steps out with no two nodes overlapping", { timeout: 120_000 }, async () => {
     const model = buildSpeciesStepModel(await analyzeSource(generatedOxidation(500)));
     const placed = layoutSpeciesSteps(model);
-    const boxes = model.nodes.map((node) => ({ ...placed[node.id], ...estimateSpeciesStepSize(node) }));
-    let overlaps = 0;
-    for (let i = 0; i < boxes.length; i++)
-      for (let j = i + 1; j < boxes.length; j++) {
-        const [a, b] = [boxes[i], boxes[j]];
-        if (a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height) overlaps++;
-      }
-    expect(boxes.length).toBeGreaterThan(600);
-    expect(overlaps).toBe(0);
+    expect(model.nodes.length).toBeGreaterThan(600);
+    expect(overlappingPairs(model, placed)).toBe(0);
     // The same model always gets the same picture.
     expect(layoutSpeciesSteps(model)).toEqual(placed);
   });
@@ -75,14 +80,7 @@ describe("the species–step view", () => {
     const base = buildSpeciesStepModel(await analyzeSource(generatedOxidation(500)));
     const model = withHubs(base, new Set(hubSpecies(base, 16)), "copies");
     const placed = layoutSpeciesSteps(model);
-    const boxes = model.nodes.map((node) => ({ ...placed[node.id], ...estimateSpeciesStepSize(node) }));
-    let overlaps = 0;
-    for (let i = 0; i < boxes.length; i++)
-      for (let j = i + 1; j < boxes.length; j++) {
-        const [a, b] = [boxes[i], boxes[j]];
-        if (a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height) overlaps++;
-      }
-    expect(overlaps).toBe(0);
+    expect(overlappingPairs(model, placed)).toBe(0);
     const copies = model.nodes.filter((node) => node.kind === "copy");
     expect(copies.length).toBeGreaterThan(40);
     // Centre to centre, every copy sits within about two arc lengths of its step.
