@@ -141,7 +141,7 @@ function GraphWorkspace({ report: latest, ...props }: ComplexGraphProps) {
         {view === "complexes" ? (
           <SharedComplexGraph {...props} report={report} folding={folding} emphasis={emphasis} />
         ) : (
-          <SpeciesStepGraph report={report} model={speciesModel} hubs={hubs} choice={speciesChoice} emphasis={emphasis} />
+          <SpeciesStepGraph model={speciesModel} hubs={hubs} choice={speciesChoice} emphasis={emphasis} />
         )}
       </ReactFlowProvider>
     </>

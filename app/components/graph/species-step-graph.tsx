@@ -7,7 +7,6 @@ import { useEffect, useMemo, useState } from "react";
 import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
 import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
-import type { ComplexGraphReport } from "./graph-model";
 import type { XY } from "./layout";
 import type { SpeciesStepLayoutRequest } from "./species-step-layout.worker";
 import { estimateSpeciesStepSize, largestClass, onlySteps, type SpeciesStepModel, speciesNodeIds, stepNodeId, withHubs } from "./species-step-model";
@@ -22,7 +21,6 @@ const nodeTypes = { species: SpeciesNodeView, step: StepNodeView, copy: CopyNode
 const readableZoom = Math.max(edgeLabelZoom, 9 / 11);
 
 interface Props {
-  report: ComplexGraphReport | null;
   /** Every species and step, before hubs and focus are applied. */
   model: SpeciesStepModel | null;
   /** Species (by index) used by enough steps to count as hubs. */
@@ -31,18 +29,18 @@ interface Props {
   emphasis: Emphasis;
 }
 
-export function SpeciesStepGraph({ report, model: whole, hubs, choice, emphasis }: Props) {
+export function SpeciesStepGraph({ model: whole, hubs, choice, emphasis }: Props) {
   const narrowed = choice.focusOnly && emphasis.focus !== null;
   // Names the way the picture is drawn; a layout made for another is not used.
   const drawing = `${choice.hubs}|${hubs.join(",")}|${narrowed ? emphasis.focusKey : ""}`;
   const focusSteps = emphasis.focus?.steps;
+  // The focus matters only through `drawing` (its key), not through each new object of the same focus.
   const model = useMemo(() => {
     if (!whole) return null;
     // A hub found and shown alone is the middle of its picture: drawn once, its steps around it.
     const focusedSpecies = narrowed && emphasis.focused?.kind === "species" ? emphasis.focused.index : null;
     const drawn = withHubs(whole, new Set(hubs.filter((index) => index !== focusedSpecies)), choice.hubs);
     return narrowed && focusSteps ? onlySteps(drawn, focusSteps) : drawn;
-    // The focus's steps matter only through `drawing` (its key), not each new object of the same focus.
   }, [whole, drawing]);
   const answer = useLayoutWorker<SpeciesStepLayoutRequest, { drawing: string; positions: Record<string, XY> }>(
     () => new Worker(new URL("./species-step-layout.worker.ts", import.meta.url), { type: "module" }),
