@@ -37,7 +37,7 @@ export function StochasticCard({ url, input, until: panelUntil }: Props) {
   const field = (label: string, value: number, set: (v: number) => void, bounds: { min?: number; max?: number; step?: string } = {}) => (
     <label className="text-sm">
       <span className="label">{label}</span>
-      <input className="field w-24 py-1.5" type="number" step={bounds.step ?? "any"} min={bounds.min} max={bounds.max} value={value} onChange={(e) => set(Number(e.target.value))} required />
+      <input className="field w-28 py-1.5" type="number" step={bounds.step ?? "any"} min={bounds.min} max={bounds.max} value={value} onChange={(e) => set(Number(e.target.value))} required />
     </label>
   );
   return (
