@@ -101,11 +101,11 @@ export async function respondWithJob(request: Request, context: AppLoadContext, 
       admitted();
       send({ queued: position });
     },
-    onProgress(fraction) {
-      // About one line per percent is plenty for a progress bar.
-      if (fraction - lastSent < 0.01 && fraction < 1) return;
+    onProgress(fraction, note) {
+      // About one line per percent is plenty for a progress bar; a fit's every iteration is news.
+      if (!note && fraction - lastSent < 0.01 && fraction < 1) return;
       lastSent = fraction;
-      send({ progress: fraction });
+      send(note ? { progress: fraction, note } : { progress: fraction });
     },
   });
   // A job refused before it is queued (the caller's queue is full) answers with its own status.

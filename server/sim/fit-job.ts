@@ -27,7 +27,7 @@ export function runFit(mechanism: Mechanism, settings: FitSettings, hooks: JobHo
   const result = fitMechanism(
     mechanism,
     { vary: settings.vary, bounds: settings.bounds, experiments, maxIterations: SERVER_FIT_ITERATIONS },
-    { signal: hooks.signal, onProgress: ({ iteration }) => hooks.onProgress?.(Math.min(0.99, iteration / SERVER_FIT_ITERATIONS)) },
+    { signal: hooks.signal, onProgress: (progress) => hooks.onProgress?.(Math.min(0.99, progress.iteration / SERVER_FIT_ITERATIONS), progress) },
   );
   return { ...result, dataWarnings };
 }

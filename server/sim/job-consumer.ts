@@ -94,11 +94,11 @@ export class JobConsumer {
         signal: controller.signal,
         // Each job its own owner: the callers' instances already applied the per-user caps.
         owner: id,
-        onProgress: (fraction) => {
-          // About one event per percent is plenty for a progress bar.
-          if (fraction - lastSent < 0.01 && fraction < 1) return;
+        onProgress: (fraction, note) => {
+          // About one event per percent is plenty for a progress bar; a fit's every iteration is news.
+          if (!note && fraction - lastSent < 0.01 && fraction < 1) return;
           lastSent = fraction;
-          void events.publish({ type: "progress", id, fraction });
+          void events.publish({ type: "progress", id, fraction, ...(note && { note }) });
         },
       });
       await boss.complete(DYNAMICS_QUEUE, id, withRanOn(result, this.options.ranOn));

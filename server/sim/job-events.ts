@@ -12,7 +12,7 @@ const RECONNECT_MS = 1_000;
 const jobEvent = z.discriminatedUnion("type", [
   z.object({ type: z.literal("submitted") }),
   z.object({ type: z.literal("started"), id: z.string() }),
-  z.object({ type: z.literal("progress"), id: z.string(), fraction: z.number() }),
+  z.object({ type: z.literal("progress"), id: z.string(), fraction: z.number(), note: z.object({ iteration: z.number(), cost: z.number() }).optional() }),
   z.object({ type: z.literal("finished"), id: z.string() }),
   z.object({ type: z.literal("cancel"), id: z.string() }),
 ]);

@@ -4,6 +4,7 @@
 // text (the structure report, exports, SBML import, parsing a text for a run) travel the same way:
 // none of them may stall the server's event loop.
 
+import type { FitProgress } from "~/chem/fit/types";
 import { sweepBifurcations, type BifurcationSweepResult } from "~/chem/kinetics/bifurcation-sweep";
 import { continueEquilibria, type ContinuationResult } from "~/chem/kinetics/continuation";
 import { networkEquilibrium, polynomialEquilibrium, type EquilibriumResult } from "~/chem/kinetics/equilibrium";
@@ -125,7 +126,8 @@ export interface DynamicsResults {
 export type JobResult<J extends WorkerJob> = DynamicsResults[J["kind"]];
 
 export interface JobHooks {
-  onProgress?: (fraction: number) => void;
+  /** `note`: what a fit's bar shows instead of a share (its iterations and cost). */
+  onProgress?: (fraction: number, note?: FitProgress) => void;
   signal?: AbortSignal;
 }
 

@@ -6,6 +6,7 @@
 // own worker threads: every page needs it at once, and a queue round trip would only slow it down.
 // A stochastic ensemble goes in as several jobs, one per range of runs, so the consumers' lanes
 // share it; each run is seeded by its index, so the merged answer is the one a single worker gives.
+import type { FitProgress } from "~/chem/fit/types";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { SimulationCancelled } from "~/chem/kinetics/errors";
@@ -28,7 +29,7 @@ const errorOutput = z.object({ name: z.string(), message: z.string(), limit: z.s
 interface Waiter {
   /** True until the job is seen running: only waiting jobs care that others started or ended. */
   waiting: boolean;
-  progress(fraction: number): void;
+  progress(fraction: number, note?: FitProgress): void;
   /** Reads the job's state: settles the caller's promise if it is over, reports its place if it waits. */
   check(): void;
 }
@@ -47,7 +48,7 @@ export class QueuedJobs {
     this.limits = { running: runningPerUser, queued: queuedPerUser };
     this.timeMs = limits.timeMs ?? DEFAULT_LIMITS.timeMs;
     queue.events.on((event) => {
-      if (event.type === "progress") this.waiters.get(event.id)?.progress(event.fraction);
+      if (event.type === "progress") this.waiters.get(event.id)?.progress(event.fraction, event.note);
       if (event.type === "finished") this.waiters.get(event.id)?.check();
       // A job started, ended or left the line: the places behind it moved.
       if (event.type !== "progress" && event.type !== "submitted") for (const waiter of this.waiters.values()) if (waiter.waiting) waiter.check();
@@ -132,9 +133,9 @@ export class QueuedJobs {
       signal?.addEventListener("abort", cancel, { once: true });
       const waiter: Waiter = {
         waiting: false,
-        progress: (fraction) => {
+        progress: (fraction, note) => {
           waiter.waiting = false;
-          if (!settled) onProgress?.(fraction);
+          if (!settled) onProgress?.(fraction, note);
         },
         check: () => void check(),
       };

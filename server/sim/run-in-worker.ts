@@ -4,6 +4,7 @@
 // `admission.ts`: a few at once (as many as the worker budget allows), one per user and kind at a
 // time, a short queue per user.
 
+import type { FitProgress } from "~/chem/fit/types";
 import { Worker } from "node:worker_threads";
 import { MAX_SERVER_SAMPLES, MAX_SERVER_SWEEP_POINTS } from "~/chem/limits";
 import { SimulationCancelled } from "~/chem/kinetics/errors";
@@ -40,7 +41,8 @@ export const DEFAULT_LIMITS: RunLimits = {
 
 export interface RunOptions {
   limits?: Partial<RunLimits>;
-  onProgress?: (fraction: number) => void;
+  /** `note`: a fit's iterations and cost, for the bar to show instead of a share. */
+  onProgress?: (fraction: number, note?: FitProgress) => void;
   /** Called once the job has a worker. */
   onStart?: () => void;
   /** Called with the job's place in the queue while it waits for a worker. */
@@ -169,7 +171,7 @@ export class WorkerJobs {
 
       const onMessage = (message: WorkerMessage) => {
         if (message.type === "ready") return;
-        if (message.type === "progress") onProgress?.(message.fraction);
+        if (message.type === "progress") onProgress?.(message.fraction, message.note);
         else if (message.type === "result") finish(true, () => resolve(message.result as JobResult<J>));
         else finish(true, () => reject(rebuildError(message)));
       };

@@ -2,12 +2,13 @@
 // error (by name, so the parent can rebuild the error class) for each.
 
 import { parentPort } from "node:worker_threads";
+import type { FitProgress } from "~/chem/fit/types";
 import { isTextJob, runJob, runRealizationJob, runTextJob, type SizeLimits, type WorkerJob } from "./job";
 import { errorRecord, type ErrorRecord } from "./job-errors";
 
 export type WorkerMessage =
   | { type: "ready" }
-  | { type: "progress"; fraction: number }
+  | { type: "progress"; fraction: number; note?: FitProgress }
   | { type: "result"; result: unknown }
   | ({ type: "error" } & ErrorRecord);
 
@@ -25,7 +26,7 @@ post({ type: "ready" });
 
 async function run({ job, limits }: WorkerRequest) {
   try {
-    const hooks = { onProgress: (fraction: number) => post({ type: "progress", fraction }) };
+    const hooks = { onProgress: (fraction: number, note?: FitProgress) => post({ type: "progress", fraction, ...(note && { note }) }) };
     const result = job.kind === "realize" ? await runRealizationJob(job, hooks) : isTextJob(job) ? await runTextJob(job) : await runJob(job, hooks, limits);
     post({ type: "result", result });
   } catch (error) {

@@ -1,13 +1,16 @@
 // Graph layout benchmark: the present dagre placement (every linkage class laid out, then shelved)
 // against elkjs's layered layout of the same classes, on the 64-step cell and generated mechanisms
 // of 60 and 500 steps: time, overlapping node pairs and the picture's size.
-// Run: npx tsx tests/bench/graph-layout.ts
+// Then the species–step view's force layout at 500 steps, hub species drawn once against drawn as
+// copies beside their steps (the default) and left out.
+// Run: npx tsx tests/bench/graph-layout.ts [species-steps]   (the argument runs only the second part)
 import { readFileSync } from "node:fs";
 import ELK, { type ElkNode } from "elkjs/lib/elk.bundled.js";
 import { analyzeSource } from "~/chem/analysis";
 import { complexLabel } from "~/components/graph/graph-model";
 import { estimateNodeSize, placeComplexes, type Size, type XY } from "~/components/graph/layout";
 import { packInRows } from "~/components/graph/shelf-packing";
+import { buildSpeciesStepModel, defaultHubChoice, type HubDrawing, hubSpecies, layoutSpeciesSteps, withHubs } from "~/components/graph/species-step-model";
 import { generatedOxidation } from "../fixtures/generated-oxidation";
 
 type Report = Awaited<ReturnType<typeof analyzeSource>>;
@@ -78,7 +81,8 @@ const cases: [string, string][] = [
   ["generated, 60 steps", generatedOxidation(60)],
   ["generated, 500 steps", generatedOxidation(500)],
 ];
-for (const [name, source] of cases) {
+const onlySpeciesSteps = process.argv[2] === "species-steps";
+for (const [name, source] of onlySpeciesSteps ? [] : cases) {
   const report = await analyzeSource(source);
   console.log(`${name}: ${report.complexes.length} complexes, ${report.linkageClasses.length} linkage classes`);
   for (const [engine, run] of [
@@ -89,4 +93,13 @@ for (const [name, source] of cases) {
     const { width, height } = extent(result);
     console.log(`  ${engine.padEnd(6)} ${ms.toFixed(1).padStart(7)} ms  overlaps ${overlaps(result)}  picture ${width} × ${height} px`);
   }
+}
+
+const speciesSteps = buildSpeciesStepModel(await analyzeSource(generatedOxidation(500)));
+const hubs = new Set(hubSpecies(speciesSteps, defaultHubChoice.threshold));
+console.log(`species–step view, generated 500 steps: ${speciesSteps.nodes.length} nodes, hubs (≥ ${defaultHubChoice.threshold} steps) ${hubs.size}`);
+for (const drawing of ["once", "copies", "hidden"] satisfies HubDrawing[]) {
+  const model = withHubs(speciesSteps, hubs, drawing);
+  const { ms } = await timed(() => layoutSpeciesSteps(model));
+  console.log(`  hubs ${drawing.padEnd(6)} ${ms.toFixed(1).padStart(7)} ms  ${model.nodes.length} nodes, ${model.arcs.length} arcs`);
 }

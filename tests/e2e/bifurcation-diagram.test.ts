@@ -19,6 +19,12 @@ it("follows Schlögl's equilibria and marks both folds", { timeout: 120_000 }, a
 
   const card = page.locator("[data-testid=continuation]");
   await card.locator("input[list=continuation-targets]").fill("parameter:k4");
+  // The range starts a decade either side of the parameter's value (k4 = 5), not at a fixed 0.5 … 5.
+  expect(Number(await card.locator("label:has-text('From') input").inputValue())).toBe(0.5);
+  expect(Number(await card.locator("label:has-text('To') input").inputValue())).toBe(50);
+  await card.locator("input[list=continuation-targets]").fill("fixed:A");
+  expect(Number(await card.locator("label:has-text('To') input").inputValue())).toBe(60);
+  await card.locator("input[list=continuation-targets]").fill("parameter:k4");
   await card.locator("label:has-text('From') input").fill("5");
   await card.locator("label:has-text('To') input").fill("7");
   await card.locator("button:text-is('Follow')").click();

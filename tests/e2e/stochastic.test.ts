@@ -8,19 +8,23 @@ import { signUp } from "../support/http";
 const world = useServerAndBrowser();
 const shots = process.env.SCREENSHOT_DIR ?? "test-results";
 
-it("runs an ensemble and draws mean ± sd bands with sample runs", { timeout: 180_000 }, async () => {
-  mkdirSync(shots, { recursive: true });
-  const owner = await signUp(world.server.url, "Stella Stochastic");
-  // An invented gene-expression toy: mRNA made and lost, protein made from it and lost.
-  const source = ["transcribe: 0 -> M @ 2", "translate: M -> M + P @ 5", "lose_m: M -> 0 @ 0.5", "lose_p: P -> 0 @ 0.2", "[M]0 = 0", "[P]0 = 0"].join("\n") + "\n";
-  const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Bursty expression", source })).json();
+/** A new owner's mechanism open on the Dynamics tab, its stochastic card and the mechanism's id. */
+async function stochasticCard(ownerName: string, title: string, source: string) {
+  const owner = await signUp(world.server.url, ownerName);
+  const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title, source })).json();
   const page = await signedInPage(world, owner.email);
   page.setDefaultTimeout(60_000);
   await page.goto(`${world.server.url}/m/${id}`);
   await page.waitForSelector("[data-testid=room-status][data-status=online]");
   await page.click('role=tab[name="Dynamics"]');
+  return { id: id as string, page, card: page.locator("[data-testid=stochastic]") };
+}
 
-  const card = page.locator("[data-testid=stochastic]");
+it("runs an ensemble and draws mean ± sd bands with sample runs", { timeout: 180_000 }, async () => {
+  mkdirSync(shots, { recursive: true });
+  // An invented gene-expression toy: mRNA made and lost, protein made from it and lost.
+  const source = ["transcribe: 0 -> M @ 2", "translate: M -> M + P @ 5", "lose_m: M -> 0 @ 0.5", "lose_p: P -> 0 @ 0.2", "[M]0 = 0", "[P]0 = 0"].join("\n") + "\n";
+  const { id, page, card } = await stochasticCard("Stella Stochastic", "Bursty expression", source);
   await card.locator("label:has-text('Volume V') input").fill("2");
   await card.locator("label:has-text('Runs') input").fill("300");
   await card.locator("label:has-text('Seed') input").fill("7");
@@ -39,4 +43,18 @@ it("runs an ensemble and draws mean ± sd bands with sample runs", { timeout: 18
   await card.scrollIntoViewIfNeeded();
   await card.screenshot({ path: `${shots}/stochastic-card.png` });
   await page.screenshot({ path: `${shots}/stochastic-panel.png`, fullPage: true });
+});
+
+it("chooses the volume from the initial concentrations and shows the copies it implies", { timeout: 180_000 }, async () => {
+  // An invented dilute solution: every species at 1e-4 mol/L or less.
+  const source = ["bind: A + B -> C @ 1e6", "[A]0 = 1e-4", "[B]0 = 3e-4", "[C]0 = 0"].join("\n") + "\n";
+  const { card } = await stochasticCard("Vera Volume", "Dilute binding", source);
+  await card.locator("[data-testid=starting-copies]").waitFor();
+  expect(Number(await card.locator("label:has-text('Volume V') input").inputValue())).toBe(5e6);
+  expect(await card.locator("[data-testid=starting-copies]").innerText()).toMatch(/chosen from the initial concentrations, the runs start with A 500, B 1500\./);
+  await card.locator("[data-testid=starting-copies]").scrollIntoViewIfNeeded();
+  await card.screenshot({ path: `${shots}/stochastic-default-volume.png` });
+  // A volume typed by the reader is kept, and what it implies is said.
+  await card.locator("label:has-text('Volume V') input").fill("100");
+  await expect.poll(() => card.locator("[data-testid=starting-copies]").innerText()).toMatch(/no molecules at all.*A, B round to 0 copies/);
 });

@@ -123,6 +123,22 @@ describe("fits", () => {
     expect(fit.source).toBe(source);
   }, 60_000);
 
+  it("streams each iteration's cost, falling, before the result", async () => {
+    const chosen = (await dataSets(editor, id)).map((d) => d.id);
+    const response = await editor.request(`/api/v1/mechanisms/${id}/fits`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", Accept: "application/x-ndjson" },
+      body: JSON.stringify({ dataSets: chosen, vary: ["k1", "k2"] }),
+    });
+    const lines = (await response.text()).trim().split("\n").map((line) => JSON.parse(line));
+    // Events may overtake one another between processes: the iteration number puts them in order.
+    const notes = lines.flatMap((line) => (line.note ? [line.note as { iteration: number; cost: number }] : [])).sort((a, b) => a.iteration - b.iteration);
+    expect(notes.length).toBeGreaterThan(1);
+    expect(new Set(notes.map((note) => note.iteration)).size).toBe(notes.length);
+    expect(notes.at(-1)!.cost).toBeLessThan(notes[0].cost);
+    expect(lines.at(-1).result.cost).toBeCloseTo(notes.at(-1)!.cost, 6);
+  }, 60_000);
+
   it("a fit that cannot run is stored as failed with its reason", async () => {
     const [first] = await dataSets(editor, id);
     const response = await editor.json(`/api/v1/mechanisms/${id}/fits`, "POST", { dataSets: [first.id], vary: ["no_such_parameter"] });

@@ -5,7 +5,7 @@
 // sorted by value. Presentational: it shows a ContinuationResult.
 import type { Bifurcation, ContinuationPoint, ContinuationResult } from "~/chem/kinetics/continuation";
 import { readableNumberText, tickLabels } from "~/chem/numbers";
-import { linearRange, linearTicks, type Range } from "./chart-scales";
+import { linearRange, linearTicks, logRange, logTickLabels, logTicks, type Range, spansDecades } from "./chart-scales";
 
 /** A stretch of the branch with one stability; neighbouring pieces share their end point. */
 export interface BranchPiece {
@@ -44,15 +44,18 @@ export function BifurcationDiagram({ result, species, xLabel }: Props) {
   const labels = bifurcationLabels(result.bifurcations);
   const xs = result.points.map((p) => p.value);
   const ys = result.points.map((p) => p.state[species]);
-  const xRange = linearRange(Math.min(...xs), Math.max(...xs));
+  // A branch followed over decades (the default range is a decade either side of the value) is drawn on a log axis.
+  const logX = spansDecades(Math.min(...xs), Math.max(...xs));
+  const xRange = logX ? logRange(Math.min(...xs), Math.max(...xs)) : linearRange(Math.min(...xs), Math.max(...xs));
   const yRange = linearRange(Math.min(...ys), Math.max(...ys));
   const right = size.width - plot.right;
   const bottom = size.height - plot.bottom;
   const scale = (range: Range, from: number, to: number) => (v: number) => from + ((v - range.min) / (range.max - range.min)) * (to - from);
-  const px = scale(xRange, plot.left, right);
+  const px = logX ? (v: number) => scale({ min: Math.log10(xRange.min), max: Math.log10(xRange.max) }, plot.left, right)(Math.log10(v)) : scale(xRange, plot.left, right);
   const py = scale(yRange, bottom, plot.top);
   const path = (piece: BranchPiece) => piece.points.map((p, i) => `${i ? "L" : "M"}${px(p.x).toFixed(1)},${py(p.y).toFixed(1)}`).join("");
-  const xTicks = linearTicks(xRange);
+  const xTicks = logX ? logTicks(xRange) : linearTicks(xRange);
+  const xTickLabels = logX ? logTickLabels(xTicks) : tickLabels(xTicks);
   const yTicks = linearTicks(yRange);
 
   return (
@@ -61,7 +64,7 @@ export function BifurcationDiagram({ result, species, xLabel }: Props) {
         {xTicks.map((tick, i) => (
           <g key={`x${tick}`}>
             <line x1={px(tick)} x2={px(tick)} y1={plot.top} y2={bottom} stroke="var(--mw-line)" />
-            <text x={px(tick)} y={bottom + 16} textAnchor="middle" fontSize="11" fill="var(--mw-muted)">{tickLabels(xTicks)[i]}</text>
+            <text x={px(tick)} y={bottom + 16} textAnchor="middle" fontSize="11" fill="var(--mw-muted)">{xTickLabels[i]}</text>
           </g>
         ))}
         {yTicks.map((tick, i) => (

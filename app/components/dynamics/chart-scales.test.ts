@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { linearRange, linearTicks, logRange, logTickLabels, logTicks } from "./chart-scales";
+import { linearRange, linearTicks, logRange, logTickLabels, logTicks, spansDecades } from "./chart-scales";
 
 describe("chart scales", () => {
   it("draws integration noise on a flat curve flat: at least 5% of the magnitude is shown", () => {
@@ -28,5 +28,11 @@ describe("chart scales", () => {
   it("labels only the decades of a log axis that spans several", () => {
     expect(logTickLabels([1e-8, 2e-8, 5e-8, 1e-7])).toEqual(["10⁻⁸", "", "", "10⁻⁷"]);
     expect(logTickLabels([2e-8, 5e-8])).toEqual(["2×10⁻⁸", "5×10⁻⁸"]);
+  });
+
+  it("calls for a log axis when positive values lie two decades apart or more", () => {
+    expect(spansDecades(0.5, 50)).toBe(true);
+    expect(spansDecades(5, 7)).toBe(false);
+    expect(spansDecades(0, 50)).toBe(false);
   });
 });

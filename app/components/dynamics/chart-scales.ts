@@ -40,6 +40,11 @@ export function logRange(min: number, max: number): Range {
   return top > bottom ? { min: Number(`1e${bottom}`), max: Number(`1e${top}`) } : { min: Number(`1e${bottom - 1}`), max: Number(`1e${top + 1}`) };
 }
 
+/** Positive values two decades apart or more: a linear axis would crowd all but the largest into its first tenth. */
+export function spansDecades(min: number, max: number): boolean {
+  return min > 0 && Number.isFinite(max) && max / min >= 100;
+}
+
 /** About `count` ticks at 1, 2 or 5 × 10^n steps, inside the range. */
 export function linearTicks({ min, max }: Range, count = 6): number[] {
   if (!(max > min)) return [min];

@@ -6,7 +6,7 @@ import type { JobInput } from "../dynamics-tab";
 import { BifurcationDiagram } from "./bifurcation-diagram";
 import { JobStatus } from "./job-status";
 import { NumberField } from "./number-field";
-import { sweepTarget, sweepTargetLabel, sweepTargets } from "./targets";
+import { defaultSweepRange, sweepTarget, sweepTargetLabel, sweepTargets, targetValues } from "./targets";
 import { useDynamicsJob } from "./use-dynamics-job";
 
 interface Props {
@@ -20,14 +20,17 @@ interface Props {
 export function ContinuationCard({ url, text, input, species }: Props) {
   const job = useDynamicsJob<ContinuationResult>(url);
   const [target, setTarget] = useState("");
-  const [from, setFrom] = useState(0.5);
-  const [to, setTo] = useState(5);
   const [shown, setShown] = useState("");
   const [targets, setTargets] = useState<string[]>(() => sweepTargets(text(), species));
+  const [values, setValues] = useState(() => targetValues(text()));
+  // A range the reader typed holds for the quantity it was typed for; any other starts a decade either side of its value.
+  const [typedRange, setTypedRange] = useState<{ target: string; from: number; to: number } | null>(null);
   // The target the result was computed for labels its axis, not what the field says now.
   const [ranFor, setRanFor] = useState("");
   // A held species or a parameter is the usual thing to vary; an initial amount (a total) otherwise.
   const chosenTarget = target || targets.find((t) => !t.startsWith("initial:")) || targets[0] || "";
+  const { from, to } = typedRange?.target === chosenTarget ? typedRange : defaultSweepRange(values.get(chosenTarget));
+  const setRange = (change: { from?: number; to?: number }) => setTypedRange({ target: chosenTarget, from, to, ...change });
   const result = job.result;
   const names = result ? Object.keys(result.points[0]?.state ?? {}) : species;
   const chosenSpecies = names.includes(shown) ? shown : result ? mostChanging(result) : (names[0] ?? "");
@@ -48,14 +51,17 @@ export function ContinuationCard({ url, text, input, species }: Props) {
             list="continuation-targets"
             value={chosenTarget}
             onChange={(e) => setTarget(e.target.value)}
-            onFocus={() => setTargets(sweepTargets(text(), species))}
+            onFocus={() => {
+              setTargets(sweepTargets(text(), species));
+              setValues(targetValues(text()));
+            }}
             placeholder="fixed:B or parameter:k"
             aria-label="Quantity to vary"
           />
           <datalist id="continuation-targets">{targets.map((t) => <option key={t} value={t} />)}</datalist>
         </label>
-        <NumberField label="From" value={from} onChange={setFrom} min={0} />
-        <NumberField label="To" value={to} onChange={setTo} min={0} />
+        <NumberField label="From" value={from} onChange={(value) => setRange({ from: value })} min={0} />
+        <NumberField label="To" value={to} onChange={(value) => setRange({ to: value })} min={0} />
         {job.running ? <button className="btn btn-danger" onClick={job.cancel}>Cancel</button> : <button className="btn" onClick={start} disabled={!chosenTarget}>Follow</button>}
         {names.length > 1 && (
           <label>

@@ -3,7 +3,7 @@ import { renderToString } from "react-dom/server";
 import { describe, expect, it } from "vitest";
 import { JobStatus } from "./job-status";
 
-const job = { running: true, progress: 0, queued: null as number | null, result: null, error: null };
+const job = { running: true, progress: 0, queued: null as number | null, notes: [], result: null, error: null };
 
 describe("JobStatus", () => {
   it("shows a waiting job's place in the queue, then the progress bar once it runs", () => {

@@ -2,6 +2,7 @@
 // numbers (n = c·V), run on the server as jobs split over its workers, drawn as the band of mean ±
 // one standard deviation per species with the first runs as thin lines.
 import { useState } from "react";
+import { parseMechanismWithSettings } from "~/chem/parse";
 import type { StochasticResult } from "~/chem/kinetics/stochastic/ensemble";
 import { MAX_SERVER_SAMPLES, MAX_STOCHASTIC_RUNS } from "~/chem/limits";
 import { readableNumberText, tickLabels } from "~/chem/numbers";
@@ -9,6 +10,7 @@ import type { Settings } from "~/chem/parse";
 import { ensembleGeometry } from "./ensemble-chart";
 import { JobStatus } from "./job-status";
 import { seriesLook } from "./palette";
+import { defaultVolume, startingCopies } from "./stochastic-volume";
 import { useDynamicsJob } from "./use-dynamics-job";
 
 interface Props {
@@ -20,14 +22,22 @@ interface Props {
 
 export function StochasticCard({ url, input, until: panelUntil }: Props) {
   const job = useDynamicsJob<StochasticResult>(url);
-  const [volume, setVolume] = useState(100);
+  // The text's initial concentrations, read again whenever the reader comes back to the card.
+  const readInitial = () => {
+    const { source, overrides } = input();
+    return parseMechanismWithSettings(source, overrides ?? { parameters: {}, initial: {} }).mechanism.initial;
+  };
+  const [initial, setInitial] = useState(readInitial);
+  // null: the volume follows the initial concentrations until the reader types one.
+  const [chosenVolume, setVolume] = useState<number | null>(null);
+  const volume = chosenVolume ?? defaultVolume(initial);
   const [runs, setRuns] = useState(200);
   const [seed, setSeed] = useState(1);
   const [until, setUntil] = useState(panelUntil);
   const field = (label: string, value: number, set: (v: number) => void, bounds: { min?: number; max?: number; step?: string } = {}) => (
     <label className="text-sm">
       <span className="label">{label}</span>
-      <input className="field w-24 py-1.5" type="number" step={bounds.step ?? "any"} min={bounds.min} max={bounds.max} value={value} onChange={(e) => set(Number(e.target.value))} required />
+      <input className="field w-28 py-1.5" type="number" step={bounds.step ?? "any"} min={bounds.min} max={bounds.max} value={value} onChange={(e) => set(Number(e.target.value))} required />
     </label>
   );
   return (
@@ -35,9 +45,12 @@ export function StochasticCard({ url, input, until: panelUntil }: Props) {
       <h3>Stochastic runs</h3>
       <form
         className="mt-2 flex flex-wrap items-end gap-3"
+        onFocus={() => setInitial(readInitial())}
         onSubmit={(e) => {
           e.preventDefault();
-          void job.run({ kind: "stochastic", ...input(), settings: { until, samples: 200, volume, runs, seed } });
+          const now = readInitial();
+          setInitial(now);
+          void job.run({ kind: "stochastic", ...input(), settings: { until, samples: 200, volume: chosenVolume ?? defaultVolume(now), runs, seed } });
         }}
       >
         {field("Volume V", volume, setVolume, { min: 1e-12 })}
@@ -50,6 +63,7 @@ export function StochasticCard({ url, input, until: panelUntil }: Props) {
           <button type="submit" className="btn">Run</button>
         )}
       </form>
+      <StartingCopies initial={initial} volume={volume} chosen={chosenVolume !== null} />
       <p className="mt-1 text-xs text-muted">
         Each run is exact (Gillespie&apos;s direct method, or Gibson–Bruck&apos;s next reaction method for large networks) and starts from
         n = round(c·V) copies; mass-action steps only. The same seed gives the same runs.
@@ -57,6 +71,30 @@ export function StochasticCard({ url, input, until: panelUntil }: Props) {
       <JobStatus job={job} />
       {job.result && <EnsembleChart result={job.result} />}
     </section>
+  );
+}
+
+/** How many copies of each species the volume means, scarcest first, so an empty run is seen before it starts. */
+function StartingCopies({ initial, volume, chosen }: { initial: Record<string, number>; volume: number; chosen: boolean }) {
+  const copies = startingCopies(initial, volume)
+    .filter(([, n]) => n > 0)
+    .sort(([, a], [, b]) => a - b);
+  const lost = Object.entries(initial).filter(([name, c]) => c > 0 && !copies.some(([present]) => present === name));
+  const shown = 12;
+  return (
+    <p className="mt-2 text-xs" data-testid="starting-copies">
+      <span className="text-muted">{chosen ? "At this volume" : `Volume ${readableNumberText(volume)}, chosen from the initial concentrations`}, the runs start with </span>
+      {copies.length === 0 ? (
+        <span>no molecules at all</span>
+      ) : (
+        <span className="font-mono">
+          {copies.slice(0, shown).map(([name, n]) => `${name} ${readableNumberText(n)}`).join(", ")}
+          {copies.length > shown ? ` and ${copies.length - shown} more species` : ""}
+        </span>
+      )}
+      {lost.length > 0 && <span className="text-signal"> ({lost.map(([name]) => name).join(", ")} round{lost.length === 1 ? "s" : ""} to 0 copies)</span>}
+      <span className="text-muted">.</span>
+    </p>
   );
 }
 

@@ -1,6 +1,8 @@
 // What a sweep or a continuation can vary, as "kind:name" choices read off the text, and the
 // choice as the job's target and as an axis label.
+import type { RateRef } from "~/chem/model";
 import { parseMechanism } from "~/chem/parse";
+import { evaluateRateExpression } from "~/chem/rate-expression";
 import { mechanismNames } from "~/editor/complete";
 import type { ContinuationTarget } from "~/shared/job-schemas";
 
@@ -33,4 +35,36 @@ export function sweepTargetLabel(target: string): string {
   if (kind === "fixed") return `[${name}]`;
   if (kind === "step") return direction === "backward" ? `k of ${name} (backward)` : `k of ${name}`;
   return name ?? target;
+}
+
+/** The value the text gives each choice of `sweepTargets` (a species without an initial value starts at 0); a choice with no number is left out. */
+export function targetValues(source: string): Map<string, number> {
+  const { mechanism } = parseMechanism(source);
+  const values = new Map<string, number>();
+  for (const name of mechanism.species) values.set(`initial:${name}`, mechanism.initial[name] ?? 0);
+  for (const [name, value] of Object.entries(mechanism.parameters)) values.set(`parameter:${name}`, value);
+  for (const [name, value] of Object.entries(mechanism.fixed)) values.set(`fixed:${name}`, value);
+  const rateValue = (rate: RateRef | null): number | null => {
+    if (rate?.kind === "value") return rate.value;
+    if (rate?.kind === "parameter") return mechanism.parameters[rate.name] ?? null;
+    if (rate?.kind === "expression") {
+      const evaluated = evaluateRateExpression(rate.expression, mechanism.parameters);
+      return evaluated.ok ? evaluated.value : null;
+    }
+    return null;
+  };
+  for (const step of mechanism.steps) {
+    if (step.label === null || step.law !== null) continue;
+    const forward = rateValue(step.forward);
+    const backward = step.reversible ? rateValue(step.backward) : null;
+    if (forward !== null) values.set(`step:${step.label}`, forward);
+    if (backward !== null) values.set(`step:${step.label}:backward`, backward);
+  }
+  return values;
+}
+
+/** Where a sweep over a quantity starts when the reader has not said: a decade either side of its value, else 0.5 … 5. */
+export function defaultSweepRange(value: number | undefined): { from: number; to: number } {
+  if (value === undefined || !(value > 0) || !Number.isFinite(value)) return { from: 0.5, to: 5 };
+  return { from: Number((value / 10).toPrecision(12)), to: Number((value * 10).toPrecision(12)) };
 }

@@ -1,10 +1,10 @@
 // What to fit: the parameters to vary (each with optional bounds) and the chosen data sets; runs
-// the fit on the server with its place in the queue, progress and cancel.
+// the fit on the server with its place in the queue, its iterations and falling cost, and cancel.
 import { useState } from "react";
 import type { FitResult } from "~/chem/fit/types";
 import { MAX_FIT_PARAMETERS } from "~/chem/limits";
-import { JobStatus } from "~/components/dynamics/job-status";
 import { useDynamicsJob } from "~/components/dynamics/use-dynamics-job";
+import { FitStatus } from "./fit-progress";
 
 interface Props {
   mechanismId: string;
@@ -81,7 +81,7 @@ export function FitForm({ mechanismId, candidates, chosenDataSets, onFinished }:
           {!ready && " — tick at least one of each"}
         </span>
       </div>
-      <JobStatus job={job} />
+      <FitStatus job={job} />
     </section>
   );
 }

@@ -20,6 +20,8 @@ import { estimateNodeSize, type XY } from "./layout";
 import { linkageClassColours } from "./linkage-colours";
 import { classBoxCorner, classBoxLabel, classKey, estimateClassBoxSize } from "./linkage-groups";
 import { SpeciesStepGraph } from "./species-step-graph";
+import { buildSpeciesStepModel, hubSpecies } from "./species-step-model";
+import { useSpeciesViewChoice } from "./species-view-choice";
 import { useComplexPositions } from "./use-complex-positions";
 import { useHeldComplexes } from "./use-held-complexes";
 import { type LinkageFolding, useLinkageFolding } from "./use-linkage-folding";
@@ -91,6 +93,9 @@ function GraphWorkspace({ report: latest, ...props }: ComplexGraphProps) {
   const entries = useMemo(() => (report ? searchEntries(report) : []), [report]);
   const focusEntry = focused ? (entries.find(({ kind, name }) => kind === focused.kind && name === focused.name) ?? null) : null;
   const folding = useLinkageFolding(report);
+  const [speciesChoice, changeSpeciesChoice] = useSpeciesViewChoice();
+  const speciesModel = useMemo(() => (view === "species" && report?.steps ? buildSpeciesStepModel(report) : null), [view, report]);
+  const hubs = useMemo(() => (speciesModel ? hubSpecies(speciesModel, speciesChoice.threshold) : []), [speciesModel, speciesChoice.threshold]);
   const caretIndex = report ? caretStepIndex(report, caretStep) : null;
 
   const emphasis = useMemo<Emphasis>(
@@ -126,12 +131,17 @@ function GraphWorkspace({ report: latest, ...props }: ComplexGraphProps) {
             ? { folded: folding.folded.size, classes: report.linkageClasses.length, foldAll: folding.foldAll, unfoldAll: folding.unfoldAll }
             : undefined
         }
+        speciesView={
+          view === "species" && report
+            ? { hubs: hubs.map((index) => report.species?.[index] ?? ""), choice: speciesChoice, onChoice: changeSpeciesChoice }
+            : undefined
+        }
       />
       <ReactFlowProvider key={view}>
         {view === "complexes" ? (
           <SharedComplexGraph {...props} report={report} folding={folding} emphasis={emphasis} />
         ) : (
-          <SpeciesStepGraph report={report} emphasis={emphasis} />
+          <SpeciesStepGraph model={speciesModel} hubs={hubs} choice={speciesChoice} emphasis={emphasis} />
         )}
       </ReactFlowProvider>
     </>

@@ -46,12 +46,14 @@ describe("graph model", () => {
 });
 
 describe("rate labels", () => {
-  it("stay short", () => {
+  it("stay short and read as the typeset equations do (a×10ⁿ, never e-notation)", () => {
     expect(rateText(0.25)).toBe("0.25");
     expect(rateText(30)).toBe("30");
-    expect(rateText(1 / 3)).toBe("0.3333");
-    expect(rateText(1e-4)).toBe("1e-4");
-    expect(rateText(2.5e6)).toBe("2.5e6");
+    expect(rateText(1 / 3)).toBe("0.333");
+    expect(rateText(1e-4)).toBe("10⁻⁴");
+    expect(rateText(2.5e6)).toBe("2.5×10⁶");
+    expect(rateText(1.2e9)).toBe("1.2×10⁹");
+    expect(rateText(1.23456e17)).toBe("1.23×10¹⁷");
     expect(rateText(0)).toBe("0");
   });
 });

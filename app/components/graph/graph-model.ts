@@ -1,6 +1,7 @@
 // From an analysis report to what the complex graph draws: one node per complex, one edge per
 // reaction, each tagged with its linkage class, terminal strong linkage class and pairing.
 import type { StepSummary } from "~/chem/analysis";
+import { readableNumberText } from "~/chem/numbers";
 
 /** The parts of an analysis report the graph reads (the `analyze` JSON has them all). */
 export interface ComplexGraphReport {
@@ -80,15 +81,9 @@ export function graphKey(report: ComplexGraphReport | null): string {
   return JSON.stringify([complexes, reactions, linkageClasses, terminalStrongLinkageClasses, fixedSpecies, species, steps]);
 }
 
-/** A rate coefficient short enough to sit beside an arrow: four significant digits at most. */
+/** A rate coefficient beside an arrow, written as the typeset equations write it (3 significant digits, a×10ⁿ outside 10⁻³…10⁵). */
 export function rateText(rate: number): string {
-  const magnitude = Math.abs(rate);
-  if (magnitude !== 0 && (magnitude < 1e-3 || magnitude >= 1e5))
-    return rate
-      .toExponential(2)
-      .replace(/\.?0+e/, "e")
-      .replace("e+", "e");
-  return String(Number(rate.toPrecision(4)));
+  return readableNumberText(rate, 3);
 }
 
 function membership(classes: number[][]): Map<number, number> {

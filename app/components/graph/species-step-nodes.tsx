@@ -1,5 +1,6 @@
-// The two kinds of node of the species–step view: a species as a plain box, a step as a small
-// square with its label beside it, so the species stand out and the steps stay out of the way.
+// The kinds of node of the species–step view: a species as a plain box, a step as a small square
+// with its label beside it, so the species stand out and the steps stay out of the way, and a hub
+// species' copy beside one step as a smaller box with a dashed rim, so it reads as "again".
 import type { Node, NodeProps } from "@xyflow/react";
 import { litHalo } from "./complex-node";
 
@@ -12,19 +13,33 @@ export type SpeciesStepData = {
 
 export type SpeciesNode = Node<SpeciesStepData, "species">;
 export type StepNode = Node<SpeciesStepData, "step">;
+export type CopyNode = Node<SpeciesStepData, "copy">;
 
-export function SpeciesNodeView({ data, selected }: NodeProps<SpeciesNode>) {
+/** A species' pill; a copy's is smaller, dashed and fainter. */
+function SpeciesPill({ data, selected, copy }: { data: SpeciesStepData; selected: boolean; copy: boolean }) {
+  const shape = copy
+    ? "border border-dashed border-ink/50 px-[7px] text-[11px] leading-[18px] text-ink/80"
+    : "border-[1.5px] border-ink/60 px-3 text-[13.5px] leading-[31px] text-ink";
   return (
     <div
-      className="rounded-full border-[1.5px] border-ink/60 bg-raised px-3 font-mono text-[13.5px] leading-[31px] whitespace-nowrap text-ink"
-      style={{ opacity: data.dim ? 0.25 : 1, boxShadow: selected ? "0 0 0 4px color-mix(in oklab, var(--mw-accent) 40%, transparent)" : data.lit ? litHalo : undefined }}
+      className={`rounded-full bg-raised font-mono whitespace-nowrap ${shape}`}
+      style={{ opacity: data.dim ? 0.25 : 1, boxShadow: selected ? `0 0 0 ${copy ? 3 : 4}px color-mix(in oklab, var(--mw-accent) 40%, transparent)` : data.lit ? litHalo : undefined }}
       title={data.description}
+      data-copy={copy || undefined}
       data-lit={data.lit || undefined}
       data-dim={data.dim || undefined}
     >
       {data.label}
     </div>
   );
+}
+
+export function SpeciesNodeView({ data, selected }: NodeProps<SpeciesNode>) {
+  return <SpeciesPill data={data} selected={selected} copy={false} />;
+}
+
+export function CopyNodeView({ data, selected }: NodeProps<CopyNode>) {
+  return <SpeciesPill data={data} selected={selected} copy />;
 }
 
 export function StepNodeView({ data, selected }: NodeProps<StepNode>) {
