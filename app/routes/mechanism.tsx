@@ -1,4 +1,4 @@
-import { useDeferredValue, useMemo, useRef, useState } from "react";
+import { startTransition, useDeferredValue, useMemo, useRef, useState } from "react";
 import type * as Y from "yjs";
 import type { AnalysisReport } from "~/chem/analysis";
 import type { XY } from "~/components/graph/layout";
@@ -63,6 +63,9 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   const editor = useRef<CollabEditorHandle>(null);
   const [tab, setTab] = useState<Tab>("Graph");
   const [caretStep, setCaretStep] = useState<CaretStep | null>(null);
+  // The graph lights the caret's step at low priority: at 500 steps that redraw would otherwise run
+  // inside the keystroke that moved the caret, before its letter is painted.
+  const followCaret = (step: CaretStep | null) => startTransition(() => setCaretStep(step));
   const source = useMemo(() => (room.doc ? sourceText(room.doc) : null), [room.doc]);
   const layout = useMemo(() => (room.doc ? layoutMap(room.doc) : null), [room.doc]);
   const report = room.analysis.report ?? null;
@@ -107,7 +110,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
           </div>
           {/* Before the room connects, the saved text stands in so the page is never blank. */}
           {source ? (
-            <CollabEditor ref={editor} source={source} awareness={room.awareness} readOnly={!canEdit} notice={room.notice} onCaretStep={setCaretStep} className="min-h-0 flex-1" />
+            <CollabEditor ref={editor} source={source} awareness={room.awareness} readOnly={!canEdit} notice={room.notice} onCaretStep={followCaret} className="min-h-0 flex-1" />
           ) : (
             <pre className="flex-1 overflow-auto p-4 text-sm leading-relaxed text-muted" data-testid="source">{mechanism.source}</pre>
           )}

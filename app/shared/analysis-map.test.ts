@@ -1,7 +1,8 @@
 import * as Y from "yjs";
 import { describe, expect, it } from "vitest";
 import { analyzeMechanism, parseForAnalysis } from "~/chem/analysis";
-import { packReport, roomAnalysisReader, unpackReport } from "./analysis-map";
+import type { RoomAnalysis } from "./analysis-map";
+import { packReport, roomAnalysisReader, unpackReport, unpackReportNatively, watchRoomAnalysis } from "./analysis-map";
 
 const reportOf = async (source: string) => analyzeMechanism(parseForAnalysis(source));
 
@@ -33,5 +34,54 @@ describe("the room's analysis map", () => {
 
     map.set("report", new Uint8Array([1, 2, 3]));
     expect(read(map).report).toBeUndefined();
+  });
+
+  it("unpacks with the platform's inflate to the same report", async () => {
+    const report = await reportOf("A + B <=> C @ 1, 2\nC -> D @ 3\n");
+    expect(await unpackReportNatively(packReport(report))).toEqual(report);
+    await expect(unpackReportNatively(new Uint8Array([1, 2, 3]))).rejects.toThrow();
+  });
+
+  it("watches the map: counts with their report, one unpack per report, overtaken reads dropped", async () => {
+    const doc = new Y.Doc();
+    const map = doc.getMap("analysis");
+    const reads: RoomAnalysis[] = [];
+    const stop = watchRoomAnalysis(map, (analysis) => reads.push(analysis));
+    expect(reads).toEqual([{}]);
+
+    const first = await reportOf("A + B -> C @ 1\n");
+    doc.transact(() => {
+      map.set("revision", 1);
+      map.set("report", packReport(first));
+    });
+    await expect.poll(() => reads.length).toBe(2);
+    expect(reads[1]).toEqual({ revision: 1, report: first });
+
+    // A change of counts alone keeps the unpacked report object.
+    map.set("revision", 2);
+    expect(reads[2].revision).toBe(2);
+    expect(reads[2].report).toBe(reads[1].report);
+
+    // Two reports in quick succession: only the newer one is shown.
+    const second = await reportOf("A -> B @ 1\n");
+    const third = await reportOf("A -> B @ 1\nB -> A @ 2\n");
+    doc.transact(() => {
+      map.set("revision", 3);
+      map.set("report", packReport(second));
+    });
+    doc.transact(() => {
+      map.set("revision", 4);
+      map.set("report", packReport(third));
+    });
+    await expect.poll(() => reads.at(-1)?.revision).toBe(4);
+    expect(reads.slice(3)).toEqual([{ revision: 4, report: third }]);
+
+    map.set("report", new Uint8Array([1, 2, 3]));
+    await expect.poll(() => reads.length).toBe(5);
+    expect(reads[4]).toEqual({ revision: 4 });
+
+    stop();
+    map.set("revision", 5);
+    expect(reads.length).toBe(5);
   });
 });

@@ -4,7 +4,7 @@ import { useEffect, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
-import { roomAnalysisReader, type RoomAnalysis } from "~/shared/analysis-map";
+import { type RoomAnalysis, watchRoomAnalysis } from "~/shared/analysis-map";
 import { analysisMap, presenceFields, readPresence } from "~/shared/room-document";
 import { MESSAGE_REFUSED, readRefusal } from "~/shared/room-refusal";
 import type { Role } from "~/shared/roles";
@@ -123,19 +123,16 @@ export function useRoom(mechanismId: string, { user, readOnly, role }: RoomOptio
       );
     const onClosed = () => setStatus("offline");
     const onSync = (state: boolean) => setSynced(state);
-    const readAnalysis = roomAnalysisReader();
-    const onAnalysis = () => setAnalysis(readAnalysis(analysis));
 
     provider.on("status", onStatus);
     provider.on("closed", onClosed);
     provider.on("sync", onSync);
-    analysis.observe(onAnalysis);
-    onAnalysis();
+    const stopWatching = watchRoomAnalysis(analysis, setAnalysis);
     setConnection({ doc, provider });
 
     return () => {
       clearTimeout(opening);
-      analysis.unobserve(onAnalysis);
+      stopWatching();
       provider.destroy();
       doc.destroy();
       setConnection(null);

@@ -137,7 +137,10 @@ function editorExtensions({ source, awareness, undoManager, readOnly, label, not
     highlightSelectionMatches(),
     bracketMatching(),
     closeBrackets(),
-    autocompletion(),
+    // A few screens of the list at a time (its "···" ends, clicked or arrowed past, bring the
+    // rest): at 500 steps a name matches over a hundred others, and laying out all of them held
+    // up the keystroke that opened the list.
+    autocompletion({ maxRenderedOptions: 30 }),
     mechanism(),
     mechanismLinter,
     linkedRanges,

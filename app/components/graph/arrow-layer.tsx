@@ -3,7 +3,7 @@
 // frame, 50–300 ms a frame while typing; one layer paints in one go. Each arrow is a memoised
 // element, so a new report redraws only the arrows whose geometry or emphasis changed.
 import { EdgeLabelRenderer, useStore } from "@xyflow/react";
-import { memo, useCallback, useId, useRef } from "react";
+import { memo, useCallback, useDeferredValue, useId, useRef } from "react";
 import { type Box, edgeCurve } from "./edge-geometry";
 import type { XY } from "./layout";
 
@@ -37,8 +37,10 @@ export interface ArrowLayerProps {
 }
 
 export function ArrowLayer({ arrows, boxes, onPick }: ArrowLayerProps) {
-  const readable = useStore((state) => state.transform[2] >= edgeLabelZoom);
-  const shown = viewedArea(useStore(viewedAreaKey));
+  // A new area's arrows, and labels that a zoom brings, are drawn at low priority in slices
+  // between frames: a jump across a 500-step graph mounts hundreds of them at once.
+  const readable = useDeferredValue(useStore((state) => state.transform[2] >= edgeLabelZoom));
+  const shown = viewedArea(useDeferredValue(useStore(viewedAreaKey)));
   const base = `mw-arrow-${useId().replace(/[^A-Za-z0-9]/g, "")}`;
   const markers = { normal: base, lit: `${base}-lit`, selected: `${base}-selected` };
   // One callback for the layer's lifetime, so a new `onPick` each render redraws no arrow.

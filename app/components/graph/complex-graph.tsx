@@ -271,6 +271,9 @@ function SharedComplexGraph({
     if (Object.keys(moved).length > 0) positions.write(moved);
   };
 
+  // Past a few hundred nodes, drawing only what is on screen keeps pan and zoom smooth.
+  const onlyVisible = shownNodes.length > 250;
+
   if (!model || model.nodes.length === 0) {
     return (
       <div className="flex h-full items-center justify-center p-6 text-center text-sm text-muted">
@@ -296,8 +299,7 @@ function SharedComplexGraph({
           // Moving a complex is not choosing it: the text should not jump while co-authors arrange.
           selectNodesOnDrag={false}
           {...noEditingGestures}
-          // Past a few hundred nodes, drawing only what is on screen keeps pan and zoom smooth.
-          onlyRenderVisibleElements={shownNodes.length > 250}
+          onlyRenderVisibleElements={onlyVisible}
           fitView
           fitViewOptions={fitOptions}
           minZoom={0.1}
@@ -309,7 +311,7 @@ function SharedComplexGraph({
           <Controls showInteractive={false} position="bottom-left" />
           <ArrowLayer arrows={arrows} boxes={boxes} onPick={(id) => select({ kind: "reaction", id })} />
           <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
-          <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
+          <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} jump={onlyVisible} />
           <CentreOnFocus
             focusKey={emphasis.focusKey}
             ids={model.nodes.filter((node) => emphasis.focus?.complexes.has(node.index)).map((node) => node.key)}

@@ -145,8 +145,11 @@ export function CentreOnFocus({
  * Glides the view, at its present zoom, to the step under the editor's caret when none of its
  * nodes is on screen, so moving through the text keeps the lit step in sight. `caretKey` changes
  * when the caret reaches another step; a step still being placed is followed once it is drawn.
+ * With `jump` (a large graph, where only what is on screen is drawn) the view jumps instead:
+ * every frame of a glide across it would mount and measure another band of nodes, each frame a
+ * long task.
  */
-export function FollowCaret({ caretKey, ids }: { caretKey: string; ids: string[] }) {
+export function FollowCaret({ caretKey, ids, jump = false }: { caretKey: string; ids: string[]; jump?: boolean }) {
   const { getInternalNode, getViewport, setCenter } = useReactFlow();
   const width = useStore((state) => state.width);
   const height = useStore((state) => state.height);
@@ -170,7 +173,7 @@ export function FollowCaret({ caretKey, ids }: { caretKey: string; ids: string[]
     const top = Math.min(...boxes.map((box) => box.y));
     const right = Math.max(...boxes.map((box) => box.x + box.width));
     const bottom = Math.max(...boxes.map((box) => box.y + box.height));
-    void setCenter((left + right) / 2, (top + bottom) / 2, { zoom: view.zoom, duration: 250 });
+    void setCenter((left + right) / 2, (top + bottom) / 2, { zoom: view.zoom, duration: jump ? 0 : 250 });
   });
   return null;
 }

@@ -1,3 +1,4 @@
+import dagre from "@dagrejs/dagre";
 import { describe, expect, it } from "vitest";
 import { estimateNodeSize, placeComplexes, type Size, type XY } from "./layout";
 
@@ -22,6 +23,30 @@ const linkageClasses = [
 ];
 
 describe("placing complexes", () => {
+  it("places a class of two complexes where dagre itself would, in either direction and at any sizes", () => {
+    const sizes: Record<string, Size> = {};
+    for (let trial = 0; trial < 40; trial++) {
+      // Varied widths and heights (labels are one line high in the app, but the rule must not depend on it).
+      const [a, b] = [`A${trial}`, `B${trial}`];
+      sizes[a] = { width: 52 + ((trial * 37) % 240), height: 39 + ((trial * 7) % 3) * 6 };
+      sizes[b] = { width: 52 + ((trial * 53) % 180), height: 39 + ((trial * 11) % 4) * 5 };
+      // The first reaction listed sets the direction; its reverse (a reversible pair) changes nothing.
+      const reactions = trial % 2 === 0 ? [{ from: 0, to: 1 }] : [{ from: 1, to: 0 }, { from: 0, to: 1 }];
+      const placed = placeComplexes({ keys: [a, b], reactions, linkageClasses: [[0, 1]], known: {}, sizeOf: (key) => sizes[key] });
+
+      const graph = new dagre.graphlib.Graph();
+      graph.setGraph({ rankdir: "LR", nodesep: 28, ranksep: 72, marginx: 0, marginy: 0 });
+      graph.setDefaultEdgeLabel(() => ({}));
+      for (const key of [a, b]) graph.setNode(key, { ...sizes[key] });
+      const [from, to] = trial % 2 === 0 ? [a, b] : [b, a];
+      graph.setEdge(from, to);
+      dagre.layout(graph);
+      const corner = (key: string) => ({ x: Math.round(graph.node(key).x - sizes[key].width / 2), y: Math.round(graph.node(key).y - sizes[key].height / 2) });
+      const top = Math.min(corner(a).y, corner(b).y);
+      expect(placed).toEqual({ [a]: { x: corner(a).x, y: corner(a).y - top }, [b]: { x: corner(b).x, y: corner(b).y - top } });
+    }
+  });
+
   it("lays each linkage class out left to right and shelves the classes in rows", () => {
     const placed = placeComplexes({ keys, reactions, linkageClasses, known: {}, sizeOf });
     expect(Object.keys(placed).sort()).toEqual([...keys].sort());
