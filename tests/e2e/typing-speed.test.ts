@@ -113,10 +113,12 @@ it.runIf(process.env.TYPING_BENCHMARK === "1")("types as fast into 500 steps as 
   const large = await typingCost(generatedOxidation(500));
   for (const cost of [small, large]) expect(cost.paints.length).toBe(typed.length);
   const ratio = p95(large.paints) / p95(small.paints);
-  const longest = Math.max(0, ...small.longTasks, ...large.longTasks);
+  // The target is the 500-step page's; the demo's own longest task is printed beside it.
+  const longest = Math.max(0, ...large.longTasks);
+  const demoLongest = Math.max(0, ...small.longTasks);
   console.log(
     `typing: key-to-paint p95 ${p95(small.paints).toFixed(0)} ms (3 steps), ${p95(large.paints).toFixed(0)} ms (500 steps), ` +
-      `ratio ${ratio.toFixed(2)}; longest task while typing ${longest.toFixed(0)} ms ` +
+      `ratio ${ratio.toFixed(2)}; longest task while typing ${longest.toFixed(0)} ms at 500 steps, ${demoLongest.toFixed(0)} ms at 3 steps ` +
       `(3 steps: ${small.longTasks.length} long tasks, 500 steps: ${large.longTasks.length}); ` +
       `graph shown ${small.graphShown.toFixed(0)} ms after navigation (3 steps), ${large.graphShown.toFixed(0)} ms (500 steps)`,
   );
