@@ -170,6 +170,27 @@ describe.each([64, 500])("at %i steps", (steps) => {
     expect(await litInView(page)).toBe(true);
     await page.close();
   });
+
+  it.runIf(steps === 64)("follows a step being typed to the class it joins when it is finished", { timeout: 240_000 }, async () => {
+    const page = await openGraph(steps);
+    await page.getByRole("button", { name: "Unfold all" }).click();
+    await page.click(".cm-content");
+    await page.keyboard.press("Control+End");
+    // Half typed, the step forms a class of its own; finished, it joins the class of s4's "We + Qa".
+    await page.keyboard.type("\nqq: Qz -> Vw", { delay: 40 });
+    await expect.poll(() => graph(page).locator(".react-flow__node [data-lit]").evaluateAll((nodes) => nodes.map((node) => node.textContent).join(" | ")), { timeout: 60_000 }).toContain("Vw");
+    await settled(page);
+    await page.screenshot({ path: `${shots}/graph-64-typed-new-class.png` });
+    expect(await litInView(page)).toBe(true);
+    await page.keyboard.press("Backspace");
+    await page.keyboard.press("Backspace");
+    await page.keyboard.type("We + Qa", { delay: 40 });
+    await expect.poll(() => graph(page).locator(".react-flow__node [data-lit]").evaluateAll((nodes) => nodes.map((node) => node.textContent).join(" | ")), { timeout: 60_000 }).toContain("We + Qa");
+    await settled(page);
+    await page.screenshot({ path: `${shots}/graph-64-typed-joined-class.png` });
+    expect(await litInView(page)).toBe(true);
+    await page.close();
+  });
 });
 
 describe("the species–step view at 500 steps", () => {

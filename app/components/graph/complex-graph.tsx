@@ -5,7 +5,7 @@
 // up the step under the editor's caret.
 import "@xyflow/react/dist/style.css";
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow, ReactFlowProvider } from "@xyflow/react";
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import type * as Y from "yjs";
 import { ClassBoxView, type ClassBoxNode } from "./class-box-node";
@@ -168,6 +168,7 @@ function SharedComplexGraph({
   const lastWrite = useRef(new Map<string, number>());
   // Until the reader pans or zooms, the view follows the graph as complexes come and go.
   const [viewTouched, setViewTouched] = useState(false);
+  const takeView = useCallback(() => setViewTouched(true), []);
   const folded = folding.folded;
 
   // A large mechanism starts folded: the first fit shows what is unfolded, at a readable size.
@@ -311,11 +312,11 @@ function SharedComplexGraph({
           <Controls showInteractive={false} position="bottom-left" />
           <ArrowLayer arrows={arrows} boxes={boxes} onPick={(id) => select({ kind: "reaction", id })} />
           <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
-          <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} jump={onlyVisible} />
+          <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} jump={onlyVisible} onFollowed={takeView} />
           <CentreOnFocus
             focusKey={emphasis.focusKey}
             ids={model.nodes.filter((node) => emphasis.focus?.complexes.has(node.index)).map((node) => node.key)}
-            onCentred={() => setViewTouched(true)}
+            onCentred={takeView}
           />
         </ReactFlow>
       </div>

@@ -144,18 +144,23 @@ export function CentreOnFocus({
 /**
  * Glides the view, at its present zoom, to the step under the editor's caret when none of its
  * nodes is on screen, so moving through the text keeps the lit step in sight. `caretKey` changes
- * when the caret reaches another step; a step still being placed is followed once it is drawn.
+ * when the caret reaches another step; a step still being placed is followed once it is drawn, and
+ * again whenever its nodes change or move (a step being typed is placed, then joins another class
+ * far from where its half-typed form stood). A reader who pans away from an unchanged step stays.
+ * Having moved, it calls `onFollowed`: the view is then the caret's, and no longer refitted.
  * With `jump` (a large graph, where only what is on screen is drawn) the view jumps instead:
  * every frame of a glide across it would mount and measure another band of nodes, each frame a
  * long task.
  */
-export function FollowCaret({ caretKey, ids, jump = false }: { caretKey: string; ids: string[]; jump?: boolean }) {
+export function FollowCaret({ caretKey, ids, jump = false, onFollowed }: { caretKey: string; ids: string[]; jump?: boolean; onFollowed: () => void }) {
   const { getInternalNode, getViewport, setCenter } = useReactFlow();
   const width = useStore((state) => state.width);
   const height = useStore((state) => state.height);
+  // Runs again when React Flow has taken new node positions, which land after this renders.
+  const nodes = useStore((state) => state.nodes);
   const done = useRef("");
   useEffect(() => {
-    if (!caretKey || done.current === caretKey || width === 0) return;
+    if (!caretKey || width === 0) return;
     const boxes = ids.flatMap((id) => {
       const node = getInternalNode(id);
       if (!node) return [];
@@ -163,7 +168,10 @@ export function FollowCaret({ caretKey, ids, jump = false }: { caretKey: string;
       return [{ x, y, width: node.measured.width ?? node.initialWidth ?? 0, height: node.measured.height ?? node.initialHeight ?? 0 }];
     });
     if (boxes.length === 0) return;
-    done.current = caretKey;
+    // Where the step's nodes are, not only which step: a step being placed moves once more.
+    const followed = `${caretKey}|${ids.join(" ")}|${boxes.map((box) => `${Math.round(box.x)},${Math.round(box.y)}`).join(" ")}`;
+    if (done.current === followed) return;
+    done.current = followed;
     const view = getViewport();
     const onScreen = boxes.some(
       (box) => box.x * view.zoom + view.x >= 0 && box.y * view.zoom + view.y >= 0 && (box.x + box.width) * view.zoom + view.x <= width && (box.y + box.height) * view.zoom + view.y <= height,
@@ -173,7 +181,15 @@ export function FollowCaret({ caretKey, ids, jump = false }: { caretKey: string;
     const top = Math.min(...boxes.map((box) => box.y));
     const right = Math.max(...boxes.map((box) => box.x + box.width));
     const bottom = Math.max(...boxes.map((box) => box.y + box.height));
-    void setCenter((left + right) / 2, (top + bottom) / 2, { zoom: view.zoom, duration: jump ? 0 : 250 });
-  });
+    const fits = (right - left) * view.zoom <= width && (bottom - top) * view.zoom <= height;
+    // A step whose ends lie further apart than the view shows: the end nearest to the view instead
+    // of the empty middle between them.
+    const centre = { x: (width / 2 - view.x) / view.zoom, y: (height / 2 - view.y) / view.zoom };
+    const distance = (box: (typeof boxes)[number]) => Math.hypot(box.x + box.width / 2 - centre.x, box.y + box.height / 2 - centre.y);
+    const nearest = boxes.reduce((best, box) => (distance(box) < distance(best) ? box : best));
+    const [x, y] = fits ? [(left + right) / 2, (top + bottom) / 2] : [nearest.x + nearest.width / 2, nearest.y + nearest.height / 2];
+    void setCenter(x, y, { zoom: view.zoom, duration: jump ? 0 : 250 });
+    onFollowed();
+  }, [caretKey, ids, jump, onFollowed, nodes, width, height, getInternalNode, getViewport, setCenter]);
   return null;
 }

@@ -3,7 +3,7 @@
 // species are drawn as the reader chose (copies beside each step, left out, or once), and a focus
 // may narrow the picture to its neighbourhood, laid out on its own.
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
-import { useEffect, useMemo, useState } from "react";
+import { useCallback, useEffect, useMemo, useState } from "react";
 import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
 import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
@@ -49,6 +49,7 @@ export function SpeciesStepGraph({ model: whole, hubs, choice, emphasis }: Props
   const positions = answer?.drawing === drawing ? answer.positions : null;
   const [nodes, setNodes] = useState<SpeciesStepNode[]>([]);
   const [viewTouched, setViewTouched] = useState(false);
+  const takeView = useCallback(() => setViewTouched(true), []);
   // The way the nodes on screen are drawn; a new one starts a fresh canvas, fitted anew.
   const [drawnAs, setDrawnAs] = useState<string | null>(null);
 
@@ -170,13 +171,13 @@ export function SpeciesStepGraph({ model: whole, hubs, choice, emphasis }: Props
         <Controls showInteractive={false} position="bottom-left" />
         <ArrowLayer arrows={arrows} boxes={boxes} />
         <FitWhileUntouched touched={viewTouched} fitOptions={fitOptions} />
-        <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} />
+        <FollowCaret caretKey={emphasis.caretKey} ids={caretIds} onFollowed={takeView} />
         <CentreOnFocus
           focusKey={emphasis.focusKey}
           ids={focusIds}
           minZoom={readableZoom}
           centre={focusedId}
-          onCentred={() => setViewTouched(true)}
+          onCentred={takeView}
         />
       </ReactFlow>
     </div>
