@@ -23,7 +23,8 @@ import { JobStatus } from "./dynamics/job-status";
 import { StochasticCard } from "./dynamics/stochastic-card";
 import { useDynamicsJob } from "./dynamics/use-dynamics-job";
 import { NumberField } from "./dynamics/number-field";
-import { sweepTarget, sweepTargetLabel, sweepTargets } from "./dynamics/targets";
+import { sweepTarget, sweepTargetLabel } from "./dynamics/targets";
+import { useVariedQuantity } from "./dynamics/use-varied-quantity";
 import { ContinuationCard } from "./dynamics/continuation-card";
 
 const dynamicsUrl = (mechanismId: string) => `/api/v1/mechanisms/${mechanismId}/dynamics`;
@@ -224,16 +225,12 @@ const observableNames = { final: "final value", max: "maximum", period: "period"
 function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: string; text: () => string; input: JobInput; report: AnalysisReport | null; until: number }) {
   const job = useDynamicsJob<SweepResult>(dynamicsUrl(mechanismId));
   const species = report?.species ?? [];
-  const [target, setTarget] = useState("");
   const [observed, setObserved] = useState("");
-  const [from, setFrom] = useState(0.1);
-  const [to, setTo] = useState(10);
+  const varied = useVariedQuantity(text, species);
+  const { chosen: chosenTarget, from, to } = varied;
   const [points, setPoints] = useState(20);
   const [scale, setScale] = useState<"linear" | "log">("log");
   const [observable, setObservable] = useState<"final" | "max" | "period">("final");
-  // Parameters, held species and labels are not in the report; they are read off the text when the picker opens.
-  const [targets, setTargets] = useState<string[]>(() => species.map((s) => `initial:${s}`));
-  const chosenTarget = target || targets[0] || "";
   const chosenSpecies = observed || species[0] || "";
 
   function start() {
@@ -245,16 +242,16 @@ function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: s
   }
 
   return (
-    <section className="card p-4">
+    <section className="card p-4" data-testid="sweep">
       <h3>Parameter sweep</h3>
       <div className="mt-2 flex flex-wrap items-end gap-3 text-sm">
         <label>
           <span className="label">Vary</span>
-          <input className="field w-44 py-1.5" list="sweep-targets" value={chosenTarget} onChange={(e) => setTarget(e.target.value)} onFocus={() => setTargets(sweepTargets(text(), species))} placeholder="parameter:T or fixed:B" />
-          <datalist id="sweep-targets">{targets.map((t) => <option key={t} value={t} />)}</datalist>
+          <input className="field w-44 py-1.5" list="sweep-targets" value={chosenTarget} onChange={(e) => varied.choose(e.target.value)} onFocus={varied.reread} placeholder="parameter:T or fixed:B" />
+          <datalist id="sweep-targets">{varied.targets.map((t) => <option key={t} value={t} />)}</datalist>
         </label>
-        <NumberField label="From" value={from} onChange={setFrom} />
-        <NumberField label="To" value={to} onChange={setTo} />
+        <NumberField label="From" value={from} onChange={(value) => varied.setRange({ from: value })} />
+        <NumberField label="To" value={to} onChange={(value) => varied.setRange({ to: value })} />
         <NumberField label="Points" value={points} onChange={(v) => setPoints(Math.round(v))} min={2} max={MAX_SERVER_SWEEP_POINTS} />
         <label>
           <span className="label">Scale</span>

@@ -1,5 +1,5 @@
 // The Dynamics panel's overrides and sweep targets in the real browser: an override travels with
-// every run, and a held species can be swept.
+// every run, a sweep's range starts from the varied quantity's value, and a held species can be swept.
 import { expect, it } from "vitest";
 import { signedInPage, useServerAndBrowser } from "../support/e2e";
 import { signUp } from "../support/http";
@@ -31,7 +31,17 @@ it("runs a simulation with an override and sweeps a held species", { timeout: 12
   await page.waitForSelector(".uplot canvas");
   expect(JSON.parse(bodies[0]).overrides).toEqual({ parameters: { T: 700 }, initial: {} });
 
+  // The sweep starts on the parameter, a decade either side of its value in the text; a typed range
+  // holds for the quantity it was typed for.
+  const sweepCard = page.locator("[data-testid=sweep]");
   await page.focus("input[list=sweep-targets]");
+  expect(await page.inputValue("input[list=sweep-targets]")).toBe("parameter:T");
+  expect([await sweepCard.getByLabel("From").inputValue(), await sweepCard.getByLabel("To").inputValue()]).toEqual(["50", "5000"]);
+  await sweepCard.getByLabel("To").fill("900");
+  await page.fill("input[list=sweep-targets]", "fixed:F");
+  expect([await sweepCard.getByLabel("From").inputValue(), await sweepCard.getByLabel("To").inputValue()]).toEqual(["0.1", "10"]);
+  await page.fill("input[list=sweep-targets]", "parameter:T");
+  expect(await sweepCard.getByLabel("To").inputValue()).toBe("900");
   await page.fill("input[list=sweep-targets]", "fixed:F");
   await page.click("button:text-is('Sweep')");
   await page.waitForFunction(() => document.querySelectorAll(".uplot canvas").length >= 2);

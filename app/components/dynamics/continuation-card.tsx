@@ -6,8 +6,9 @@ import type { JobInput } from "../dynamics-tab";
 import { BifurcationDiagram } from "./bifurcation-diagram";
 import { JobStatus } from "./job-status";
 import { NumberField } from "./number-field";
-import { defaultSweepRange, sweepTarget, sweepTargetLabel, sweepTargets, targetValues } from "./targets";
+import { sweepTarget, sweepTargetLabel } from "./targets";
 import { useDynamicsJob } from "./use-dynamics-job";
+import { useVariedQuantity } from "./use-varied-quantity";
 
 interface Props {
   /** The endpoint that runs the panel's jobs. */
@@ -19,18 +20,11 @@ interface Props {
 
 export function ContinuationCard({ url, text, input, species }: Props) {
   const job = useDynamicsJob<ContinuationResult>(url);
-  const [target, setTarget] = useState("");
   const [shown, setShown] = useState("");
-  const [targets, setTargets] = useState<string[]>(() => sweepTargets(text(), species));
-  const [values, setValues] = useState(() => targetValues(text()));
-  // A range the reader typed holds for the quantity it was typed for; any other starts a decade either side of its value.
-  const [typedRange, setTypedRange] = useState<{ target: string; from: number; to: number } | null>(null);
+  const varied = useVariedQuantity(text, species);
+  const { chosen: chosenTarget, from, to } = varied;
   // The target the result was computed for labels its axis, not what the field says now.
   const [ranFor, setRanFor] = useState("");
-  // A held species or a parameter is the usual thing to vary; an initial amount (a total) otherwise.
-  const chosenTarget = target || targets.find((t) => !t.startsWith("initial:")) || targets[0] || "";
-  const { from, to } = typedRange?.target === chosenTarget ? typedRange : defaultSweepRange(values.get(chosenTarget));
-  const setRange = (change: { from?: number; to?: number }) => setTypedRange({ target: chosenTarget, from, to, ...change });
   const result = job.result;
   const names = result ? Object.keys(result.points[0]?.state ?? {}) : species;
   const chosenSpecies = names.includes(shown) ? shown : result ? mostChanging(result) : (names[0] ?? "");
@@ -50,18 +44,15 @@ export function ContinuationCard({ url, text, input, species }: Props) {
             className="field w-44 py-1.5"
             list="continuation-targets"
             value={chosenTarget}
-            onChange={(e) => setTarget(e.target.value)}
-            onFocus={() => {
-              setTargets(sweepTargets(text(), species));
-              setValues(targetValues(text()));
-            }}
+            onChange={(e) => varied.choose(e.target.value)}
+            onFocus={varied.reread}
             placeholder="fixed:B or parameter:k"
             aria-label="Quantity to vary"
           />
-          <datalist id="continuation-targets">{targets.map((t) => <option key={t} value={t} />)}</datalist>
+          <datalist id="continuation-targets">{varied.targets.map((t) => <option key={t} value={t} />)}</datalist>
         </label>
-        <NumberField label="From" value={from} onChange={(value) => setRange({ from: value })} min={0} />
-        <NumberField label="To" value={to} onChange={(value) => setRange({ to: value })} min={0} />
+        <NumberField label="From" value={from} onChange={(value) => varied.setRange({ from: value })} min={0} />
+        <NumberField label="To" value={to} onChange={(value) => varied.setRange({ to: value })} min={0} />
         {job.running ? <button className="btn btn-danger" onClick={job.cancel}>Cancel</button> : <button className="btn" onClick={start} disabled={!chosenTarget}>Follow</button>}
         {names.length > 1 && (
           <label>
