@@ -9,6 +9,7 @@ import type { Diagnostic, Mechanism, ParseResult, RateExpression, RateRef, Sever
 import { zeroRateDirections } from "./network";
 import { evaluateRateExpression, isRateFunction, RATE_FUNCTIONS, rateExpressionText } from "./rate-expression";
 
+import { listed } from "./listed";
 import { speciesToken } from "./print";
 
 export { printMechanism } from "./print";
@@ -744,11 +745,6 @@ class MechanismReader {
       else if (forward || backward) this.report("warning", step, `rate coefficient 0: ${forward ? "forward" : "backward"} direction left out of the network`);
     }
   }
-}
-
-/** Names written as "X, Y and Z". */
-function listed(names: string[]): string {
-  return names.length < 2 ? names.join("") : `${names.slice(0, -1).join(", ")} and ${names.at(-1)}`;
 }
 
 /** A character as a reader can recognise it: invisible ones (a no-break space) by code point. */

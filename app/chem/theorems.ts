@@ -1,6 +1,7 @@
 // What the Deficiency Zero and Deficiency One Theorems (Horn, Jackson, Feinberg) say about a
 // network, in words for a chemist. Both concern mass-action kinetics with any positive rate
 // coefficients; "compatibility class" means all compositions reachable with the same conserved totals.
+import { listed } from "./listed";
 
 export interface TheoremVerdict {
   /** Whether the theorem's hypotheses hold, so that its conclusion is guaranteed. */
@@ -33,19 +34,32 @@ export function deficiencyZeroTheorem(facts: StructureFacts): TheoremVerdict {
   return { applies: true, conclusion: withMassActionCaveat(conclusion, facts) };
 }
 
+/** How many classes a failed hypothesis names before it counts the rest. */
+const FAILURES_NAMED = 6;
+
 export function deficiencyOneTheorem(facts: StructureFacts): TheoremVerdict {
   if (facts.reactionCount === 0) return { applies: false, conclusion: "There are no reactions yet, so there is nothing to conclude." };
   const failures: string[] = [];
-  facts.linkageClassDeficiencies.forEach((deficiency, index) => {
-    if (deficiency > 1) failures.push(`linkage class ${index + 1} has deficiency ${deficiency} (at most 1 is allowed)`);
-  });
+  // Class numbers, 1-based, of the classes that break each hypothesis.
+  const tooDeficient = facts.linkageClassDeficiencies.flatMap((deficiency, index) => (deficiency > 1 ? [index] : []));
+  if (tooDeficient.length === 1) {
+    const [index] = tooDeficient;
+    failures.push(`linkage class ${index + 1} has deficiency ${facts.linkageClassDeficiencies[index]} (at most 1 is allowed)`);
+  } else if (tooDeficient.length > 1) {
+    failures.push(`${tooDeficient.length} linkage classes have deficiency above 1 (at most 1 is allowed): classes ${listed(tooDeficient.map((index) => `${index + 1} (${facts.linkageClassDeficiencies[index]})`), FAILURES_NAMED)}`);
+  }
   const sum = facts.linkageClassDeficiencies.reduce((total, deficiency) => total + deficiency, 0);
   if (sum !== facts.deficiency) {
     failures.push(`the linkage classes' deficiencies add up to ${sum}, not to the network's deficiency ${facts.deficiency}`);
   }
-  facts.terminalClassesPerLinkageClass.forEach((count, index) => {
-    if (count !== 1) failures.push(`linkage class ${index + 1} has ${count} terminal strong linkage classes (exactly 1 is required)`);
-  });
+  const counts = facts.terminalClassesPerLinkageClass;
+  const notOneTerminal = counts.flatMap((count, index) => (count !== 1 ? [index] : []));
+  if (notOneTerminal.length === 1) {
+    const [index] = notOneTerminal;
+    failures.push(`linkage class ${index + 1} has ${counts[index]} terminal strong linkage classes (exactly 1 is required)`);
+  } else if (notOneTerminal.length > 1) {
+    failures.push(`${notOneTerminal.length} linkage classes have more than one terminal strong linkage class (exactly 1 is required): classes ${listed(notOneTerminal.map((index) => `${index + 1} (${counts[index]})`), FAILURES_NAMED)}`);
+  }
   if (failures.length > 0) {
     return { applies: false, conclusion: `Its hypotheses do not hold: ${failures.join("; ")}. The theorem draws no conclusion.` };
   }
