@@ -1,8 +1,7 @@
 // What a sweep or a continuation can vary, as "kind:name" choices read off the text, and the
 // choice as the job's target and as an axis label.
-import type { RateRef } from "~/chem/model";
+import { rateValue } from "~/chem/network";
 import { parseMechanism } from "~/chem/parse";
-import { evaluateRateExpression } from "~/chem/rate-expression";
 import { mechanismNames } from "~/editor/complete";
 import type { ContinuationTarget } from "~/shared/job-schemas";
 
@@ -44,19 +43,10 @@ export function targetValues(source: string): Map<string, number> {
   for (const name of mechanism.species) values.set(`initial:${name}`, mechanism.initial[name] ?? 0);
   for (const [name, value] of Object.entries(mechanism.parameters)) values.set(`parameter:${name}`, value);
   for (const [name, value] of Object.entries(mechanism.fixed)) values.set(`fixed:${name}`, value);
-  const rateValue = (rate: RateRef | null): number | null => {
-    if (rate?.kind === "value") return rate.value;
-    if (rate?.kind === "parameter") return mechanism.parameters[rate.name] ?? null;
-    if (rate?.kind === "expression") {
-      const evaluated = evaluateRateExpression(rate.expression, mechanism.parameters);
-      return evaluated.ok ? evaluated.value : null;
-    }
-    return null;
-  };
   for (const step of mechanism.steps) {
     if (step.label === null || step.law !== null) continue;
-    const forward = rateValue(step.forward);
-    const backward = step.reversible ? rateValue(step.backward) : null;
+    const forward = step.forward && rateValue(step.forward, mechanism);
+    const backward = step.reversible && step.backward ? rateValue(step.backward, mechanism) : null;
     if (forward !== null) values.set(`step:${step.label}`, forward);
     if (backward !== null) values.set(`step:${step.label}:backward`, backward);
   }
