@@ -31,12 +31,13 @@ it("runs a simulation with an override and sweeps a held species", { timeout: 12
   await page.waitForSelector(".uplot canvas");
   expect(JSON.parse(bodies[0]).overrides).toEqual({ parameters: { T: 700 }, initial: {} });
 
-  // The sweep starts on the parameter, a decade either side of its value in the text; a typed range
-  // holds for the quantity it was typed for.
+  // The sweep starts on the parameter, a temperature, a quarter either side of its value in the
+  // text (any other quantity a decade either side); a typed range holds for the quantity it was
+  // typed for.
   const sweepCard = page.locator("[data-testid=sweep]");
   await page.focus("input[list=sweep-targets]");
   expect(await page.inputValue("input[list=sweep-targets]")).toBe("parameter:T");
-  expect([await sweepCard.getByLabel("From").inputValue(), await sweepCard.getByLabel("To").inputValue()]).toEqual(["50", "5000"]);
+  expect([await sweepCard.getByLabel("From").inputValue(), await sweepCard.getByLabel("To").inputValue()]).toEqual(["375", "625"]);
   await sweepCard.getByLabel("To").fill("900");
   await page.fill("input[list=sweep-targets]", "fixed:F");
   expect([await sweepCard.getByLabel("From").inputValue(), await sweepCard.getByLabel("To").inputValue()]).toEqual(["0.1", "10"]);

@@ -25,10 +25,12 @@ describe("the value of each quantity a sweep can vary", () => {
     for (const choice of sweepTargets(source, ["A", "C", "D"])) expect(values.has(choice), choice).toBe(true);
   });
 
-  it("starts a decade either side of the value, and at 0.5 … 5 when there is none to go by", () => {
+  it("starts a decade either side of the value (a quarter for a temperature T), and at 0.5 … 5 when there is none to go by", () => {
     expect(defaultSweepRange(1100)).toEqual({ from: 110, to: 11000 });
     expect(defaultSweepRange(3e-4)).toEqual({ from: 3e-5, to: 3e-3 });
     expect(defaultSweepRange(0)).toEqual({ from: 0.5, to: 5 });
+    expect(defaultSweepRange(1100, "parameter:T")).toEqual({ from: 825, to: 1375 });
+    expect(defaultSweepRange(1100, "parameter:Ta")).toEqual({ from: 110, to: 11000 });
     expect(defaultSweepRange(undefined)).toEqual({ from: 0.5, to: 5 });
   });
 });

@@ -53,8 +53,14 @@ export function targetValues(source: string): Map<string, number> {
   return values;
 }
 
-/** Where a sweep over a quantity starts when the reader has not said: a decade either side of its value, else 0.5 … 5. */
-export function defaultSweepRange(value: number | undefined): { from: number; to: number } {
+/**
+ * Where a sweep over a quantity starts when the reader has not said: a decade either side of its
+ * value, else 0.5 … 5. A parameter named T is a temperature by the trade's convention, and a
+ * decade either side of one (110 … 11000 K) is no range a chemist would look at: it gets a quarter
+ * either side instead (common practice, no source).
+ */
+export function defaultSweepRange(value: number | undefined, target = ""): { from: number; to: number } {
   if (value === undefined || !(value > 0) || !Number.isFinite(value)) return { from: 0.5, to: 5 };
-  return { from: Number((value / 10).toPrecision(12)), to: Number((value * 10).toPrecision(12)) };
+  const [low, high] = target === "parameter:T" ? [0.75, 1.25] : [0.1, 10];
+  return { from: Number((value * low).toPrecision(12)), to: Number((value * high).toPrecision(12)) };
 }

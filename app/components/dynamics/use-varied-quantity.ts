@@ -1,6 +1,6 @@
 // The quantity a sweep or a continuation varies, and its range: the choices and their values are
 // read off the text when the picker opens; a range the reader typed holds for the quantity it was
-// typed for, and any other quantity starts a decade either side of its value.
+// typed for, and any other quantity starts a decade either side of its value (a temperature nearer).
 import { useState } from "react";
 import { defaultSweepRange, sweepTargets, targetValues } from "./targets";
 
@@ -11,7 +11,7 @@ export function useVariedQuantity(text: () => string, species: string[]) {
   const [typedRange, setTypedRange] = useState<{ target: string; from: number; to: number } | null>(null);
   // A held species or a parameter is the usual thing to vary; an initial amount (a total) otherwise.
   const chosen = target || targets.find((t) => !t.startsWith("initial:")) || targets[0] || "";
-  const { from, to } = typedRange?.target === chosen ? typedRange : defaultSweepRange(values.get(chosen));
+  const { from, to } = typedRange?.target === chosen ? typedRange : defaultSweepRange(values.get(chosen), chosen);
   return {
     chosen,
     choose: setTarget,
