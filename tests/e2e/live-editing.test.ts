@@ -1,8 +1,10 @@
 // Three people in one mechanism: owner and editor type at once and see each other's text and
-// cursor; a viewer sees the graph gain a node when a new complex is typed, and cannot type.
+// cursor; a viewer sees the graph gain a node when a new complex is typed, and cannot type. The
+// completion list keeps the chosen name in sight.
 import type { Page } from "playwright-core";
 import { expect, it } from "vitest";
 import { signedInPage, useServerAndBrowser } from "../support/e2e";
+import { generatedOxidation } from "../fixtures/generated-oxidation";
 import { signUp } from "../support/http";
 
 const world = useServerAndBrowser();
@@ -121,4 +123,29 @@ it("tells an editor whose paste the server refused, resyncs their copy, and keep
   const source = await stored();
   expect(source.length).toBeGreaterThan(600 * 1024);
   expect(source.length).toBeLessThan(1024 * 1024);
+});
+
+it("keeps the chosen completion in sight as the arrow keys walk down a long list", { timeout: 180_000 }, async () => {
+  const owner = await signUp(world.server.url, "Cora Completer");
+  const { id } = await (await owner.json("/api/v1/mechanisms", "POST", { title: "Many names", source: generatedOxidation(120) })).json();
+  const page = await signedInPage(world, owner.email);
+  await page.goto(`${world.server.url}/m/${id}`);
+  await page.waitForSelector("[data-testid=room-status][data-status=online]", patience);
+  await page.click(".cm-content");
+  await page.keyboard.press("Control+End");
+  await page.keyboard.press("Enter");
+  await page.keyboard.press("Control+Space");
+  const options = page.locator(".cm-tooltip-autocomplete li[role=option]");
+  await expect.poll(() => options.count(), patience).toBeGreaterThan(20);
+  // Far enough down that the list must scroll for the chosen name to be seen.
+  for (let step = 0; step < 15; step++) await page.keyboard.press("ArrowDown");
+  const chosen = page.locator(".cm-tooltip-autocomplete li[aria-selected]");
+  await expect.poll(() => chosen.getAttribute("id"), patience).toMatch(/-15$/);
+  const inSight = () =>
+    page.locator(".cm-tooltip-autocomplete ul").evaluate((list) => {
+      const box = list.getBoundingClientRect();
+      const option = list.querySelector("[aria-selected]")!.getBoundingClientRect();
+      return list.scrollTop > 0 && option.top >= box.top - 1 && option.bottom <= box.bottom + 1;
+    });
+  await expect.poll(inSight, patience).toBe(true);
 });

@@ -10,6 +10,7 @@ import { demoMechanisms } from "../../server/seed/demo";
 import { generatedOxidation } from "../fixtures/generated-oxidation";
 import { signedInPage, useServerAndBrowser } from "../support/e2e";
 import { signUp } from "../support/http";
+import { traceMainThread } from "../support/main-thread-trace";
 
 const world = useServerAndBrowser();
 /** Bounds for a machine shared with other test runs; every wait is on a condition. */
@@ -30,6 +31,8 @@ interface TypingCost {
   longTasks: number[];
   /** From the start of navigation to the first drawn complex of the graph, ms. */
   graphShown: number;
+  /** The page's main-thread tasks while typing, by CPU time, ms: what the page itself costs. */
+  cpuTasks: number[];
 }
 
 /** Opens the mechanism, waits until its graph is drawn, and types `typed` at the end of the text. */
@@ -44,17 +47,22 @@ async function typingCost(source: string): Promise<TypingCost> {
   await page.waitForSelector("[data-testid=live-summary]", patience);
   await page.click(".cm-content");
   await page.keyboard.press("Control+End");
+  // The jump to the end redraws the editor's last screen over a few frames; that is not typing.
+  await quiet(page, 500);
   const before = await revision(page);
   await instrument(page);
+  const stopTrace = await traceMainThread(page);
   // About eight keys a second, a quick typist.
   await page.keyboard.type(typed, { delay: 120 });
   // The analysis of the last keystroke, and whatever the page does with it, belong to typing.
   await expect.poll(() => page.evaluate(() => document.querySelector(".cm-content")?.textContent?.includes("# typing")), patience).toBe(true);
   await expect.poll(async () => (await revision(page)) > before, patience).toBe(true);
-  await waitForQuiet(page);
-  const cost = await page.evaluate(() => (window as unknown as { typingCost: Omit<TypingCost, "graphShown"> }).typingCost);
+  // Late work is counted too.
+  await quiet(page, 1000);
+  const { cpu } = await stopTrace();
+  const cost = await page.evaluate(() => (window as unknown as { typingCost: Pick<TypingCost, "paints" | "longTasks"> }).typingCost);
   await page.context().close();
-  return { ...cost, graphShown };
+  return { ...cost, graphShown, cpuTasks: cpu };
 }
 
 /** The room's analysis revision, which the status badge carries in its title. */
@@ -84,30 +92,32 @@ function instrument(page: Page) {
   });
 }
 
-/** Waits until the page has gone a second without a long task, so late work is counted too. */
-async function waitForQuiet(page: Page) {
-  await page.evaluate(
-    () =>
+/** Waits until the page has gone `ms` without a long task. */
+function quiet(page: Page, ms: number) {
+  return page.evaluate(
+    (ms) =>
       new Promise<void>((resolve) => {
-        const cost = (window as unknown as { typingCost: TypingCost }).typingCost;
-        let seen = cost.longTasks.length;
-        let quietSince = performance.now();
+        let last = performance.now();
+        const observer = new PerformanceObserver(() => (last = performance.now()));
+        observer.observe({ type: "longtask" });
         const check = () => {
-          if (cost.longTasks.length !== seen) [seen, quietSince] = [cost.longTasks.length, performance.now()];
-          if (performance.now() - quietSince >= 1000) resolve();
-          else setTimeout(check, 100);
+          if (performance.now() - last < ms) return void setTimeout(check, 50);
+          observer.disconnect();
+          resolve();
         };
         check();
       }),
+    ms,
   );
 }
 
+const sum = (values: number[]) => values.reduce((total, value) => total + value, 0);
 const p95 = (values: number[]) => [...values].sort((a, b) => a - b)[Math.ceil(values.length * 0.95) - 1];
 
-// Runs with TYPING_BENCHMARK=1. On a quiet moment of this shared machine the ratio read 1.12, 1.65
-// and 1.15 in three runs, and the longest task 64, 51 and 53 ms, the 3-step demo's own in two of
-// them (DEVELOPERS.md, Performance notes): the long-task target still cannot be told apart from the
-// load, so this is left out of the default suite, which must not fail on load.
+// Runs with TYPING_BENCHMARK=1. The targets are on wall time, which this shared machine's load
+// swells: tasks of 50–139 ms there were 10–30 ms of the main thread's CPU time, which is printed
+// beside them (DEVELOPERS.md, Performance notes). So this is left out of the default suite, which
+// must not fail on load.
 it.runIf(process.env.TYPING_BENCHMARK === "1")("types as fast into 500 steps as into the 3-step demo, and no task blocks the page", { timeout: 900_000 }, async () => {
   const small = await typingCost(demo);
   const large = await typingCost(generatedOxidation(500));
@@ -120,7 +130,10 @@ it.runIf(process.env.TYPING_BENCHMARK === "1")("types as fast into 500 steps as 
     `typing: key-to-paint p95 ${p95(small.paints).toFixed(0)} ms (3 steps), ${p95(large.paints).toFixed(0)} ms (500 steps), ` +
       `ratio ${ratio.toFixed(2)}; longest task while typing ${longest.toFixed(0)} ms at 500 steps, ${demoLongest.toFixed(0)} ms at 3 steps ` +
       `(3 steps: ${small.longTasks.length} long tasks, 500 steps: ${large.longTasks.length}); ` +
-      `graph shown ${small.graphShown.toFixed(0)} ms after navigation (3 steps), ${large.graphShown.toFixed(0)} ms (500 steps)`,
+      `graph shown ${small.graphShown.toFixed(0)} ms after navigation (3 steps), ${large.graphShown.toFixed(0)} ms (500 steps); ` +
+      // Wall-clock tasks swell with the machine's load; the main thread's CPU time does not.
+      `by CPU time: longest task ${Math.max(0, ...large.cpuTasks).toFixed(0)} ms at 500 steps, ${Math.max(0, ...small.cpuTasks).toFixed(0)} ms at 3 steps, ` +
+      `main thread busy ${sum(large.cpuTasks).toFixed(0)} ms (500 steps) / ${sum(small.cpuTasks).toFixed(0)} ms (3 steps) = ${(sum(large.cpuTasks) / sum(small.cpuTasks)).toFixed(2)}`,
   );
   expect(ratio).toBeLessThanOrEqual(1.5);
   expect(longest).toBeLessThan(50);
