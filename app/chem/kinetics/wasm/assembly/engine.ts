@@ -132,7 +132,9 @@ export function advanceTo(time: f64, until: f64): i32 {
     if (explicitActive && method == AUTO && explicitStiff()) switchToStiff();
   }
   if (time == t) {
-    for (let i = 0; i < n; i++) unchecked((sample[i] = unchecked(y[i])));
+    // The step's own result, before clipping (as integrator.ts samples it).
+    const result = lastByExplicit ? explicitYNew : bdfYNew;
+    for (let i = 0; i < n; i++) unchecked((sample[i] = unchecked(result[i])));
   } else if (lastByExplicit) explicitInterpolate((time - lastStart) / lastH, sample);
   else bdfInterpolate((time - lastStart) / lastH, sample);
   return REACHED;
