@@ -4,11 +4,11 @@
 
 import { DenseLu } from "./dense-lu";
 import type { OdeSystem } from "./ode-system";
-import { fillRatio, SparseShiftedLu, symbolicFactorization, type SymbolicFactorization } from "./sparse-lu";
+import { SparseShiftedLu } from "./sparse-lu";
 
 /** Below this size dense LU is as fast; above this fill the sparse factors stop paying off. */
-const SPARSE_MIN_SIZE = 40;
-const SPARSE_MAX_FILL = 0.3;
+export const SPARSE_MIN_SIZE = 40;
+export const SPARSE_MAX_FILL = 0.3;
 
 interface Factors {
   solve(b: Float64Array): void;
@@ -45,12 +45,7 @@ export class ShiftedLu {
 }
 
 function sparseSolver(system: OdeSystem): SparseShiftedLu | null {
-  return system.sparsity && sparseSymbolic(system) ? new SparseShiftedLu(system.sparsity) : null;
-}
-
-/** The symbolic factorisation when the system's LU is sparse (the WebAssembly engine makes the same choice), else null. */
-export function sparseSymbolic(system: OdeSystem): SymbolicFactorization | null {
   if (!system.sparsity || system.names.length < SPARSE_MIN_SIZE) return null;
-  const symbolic = symbolicFactorization(system.sparsity);
-  return fillRatio(symbolic) <= SPARSE_MAX_FILL ? symbolic : null;
+  const solver = new SparseShiftedLu(system.sparsity);
+  return solver.fillRatio <= SPARSE_MAX_FILL ? solver : null;
 }

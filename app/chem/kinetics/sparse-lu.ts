@@ -17,7 +17,7 @@ const PIVOT_THRESHOLD = 1e-10;
  * compiled mechanism) and shared by every solver built on it — a sweep or a second integrator
  * over the same system only redoes the numbers.
  */
-export interface SymbolicFactorization {
+interface SymbolicFactorization {
   n: number;
   /** order[p] = the original index at elimination position p. */
   order: Int32Array;
@@ -37,7 +37,7 @@ export interface SymbolicFactorization {
 
 const symbolicCache = new WeakMap<readonly (readonly number[])[], SymbolicFactorization>();
 
-export function symbolicFactorization(pattern: readonly (readonly number[])[]): SymbolicFactorization {
+function symbolicFactorization(pattern: readonly (readonly number[])[]): SymbolicFactorization {
   const cached = symbolicCache.get(pattern);
   if (cached) return cached;
   const n = pattern.length;
@@ -83,12 +83,6 @@ export function symbolicFactorization(pattern: readonly (readonly number[])[]): 
   return symbolic;
 }
 
-/** Stored entries of the factors (sparse part, dense tail, diagonal) against n² for dense storage. */
-export function fillRatio({ n, tailStart, lowerColumn, upperColumn }: SymbolicFactorization): number {
-  const m = n - tailStart;
-  return (lowerColumn.length + upperColumn.length + m * m + tailStart) / (n * n);
-}
-
 export class SparseShiftedLu {
   readonly n: number;
   private readonly order: Int32Array;
@@ -130,6 +124,12 @@ export class SparseShiftedLu {
     this.upperValue = new Float64Array(this.upperColumn.length);
     this.diagonal = new Float64Array(n);
     this.work = new Float64Array(n);
+  }
+
+  /** Stored entries of the factors (sparse part, dense tail, diagonal) against n² for dense storage. */
+  get fillRatio(): number {
+    const m = this.n - this.tailStart;
+    return (this.lowerColumn.length + this.upperColumn.length + m * m + this.tailStart) / (this.n * this.n);
   }
 
   /** Factors s·I − J, J dense row-major; false when a diagonal pivot is unusably small. */

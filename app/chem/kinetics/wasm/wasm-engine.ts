@@ -1,7 +1,7 @@
 // The JavaScript side of the WebAssembly engine (assembly/engine.ts): loads the module once per
-// process or worker thread, hands it a pure mass-action system as tables (rates, changes, Jacobian
-// slots in the sparsity pattern, the sparse LU's symbolic order from sparse-lu.ts, the
-// Dormand–Prince tableau, the NDF coefficients), and steps it from sample time to sample time. It
+// process or worker thread, hands it a pure mass-action system as tables (rates, changes, the
+// Jacobian's sparsity pattern, the Dormand–Prince tableau, the NDF coefficients; the engine plans
+// the sparse LU itself), and steps it from sample time to sample time. It
 // ports integrator.ts's automatic choice with Dormand–Prince and the BDF: V8 compiles WebAssembly
 // to machine code at once, so a fresh process does not run the stepping loop in its interpreter.
 // Node only (simulations run on the server); the generated engine.wasm sits beside this module,
@@ -12,9 +12,9 @@ import { ALPHA, ERROR_CONSTANT, GAMMA } from "../bdf";
 import { dormandPrince54 } from "../dormand-prince";
 import { IntegrationFailure } from "../errors";
 import { TIGHT_RTOL, type Method, type StepStatistics } from "../integrator";
-import type { KineticSystem, MassActionTables } from "../kinetic-system";
+import type { KineticSystem } from "../kinetic-system";
 import type { OdeSystem } from "../ode-system";
-import { sparseSymbolic } from "../shifted-lu";
+import { SPARSE_MAX_FILL, SPARSE_MIN_SIZE } from "../shifted-lu";
 
 interface EngineExports {
   memory: WebAssembly.Memory;
@@ -28,7 +28,7 @@ interface EngineExports {
   int32s(length: number): number;
   setTolerances(rtol: number, atol: number): void;
   configureSystem(n: number, ...tables: number[]): void;
-  configureSolver(sparse: boolean, ...tables: number[]): void;
+  planSolver(minSize: number, maxFill: number): void;
   configureExplicit(stages: number, order: number, stabilityBoundary: number, ...tables: number[]): void;
   configureBdf(gamma: number, alpha: number, errorConstant: number, nonNegative: boolean): void;
   start(initial: number, method: number, nonNegative: boolean, maxSteps: number): void;
@@ -103,12 +103,12 @@ export class WasmRun {
       this.int32s(tables.variableRate),
       this.float64s(tables.variableChange),
       this.int32s(tables.rateStart),
+      this.int32s(tables.rateVariable),
       this.float64s(tables.rateChange),
-      this.int32s(jacobianSlots(tables, pattern)),
       this.int32s(pattern.start),
       this.int32s(pattern.column),
     );
-    this.configureSolver(system, pattern);
+    engine.planSolver(SPARSE_MIN_SIZE, SPARSE_MAX_FILL);
     this.configureExplicit();
     engine.configureBdf(this.float64s(GAMMA), this.float64s(ALPHA), this.float64s(ERROR_CONSTANT), system.nonNegative);
     const method = settings.method === "stiff" ? "bdf" : settings.method;
@@ -145,29 +145,6 @@ export class WasmRun {
   get switchedAt(): number | null {
     const at = this.engine.switchedAt.value as number;
     return Number.isNaN(at) ? null : at;
-  }
-
-  private configureSolver(system: KineticSystem, pattern: CompressedPattern): void {
-    const symbolic = sparseSymbolic(system);
-    if (!symbolic) {
-      const none = this.int32s([]);
-      this.engine.configureSolver(false, none, none, none, none, none, none, none, none, none, 0);
-      return;
-    }
-    const slotOf = (entry: number) => slot(pattern, Math.floor(entry / this.n), entry % this.n);
-    this.engine.configureSolver(
-      true,
-      this.int32s(symbolic.order),
-      this.int32s(symbolic.sourceStart),
-      this.int32s(Int32Array.from(symbolic.sourceIndex, slotOf)),
-      this.int32s(symbolic.sourceColumn),
-      this.int32s(symbolic.lowerStart),
-      this.int32s(symbolic.lowerColumn),
-      this.int32s(symbolic.upperStart),
-      this.int32s(symbolic.upperColumn),
-      this.int32s(Int32Array.from(symbolic.diagonalSource, slotOf)),
-      symbolic.tailStart,
-    );
   }
 
   /** Dormand–Prince's tableau rows as non-zero terms: stage rows, then b, e and the dense row. */
@@ -223,29 +200,4 @@ function compressedPattern(system: KineticSystem): CompressedPattern {
   const start = new Int32Array(n + 1);
   rows.forEach((row, i) => (start[i + 1] = start[i] + row.length));
   return { start, column: Int32Array.from(rows.flat()) };
-}
-
-/** Where ∂f_row/∂y_column sits among the pattern's values; −1 when the pattern has no such entry. */
-function slot({ start, column }: CompressedPattern, row: number, wanted: number): number {
-  let low = start[row];
-  let high = start[row + 1] - 1;
-  while (low <= high) {
-    const middle = (low + high) >> 1;
-    if (column[middle] === wanted) return middle;
-    if (column[middle] < wanted) low = middle + 1;
-    else high = middle - 1;
-  }
-  return -1;
-}
-
-/** For each monomial, each factor, each change in turn (the engine's loop order): the slot it adds to. */
-function jacobianSlots(tables: MassActionTables, pattern: CompressedPattern): Int32Array {
-  const { factorStart, factorVariable, rateStart, rateVariable } = tables;
-  const slots: number[] = [];
-  for (let j = 0; j < factorStart.length - 1; j++) {
-    for (let f = factorStart[j]; f < factorStart[j + 1]; f++) {
-      for (let e = rateStart[j]; e < rateStart[j + 1]; e++) slots.push(slot(pattern, rateVariable[e], factorVariable[f]));
-    }
-  }
-  return Int32Array.from(slots);
 }

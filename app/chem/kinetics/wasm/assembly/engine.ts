@@ -19,7 +19,7 @@ import { errorNorm } from "./norm";
 import { n, rhs } from "./system";
 
 export { configureSystem } from "./system";
-export { configureSolver } from "./lu";
+export { planSolver } from "./symbolic";
 export { configureExplicit } from "./explicit";
 export { configureBdf } from "./bdf";
 export { setTolerances } from "./norm";

@@ -1,7 +1,7 @@
 // The linear solver of the BDF: factors s·I − J and solves with the factors, as shifted-lu.ts does.
 // Sparse with diagonal pivots in the minimum-degree order (the order, fill pattern and dense tail
-// come from sparse-lu.ts's symbolic factorisation, passed in as tables whose sources are pattern
-// slots); dense partial pivoting when the system is small or dense, or a sparse pivot is too small.
+// come from symbolic.ts, the port of sparse-lu.ts's symbolic factorisation, with pattern slots as
+// sources); dense partial pivoting when the system is small or dense, or a sparse pivot is too small.
 
 import { jacobian, n, patternColumn, patternStart } from "./system";
 

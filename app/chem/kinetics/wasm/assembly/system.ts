@@ -35,8 +35,8 @@ export function configureSystem(
   variableRates: StaticArray<i32>,
   variableChanges: StaticArray<f64>,
   rateStarts: StaticArray<i32>,
+  rateVariables: StaticArray<i32>,
   rateChanges: StaticArray<f64>,
-  slots: StaticArray<i32>,
   patternStarts: StaticArray<i32>,
   patternColumns: StaticArray<i32>,
 ): void {
@@ -50,11 +50,42 @@ export function configureSystem(
   variableChange = variableChanges;
   rateStart = rateStarts;
   rateChange = rateChanges;
-  jacobianSlot = slots;
   patternStart = patternStarts;
   patternColumn = patternColumns;
+  jacobianSlot = jacobianSlots(rateVariables);
   jacobian = new StaticArray<f64>(patternColumns.length);
   rates = new StaticArray<f64>(k.length);
+}
+
+/** For each monomial, each of its factors, each of its changes in turn (evaluateJacobian's order): the slot it adds to. */
+function jacobianSlots(rateVariable: StaticArray<i32>): StaticArray<i32> {
+  let count = 0;
+  for (let j = 0; j < coefficients.length; j++) {
+    count += (unchecked(factorStart[j + 1]) - unchecked(factorStart[j])) * (unchecked(rateStart[j + 1]) - unchecked(rateStart[j]));
+  }
+  const slots = new StaticArray<i32>(count);
+  let cursor = 0;
+  for (let j = 0; j < coefficients.length; j++) {
+    for (let f = unchecked(factorStart[j]); f < unchecked(factorStart[j + 1]); f++) {
+      const column = unchecked(factorVariable[f]);
+      for (let e = unchecked(rateStart[j]); e < unchecked(rateStart[j + 1]); e++) unchecked((slots[cursor++] = slotOf(unchecked(rateVariable[e]), column)));
+    }
+  }
+  return slots;
+}
+
+/** The slot of ∂f_row/∂y_column among the pattern's values, −1 when the pattern has none. */
+export function slotOf(row: i32, column: i32): i32 {
+  let low = unchecked(patternStart[row]);
+  let high = unchecked(patternStart[row + 1]) - 1;
+  while (low <= high) {
+    const middle = (low + high) >> 1;
+    const found = unchecked(patternColumn[middle]);
+    if (found == column) return middle;
+    if (found < column) low = middle + 1;
+    else high = middle - 1;
+  }
+  return -1;
 }
 
 @inline function power(value: f64, p: f64): f64 {
