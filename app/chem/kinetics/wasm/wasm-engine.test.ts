@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { aggregation, brusselator, generatedNetwork, lotkaVolterra, robertson } from "../../../../tests/fixtures/dynamics/models";
+import { SimulationCancelled } from "../errors";
 import { networkSystem } from "../from-network";
 import { polynomialSystem } from "../from-polynomial";
 import { Integrator, type Method } from "../integrator";
@@ -142,5 +143,11 @@ describe("which engine runs", () => {
     const options = { until: 40, samples: 5, rtol: 1e-6, atol: 1e-10 };
     expect(simulateNetwork(mechanism, network, { ...options, method: "auto" }).stats.engine).toBe("wasm");
     expect(simulateNetwork(mechanism, network, { ...options, method: "rodas4" }).stats.engine).toBe("js");
+  });
+
+  it("an engine run sees its signal between samples", () => {
+    const controller = new AbortController();
+    const options = { until: 1e5, samples: 50, signal: controller.signal, onProgress: () => controller.abort() };
+    expect(() => simulateNetwork(mechanism, network, options)).toThrow(SimulationCancelled);
   });
 });

@@ -174,16 +174,17 @@ export class WasmRun {
     );
   }
 
-  /** Copies values into a new array in the engine's memory; returns its address. */
+  /** Copies values into a new array of doubles in the engine's memory; returns its address. */
   private float64s(values: ArrayLike<number>): number {
-    const address = this.engine.float64s(values.length);
-    new Float64Array(this.engine.memory.buffer, address, values.length).set(values);
-    return address;
+    return this.copied(values, this.engine.float64s(values.length), Float64Array);
   }
 
   private int32s(values: ArrayLike<number>): number {
-    const address = this.engine.int32s(values.length);
-    new Int32Array(this.engine.memory.buffer, address, values.length).set(values);
+    return this.copied(values, this.engine.int32s(values.length), Int32Array);
+  }
+
+  private copied(values: ArrayLike<number>, address: number, View: Float64ArrayConstructor | Int32ArrayConstructor): number {
+    new View(this.engine.memory.buffer, address, values.length).set(values);
     return address;
   }
 }
