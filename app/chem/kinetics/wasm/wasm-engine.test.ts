@@ -145,6 +145,15 @@ describe("which engine runs", () => {
     expect(simulateNetwork(mechanism, network, { ...options, method: "rodas4" }).stats.engine).toBe("js");
   });
 
+  it("refuses to go on with a run after another has taken the engine", () => {
+    const system = networkSystem(mechanism, network);
+    const settings = { rtol: 1e-6, atol: 1e-10, method: "auto" as const, maxSteps: 1000 };
+    const first = new WasmRun(system, settings, 10);
+    first.advanceTo(1);
+    new WasmRun(system, settings, 10).advanceTo(10);
+    expect(() => first.advanceTo(2)).toThrow(/one at a time/);
+  });
+
   it("an engine run sees its signal between samples", () => {
     const controller = new AbortController();
     const options = { until: 1e5, samples: 50, signal: controller.signal, onProgress: () => controller.abort() };

@@ -51,6 +51,8 @@ export interface EngineSettings {
 }
 
 let engine: EngineExports | null = null;
+/** The run the engine's memory belongs to: one at a time per thread, each reset on creation. */
+let activeRun: WasmRun | null = null;
 
 /** Compiled and instantiated on first use, synchronously, once per process or thread. */
 function loaded(): EngineExports {
@@ -90,6 +92,7 @@ export class WasmRun {
     const { engine } = this;
     this.n = system.names.length;
     this.maxSteps = settings.maxSteps;
+    activeRun = this;
     engine.reset();
     engine.setTolerances(settings.rtol, settings.atol);
     const pattern = compressedPattern(system);
@@ -118,6 +121,7 @@ export class WasmRun {
   /** The state at `time` (ascending from call to call); a view into the engine's memory, valid until the next call. */
   advanceTo(time: number): Float64Array {
     const { engine } = this;
+    if (activeRun !== this) throw new Error("another WasmRun has started since this one: the engine runs one at a time per thread");
     const status = engine.advanceTo(time, this.until);
     const at = (engine.t.value as number).toPrecision(6);
     if (status === GAVE_UP) {
