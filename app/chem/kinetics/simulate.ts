@@ -53,7 +53,7 @@ export function simulateSystem(system: OdeSystem, options: SimulationOptions): S
     const index = sampled++;
     for (let v = 0; v < columns.length; v++) columns[v][index] = system.nonNegative && state[v] < 0 ? 0 : state[v];
     const fraction = time / until;
-    if (index > 0 && options.onProgress && fraction - reported >= 0.01) {
+    if (options.onProgress && fraction - reported >= 0.01) {
       reported = fraction;
       options.onProgress(fraction);
     }
