@@ -22,6 +22,6 @@ const fresh = existsSync(bundle) && statSync(bundle).mtimeMs >= Math.max(...["ap
 const args = process.argv.slice(2);
 const command = fresh
   ? [bundle, ...args]
-  : (spawnSync(process.execPath, [path.join(root, "scripts/ensure-grammar.mjs")], { stdio: "inherit" }), ["--import", "tsx", path.join(root, "server/cli/main.ts"), ...args]);
+  : (spawnSync(process.execPath, [path.join(root, "scripts/ensure-generated.mjs")], { stdio: "inherit" }), ["--import", "tsx", path.join(root, "server/cli/main.ts"), ...args]);
 const result = spawnSync(process.execPath, command, { stdio: "inherit" });
 process.exit(result.status ?? 1);

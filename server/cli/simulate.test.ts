@@ -11,7 +11,7 @@ describe("mechweave simulate", slow, () => {
     expect(code).toBe(0);
     const result = JSON.parse(stdout);
     expect(Object.keys(result)).toEqual(["t", "series", "stats"]);
-    expect(Object.keys(result.stats)).toEqual(["steps", "rejected", "jacobians", "factorizations", "method", "ms"]);
+    expect(Object.keys(result.stats)).toEqual(["steps", "rejected", "jacobians", "factorizations", "method", "engine", "ms"]);
     expect(result.t).toEqual([0, 10, 20, 30, 40]);
     expect(result.series.A[4]).toBeCloseTo(0.7158, 4);
   });

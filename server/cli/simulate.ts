@@ -93,8 +93,9 @@ export function run(args: string[]): Promise<number> {
     (result: Pick<SimulationResult, "t" | "series" | "stats">) => {
       const names = Object.keys(result.series);
       const rows = result.t.map((t, i) => [t, ...names.map((name) => result.series[name][i])].map((x) => x.toPrecision(6)).join("\t"));
-      const { steps, rejected, jacobians, factorizations, method, ms } = result.stats;
-      const summary = `# ${steps} steps, ${rejected} rejected, ${jacobians} Jacobians, ${factorizations} LU factorisations, ${METHOD_NAMES[method]}, ${ms} ms`;
+      const { steps, rejected, jacobians, factorizations, method, engine, ms } = result.stats;
+      const where = engine === "wasm" ? "WebAssembly" : "JavaScript";
+      const summary = `# ${steps} steps, ${rejected} rejected, ${jacobians} Jacobians, ${factorizations} LU factorisations, ${METHOD_NAMES[method]} in ${where}, ${ms} ms`;
       return [["t", ...names].join("\t"), ...rows, summary].join("\n");
     },
   );

@@ -68,7 +68,7 @@ function disagreement(reference: number[], b: number[]): number {
 
 function main() {
   const runs = Number(process.argv[2] ?? 3);
-  spawnSync(process.execPath, ["scripts/ensure-grammar.mjs"], { stdio: "inherit" });
+  spawnSync(process.execPath, ["scripts/ensure-generated.mjs"], { stdio: "inherit" });
   spawnSync(process.execPath, ["scripts/bundle.mjs"], { stdio: "inherit" });
   const directory = mkdtempSync(join(tmpdir(), "mechweave-bench-"));
   try {

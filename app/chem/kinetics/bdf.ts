@@ -24,10 +24,10 @@ export const MAX_ORDER = 5;
 /** Klopfenstein–Shampine κ_k of the NDF of order k (Shampine & Reichelt 1997, Table 1). */
 const KAPPA = [0, -0.185, -1 / 9, -0.0823, -0.0415, 0];
 /** γ_k = Σ_{j=1..k} 1/j. */
-const GAMMA = KAPPA.map((_, k) => Array.from({ length: k }, (_, j) => 1 / (j + 1)).reduce((a, b) => a + b, 0));
-const ALPHA = KAPPA.map((kappa, k) => (1 - kappa) * GAMMA[k]);
+export const GAMMA = KAPPA.map((_, k) => Array.from({ length: k }, (_, j) => 1 / (j + 1)).reduce((a, b) => a + b, 0));
+export const ALPHA = KAPPA.map((kappa, k) => (1 - kappa) * GAMMA[k]);
 /** The local error of order k is ERROR_CONSTANT[k] times the Newton correction y − y⁰. */
-const ERROR_CONSTANT = KAPPA.map((kappa, k) => kappa * GAMMA[k] + 1 / (k + 1));
+export const ERROR_CONSTANT = KAPPA.map((kappa, k) => kappa * GAMMA[k] + 1 / (k + 1));
 
 /** Width of the re-scaling matrices: orders 0 … MAX_ORDER. */
 const SIZE = MAX_ORDER + 1;

@@ -43,7 +43,7 @@ export interface StepStatistics {
   method: MethodName;
 }
 
-const DEFAULT_MAX_STEPS = 2_000_000;
+export const DEFAULT_MAX_STEPS = 2_000_000;
 
 export class Integrator {
   t: number;

@@ -32,6 +32,25 @@ export interface KineticSystem extends OdeSystem {
   /** The monomial coefficients, live: a sweep may change them without recompiling. */
   readonly coefficients: Float64Array;
   readonly generated: boolean;
+  readonly sparsity: readonly (readonly number[])[];
+  /** The rate tables when every rate is a monomial (what the WebAssembly engine runs on); null with custom laws. */
+  readonly massAction: MassActionTables | null;
+}
+
+/** A kinetic system's structure as compressed tables (rates numbered monomials first, then custom laws). */
+export interface MassActionTables {
+  /** Factors of monomial j: factorStart[j] … factorStart[j + 1] − 1. */
+  factorStart: Int32Array;
+  factorVariable: Int32Array;
+  factorPower: Float64Array;
+  /** y'_i = Σ variableChange[e]·r[variableRate[e]] over e in variableStart[i] … variableStart[i + 1] − 1. */
+  variableStart: Int32Array;
+  variableRate: Int32Array;
+  variableChange: Float64Array;
+  /** The changes rate j makes: rateStart[j] … rateStart[j + 1] − 1. */
+  rateStart: Int32Array;
+  rateVariable: Int32Array;
+  rateChange: Float64Array;
 }
 
 /**
@@ -54,8 +73,9 @@ export function compileKineticSystem(spec: KineticSpec, options: { generate?: bo
   const monomialCount = spec.monomials.length;
   const rateCount = monomialCount + spec.custom.length;
   const coefficients = Float64Array.from(spec.monomials, (m) => m.coefficient);
+  const tables = massActionTables(spec);
   const fast = options.generate ?? true ? generatedKernels(spec) : {};
-  const kernels: Kernels = { ...tableKernels(spec), ...fast };
+  const kernels: Kernels = { ...tableKernels(n, tables), ...fast };
   const generated = Object.keys(fast).length > 0;
 
   const r = new Float64Array(rateCount);
@@ -73,6 +93,7 @@ export function compileKineticSystem(spec: KineticSpec, options: { generate?: bo
     sparsity: jacobianPattern(spec, rateChanges),
     coefficients,
     generated,
+    massAction: spec.custom.length === 0 ? tables : null,
     rhs(y, dy) {
       kernels.rates(coefficients, y, r);
       customRates(y, r);
@@ -178,8 +199,7 @@ function generatedKernels(spec: KineticSpec): Partial<Kernels> {
   return kernels;
 }
 
-function tableKernels(spec: KineticSpec): Kernels {
-  const n = spec.names.length;
+function massActionTables(spec: KineticSpec): MassActionTables {
   const monomialCount = spec.monomials.length;
   const factorStart = new Int32Array(monomialCount + 1);
   spec.monomials.forEach((m, j) => (factorStart[j + 1] = factorStart[j] + m.factors.length));
@@ -191,10 +211,24 @@ function tableKernels(spec: KineticSpec): Kernels {
       factorPower[factorStart[j] + index] = f.power;
     }),
   );
-  const byVariable = compressed(n, spec.changes.map((c) => [c.variable, c.rate, c.change]));
+  const byVariable = compressed(spec.names.length, spec.changes.map((c) => [c.variable, c.rate, c.change]));
   const byRate = compressed(monomialCount + spec.custom.length, spec.changes.map((c) => [c.rate, c.variable, c.change]));
-  const [variableStart, variableRate, variableChange] = [byVariable.start, byVariable.index, byVariable.value];
-  const [rateStart, rateVariable, rateChange] = [byRate.start, byRate.index, byRate.value];
+  return {
+    factorStart,
+    factorVariable,
+    factorPower,
+    variableStart: byVariable.start,
+    variableRate: byVariable.index,
+    variableChange: byVariable.value,
+    rateStart: byRate.start,
+    rateVariable: byRate.index,
+    rateChange: byRate.value,
+  };
+}
+
+function tableKernels(n: number, tables: MassActionTables): Kernels {
+  const { factorStart, factorVariable, factorPower, variableStart, variableRate, variableChange, rateStart, rateVariable, rateChange } = tables;
+  const monomialCount = factorStart.length - 1;
 
   return {
     rates(k, y, r) {

@@ -7,8 +7,8 @@ import type { OdeSystem } from "./ode-system";
 import { SparseShiftedLu } from "./sparse-lu";
 
 /** Below this size dense LU is as fast; above this fill the sparse factors stop paying off. */
-const SPARSE_MIN_SIZE = 40;
-const SPARSE_MAX_FILL = 0.3;
+export const SPARSE_MIN_SIZE = 40;
+export const SPARSE_MAX_FILL = 0.3;
 
 interface Factors {
   solve(b: Float64Array): void;
