@@ -8,6 +8,7 @@ import { extname } from "node:path";
 import { IntegrationFailure, SimulationInputError } from "~/chem/kinetics/errors";
 import { METHOD_NAMES } from "~/chem/kinetics/settings";
 import type { SimulationResult } from "~/chem/kinetics/simulate";
+import { compileEngineAhead } from "~/chem/kinetics/wasm/wasm-engine";
 import type { Diagnostic } from "~/chem/model";
 import { buildNetwork } from "~/chem/network";
 import { parseOde } from "~/chem/ode/parse";
@@ -74,11 +75,13 @@ export async function runModelCommand(
 
 export function run(args: string[]): Promise<number> {
   if (args.includes("--stochastic")) return import("./stochastic").then(({ runStochastic }) => runStochastic(args));
+  // The engine compiles in the background while the file is read and parsed.
+  const engineReady = compileEngineAhead();
   return runModelCommand(
     "simulate",
     args,
     { until: "number", samples: "integer", rtol: "number", atol: "number", method: "method" },
-    (model, flags) => {
+    async (model, flags) => {
       if (flags.until === undefined) throw new UsageError("--until T is required");
       const settings = checkedSettings(simulateSettings, {
         until: flags.until,
@@ -87,6 +90,7 @@ export function run(args: string[]): Promise<number> {
         atol: flags.atol,
         method: flags.method,
       });
+      await engineReady;
       const result = runJob({ kind: "simulate", model, settings });
       return { t: result.t, series: result.series, stats: result.stats };
     },

@@ -2,6 +2,7 @@
 // error (by name, so the parent can rebuild the error class) for each.
 
 import { parentPort } from "node:worker_threads";
+import { compileEngineAhead } from "~/chem/kinetics/wasm/wasm-engine";
 import type { FitProgress } from "~/chem/fit/types";
 import { isTextJob, runJob, runRealizationJob, runTextJob, type SizeLimits, type WorkerJob } from "./job";
 import { errorRecord, type ErrorRecord } from "./job-errors";
@@ -22,6 +23,7 @@ const post = (message: WorkerMessage) => parentPort?.postMessage(message);
 // One job at a time, as the parent sends them; the worker then waits for the next. Every module is
 // loaded by now: the parent starts the job's clock.
 parentPort?.on("message", (request: WorkerRequest) => void run(request));
+void compileEngineAhead(); // in the background while the thread waits for its first job
 post({ type: "ready" });
 
 async function run({ job, limits }: WorkerRequest) {

@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { aggregation, brusselator, generatedNetwork, lotkaVolterra, robertson } from "../../../../tests/fixtures/dynamics/models";
 import { SimulationCancelled } from "../errors";
 import { networkSystem } from "../from-network";
@@ -158,5 +158,19 @@ describe("which engine runs", () => {
     const controller = new AbortController();
     const options = { until: 1e5, samples: 50, signal: controller.signal, onProgress: () => controller.abort() };
     expect(() => simulateNetwork(mechanism, network, options)).toThrow(SimulationCancelled);
+  });
+});
+
+describe("compiling the engine ahead", () => {
+  it("a module instance compiled ahead (as the CLI and the job threads do) runs as one compiled in the run", async () => {
+    const { mechanism, network } = robertson();
+    const settings = { rtol: 1e-6, atol: 1e-10, method: "auto" as const, maxSteps: 100_000 };
+    const inRun = new WasmRun(networkSystem(mechanism, network), settings, 1e5).advanceTo(1e5).slice();
+    vi.resetModules();
+    const fresh = await import("./wasm-engine");
+    await fresh.compileEngineAhead();
+    await fresh.compileEngineAhead(); // a second call waits on the same compilation
+    const ahead = new fresh.WasmRun(networkSystem(mechanism, network), settings, 1e5).advanceTo(1e5);
+    expect([...ahead]).toEqual([...inRun]);
   });
 });

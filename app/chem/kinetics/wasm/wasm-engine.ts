@@ -53,10 +53,29 @@ export interface EngineSettings {
 let engine: EngineExports | null = null;
 /** The run the engine's memory belongs to: one at a time per thread, each reset on creation. */
 let activeRun: WasmRun | null = null;
+let compiling: Promise<void> | null = null;
+let compiled: WebAssembly.Module | null = null;
 
-/** Compiled and instantiated on first use, synchronously, once per process or thread. */
+const engineBytes = () => readFileSync(new URL("./engine.wasm", import.meta.url));
+
+/**
+ * Starts compiling the engine on V8's background threads, as a program loads its code: a caller
+ * with other work first (reading and parsing a text, a worker thread waiting for its first job)
+ * then finds it ready instead of compiling it in the run (about 3 ms).
+ */
+export function compileEngineAhead(): Promise<void> {
+  compiling ??= Promise.resolve()
+    .then(() => WebAssembly.compile(engineBytes()))
+    .then(
+      (module) => void (compiled = module),
+      () => undefined, // `loaded` compiles at once and reports the failure in the run
+    );
+  return compiling;
+}
+
+/** Instantiated on first use, synchronously (compiled then too unless compiled ahead), once per process or thread. */
 function loaded(): EngineExports {
-  engine ??= new WebAssembly.Instance(new WebAssembly.Module(readFileSync(new URL("./engine.wasm", import.meta.url))), {
+  engine ??= new WebAssembly.Instance(compiled ?? new WebAssembly.Module(engineBytes()), {
     env: {
       abort() {
         throw new Error("the WebAssembly engine aborted");
