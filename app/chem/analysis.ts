@@ -1,20 +1,16 @@
 // The structure report of a mechanism: every invariant the product shows, in one JSON-ready object.
 // Its keys are the `analyze --json` contract of PRODUCT.md plus the extras the web UI needs.
-import { concentrationRobustness, type AcrWitness } from "./acr";
+import type { AcrWitness } from "./acr";
 import { complexBalance, type ComplexBalance } from "./complex-balance";
 import { type BalanceReport, elementBalance } from "./balance";
-import { hasPositiveConservationLaw } from "./conservation";
 import { detailedBalance, type DetailedBalance } from "./detailed-balance";
-import { nullSpace, rank } from "./linalg/kernel";
-import type { SparseVector } from "./linalg/sparse";
-import { analyzeLinkage } from "./linkage";
 import type { Diagnostic, Mechanism, Network, ParseResult, Term } from "./model";
 import { buildNetwork, reactionVector } from "./network";
-import { multistationarity, type Multistationarity } from "./multistationarity";
+import type { Multistationarity } from "./multistationarity";
+import { networkShape, type ShapeMemo } from "./network-shape";
 import { inducedOdes } from "./odes";
 import { checkSourceLimits, parseMechanism } from "./parse";
-import { persistence } from "./siphons";
-import { deficiencyOneTheorem, deficiencyZeroTheorem, type TheoremVerdict } from "./theorems";
+import type { TheoremVerdict } from "./theorems";
 
 export interface AnalysisReport {
   diagnostics: Diagnostic[];
@@ -88,6 +84,8 @@ export interface AnalysisOptions {
   /** Sample points and progress of that search (see `WitnessSearch`). */
   witnessSamples?: number;
   onWitnessProgress?: (fraction: number) => void;
+  /** Remembers the structural part of recent analyses (see network-shape.ts): for a caller that analyses one changing text. */
+  shapes?: ShapeMemo;
 }
 
 export async function analyzeSource(source: string, options: AnalysisOptions = {}): Promise<AnalysisReport> {
@@ -108,44 +106,15 @@ export function parseForAnalysis(source: string, parse: (source: string) => Pars
 export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, options: AnalysisOptions = {}): Promise<AnalysisReport> {
   const network = buildNetwork(mechanism);
   const { species, complexes, reactions } = network;
-  const linkage = analyzeLinkage(complexes.length, reactions);
-
-  const forest = spanningForestVectors(network, linkage.linkageClassOf);
-  const conservationLaws = nullSpace(forest.map(({ vector }) => vector), species.length);
-  const stoichiometricRank = species.length - conservationLaws.length;
-  const vectorsByClass = linkage.linkageClasses.map((): SparseVector[] => []);
-  for (const { vector, linkageClass } of forest) vectorsByClass[linkageClass].push(vector);
-  // A class holding every forest vector has the network's rank: no second elimination for it.
-  const classRank = (vectors: SparseVector[]) => (vectors.length === forest.length ? stoichiometricRank : rank(vectors));
-  const linkageClassDeficiencies = linkage.linkageClasses.map((members, index) => members.length - 1 - classRank(vectorsByClass[index]));
-  const deficiency = complexes.length - linkage.linkageClasses.length - stoichiometricRank;
-
-  const reactionKeys = new Set(reactions.map(({ from, to }) => `${from}>${to}`));
-  const reversible = reactions.length > 0 && reactions.every(({ from, to }) => reactionKeys.has(`${to}>${from}`));
-  const weaklyReversible = reactions.length > 0 && linkage.strongLinkageClasses.length === linkage.linkageClasses.length;
-
-  const terminalClassesPerLinkageClass = linkage.linkageClasses.map(() => 0);
-  for (const members of linkage.terminalStrongLinkageClasses) terminalClassesPerLinkageClass[linkage.linkageClassOf[members[0]]]++;
   const customLaws = reactions.flatMap((reaction, index) =>
     reaction.law === null ? [] : [{ reaction: index, law: reaction.law, lines: reaction.steps.map((step) => mechanism.steps[step].line) }],
   );
-  const facts = {
-    reactionCount: reactions.length,
-    deficiency,
-    linkageClassDeficiencies,
-    terminalClassesPerLinkageClass,
-    weaklyReversible,
-    customLawCount: customLaws.length,
-  };
+  // A witness search reads the rate coefficients, so its verdict is never taken from the memo.
+  const search = { ms: options.witnessSearchMs ?? 0, samples: options.witnessSamples, onProgress: options.onWitnessProgress };
+  const shape = await (options.shapes && search.ms <= 0 ? options.shapes.get(network) : networkShape(network, search));
+  const { linkage, conservationLaws, stoichiometricRank, deficiency, reversible, weaklyReversible, theorems, siphonVerdict, robustness } = shape;
   const odes = inducedOdes(network);
-  const theorems = { deficiencyZero: deficiencyZeroTheorem(facts), deficiencyOne: deficiencyOneTheorem(facts) };
-  const siphonVerdict = await persistence(network, conservationLaws);
   const namesOf = (members: number[]) => members.map((index) => species[index]);
-  const robustness = concentrationRobustness(network, {
-    deficiency,
-    terminalStrongLinkageClasses: linkage.terminalStrongLinkageClasses,
-    customLawCount: customLaws.length,
-  });
 
   return {
     diagnostics,
@@ -157,7 +126,7 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, 
     terminalStrongLinkageClasses: linkage.terminalStrongLinkageClasses,
     rank: stoichiometricRank,
     deficiency,
-    linkageClassDeficiencies,
+    linkageClassDeficiencies: shape.linkageClassDeficiencies,
     reversible,
     weaklyReversible,
     conservationLaws,
@@ -165,14 +134,10 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, 
       dimension: stoichiometricRank,
       totals: conservationLaws.map((law) => law.reduce((total, weight, i) => total + weight * (mechanism.initial[species[i]] ?? 0), 0)),
     },
-    massConserving: await hasPositiveConservationLaw(conservationLaws, species.length),
+    massConserving: shape.massConserving,
     theorems,
     odes: odes.text,
-    multistationarity: await multistationarity(network, { theorems, weaklyReversible, conservationLaws }, {
-      ms: options.witnessSearchMs ?? 0,
-      samples: options.witnessSamples,
-      onProgress: options.onWitnessProgress,
-    }),
+    multistationarity: shape.multistationarity,
     siphons: siphonVerdict.siphons?.map(namesOf) ?? null,
     acr: robustness.species,
     balance: elementBalance(mechanism),
@@ -216,26 +181,4 @@ function stepSummaries(mechanism: Mechanism, network: Network): StepSummary[] {
     products: indexed(step.products),
     reactions: reactionsOf[index],
   }));
-}
-
-/**
- * Reaction vectors of a spanning forest of the complex graph. Within a linkage class every
- * reaction vector is a sum of tree vectors along a path, so these n − l vectors span the
- * stoichiometric subspace and elimination never sees the (often many more) redundant reactions.
- */
-function spanningForestVectors(network: Network, linkageClassOf: number[]): { vector: SparseVector; linkageClass: number }[] {
-  const parent = network.complexes.map((_, index) => index);
-  const find = (node: number): number => {
-    while (parent[node] !== node) node = parent[node] = parent[parent[node]];
-    return node;
-  };
-  const forest: { vector: SparseVector; linkageClass: number }[] = [];
-  for (const { from, to } of network.reactions) {
-    const a = find(from);
-    const b = find(to);
-    if (a === b) continue;
-    parent[a] = b;
-    forest.push({ vector: reactionVector(network, { from, to }), linkageClass: linkageClassOf[from] });
-  }
-  return forest;
 }

@@ -2,7 +2,8 @@ import * as Y from "yjs";
 import { describe, expect, it } from "vitest";
 import { analyzeMechanism, parseForAnalysis } from "~/chem/analysis";
 import type { RoomAnalysis } from "./analysis-map";
-import { packReport, roomAnalysisReader, unpackReport, unpackReportNatively, watchRoomAnalysis } from "./analysis-map";
+import { packReport } from "../../server/collab/analysis-entries";
+import { roomAnalysisReader, unpackReport, unpackReportNatively, watchRoomAnalysis } from "./analysis-map";
 
 const reportOf = async (source: string) => analyzeMechanism(parseForAnalysis(source));
 

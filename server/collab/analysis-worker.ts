@@ -3,6 +3,7 @@
 // text, the report packed.
 import { parentPort } from "node:worker_threads";
 import { analyzeMechanism, parseForAnalysis } from "../../app/chem/analysis";
+import { ShapeMemo } from "../../app/chem/network-shape";
 import { IncrementalMechanismParser } from "../../app/chem/parse";
 import { analysisEntries, type AnalysisRequest, type AnalysisResponse } from "./analysis-entries";
 
@@ -15,13 +16,15 @@ const RECENT_PARSES = 8;
 
 /** Most requests are the last text with a keystroke more: its unchanged parts are not parsed again. */
 const parser = new IncrementalMechanismParser();
+/** Most keystrokes change a coefficient, a label or a comment: the network's shape is reused. */
+const shapes = new ShapeMemo();
 
 async function entriesFor(source: string) {
   const parsed = parseForAnalysis(source, (text) => parser.parse(text));
   const key = JSON.stringify(parsed);
   let entries = recent.get(key);
   if (entries) recent.delete(key);
-  else entries = analysisEntries(await analyzeMechanism(parsed));
+  else entries = analysisEntries(await analyzeMechanism(parsed, { shapes }));
   recent.set(key, entries);
   if (recent.size > RECENT_PARSES) recent.delete(recent.keys().next().value!);
   return entries;

@@ -25,7 +25,7 @@ import { useSpeciesViewChoice } from "./species-view-choice";
 import { useComplexPositions } from "./use-complex-positions";
 import { useHeldComplexes } from "./use-held-complexes";
 import { type LinkageFolding, useLinkageFolding } from "./use-linkage-folding";
-import { useStable } from "./use-stable";
+import { useStable, useStableArray } from "./use-stable";
 
 export type { ComplexGraphReport } from "./graph-model";
 export type { CaretStep } from "./graph-focus";
@@ -207,7 +207,7 @@ function SharedComplexGraph({
 
   // Selection, co-authors' holds and emphasis are laid over the nodes last; a node keeps its
   // object when none changed, so React Flow does not redraw it.
-  const shownNodes = useMemo(() => {
+  const builtNodes = useMemo(() => {
     const lit = (complexes: readonly number[]) =>
       complexes.some((complex) => emphasis.caret?.complexes.has(complex) || emphasis.focus?.complexes.has(complex));
     const dim = (complexes: readonly number[]) => Boolean(emphasis.focus) && !complexes.some((complex) => emphasis.focus?.complexes.has(complex));
@@ -225,6 +225,7 @@ function SharedComplexGraph({
       return { ...node, selected: chosen, data: { ...node.data, heldBy, ...emphasised } };
     });
   }, [nodes, selected, held, emphasis, model, report]);
+  const shownNodes = useStableArray(builtNodes);
 
   const boxes = useMemo(() => nodeBoxes(nodes), [nodes]);
   // The caret's complexes, or the boxes of the folded classes that hold them.

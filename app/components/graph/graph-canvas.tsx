@@ -2,6 +2,7 @@
 // fitting while the reader has not taken the view, and keeping unchanged items' objects.
 import { getViewportForBounds, useNodesInitialized, useReactFlow, useStore } from "@xyflow/react";
 import { type CSSProperties, useEffect, useRef } from "react";
+import { sameItems } from "./use-stable";
 
 // React Flow's own colours, pointed at Mechweave's theme variables so both themes just work.
 export const themeVariables = {
@@ -45,12 +46,14 @@ export interface FitOptions {
  * the nodes and arrows whose objects are new, which keeps a large graph responsive while co-authors
  * type and drag.
  */
-export function keepUnchanged<T extends { id: string }>(previous: readonly T[], built: T[], same: (old: T, next: T) => boolean): T[] {
+export function keepUnchanged<T extends { id: string }>(previous: T[], built: T[], same: (old: T, next: T) => boolean): T[] {
   const before = new Map(previous.map((item) => [item.id, item]));
-  return built.map((item) => {
+  const kept = built.map((item) => {
     const old = before.get(item.id);
     return old && same(old, item) ? old : item;
   });
+  // The same array when nothing changed: a state setter then skips the render altogether.
+  return sameItems(previous, kept) ? previous : kept;
 }
 
 /**

@@ -5,6 +5,7 @@
 import { applyNodeChanges, Background, BackgroundVariant, Controls, type NodeChange, ReactFlow } from "@xyflow/react";
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { type Arrow, ArrowLayer, edgeLabelZoom, nodeBoxes } from "./arrow-layer";
+import { useStableArray } from "./use-stable";
 import { CentreOnFocus, FitWhileUntouched, type FitOptions, FollowCaret, keepUnchanged, noEditingGestures, themeVariables } from "./graph-canvas";
 import type { Emphasis } from "./graph-focus";
 import type { XY } from "./layout";
@@ -113,7 +114,7 @@ export function SpeciesStepGraph({ model: whole, hubs, choice, emphasis }: Props
     return ids;
   }, [focusIds, emphasis.caret, idsOf]);
 
-  const shownNodes = useMemo(() => {
+  const builtNodes = useMemo(() => {
     const focused = new Set(focusIds);
     return nodes.map((node) => {
       const lit = litIds.has(node.id);
@@ -122,6 +123,7 @@ export function SpeciesStepGraph({ model: whole, hubs, choice, emphasis }: Props
       return { ...node, data: { ...node.data, lit, dim } } as SpeciesStepNode;
     });
   }, [nodes, litIds, focusIds, emphasis.focus, narrowed]);
+  const shownNodes = useStableArray(builtNodes);
 
   const arrows = useMemo(
     () =>
