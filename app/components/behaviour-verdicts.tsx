@@ -2,7 +2,7 @@
 // one class, species dying out (siphons), robust concentrations, complex balance for the given
 // coefficients. Each verdict in words with the hypotheses it rests on. Presentational.
 import type { ReactNode } from "react";
-import type { AnalysisReport } from "~/chem/analysis";
+import type { RoomReport } from "~/shared/analysis-map";
 import { readableNumberText } from "~/chem/numbers";
 import { WitnessDetails, WitnessSearch } from "./witness-search";
 
@@ -20,7 +20,7 @@ export interface WitnessJobTarget {
   source: () => string;
 }
 
-export function BehaviourVerdicts({ report, witnessJob }: { report: AnalysisReport; witnessJob?: WitnessJobTarget }) {
+export function BehaviourVerdicts({ report, witnessJob }: { report: RoomReport; witnessJob?: WitnessJobTarget }) {
   // A report stored before these verdicts existed lacks them until the next recompute.
   if (!report.multistationarity || report.reactions.length === 0) return null;
   return (
@@ -45,7 +45,7 @@ function Card({ title, pill, tone, children }: { title: string; pill: string; to
   );
 }
 
-function Multistationarity({ report, witnessJob }: { report: AnalysisReport; witnessJob?: WitnessJobTarget }) {
+function Multistationarity({ report, witnessJob }: { report: RoomReport; witnessJob?: WitnessJobTarget }) {
   const { verdict, reason, witness } = report.multistationarity;
   const tone: Tone = verdict === "excluded" ? "ok" : verdict === "possible" ? "warn" : "muted";
   return (
@@ -57,7 +57,7 @@ function Multistationarity({ report, witnessJob }: { report: AnalysisReport; wit
   );
 }
 
-function Persistence({ report }: { report: AnalysisReport }) {
+function Persistence({ report }: { report: RoomReport }) {
   const { criterionHolds, conclusion } = report.persistence;
   const pill = criterionHolds === null ? "undecided" : criterionHolds ? "persistent" : "criterion fails";
   return (
@@ -72,7 +72,7 @@ function Persistence({ report }: { report: AnalysisReport }) {
   );
 }
 
-function Robustness({ report }: { report: AnalysisReport }) {
+function Robustness({ report }: { report: RoomReport }) {
   const found = report.acr.length > 0;
   return (
     <Card title="Concentrations independent of the totals" pill={found ? report.acr.join(", ") : "none shown"} tone={found ? "ok" : "muted"}>
@@ -81,7 +81,7 @@ function Robustness({ report }: { report: AnalysisReport }) {
   );
 }
 
-function ComplexBalance({ report }: { report: AnalysisReport }) {
+function ComplexBalance({ report }: { report: RoomReport }) {
   const balance = report.complexBalance;
   const pill = !balance.applicable ? "not applicable" : balance.satisfied === null ? "coefficients missing" : balance.satisfied ? "holds" : "fails";
   const tone: Tone = !balance.applicable || balance.satisfied === null ? "muted" : balance.satisfied ? "ok" : "warn";

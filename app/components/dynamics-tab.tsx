@@ -4,7 +4,7 @@
 // text with the panel's overrides (`T=1100`, `[A]0=2e-3`) in place of the values it declares.
 import { useMemo, useState } from "react";
 import type * as Y from "yjs";
-import type { AnalysisReport } from "~/chem/analysis";
+import type { RoomReport } from "~/shared/analysis-map";
 import { CsvError, readMeasuredCsv, residuals, simulationCsv, type MeasuredCourses } from "~/chem/kinetics/csv";
 import type { EquilibriumResult } from "~/chem/kinetics/equilibrium";
 import type { Method } from "~/chem/kinetics/integrator";
@@ -35,7 +35,7 @@ export type JobInput = () => { source: string; overrides?: Settings };
 interface Props {
   mechanismId: string;
   source: Y.Text | null;
-  report: AnalysisReport | null;
+  report: RoomReport | null;
 }
 
 export function DynamicsTab({ mechanismId, source, report }: Props) {
@@ -222,7 +222,7 @@ function LyapunovCard({ mechanismId, input }: { mechanismId: string; input: JobI
 
 const observableNames = { final: "final value", max: "maximum", period: "period" } as const;
 
-function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: string; text: () => string; input: JobInput; report: AnalysisReport | null; until: number }) {
+function SweepCard({ mechanismId, text, input, report, until }: { mechanismId: string; text: () => string; input: JobInput; report: RoomReport | null; until: number }) {
   const job = useDynamicsJob<SweepResult>(dynamicsUrl(mechanismId));
   const species = report?.species ?? [];
   const [observed, setObserved] = useState("");

@@ -5,7 +5,7 @@
 import katex from "katex";
 import "katex/dist/katex.min.css";
 import { useMemo, type ReactNode } from "react";
-import type { AnalysisReport } from "~/chem/analysis";
+import type { RoomEquations, RoomReport } from "~/shared/analysis-map";
 import { BehaviourVerdicts, type WitnessJobTarget } from "./behaviour-verdicts";
 import { denseStoichiometricMatrix } from "~/chem/stoichiometry";
 import { combinationLatex } from "~/chem/expression";
@@ -15,7 +15,14 @@ import type { TheoremVerdict } from "~/chem/theorems";
 /** Typesetting thousands of formulas would stall the page; beyond this many the rest are counted. */
 const shownFormulas = 200;
 
-export function StructurePanel({ report, witnessJob }: { report: AnalysisReport; witnessJob?: WitnessJobTarget }) {
+export interface StructurePanelProps {
+  report: RoomReport;
+  /** The room sends them apart from the report; null until they have been read. */
+  equations: RoomEquations | null;
+  witnessJob?: WitnessJobTarget;
+}
+
+export function StructurePanel({ report, equations, witnessJob }: StructurePanelProps) {
   const { species, complexes, reactions } = report;
   return (
     <section className="card space-y-5 p-5 text-ink" aria-label="Structure">
@@ -69,7 +76,11 @@ export function StructurePanel({ report, witnessJob }: { report: AnalysisReport;
 
       {species.length > 0 && (
         <Section title="Induced kinetic differential equations">
-          <Formulas latex={species.map((name) => report.odesLatex[name])} titles={species.map((name) => coefficientValues(report, name))} wrap />
+          {equations ? (
+            <Formulas latex={species.map((name) => equations.odesLatex[name])} titles={species.map((name) => coefficientValues(report, equations, name))} wrap />
+          ) : (
+            <p className="text-sm text-muted">Reading the equations…</p>
+          )}
           {report.customLaws.length > 0 && (
             <p className="mt-2 rounded-md bg-signal-soft px-3 py-2 text-sm text-signal">
               Not mass action: {report.customLaws.map(({ reaction, law, lines }) => `${reactionText(report, reaction)} uses ${law} (line ${lines.join(", ")})`).join("; ")}.
@@ -103,7 +114,7 @@ export function StructurePanel({ report, witnessJob }: { report: AnalysisReport;
   );
 }
 
-function compatibilityClassText(report: AnalysisReport): string {
+function compatibilityClassText(report: RoomReport): string {
   const { dimension, totals } = report.compatibilityClass;
   const n = report.species.length;
   const directions = `${dimension} independent direction${dimension === 1 ? "" : "s"}`;
@@ -122,7 +133,7 @@ function Stat({ label, value, emphasis }: { label: string; value: number; emphas
   );
 }
 
-function Flags({ report }: { report: AnalysisReport }) {
+function Flags({ report }: { report: RoomReport }) {
   const flag = (label: string, on: boolean) => (
     <span className={`pill ${on ? "bg-accent-soft text-accent" : "border border-line text-muted"}`}>
       {on ? label : `not ${label}`}
@@ -146,7 +157,7 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-function Diagnostics({ report }: { report: AnalysisReport }) {
+function Diagnostics({ report }: { report: RoomReport }) {
   if (report.diagnostics.length === 0) return null;
   return (
     <ul className="space-y-1 text-sm" aria-label="Diagnostics">
@@ -180,7 +191,7 @@ function Verdict({ title, verdict }: { title: string; verdict: TheoremVerdict })
 }
 
 /** Each linkage class with its strong linkage classes as groups; terminal groups are marked. */
-function LinkageClasses({ report }: { report: AnalysisReport }) {
+function LinkageClasses({ report }: { report: RoomReport }) {
   const terminal = new Set(report.terminalStrongLinkageClasses.map((members) => members[0]));
   const classOf = new Map<number, number>();
   report.linkageClasses.forEach((members, index) => members.forEach((complex) => classOf.set(complex, index)));
@@ -245,21 +256,21 @@ function Formulas({ latex, titles, wrap = false }: { latex: string[]; titles?: s
 const hangingIndent = { paddingLeft: "2em", textIndent: "-2em" } as const;
 
 /** "k1 = 2.5×10⁹, k7 = 0.3": the values behind the names in one species' equation. */
-function coefficientValues(report: AnalysisReport, species: string): string {
-  const names = new Set(report.odes[species]?.replace(/"[^"]*"/g, "").match(/[A-Za-z][A-Za-z0-9_]*/g));
+function coefficientValues(report: RoomReport, equations: RoomEquations, species: string): string {
+  const names = new Set(equations.odes[species]?.replace(/"[^"]*"/g, "").match(/[A-Za-z][A-Za-z0-9_]*/g));
   return Object.entries(report.parameters)
     .filter(([name]) => names.has(name))
     .map(([name, value]) => `${name} = ${readableNumberText(value)}`)
     .join(", ");
 }
 
-function reactionText(report: AnalysisReport, index: number): string {
+function reactionText(report: RoomReport, index: number): string {
   const { from, to } = report.reactions[index];
   return `${report.complexes[from]} → ${report.complexes[to]}`;
 }
 
 /** Folded away by default: the matrix header already names each column. */
-function ReactionList({ report }: { report: AnalysisReport }) {
+function ReactionList({ report }: { report: RoomReport }) {
   const custom = new Set(report.customLaws.map(({ reaction }) => reaction));
   return (
     <details className="mb-2 text-sm">
@@ -282,7 +293,7 @@ function ReactionList({ report }: { report: AnalysisReport }) {
 /** A bigger table is more scrolling than reading; the CSV export holds every entry. */
 const matrixTableEntryLimit = 20_000;
 
-function StoichiometricMatrix({ report }: { report: AnalysisReport }) {
+function StoichiometricMatrix({ report }: { report: RoomReport }) {
   const { species, reactions } = report;
   const matrix = useMemo(() => (species.length * reactions.length <= matrixTableEntryLimit ? denseStoichiometricMatrix(report) : null), [report]);
   if (!matrix) {
@@ -323,7 +334,7 @@ function StoichiometricMatrix({ report }: { report: AnalysisReport }) {
   );
 }
 
-function DetailedBalanceConditions({ report }: { report: AnalysisReport }) {
+function DetailedBalanceConditions({ report }: { report: RoomReport }) {
   const balance = report.detailedBalance;
   const verdict =
     balance.satisfied === null ? null : balance.satisfied ? (

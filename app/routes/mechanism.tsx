@@ -1,6 +1,6 @@
 import { startTransition, useDeferredValue, useMemo, useRef, useState } from "react";
 import type * as Y from "yjs";
-import type { AnalysisReport } from "~/chem/analysis";
+import type { RoomReport } from "~/shared/analysis-map";
 import type { XY } from "~/components/graph/layout";
 import { Form, Link, redirect, useNavigation } from "react-router";
 import { deleteMechanism, renameMechanism } from "~/utils/mechanisms.server";
@@ -20,7 +20,7 @@ import { requireRole, requireViewAccess } from "~/utils/permissions.server";
 import { stepRangesFor } from "~/utils/step-ranges";
 import { complexGraphSvg, currentThemeColours } from "~/utils/graph-svg";
 import { PictureDownloads } from "~/components/picture-downloads";
-import { useRoom } from "~/utils/use-room";
+import { useRoom, useRoomEquations } from "~/utils/use-room";
 import type { Route } from "./+types/mechanism";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.mechanism.title ?? "Mechanism"} · Mechweave` }];
@@ -72,6 +72,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   // The panels follow the analysis at low priority: React renders them in slices between
   // keystrokes instead of in one block that would hold up the editor at every new report.
   const shownReport = useDeferredValue(report);
+  const equations = useDeferredValue(useRoomEquations(room.doc, tab === "Structure"));
   // A view-link guest sees the live mechanism and nothing else: no files, no settings, no fits.
   // Data sets and fits are read over the API, which a view link does not open.
   const tabs = signedIn ? allTabs : allTabs.filter((name) => name !== "Files & settings" && name !== "Fit");
@@ -144,7 +145,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
               onSelect={(selection) => editor.current?.highlight(source ? stepRangesFor(source.toString(), selection) : [])}
             />
           )}
-          {tab === "Structure" && (shownReport ? <StructurePanel report={shownReport} witnessJob={{ mechanismId: mechanism.id, source: () => source?.toString() ?? mechanism.source }} /> : !room.analysis.failure && <Waiting />)}
+          {tab === "Structure" && (shownReport ? <StructurePanel report={shownReport} equations={equations} witnessJob={{ mechanismId: mechanism.id, source: () => source?.toString() ?? mechanism.source }} /> : !room.analysis.failure && <Waiting />)}
           {tab === "Dynamics" && <DynamicsTab mechanismId={mechanism.id} source={source} report={report} />}
           {tab === "Fit" && <FitPanel mechanismId={mechanism.id} source={source} doc={room.doc} report={report} canEdit={canEdit} />}
           {tab === "Files & settings" && (
@@ -156,7 +157,7 @@ export default function MechanismPage({ loaderData, actionData }: Route.Componen
   );
 }
 
-function GraphDownloads({ report, layout, title }: { report: AnalysisReport; layout: Y.Map<unknown>; title: string }) {
+function GraphDownloads({ report, layout, title }: { report: RoomReport; layout: Y.Map<unknown>; title: string }) {
   const svg = () => complexGraphSvg(report, layout.toJSON() as Record<string, XY>, currentThemeColours());
   const name = title.replace(/[^\w.-]+/g, "-") || "complex-graph";
   return (

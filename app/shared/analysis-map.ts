@@ -1,15 +1,18 @@
-// The room's server-written `analysis` map as clients read it. The full report travels under
-// `report` as raw-deflated JSON (packed by the server, server/collab/analysis-entries.ts): a fifth of the bytes of its text (14 KB instead of 58 KB for a
-// 200-step mechanism), sent to every member on every structural change, and still far cheaper for
-// a client to read than Yjs decoding a large nested value. A reader unpacks it only when it changed.
+// The room's server-written `analysis` map as clients read it. The report travels as raw-deflated
+// JSON (packed by the server, server/collab/analysis-entries.ts): a fifth of the bytes of its text,
+// sent to every member on every structural change, and still far cheaper for a client to read than
+// Yjs decoding a large nested value. Its equations travel apart under `equations`, unpacked only by
+// a reader who shows them. A reader unpacks each only when it changed.
 import { inflateSync, strFromU8 } from "fflate";
 import type * as Y from "yjs";
 import type { AnalysisReport } from "~/chem/analysis";
 
 /** The map's keys besides the counts, which the server reads back and rewrites. */
 export const analysisFields = {
-  /** The packed report. */
+  /** The packed report, without its equations. */
   report: "report",
+  /** The packed equations, apart: the graph and most panels never read them. */
+  equations: "equations",
   /** A digest of the text analysed: the stored analysis belongs to the text when it matches. */
   digest: "digest",
   /** Grows with every recompute, across reloads. */
@@ -17,6 +20,14 @@ export const analysisFields = {
   /** Why the current text has no analysis. */
   failure: "failure",
 } as const;
+
+/**
+ * The equations of a report: at 500 steps half its bytes (the typeset ones alone 88 of 215 KB),
+ * which every member would otherwise unpack on every keystroke's report.
+ */
+export type RoomEquations = Pick<AnalysisReport, "odes" | "odesLatex">;
+/** The report as a room sends it: everything but the equations. */
+export type RoomReport = Omit<AnalysisReport, keyof RoomEquations>;
 
 /** The map's values (empty until the server's first recompute arrives). */
 export interface RoomAnalysis {
@@ -27,13 +38,14 @@ export interface RoomAnalysis {
   species?: number;
   errors?: number;
   revision?: number;
-  report?: AnalysisReport;
+  report?: RoomReport;
   /** Why the current text has no analysis (it ran over the time limit, say); absent once one succeeds. */
   failure?: string;
 }
 
-export function unpackReport(packed: Uint8Array): AnalysisReport {
-  return JSON.parse(strFromU8(inflateSync(packed))) as AnalysisReport;
+/** A packed value of the map (the server packs them, server/collab/analysis-entries.ts). */
+export function unpack<T>(packed: Uint8Array): T {
+  return JSON.parse(strFromU8(inflateSync(packed))) as T;
 }
 
 /**
@@ -42,52 +54,78 @@ export function unpackReport(packed: Uint8Array): AnalysisReport {
  * bytes reach it as a response body, not a Blob, whose registration with the browser process cost
  * about 2 ms of the page's thread per 40 KB report.
  */
-export async function unpackReportNatively(packed: Uint8Array): Promise<AnalysisReport> {
-  if (typeof DecompressionStream === "undefined") return unpackReport(packed);
+export async function unpackNatively<T>(packed: Uint8Array): Promise<T> {
+  if (typeof DecompressionStream === "undefined") return unpack<T>(packed);
   const inflated = new Response(packed as Uint8Array<ArrayBuffer>).body!.pipeThrough(new DecompressionStream("deflate-raw"));
-  return JSON.parse(await new Response(inflated).text()) as AnalysisReport;
+  return JSON.parse(await new Response(inflated).text()) as T;
 }
 
 /**
- * Calls `onRead` with the map's values now and after every change, each time the report is
- * unpacked (only when it changed, by the platform's inflate). Counts and report always arrive
- * together, and a read overtaken by a newer change is dropped. Returns the unsubscribe.
+ * Unpacks the newest of a series of packed values, by the platform's inflate: the same bytes
+ * object only once, and a read overtaken by a newer one is dropped. A value that is not packed,
+ * or does not unpack (an editor's crafted value, put back by the server within moments), reads as
+ * undefined.
+ */
+function newestUnpacked<T>() {
+  let last: { packed: Uint8Array; value: T | undefined } | null = null;
+  // Tickets start at 1: after `stop` (-1) no read under way settles.
+  let newest = 0;
+  return {
+    read(packed: unknown, settle: (value: T | undefined) => void) {
+      const ticket = ++newest;
+      if (!(packed instanceof Uint8Array)) {
+        last = null;
+        return settle(undefined);
+      }
+      if (packed === last?.packed) return settle(last.value);
+      const done = (value: T | undefined) => {
+        if (ticket !== newest) return;
+        last = { packed, value };
+        settle(value);
+      };
+      unpackNatively<T>(packed).then(done, () => done(undefined));
+    },
+    stop: () => void (newest = -1),
+  };
+}
+
+/**
+ * Calls `onRead` with the map's counts and report now and after every change, the report unpacked
+ * only when it changed. Counts and report always arrive together. Returns the unsubscribe.
  */
 export function watchRoomAnalysis(map: Y.Map<unknown>, onRead: (analysis: RoomAnalysis) => void): () => void {
-  let lastPacked: Uint8Array | null = null;
-  let lastReport: AnalysisReport | undefined;
-  let newest = 0;
+  const reports = newestUnpacked<RoomReport>();
   const read = () => {
-    const ticket = ++newest;
-    const { packed, counts } = mapValues(map);
-    if (!(packed instanceof Uint8Array)) {
-      [lastPacked, lastReport] = [null, undefined];
-      return onRead(counts);
-    }
-    if (packed === lastPacked) return onRead({ ...counts, report: lastReport });
-    const settle = (report: AnalysisReport | undefined) => {
-      if (ticket !== newest) return;
-      [lastPacked, lastReport] = [packed, report];
-      onRead({ ...counts, report });
-    };
-    // As in the reader below: a crafted value shows no report until the server puts it back.
-    unpackReportNatively(packed).then(settle, () => settle(undefined));
+    const { report, counts } = mapValues(map);
+    reports.read(report, (unpacked) => onRead(unpacked ? { ...counts, report: unpacked } : counts));
   };
   map.observe(read);
   read();
   return () => {
-    // Tickets start at 1: no read under way settles after this.
-    newest = -1;
+    reports.stop();
     map.unobserve(read);
+  };
+}
+
+/** Calls `onRead` with the room's equations now and whenever they change (null: none yet). Returns the unsubscribe. */
+export function watchRoomEquations(map: Y.Map<unknown>, onRead: (equations: RoomEquations | null) => void): () => void {
+  const equations = newestUnpacked<RoomEquations>();
+  const read = () => equations.read(map.get(analysisFields.equations), (unpacked) => onRead(unpacked ?? null));
+  const onChange = (event: Y.YMapEvent<unknown>) => event.keysChanged.has(analysisFields.equations) && read();
+  map.observe(onChange);
+  read();
+  return () => {
+    equations.stop();
+    map.unobserve(onChange);
   };
 }
 
 /** A reader of the map that unpacks the report only when it changed since the last read. */
 export function roomAnalysisReader(): (map: Y.Map<unknown>) => RoomAnalysis {
   let lastPacked: Uint8Array | null = null;
-  let lastReport: AnalysisReport | undefined;
+  let lastReport: RoomReport | undefined;
   return (map) => {
-    const { packed, counts } = mapValues(map);
+    const { report: packed, counts } = mapValues(map);
     if (!(packed instanceof Uint8Array)) {
       lastPacked = null;
       lastReport = undefined;
@@ -96,7 +134,7 @@ export function roomAnalysisReader(): (map: Y.Map<unknown>) => RoomAnalysis {
       // Only the server writes the map; an editor's crafted value is put back within moments,
       // and until then the reader shows no report rather than failing.
       try {
-        lastReport = unpackReport(packed);
+        lastReport = unpack<RoomReport>(packed);
       } catch {
         lastReport = undefined;
       }
@@ -105,7 +143,7 @@ export function roomAnalysisReader(): (map: Y.Map<unknown>) => RoomAnalysis {
   };
 }
 
-function mapValues(map: Y.Map<unknown>): { packed: unknown; counts: Omit<RoomAnalysis, "report"> } {
-  const { report: packed, ...counts } = Object.fromEntries(map.entries()) as Record<string, unknown>;
-  return { packed, counts };
+function mapValues(map: Y.Map<unknown>): { report: unknown; counts: Omit<RoomAnalysis, "report"> } {
+  const { report, [analysisFields.equations]: _equations, ...counts } = Object.fromEntries(map.entries()) as Record<string, unknown>;
+  return { report, counts };
 }

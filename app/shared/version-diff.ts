@@ -27,7 +27,7 @@ export interface BehaviourVerdicts {
   robust: string[];
 }
 
-export function summarizeStructure(report: AnalysisReport): StructureSummary {
+export function summarizeStructure(report: Omit<AnalysisReport, "odes" | "odesLatex">): StructureSummary {
   return {
     species: report.species.length,
     speciesNames: report.species,

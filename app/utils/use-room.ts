@@ -4,7 +4,7 @@ import { useEffect, useState } from "react";
 import type { Awareness } from "y-protocols/awareness";
 import { WebsocketProvider } from "y-websocket";
 import * as Y from "yjs";
-import { type RoomAnalysis, watchRoomAnalysis } from "~/shared/analysis-map";
+import { type RoomAnalysis, type RoomEquations, watchRoomAnalysis, watchRoomEquations } from "~/shared/analysis-map";
 import { analysisMap, presenceFields, readPresence } from "~/shared/room-document";
 import { MESSAGE_REFUSED, readRefusal } from "~/shared/room-refusal";
 import type { Role } from "~/shared/roles";
@@ -196,4 +196,22 @@ function peersOf(awareness: Awareness): Peer[] {
     peers.push({ clientId, name: user.name, colour: user.colour ?? peerPalette[0], role: user.role ?? "viewer" });
   });
   return peers.sort((a, b) => a.clientId - b.clientId);
+}
+
+/**
+ * The room's equations while `wanted` (the panel that shows them is open), read whenever they
+ * change; null before the first read. They travel apart from the report, so a page that does not
+ * show them never unpacks them.
+ */
+export function useRoomEquations(doc: Y.Doc | null, wanted: boolean): RoomEquations | null {
+  const [equations, setEquations] = useState<RoomEquations | null>(null);
+  useEffect(() => {
+    if (!doc || !wanted) return;
+    const stop = watchRoomEquations(analysisMap(doc), setEquations);
+    return () => {
+      stop();
+      setEquations(null);
+    };
+  }, [doc, wanted]);
+  return equations;
 }

@@ -12,6 +12,9 @@ import type { Analyzer } from "./analysis-entries";
 import { Pacer } from "./pacer";
 import { peerOrigin } from "./update-log";
 
+/** The map's packed values, each written only when its bytes changed. */
+const packedFields = [analysisFields.report, analysisFields.equations] as const;
+
 /** The transaction origin of the server's own writes into the document. */
 export const analysisOrigin = Symbol("mechweave-analysis");
 
@@ -32,9 +35,9 @@ export class StructureRecompute {
   private disposed = false;
   private readonly text: Y.Text;
   private readonly analysis: Y.Map<unknown>;
-  /** Values last written, so unchanged ones are not re-sent to every client: counts as JSON text, and the packed report. */
+  /** Values last written, so unchanged ones are not re-sent to every client: counts as JSON text, and the packed values. */
   private readonly written = new Map<string, string>();
-  private writtenReport: Uint8Array | null = null;
+  private readonly writtenPacked = new Map<string, Uint8Array>();
   latest: AnalysisResult | null = null;
   private lastDurationMs = 0;
 
@@ -50,7 +53,7 @@ export class StructureRecompute {
     this.text = sourceText(doc);
     this.analysis = analysisMap(doc);
     for (const [key, value] of this.analysis.entries()) {
-      if (value instanceof Uint8Array) this.writtenReport = value;
+      if (value instanceof Uint8Array) this.writtenPacked.set(key, value);
       else this.written.set(key, JSON.stringify(value));
     }
     const stored = roomAnalysisReader()(this.analysis).report;
@@ -75,7 +78,11 @@ export class StructureRecompute {
 
   /** True when the stored analysis belongs to a different text, or there is none in today's form. */
   get stale(): boolean {
-    return this.analysis.get(analysisFields.digest) !== sourceDigest(this.text.toString()) || !(this.analysis.get(analysisFields.report) instanceof Uint8Array);
+    return (
+      this.analysis.get(analysisFields.digest) !== sourceDigest(this.text.toString()) ||
+      // A room stored before the equations travelled apart has none yet.
+      packedFields.some((field) => !(this.analysis.get(field) instanceof Uint8Array))
+    );
   }
 
   /**
@@ -102,8 +109,10 @@ export class StructureRecompute {
 
   /** Rewrites keys a client changed, with the server's values. */
   private repair(keys: string[]) {
-    for (const key of keys) this.written.delete(key);
-    if (keys.includes(analysisFields.report)) this.writtenReport = null;
+    for (const key of keys) {
+      this.written.delete(key);
+      this.writtenPacked.delete(key);
+    }
     void this.enqueue(true);
   }
 
@@ -140,9 +149,12 @@ export class StructureRecompute {
         this.analysis.set(key, JSON.parse(serialised));
         this.written.set(key, serialised);
       }
-      if (!this.writtenReport || !Buffer.from(outcome.report).equals(this.writtenReport)) {
-        this.analysis.set(analysisFields.report, outcome.report);
-        this.writtenReport = outcome.report;
+      for (const field of packedFields) {
+        const packed = outcome[field];
+        const written = this.writtenPacked.get(field);
+        if (written && Buffer.from(packed).equals(written)) continue;
+        this.analysis.set(field, packed);
+        this.writtenPacked.set(field, packed);
       }
     }, analysisOrigin);
     this.latest = { source, summary: outcome.summary, complexes: outcome.complexes, revision };

@@ -112,6 +112,15 @@ function quiet(page: Page, ms: number) {
 }
 
 const sum = (values: number[]) => values.reduce((total, value) => total + value, 0);
+/** The five slowest keystrokes as "61 ms at 'X'". */
+const slowest = (paints: number[]) =>
+  paints
+    .map((ms, index) => ({ ms, key: JSON.stringify(typed[index]) }))
+    .sort((a, b) => b.ms - a.ms)
+    .slice(0, 5)
+    .map(({ ms, key }) => `${ms.toFixed(0)} ms at ${key}`)
+    .join(", ");
+const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)];
 const p95 = (values: number[]) => [...values].sort((a, b) => a - b)[Math.ceil(values.length * 0.95) - 1];
 
 // Runs with TYPING_BENCHMARK=1. The targets are on wall time, which this shared machine's load
@@ -128,7 +137,7 @@ it.runIf(process.env.TYPING_BENCHMARK === "1")("types as fast into 500 steps as 
   const demoLongest = Math.max(0, ...small.longTasks);
   console.log(
     `typing: key-to-paint p95 ${p95(small.paints).toFixed(0)} ms (3 steps), ${p95(large.paints).toFixed(0)} ms (500 steps), ` +
-      `ratio ${ratio.toFixed(2)}; longest task while typing ${longest.toFixed(0)} ms at 500 steps, ${demoLongest.toFixed(0)} ms at 3 steps ` +
+      `ratio ${ratio.toFixed(2)} (medians ${median(small.paints).toFixed(0)} / ${median(large.paints).toFixed(0)} ms; 500 steps, slowest keys ${slowest(large.paints)}); longest task while typing ${longest.toFixed(0)} ms at 500 steps, ${demoLongest.toFixed(0)} ms at 3 steps ` +
       `(3 steps: ${small.longTasks.length} long tasks, 500 steps: ${large.longTasks.length}); ` +
       `graph shown ${small.graphShown.toFixed(0)} ms after navigation (3 steps), ${large.graphShown.toFixed(0)} ms (500 steps); ` +
       // Wall-clock tasks swell with the machine's load; the main thread's CPU time does not.

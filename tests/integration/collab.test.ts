@@ -7,7 +7,7 @@ import * as encoding from "lib0/encoding";
 import * as awarenessProtocol from "y-protocols/awareness";
 import * as Y from "yjs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import { roomAnalysisReader } from "../../app/shared/analysis-map";
+import { type RoomEquations, roomAnalysisReader, unpack } from "../../app/shared/analysis-map";
 import { eventually, joinRoom, rawSocket, storedDocument, type RoomClient } from "../support/collab-client";
 import { addMember, Client, createMechanism, memberUserId, signUp } from "../support/http";
 import { startTestServer } from "../support/server";
@@ -392,6 +392,10 @@ describe("live co-editing", () => {
     // The full report travels packed (app/shared/analysis-map.ts).
     const { report } = roomAnalysisReader()(viewerRoom.analysis);
     expect(report?.complexes).toContain("X + Y");
+    // The equations travel apart, for the panel that shows them.
+    expect(report).not.toHaveProperty("odes");
+    const equations = unpack<RoomEquations>(viewerRoom.analysis.get("equations") as Uint8Array);
+    expect(Object.keys(equations.odesLatex).sort()).toEqual(["X", "Y"]);
 
     // Only the server writes the analysis: an editor's write to it is refused, a deletion put back.
     const deficiency = viewerRoom.analysis.get("deficiency");

@@ -3,7 +3,7 @@
 // sensitivities and rates of production that tell which parameters the data can pin down.
 import { useMemo, useState } from "react";
 import type * as Y from "yjs";
-import type { AnalysisReport } from "~/chem/analysis";
+import type { RoomReport } from "~/shared/analysis-map";
 import { parseMechanism } from "~/chem/parse";
 import { TimeAgo } from "~/components/time-ago";
 import { DataSetsCard } from "./data-sets-card";
@@ -17,7 +17,7 @@ interface Props {
   source: Y.Text | null;
   doc: Y.Doc | null;
   /** Changes with every analysis, so the parameter list follows the text. */
-  report: AnalysisReport | null;
+  report: RoomReport | null;
   canEdit: boolean;
 }
 
