@@ -112,7 +112,8 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, 
   // A witness search reads the rate coefficients, so its verdict is never taken from the memo.
   const search = { ms: options.witnessSearchMs ?? 0, samples: options.witnessSamples, onProgress: options.onWitnessProgress };
   const shape = await (options.shapes && search.ms <= 0 ? options.shapes.get(network) : networkShape(network, search));
-  const { linkage, conservationLaws, stoichiometricRank, deficiency, reversible, weaklyReversible, theorems, siphonVerdict, robustness } = shape;
+  const { linkage, conservationLaws, stoichiometricRank, deficiency, linkageClassDeficiencies, reversible, weaklyReversible, theorems } = shape;
+  const { massConserving, multistationarity, siphonVerdict, robustness } = shape;
   const odes = inducedOdes(network);
   const namesOf = (members: number[]) => members.map((index) => species[index]);
 
@@ -126,7 +127,7 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, 
     terminalStrongLinkageClasses: linkage.terminalStrongLinkageClasses,
     rank: stoichiometricRank,
     deficiency,
-    linkageClassDeficiencies: shape.linkageClassDeficiencies,
+    linkageClassDeficiencies,
     reversible,
     weaklyReversible,
     conservationLaws,
@@ -134,10 +135,10 @@ export async function analyzeMechanism({ mechanism, diagnostics }: ParseResult, 
       dimension: stoichiometricRank,
       totals: conservationLaws.map((law) => law.reduce((total, weight, i) => total + weight * (mechanism.initial[species[i]] ?? 0), 0)),
     },
-    massConserving: shape.massConserving,
+    massConserving,
     theorems,
     odes: odes.text,
-    multistationarity: shape.multistationarity,
+    multistationarity,
     siphons: siphonVerdict.siphons?.map(namesOf) ?? null,
     acr: robustness.species,
     balance: elementBalance(mechanism),

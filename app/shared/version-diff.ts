@@ -2,6 +2,7 @@
 // invariants in words. Pure, so the History page can run it in the browser.
 import { diffLines } from "diff";
 import type { AnalysisReport } from "~/chem/analysis";
+import type { RoomReport } from "./analysis-map";
 
 /** The invariants stored with every snapshot (snapshots.summary). */
 export interface StructureSummary {
@@ -27,7 +28,7 @@ export interface BehaviourVerdicts {
   robust: string[];
 }
 
-export function summarizeStructure(report: Omit<AnalysisReport, "odes" | "odesLatex">): StructureSummary {
+export function summarizeStructure(report: RoomReport): StructureSummary {
   return {
     species: report.species.length,
     speciesNames: report.species,
